@@ -1,0 +1,143 @@
+"""Input errors and non-fatal notes.
+
+:class:`InputError` is raised for impossible input; its message names the input, the value
+and what is allowed.  Doubtful-but-possible findings travel on results as :class:`Note`
+objects (never as printed warnings), so every face of the program can show them.
+"""
+
+from __future__ import annotations
+
+import difflib
+from dataclasses import dataclass
+from typing import Literal
+
+import numpy as np
+
+__all__ = [
+    "InputError",
+    "Note",
+    "as_float_array",
+    "check_choice",
+    "check_finite",
+    "check_nonnegative",
+    "check_positive",
+    "check_range",
+]
+
+
+def _fmt(value) -> str:
+    if isinstance(value, float):
+        return f"{value:.6g}"
+    if isinstance(value, np.ndarray) and value.size > 6:
+        return f"array of {value.size} values"
+    return repr(value)
+
+
+class InputError(ValueError):
+    """Impossible input.  ``name``: which input; ``value``: what was given; ``allowed``: what is.
+
+    >>> str(InputError("flow rate", -5.0, "> 0 gpm"))
+    'flow rate = -5: not allowed; allowed: > 0 gpm'
+    """
+
+    def __init__(self, name: str, value, allowed: str, problem: str = "not allowed"):
+        self.name = name
+        self.value = value
+        self.allowed = allowed
+        self.problem = problem
+        super().__init__(f"{name} = {_fmt(value)}: {problem}; allowed: {allowed}")
+
+
+@dataclass(frozen=True)
+class Note:
+    """A non-fatal finding attached to a result.
+
+    level   ``"info"`` (an interpretation made), ``"warning"`` (doubtful input or result) or
+            ``"caution"`` (a safety-relevant finding: ECD near fracture, swab near pore …).
+    code    stable machine identifier, e.g. ``"transitional_flow"``.
+    message one plain sentence for the user.
+    subject the input, interval or depth it concerns (may be empty).
+    """
+
+    level: Literal["info", "warning", "caution"]
+    code: str
+    message: str
+    subject: str = ""
+
+    def __str__(self) -> str:
+        where = f" [{self.subject}]" if self.subject else ""
+        return f"{self.level.upper()}{where}: {self.message}"
+
+
+def as_float_array(name: str, value) -> np.ndarray:
+    """``value`` as a float array; text or other non-numbers raise :class:`InputError`."""
+    if isinstance(value, str):
+        raise InputError(name, value, "a number")
+    try:
+        arr = np.asarray(value, dtype=float)
+    except (TypeError, ValueError) as exc:
+        raise InputError(name, value, "a number or an array of numbers") from exc
+    return arr
+
+
+def _first_bad(arr: np.ndarray, bad: np.ndarray):
+    idx = np.flatnonzero(bad)[0]
+    return float(arr.ravel()[idx]) if arr.ndim else float(arr)
+
+
+def check_finite(name: str, value, unit: str = "") -> np.ndarray:
+    """Reject NaN and infinities; return the float array."""
+    arr = as_float_array(name, value)
+    bad = ~np.isfinite(arr)
+    if np.any(bad):
+        raise InputError(
+            name, _first_bad(arr, bad), f"a finite number{' in ' + unit if unit else ''}"
+        )
+    return arr
+
+
+def check_positive(name: str, value, unit: str = "") -> np.ndarray:
+    """Require finite values > 0."""
+    arr = check_finite(name, value, unit)
+    bad = arr <= 0
+    if np.any(bad):
+        raise InputError(name, _first_bad(arr, bad), f"> 0{' ' + unit if unit else ''}")
+    return arr
+
+
+def check_nonnegative(name: str, value, unit: str = "") -> np.ndarray:
+    """Require finite values ≥ 0."""
+    arr = check_finite(name, value, unit)
+    bad = arr < 0
+    if np.any(bad):
+        raise InputError(name, _first_bad(arr, bad), f">= 0{' ' + unit if unit else ''}")
+    return arr
+
+
+def check_range(
+    name: str, value, lo: float, hi: float, unit: str = "", *, lo_open=False, hi_open=False
+) -> np.ndarray:
+    """Require lo ≤ value ≤ hi (``lo_open``/``hi_open`` make a bound strict)."""
+    arr = check_finite(name, value, unit)
+    bad = (arr <= lo if lo_open else arr < lo) | (arr >= hi if hi_open else arr > hi)
+    if np.any(bad):
+        lb = "(" if lo_open else "["
+        rb = ")" if hi_open else "]"
+        raise InputError(
+            name, _first_bad(arr, bad), f"in {lb}{lo:g}, {hi:g}{rb}{' ' + unit if unit else ''}"
+        )
+    return arr
+
+
+def check_choice(name: str, value, choices) -> str:
+    """Require ``value`` to be one of ``choices``; suggest the nearest one if not.
+
+    >>> check_choice("method", "api13d_2010", ["api13d_2010", "exact_laminar"])
+    'api13d_2010'
+    """
+    choices = list(choices)
+    if isinstance(value, str) and value in choices:
+        return value
+    near = difflib.get_close_matches(str(value), choices, n=1)
+    hint = f" (did you mean '{near[0]}'?)" if near else ""
+    raise InputError(name, value, "one of " + ", ".join(choices) + hint, problem="unknown")

@@ -1,0 +1,386 @@
+"""Units: the one pint registry, oilfield units, named unit systems, SI at the boundary.
+
+Everything inside :mod:`calc` is SI (m, kg, s, Pa, m³/s, kg/m³, Pa·s, 1/s, K).  Values are
+brought to SI where they enter and taken out where they leave, through :func:`to_si` and
+:func:`from_si`, which use this module's single registry :data:`ureg`.
+
+Oilfield units added to pint's defaults (every factor is exact from the definitions in
+NIST SP 811 (2008), Appendix B: ft = 0.3048 m, in = 0.0254 m, lb = 0.45359237 kg,
+lbf = lb·gₙ, gₙ = 9.80665 m/s², US gal = 231 in³, oil barrel = 42 US gal):
+
+================  ==========================================  ==========================
+name              definition                                  trade spelling accepted
+================  ==========================================  ==========================
+ppg               pound / US gallon                           ppg, lb/gal, lbm/gal
+gpm               US gallon / minute                          gpm, gal/min
+bbl_oil           42 US gallons (pint's ``oil_barrel``)       bbl, bbls
+bpm_oil           oil barrel / minute                         bbl/min, bpm
+lbf_per_100ft_sq        lbf / (100 ft²)                             lbf/100ft2, lb/100ft², #/100ft2
+sg                1000 kg/m³ (specific gravity to water)      sg, SG, s.g.
+in32              inch / 32 (nozzle sizes)                    32nds, /32
+================  ==========================================  ==========================
+
+pint's own names that clash with the trade are *not* redefined (the registry refuses
+redefinitions): pint's ``bbl`` is the 31.5-gallon barrel, ``cp`` is a cup and ``bpm`` would be
+beats per minute.  User text goes through :func:`parse_unit`, which maps the trade spellings
+(``bbl``, ``bbl/min``, ``bpm``, ``cp``) to the oilfield meanings before pint sees them.
+
+Named unit systems (:data:`UNIT_SYSTEMS`): ``"oilfield"`` (US field units), ``"si"`` (strict
+SI) and ``"metric"`` (metric field units: m, mm, kg/m³, bar, L/min, mPa·s, Pa).  Each maps a
+quantity kind (``"pressure"``, ``"density"`` …) to a unit; :func:`unit_for` looks one up.
+
+A consistency index K has units of stress × sⁿ; since the sⁿ part is already SI, K converts
+with the factor of its stress unit (lbf·sⁿ/100 ft² like lbf/100 ft², Pa·sⁿ like Pa).
+"""
+
+from __future__ import annotations
+
+import re
+from functools import lru_cache
+
+import numpy as np
+import pint
+
+from calc.errors import InputError
+
+__all__ = [
+    "G_N",
+    "KINDS",
+    "UNIT_SYSTEMS",
+    "convert",
+    "from_si",
+    "label",
+    "parse_unit",
+    "si_factor",
+    "to_si",
+    "unit_for",
+    "ureg",
+]
+
+#: Standard acceleration of gravity gₙ [m/s²] (CGPM 1901; NIST SP 811 App. B, exact).
+G_N = 9.80665
+
+ureg = pint.UnitRegistry(on_redefinition="raise", autoconvert_offset_to_baseunit=True)
+for _definition in (
+    "ppg = pound / gallon",
+    "gpm = gallon / minute",
+    "bbl_oil = oil_barrel",
+    "bpm_oil = oil_barrel / minute",
+    "lbf_per_100ft_sq = force_pound / (100 * foot ** 2)",
+    "sg = 1000 * kilogram / meter ** 3",
+    "in32 = inch / 32",
+    "ppf = pound / foot",
+    "deg_per_100ft = degree / (100 * foot)",
+    "deg_per_30m = degree / (30 * meter)",
+):
+    ureg.define(_definition)
+
+# Trade spellings → registry expressions.  Applied to whole tokens of the user's text, in order.
+_TEXT_ALIASES: tuple[tuple[str, str], ...] = (
+    (r"lbf?s\^?n/100\s*ft(?:2|²|\^2|\*\*2)", "lbf_per_100ft_sq"),  # K in lbf·sⁿ/100ft²
+    (r"(?:lbf?|#)\s*/\s*100\s*(?:ft|sq\.?\s*ft)(?:2|²|\^2|\*\*2)?", "lbf_per_100ft_sq"),
+    (r"lbm?/gal", "ppg"),
+    (r"bbls?\s*/\s*min", "bpm_oil"),
+    (r"bpm", "bpm_oil"),
+    (r"bbls?", "bbl_oil"),
+    (r"gal\s*/\s*min", "gpm"),
+    (r"lpm", "L/min"),
+    (r"s\.g\.|SG", "sg"),
+    (r"cp|cps", "cP"),
+    (r"mpa[·.*]s|mPa[·.]s", "mPa*s"),
+    (r"pa[·.]s|Pa[·.]s", "Pa*s"),
+    (r"32nds?|/32|1/32\s*in", "in32"),
+    (r"°F|deg\s*F|degF|F°", "degF"),
+    (r"°C|deg\s*C|degC|C°", "degC"),
+    (r"hrs?", "hour"),
+    (r"klbf|klb", "kip"),
+    (r"sec", "second"),
+)
+_ALIAS_RES = tuple(
+    (re.compile(rf"(?<![A-Za-z_]){pat}(?![A-Za-z_0-9])"), rep) for pat, rep in _TEXT_ALIASES
+)
+_POWER_RE = re.compile(r"(?<=[A-Za-z])([23])(?![0-9])")  # ft2 → ft**2, m3 → m**3
+_SUPER = {"²": "**2", "³": "**3", "·": "*", "⋅": "*", "μ": "u", "µ": "u"}
+
+#: Quantity kinds and the SI dimensionality each must have.
+KINDS: dict[str, str] = {
+    "depth": "[length]",
+    "length": "[length]",
+    "diameter": "[length]",
+    "nozzle": "[length]",
+    "density": "[mass] / [length] ** 3",
+    "pressure": "[mass] / [length] / [time] ** 2",
+    "pressure_gradient": "[mass] / [length] ** 2 / [time] ** 2",
+    "flow_rate": "[length] ** 3 / [time]",
+    "velocity": "[length] / [time]",
+    "jet_velocity": "[length] / [time]",
+    "trip_speed": "[length] / [time]",
+    "rop": "[length] / [time]",
+    "stress": "[mass] / [length] / [time] ** 2",
+    "consistency": "[mass] / [length] / [time] ** 2",  # K: stress·sⁿ, converted as stress
+    "viscosity": "[mass] / [length] / [time]",
+    "shear_rate": "1 / [time]",
+    "power": "[mass] * [length] ** 2 / [time] ** 3",
+    "power_density": "[mass] / [time] ** 3",
+    "force": "[mass] * [length] / [time] ** 2",
+    "area": "[length] ** 2",
+    "volume": "[length] ** 3",
+    "temperature": "[temperature]",
+    "angle": "",
+    "dogleg": "1 / [length]",
+    "time": "[time]",
+    "dimensionless": "",
+}
+
+#: Named unit systems: quantity kind → unit text (as accepted by :func:`parse_unit`).
+UNIT_SYSTEMS: dict[str, dict[str, str]] = {
+    "oilfield": {
+        "depth": "ft",
+        "length": "ft",
+        "diameter": "in",
+        "nozzle": "in32",
+        "density": "ppg",
+        "pressure": "psi",
+        "pressure_gradient": "psi/ft",
+        "flow_rate": "gpm",
+        "velocity": "ft/min",
+        "jet_velocity": "ft/s",
+        "trip_speed": "ft/min",
+        "rop": "ft/hour",
+        "stress": "lbf_per_100ft_sq",
+        "consistency": "lbf_per_100ft_sq",
+        "viscosity": "cP",
+        "shear_rate": "1/s",
+        "power": "hp",
+        "power_density": "hp/in**2",
+        "force": "lbf",
+        "area": "in**2",
+        "volume": "bbl_oil",
+        "temperature": "degF",
+        "angle": "degree",
+        "dogleg": "deg_per_100ft",
+        "time": "minute",
+        "dimensionless": "",
+    },
+    "si": {
+        "depth": "m",
+        "length": "m",
+        "diameter": "m",
+        "nozzle": "m",
+        "density": "kg/m**3",
+        "pressure": "Pa",
+        "pressure_gradient": "Pa/m",
+        "flow_rate": "m**3/s",
+        "velocity": "m/s",
+        "jet_velocity": "m/s",
+        "trip_speed": "m/s",
+        "rop": "m/s",
+        "stress": "Pa",
+        "consistency": "Pa",
+        "viscosity": "Pa*s",
+        "shear_rate": "1/s",
+        "power": "W",
+        "power_density": "W/m**2",
+        "force": "N",
+        "area": "m**2",
+        "volume": "m**3",
+        "temperature": "K",
+        "angle": "degree",
+        "dogleg": "deg_per_30m",
+        "time": "s",
+        "dimensionless": "",
+    },
+    "metric": {
+        "depth": "m",
+        "length": "m",
+        "diameter": "mm",
+        "nozzle": "mm",
+        "density": "kg/m**3",
+        "pressure": "bar",
+        "pressure_gradient": "kPa/m",
+        "flow_rate": "L/min",
+        "velocity": "m/min",
+        "jet_velocity": "m/s",
+        "trip_speed": "m/min",
+        "rop": "m/hour",
+        "stress": "Pa",
+        "consistency": "Pa",
+        "viscosity": "mPa*s",
+        "shear_rate": "1/s",
+        "power": "kW",
+        "power_density": "kW/cm**2",
+        "force": "kN",
+        "area": "mm**2",
+        "volume": "m**3",
+        "temperature": "degC",
+        "angle": "degree",
+        "dogleg": "deg_per_30m",
+        "time": "minute",
+        "dimensionless": "",
+    },
+}
+
+_LABELS = {
+    "lbf_per_100ft_sq": "lbf/100ft²",
+    "in32": "1/32 in",
+    "bbl_oil": "bbl",
+    "bpm_oil": "bbl/min",
+    "in**2": "in²",
+    "hp/in**2": "hp/in²",
+    "kg/m**3": "kg/m³",
+    "m**3/s": "m³/s",
+    "m**2": "m²",
+    "m**3": "m³",
+    "mm**2": "mm²",
+    "W/m**2": "W/m²",
+    "kW/cm**2": "kW/cm²",
+    "mPa*s": "mPa·s",
+    "Pa*s": "Pa·s",
+    "ft/hour": "ft/h",
+    "m/hour": "m/h",
+    "degF": "°F",
+    "degC": "°C",
+    "degree": "°",
+    "deg_per_100ft": "°/100ft",
+    "deg_per_30m": "°/30m",
+    "minute": "min",
+}
+
+
+def label(unit: str) -> str:
+    """Display label for a unit text, e.g. ``label("lbf_per_100ft_sq") == "lbf/100ft²"``."""
+    return _LABELS.get(unit, unit)
+
+
+def _normalise(text: str) -> str:
+    out = text.strip()
+    for k, v in _SUPER.items():
+        out = out.replace(k, v)
+    for rx, rep in _ALIAS_RES:
+        out = rx.sub(rep, out)
+    out = _POWER_RE.sub(r"**\1", out)
+    return out
+
+
+@lru_cache(maxsize=512)
+def parse_unit(text: str, kind: str | None = None) -> pint.Unit:
+    """Parse a unit as a user writes it and return the registry unit.
+
+    Trade spellings are mapped first (``bbl`` → 42-gal barrel, ``cp`` → centipoise,
+    ``lbf/100ft2``, ``ppg``, ``32nds`` …).  With ``kind`` given (a key of :data:`KINDS`),
+    the unit must have that kind's dimensionality.
+
+    Raises
+    ------
+    InputError
+        unknown unit text, or a unit of the wrong dimension for ``kind``.
+
+    Examples
+    --------
+    >>> round(si_factor("bbl"), 12)
+    0.158987294928
+    >>> str(parse_unit("cp"))
+    'centipoise'
+    """
+    if kind == "dimensionless" and isinstance(text, str) and text.strip() in ("", "1", "-"):
+        return ureg.dimensionless
+    if not isinstance(text, str) or not text.strip():
+        raise InputError("unit", text, "a unit name such as 'psi', 'ppg', 'gpm', 'kg/m3'")
+    expr = _normalise(text)
+    try:
+        unit = ureg.parse_units(expr)
+    except Exception as exc:  # pint raises several types for bad text
+        raise InputError(
+            "unit", text, "a known unit (e.g. psi, bar, ppg, sg, kg/m3, gpm, bbl/min, L/min, cP)"
+        ) from exc
+    if kind is not None:
+        if kind not in KINDS:
+            raise InputError("unit kind", kind, ", ".join(sorted(KINDS)))
+        want = KINDS[kind]
+        got = ureg.Quantity(1.0, unit).dimensionality
+        if want == "":
+            ok = got == ureg.Quantity(1.0, "").dimensionality
+        else:
+            ok = got == ureg.get_dimensionality(want)
+        if not ok:
+            examples = ", ".join(label(UNIT_SYSTEMS[s][kind]) for s in ("oilfield", "metric", "si"))
+            raise InputError(
+                f"unit for {kind.replace('_', ' ')}", text, f"a unit of {kind} such as {examples}"
+            )
+    return unit
+
+
+@lru_cache(maxsize=512)
+def _affine(text: str, kind: str | None) -> tuple[float, float]:
+    """(scale, offset) with value_SI = scale·value + offset."""
+    unit = parse_unit(text, kind)
+    q0 = ureg.Quantity(0.0, unit).to_base_units().magnitude
+    q1 = ureg.Quantity(1.0, unit).to_base_units().magnitude
+    return float(q1 - q0), float(q0)
+
+
+def si_factor(unit: str, kind: str | None = None) -> float:
+    """Multiplier that takes a value in ``unit`` to SI base units (non-offset units only)."""
+    scale, offset = _affine(unit, kind)
+    if offset != 0.0:
+        raise InputError("unit", unit, "a unit without an offset (use to_si for temperatures)")
+    return scale
+
+
+def _as_values(value, name: str):
+    try:
+        arr = np.asarray(value, dtype=float)
+    except (TypeError, ValueError) as exc:
+        raise InputError(name, value, "a number or an array of numbers") from exc
+    return arr
+
+
+def to_si(value, unit: str, kind: str | None = None, name: str = "value"):
+    """Convert ``value`` (scalar or array) from ``unit`` to SI base units.
+
+    >>> round(to_si(1.0, "psi"), 9)
+    6894.757293168
+    >>> round(to_si(11.0, "ppg", kind="density"), 4)
+    1318.0907
+    """
+    scale, offset = _affine(unit, kind)
+    arr = _as_values(value, name)
+    out = arr * scale + offset
+    return float(out) if out.ndim == 0 else out
+
+
+def from_si(value, unit: str, kind: str | None = None, name: str = "value"):
+    """Convert ``value`` from SI base units to ``unit`` (inverse of :func:`to_si`)."""
+    scale, offset = _affine(unit, kind)
+    arr = _as_values(value, name)
+    out = (arr - offset) / scale
+    return float(out) if out.ndim == 0 else out
+
+
+def convert(value, from_unit: str, to_unit: str, kind: str | None = None):
+    """Convert between two units of the same dimension.
+
+    >>> round(convert(12.43, "bbl/min", "gpm"), 6)
+    522.06
+    """
+    si = to_si(value, from_unit, kind)
+    if kind is None:
+        a = ureg.Quantity(1.0, parse_unit(from_unit)).dimensionality
+        b = ureg.Quantity(1.0, parse_unit(to_unit)).dimensionality
+        if a != b:
+            raise InputError("unit", to_unit, f"a unit with the dimension of '{from_unit}'")
+    return from_si(si, to_unit, kind)
+
+
+def unit_for(kind: str, system: str = "oilfield") -> str:
+    """Unit text for a quantity kind in a named unit system.
+
+    >>> unit_for("pressure", "metric")
+    'bar'
+    """
+    sys_ = system.strip().lower() if isinstance(system, str) else system
+    if sys_ not in UNIT_SYSTEMS:
+        raise InputError("unit system", system, ", ".join(UNIT_SYSTEMS))
+    if kind not in UNIT_SYSTEMS[sys_]:
+        raise InputError("quantity kind", kind, ", ".join(UNIT_SYSTEMS[sys_]))
+    return UNIT_SYSTEMS[sys_][kind]
