@@ -83,6 +83,19 @@ def _at(r: ViscometerReadings, rpm: float, what: str):
 def _two_speeds(r: ViscometerReadings, method: str) -> tuple[float, float, list[Note]]:
     if r.reading(600) is not None and r.reading(300) is not None:
         return 600.0, 300.0, []
+    if r.mode == "cement" and r.reading(300) is not None and r.reading(100) is not None:
+        return (
+            300.0,
+            100.0,
+            [
+                Note(
+                    "info",
+                    "two_speed_choice",
+                    "cement/spacer: used 300/100 rpm (the cement PV pair)",
+                    method,
+                )
+            ],
+        )
     hi, lo = float(r.speeds[-1]), float(r.speeds[-2])
     return (
         hi,
