@@ -70,12 +70,11 @@ def n_notes(n: float, method: str) -> list[Note]:
 def _at(r: ViscometerReadings, rpm: float, what: str):
     val = r.reading(rpm)
     if val is None:
-        have = ", ".join(f"{s:g}" for s in r.speeds)
         raise InputError(
-            f"{rpm:g}-rpm reading for {what}",
-            f"speeds {have} rpm",
+            f"speeds [rpm] for {what}",
+            [float(f"{s:g}") for s in r.speeds],
             f"a reading at {rpm:g} rpm",
-            problem="missing",
+            problem=f"no {rpm:g}-rpm reading",
         )
     return rpm * r.geometry.shear_rate_per_rpm, val * r.geometry.stress_per_reading, val
 
