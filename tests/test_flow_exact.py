@@ -4,6 +4,8 @@ Every expected value is an exact analytical solution, written out here independe
 code, or an independent numerical solution (scipy adaptive quadrature and Brent's method).
 """
 
+import itertools
+
 import numpy as np
 import pytest
 from scipy import integrate, optimize
@@ -178,7 +180,7 @@ def test_annulus_tends_to_slot_as_gap_narrows():
         g_exact = hb_annulus_gradient(q, d2, d1, ty, kk, n)
         g_slot = 2 * hb_slot_wall_stress(v, gap, ty, kk, n) / gap
         errs.append(abs(g_exact / g_slot - 1))
-    assert all(a > b for a, b in zip(errs, errs[1:], strict=False)), errs
+    assert all(a > b for a, b in itertools.pairwise(errs)), errs
     assert errs[-1] < 1e-4, errs  # measured 1.6e-6 at D1/D2 = 0.99 (6.5e-3 at 0.5)
     # slot velocity formula: Newtonian plane Poiseuille V = Hτ_w/(6μ) (exact)
     assert hb_slot_velocity(6.0, 0.01, 0.0, 0.002, 1.0) == pytest.approx(0.01 * 6.0 / 0.012)
