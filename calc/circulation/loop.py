@@ -361,7 +361,7 @@ def circulate(
     Q = qf[:, None]
     R = rf[:, None]
     M = mf[:, None]
-    notes: list[Note] = []
+    notes: list[Note] = list(fluid.notes)
 
     def fmt(v, kind):
         u = wl.unit_text(kind, message_units)
@@ -635,4 +635,3 @@ def _margin_notes(table: MarginTable, margins: Margins, qf, notes, fmt):
                     name,
                 )
             )
-
