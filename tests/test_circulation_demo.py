@@ -110,3 +110,22 @@ def test_demo_exact_laminar_warns_that_the_string_is_not_laminar():
     r = run("exact_laminar", 0)
     assert any(n.code == "above_laminar_limit" or "not laminar" in n.message for n in r.notes)
     assert r.standpipe_pressure < run("api13d_2010_hb", 0).standpipe_pressure
+
+
+def test_demo_api1995_spp_drops_only_where_the_annulus_switches_at_re_2100():
+    # API RP 13D (1995) as published switches from f = 24/Re to a/Re^b at Re = 2100 (METHODS
+    # §3.2); with the annulus pair n_a ≈ 0.3 the turbulent value is about half the laminar one
+    # there, so the annular loss — and the SPP — falls as the rate crosses the switch.  This is
+    # the published method's discontinuity, not a loop error: every fall coincides with an
+    # annular interval going laminar → turbulent.  (The other methods are monotone; see the
+    # property test in test_circulation_loop.py.)
+    well = demo.demo_well(0)
+    q = demo.to_si(np.linspace(50.0, 900.0, 400), "gpm")
+    r = circulate(
+        well, demo.demo_fluid("api13d_1995_power_law", 0), q, method="api13d_1995_power_law"
+    )
+    falls = np.flatnonzero(np.diff(r.standpipe_pressure) < 0)
+    assert falls.size > 0
+    regime = np.asarray(r.annulus_flow.regime)
+    for i in falls:
+        assert np.any((regime[i] == 0) & (regime[i + 1] == 2)), f"SPP fell at rate index {i}"
