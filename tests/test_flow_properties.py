@@ -1,0 +1,172 @@
+"""Property tests (hypothesis) for calc.flow: monotonicity, eccentricity, continuity, bad input."""
+
+import numpy as np
+import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+
+from calc.errors import InputError
+from calc.flow import annulus_flow, critical_flow_rate, list_methods, pipe_flow
+
+METHODS = [m.name for m in list_methods()]
+FAST = dict(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+
+density = st.floats(800.0, 2200.0)
+n_index = st.floats(0.25, 1.0)
+diam = st.floats(0.05, 0.35)
+ratio = st.floats(0.2, 0.92)
+
+
+@st.composite
+def fluid(draw, method):
+    """(tau_y, k, n) within what ``method`` accepts."""
+    if method == "newtonian":
+        return 0.0, draw(st.floats(5e-4, 0.1)), 1.0
+    if method == "bingham":
+        return draw(st.floats(0.0, 20.0)), draw(st.floats(5e-3, 0.08)), 1.0
+    n = draw(n_index)
+    k = draw(st.floats(0.02, 2.0))
+    if method in ("power_law", "api13d_1995_power_law"):
+        return 0.0, k, n
+    return draw(st.floats(0.0, 20.0)), k, n
+
+
+def _flow(method, geometry, q, d, kappa, rho, fl, ecc=0.0):
+    ty, k, n = fl
+    a = dict(density=rho, tau_y=ty, k=k, n=n, method=method)
+    if geometry == "pipe":
+        return pipe_flow(q, d, **a)
+    return annulus_flow(q, d, kappa * d, eccentricity=ecc, **a)
+
+
+def _rates_around_transition(method, geometry, d, kappa, rho, fl, n_pts=60, span=(0.2, 6.0)):
+    ty, k, n = fl
+    qc = critical_flow_rate(
+        d,
+        None if geometry == "pipe" else kappa * d,
+        density=rho,
+        tau_y=ty,
+        k=k,
+        n=n,
+        method=method,
+    )
+    return np.geomspace(span[0] * qc, span[1] * qc, n_pts)
+
+
+@pytest.mark.parametrize("geometry", ["pipe", "annulus"])
+@pytest.mark.parametrize("method", [m for m in METHODS if m != "api13d_1995_power_law"])
+@settings(**FAST)
+@given(data=st.data(), d=diam, kappa=ratio, rho=density)
+def test_gradient_non_decreasing_with_flow_rate(method, geometry, data, d, kappa, rho):
+    # Physical requirement: more flow, more friction loss (DESIGN.md property list)
+    fl = data.draw(fluid(method))
+    q = _rates_around_transition(method, geometry, d, kappa, rho, fl, n_pts=40)
+    if method == "exact_laminar":
+        q = q[:15:2]
+    g = _flow(method, geometry, q, d, kappa, rho, fl).gradient
+    assert np.all(np.diff(g) >= -1e-9 * g[1:]), (fl, np.min(np.diff(g) / g[1:]))
+
+
+@pytest.mark.parametrize("geometry", ["pipe", "annulus"])
+@settings(**FAST)
+@given(data=st.data(), d=diam, kappa=ratio, rho=density)
+def test_api95_non_decreasing_within_each_regime(geometry, data, d, kappa, rho):
+    # API RP 13D (1995) as published jumps at Re = 2100 (see test_flow_methods); within a regime
+    # the gradient must still rise with the rate.
+    fl = data.draw(fluid("api13d_1995_power_law"))
+    q = _rates_around_transition("api13d_1995_power_law", geometry, d, kappa, rho, fl)
+    r = _flow("api13d_1995_power_law", geometry, q, d, kappa, rho, fl)
+    for reg in (0, 2):
+        g = r.gradient[r.regime == reg]
+        assert np.all(np.diff(g) >= -1e-9 * g[1:])
+
+
+@pytest.mark.parametrize(
+    "method",
+    [pytest.param(m, marks=pytest.mark.slow) if m == "exact_laminar" else m for m in METHODS],
+)
+@settings(max_examples=15, deadline=None)
+@given(data=st.data(), d=diam, kappa=st.floats(0.3, 0.9), rho=density, e=st.floats(0.0, 0.95))
+def test_eccentric_not_above_concentric_in_laminar(method, data, d, kappa, rho, e):
+    # Haciislamoglu & Langlinais (1990): within laminar flow the eccentric loss is lower
+    fl = data.draw(fluid(method))
+    q = _rates_around_transition(method, "annulus", d, kappa, rho, fl, n_pts=8, span=(0.1, 0.9))
+    if method == "exact_laminar":
+        q = q[::3]  # the exact annulus is a nested solve: three rates suffice
+    c = _flow(method, "annulus", q, d, kappa, rho, fl)
+    x = _flow(method, "annulus", q, d, kappa, rho, fl, ecc=e)
+    lam = c.regime == 0
+    assert lam.all()
+    assert np.all(x.gradient[lam] <= c.gradient[lam] * (1 + 1e-12))
+    if e > 0.05:
+        assert np.all(x.gradient[lam] < c.gradient[lam])
+
+
+#: Largest change of ln(gradient) allowed between neighbouring rates 1e-4 apart (relative):
+#: 0.1 %, our stated continuity tolerance across regime boundaries (a smooth gradient ∝ Qᵐ with
+#: m ≤ 3 changes by at most 3e-4 per step).
+JUMP_TOL = 1e-3
+
+
+@pytest.mark.parametrize("geometry", ["pipe", "annulus"])
+@pytest.mark.parametrize(
+    "method", [m for m in METHODS if m not in ("api13d_1995_power_law", "exact_laminar")]
+)
+@settings(max_examples=15, deadline=None)
+@given(data=st.data(), d=diam, kappa=ratio, rho=density, e=st.floats(0.0, 0.9))
+def test_no_jump_across_regime_boundaries(method, geometry, data, d, kappa, rho, e):
+    fl = data.draw(fluid(method))
+    ty, k, n = fl
+    a = dict(density=rho, tau_y=ty, k=k, n=n, method=method)
+    qc = critical_flow_rate(d, None if geometry == "pipe" else kappa * d, **a)
+    probe = _flow(method, geometry, qc, d, kappa, rho, fl)
+    # Every method's Re grows at least linearly with V, so the whole transitional band lies
+    # within [qc, qc·Re_turb/Re_lam]: sweep it densely (steps of 1e-4), from just below qc.
+    span = probe.reynolds_turbulent_limit / probe.reynolds_laminar_limit
+    q = qc * np.exp(np.arange(-20, np.log(span) / 1e-4 + 20) * 1e-4)
+    r = _flow(method, geometry, q, d, kappa, rho, fl, ecc=e if geometry == "annulus" else 0.0)
+    assert (r.regime == 0).any() and (r.regime == 2).any()
+    step = np.abs(np.diff(np.log(r.gradient)))
+    assert np.max(step) <= JUMP_TOL, (fl, float(np.max(step)))
+
+
+BAD_VALUES = {
+    "q": [0.0, -1e-3, np.nan, np.inf],
+    "d_hole": [0.0, -0.2, np.nan],
+    "d_pipe": [0.0, -0.1, 0.5],
+    "density": [0.0, -1000.0, np.nan],
+    "tau_y": [-0.1, np.nan],
+    "k": [0.0, -0.5],
+    "n": [0.0, -0.7],
+    "eccentricity": [1.0, -0.01, 1.5],
+    "method": ["api13d", "", "exact"],
+}
+
+
+@settings(max_examples=60, deadline=None)
+@given(
+    which=st.sampled_from(sorted(BAD_VALUES)),
+    data=st.data(),
+    size=st.integers(1, 5),
+)
+def test_bad_input_always_input_error(which, data, size):
+    bad = data.draw(st.sampled_from(BAD_VALUES[which]))
+    args = dict(
+        q=np.full(size, 0.02),
+        d_hole=0.2159,
+        d_pipe=0.127,
+        density=1200.0,
+        tau_y=3.0,
+        k=0.3,
+        n=0.7,
+        eccentricity=0.2,
+        method="api13d_2010_hb",
+    )
+    if which == "method":
+        args["method"] = bad
+    else:
+        arr = np.array(np.broadcast_to(np.asarray(args[which], dtype=float), (size,)))
+        arr[data.draw(st.integers(0, size - 1))] = bad
+        args[which] = arr
+    with pytest.raises(InputError):
+        annulus_flow(args.pop("q"), args.pop("d_hole"), args.pop("d_pipe"), **args)
