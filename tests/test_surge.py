@@ -130,7 +130,7 @@ def test_open_end_splits_with_equal_pressure():
     assert bore == pytest.approx(opened.pressure_bit, rel=1e-6)
 
 
-@settings(max_examples=25, deadline=None)
+@settings(max_examples=10, deadline=None)
 @given(
     v1=st.floats(0.05, 2.0),
     factor=st.floats(1.05, 3.0),
@@ -140,7 +140,7 @@ def test_open_end_splits_with_equal_pressure():
 def test_surge_grows_with_trip_speed(v1, factor, method, end):
     w = simple_well(0.2159, 0.127, float_valve=False, d_bore=0.1086)
     ty = 0.0 if method in ("power_law", "api13d_1995_power_law") else 4.0
-    m = HerschelBulkley(ty, 0.3, 0.65) if ty else HerschelBulkley(0.0, 0.3, 0.65)
+    m = HerschelBulkley(ty, 0.3, 0.65)
     if method == "bingham":
         m = HerschelBulkley(4.0, 0.02, 1.0)
     f = HydraulicsFluid(1300.0, m, m)
