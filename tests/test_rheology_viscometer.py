@@ -128,7 +128,7 @@ def test_cement_above_300_note_and_two_speed_note():
     assert "no_low_shear" in codes(two.notes)
 
 
-# ---------------------------------------------------------------- bad input (issue 2; PRACTICE §3.1)
+# ------------------------------------------------------- bad input (issue 2; PRACTICE §3.1)
 @pytest.mark.parametrize(
     ("speeds", "dial", "match"),
     [
