@@ -34,9 +34,7 @@ def simple_well(d_hole, d_pipe, *, float_valve=True, d_bore=None):
     survey = Survey([0.0, L + 10.0], [0.0, 0.0], [0.0, 0.0])
     hole = Hole([HoleSection("open hole", 0.0, L, d_hole, "open_hole", bit_size=d_hole)])
     bore = 0.6 * d_pipe if d_bore is None else d_bore
-    string = DrillString(
-        [StringComponent("pipe", d_pipe, bore, "fill", float_valve=float_valve)]
-    )
+    string = DrillString([StringComponent("pipe", d_pipe, bore, "fill", float_valve=float_valve)])
     return Well(survey, hole, string, Bit(d_hole, tfa=5e-4), bit_depth=L)
 
 
@@ -66,7 +64,7 @@ def exact_moving_rod_gradient(r1, r2, vp, mu):
             [f[1], f[2], -f[0] / (4 * mu)],
         ]
     )
-    a, b, g = np.linalg.solve(m, [-vp, 0.0, vp * np.pi * r1**2])
+    _a, _b, g = np.linalg.solve(m, [-vp, 0.0, vp * np.pi * r1**2])
     return g
 
 
@@ -168,7 +166,7 @@ def test_demo_trip_limits_and_planned_speeds():
     )  # fmt: skip
     assert lim.string_end == "closed"  # float sub in the string
     # at the limit the surge EMW at the governing depth equals fracture − margin
-    name, md, tvd = lim.running_point
+    name, md, _tvd = lim.running_point
     at = surge_pressure(w, f, lim.max_running_speed)
     i = lim.names.index(name)
     assert at.pressure_at(md) == pytest.approx(lim.surge_allowance[i], rel=1e-3)
