@@ -17,18 +17,19 @@ FAMILY = "units"
 
 _UNITS_DOC = (
     "Unit system 'oilfield' (default), 'metric' or 'si', optionally with overrides "
-    "'kind=unit; …', or a two-column range kind | unit"
+    "'kind=unit; …', or a two-column range of kind and unit"
 )
 
 
 @sheet_function(FAMILY)
 def BF_CONVERT(
     value: Cells("Number, range of numbers, or a number with its unit such as '12.43 bbl/min'"),
-    from_unit: Text("Unit of value, e.g. 'bbl/min' (blank if value carries its unit)") = None,
-    to_unit: Text("Unit wanted, e.g. 'gpm'") = None,
+    from_unit: Text("Unit of value, e.g. 'bbl/min' (an empty cell if value carries its unit)"),
+    to_unit: Text("Unit wanted, e.g. 'gpm'"),
 ) -> Any:
     """Convert a value or a range of values between two units of the same dimension.
 
+    A blank ``from_unit`` means the value carries its own unit.
     Oilfield spellings are understood (ppg, sg, bbl, bbl/min, gpm, lbf/100ft2, 32nds, cP, °F).
     A range gives a range of the same shape.
 
@@ -36,7 +37,7 @@ def BF_CONVERT(
     --------
     >>> BF_CONVERT(12.43, "bbl/min", "gpm")
     522.06
-    >>> round(BF_CONVERT("2.6 sg", None, "ppg"), 4)
+    >>> round(BF_CONVERT("2.6 sg", "", "ppg"), 4)
     21.6981
     """
     to_u = cells.text(to_unit, "to_unit")
