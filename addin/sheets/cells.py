@@ -408,3 +408,64 @@ def _system(part: str, name: str) -> str:
 
         check_choice(f"{name}: unit system", low, list(cu.UNIT_SYSTEMS))
     return low
+
+
+def values(value, name: str, kind: str | None = None, uset=None):
+    """One cell → SI float; a range → SI 2-D array (every cell a number).
+
+    Used for the arguments that may be swept over a column (rates, depths): a single value
+    gives a single result, a range gives a range of results of the same shape.
+    """
+    grid = as_grid(value)
+    if len(grid) == 1 and len(grid[0]) == 1:
+        return number(grid[0][0], name, kind, uset)
+    return numbers(grid, name, kind, uset)
+
+
+def broadcast(**arrays):
+    """Check that range arguments fit together (same shape, or single cells); return shape."""
+    shapes = {k: np.shape(v) for k, v in arrays.items() if np.ndim(v) > 0}
+    try:
+        return np.broadcast_shapes(*shapes.values())
+    except ValueError as exc:
+        text_ = ", ".join(f"{k} {'×'.join(map(str, s))}" for k, s in shapes.items())
+        raise InputError("ranges", text_, "ranges of the same shape, or single cells") from exc
+
+
+def nozzle_sizes(value, name: str = "nozzles"):
+    """Nozzle sizes in 32nds of an inch → what :func:`calc.bit.parse_nozzles` accepts.
+
+    A text cell (``"3x12 3x11"``, ``"12, 12, 11"``) is passed through; a range of numbers is
+    read cell by cell, blank cells (unused ports) left out.
+    """
+    grid = as_grid(value)
+    if len(grid) == 1 and len(grid[0]) == 1 and isinstance(grid[0][0], str):
+        cell = grid[0][0]
+        if _is_error_cell(cell):
+            raise InputError(name, cell[:40], "nozzle sizes", problem="refers to an error cell")
+        if not cell.strip():
+            raise InputError(name, None, "nozzle sizes in 32nds", problem="is blank")
+        return cell
+    sizes = [v for row in grid for v in row if not blank(v)]
+    if not sizes:
+        raise InputError(name, None, "nozzle sizes in 32nds", problem="is blank")
+    return [number(v, f"{name}: size {k + 1}") for k, v in enumerate(sizes)]
+
+
+def positive(value_si, name: str, kind: str | None = None, uset=None, *, allow_zero=False):
+    """Require value > 0 (or ≥ 0); the error shows the value in the user's unit.
+
+    >>> positive(-0.0378541, "flow rate", "flow_rate")
+    Traceback (most recent call last):
+    ...
+    calc.errors.InputError: flow rate = -600: not allowed; allowed: > 0 gpm
+    """
+    arr = np.asarray(value_si, dtype=float)
+    bad = arr < 0 if allow_zero else arr <= 0
+    if np.any(bad):
+        first = float(arr[bad].ravel()[0])
+        uset = uset or UnitSet()
+        shown = uset.from_si(first, kind) if kind else first
+        unit = f" {uset.label(kind)}" if kind and uset.label(kind) else ""
+        raise InputError(name, round(float(shown), 6), f"{'>=' if allow_zero else '>'} 0{unit}")
+    return value_si

@@ -5,6 +5,8 @@ Point xlwings at it with ``UDF Modules = addin.sheets.functions`` (see
 them here puts every decorated function in this module's namespace, where xlwings finds it.
 """
 
+from addin.sheets.fn_bit import *  # noqa: F403
+from addin.sheets.fn_pressure import *  # noqa: F403
 from addin.sheets.fn_units import *  # noqa: F403
 from addin.sheets.framework import FUNCTIONS, MARK
 
