@@ -276,3 +276,74 @@ def test_annular_velocity_external():
     # METHODS §0.1).
     assert BF_ANN_VEL(8.5, 5.0, 500) == pytest.approx(24.51 * 500 / (8.5**2 - 5.0**2), rel=1e-4)
     assert "pipe diameter" in BF_ANN_VEL(5.0, 8.5, 500)
+
+
+# ---------------------------------------------------------------- flow
+
+
+def test_flow_functions_match_calc():
+    from addin.sheets.functions import (
+        BF_ANN_FLOW,
+        BF_ANN_GRAD,
+        BF_ANN_LOSS,
+        BF_CRIT_RATE,
+        BF_PIPE_FLOW,
+        BF_PIPE_GRAD,
+        BF_PIPE_LOSS,
+    )
+    from calc import flow as cf
+
+    for method in (None, "api13d_1995_power_law", "bingham"):
+        fluid = (
+            cc.hydraulics_fluid_from_readings(READINGS, density=11 * PPG)
+            if method is None
+            else cc.hydraulics_fluid_from_readings(READINGS, method, density=11 * PPG)
+        )
+        kw = {} if method is None else {"method": method}
+        tp, kp, np_ = fluid.pipe_parameters
+        ta, ka, na = fluid.annulus_parameters
+        rates = np.array([[300.0], [522.0], [700.0]])
+        pipe = cf.pipe_flow(
+            rates * GPM, 4.276 * INCH, density=11 * PPG, tau_y=tp, k=kp, n=np_, **kw
+        )
+        got = BF_PIPE_GRAD(11.0, COLUMNS, 4.276, rates, method)
+        assert np.allclose(got, oil(pipe.gradient, "pressure_gradient"), rtol=1e-12, atol=0)
+        loss = BF_PIPE_LOSS(11.0, COLUMNS, 4.276, 1000.0, 522.0, method)
+        one = cf.pipe_flow(522 * GPM, 4.276 * INCH, density=11 * PPG, tau_y=tp, k=kp, n=np_, **kw)
+        assert close(loss, oil(one.gradient * 1000 * FT, "pressure"))
+        ann = cf.annulus_flow(
+            522 * GPM, 8.6 * INCH, 5 * INCH, density=11 * PPG, tau_y=ta, k=ka, n=na, **kw
+        )
+        assert close(
+            BF_ANN_GRAD(11.0, COLUMNS, 8.6, 5.0, 522, method),
+            oil(ann.gradient, "pressure_gradient"),
+        )
+        assert close(
+            BF_ANN_LOSS(11.0, COLUMNS, 8.6, 5.0, 500.0, 522, method),
+            oil(ann.gradient * 500 * FT, "pressure"),
+        )
+        qc = cf.critical_flow_rate(
+            8.6 * INCH, 5 * INCH, density=11 * PPG, tau_y=ta, k=ka, n=na, **kw
+        )
+        assert close(BF_CRIT_RATE(11.0, COLUMNS, 8.6, 5.0, method), oil(qc, "flow_rate"))
+        table = {r[0]: r[1] for r in BF_ANN_FLOW(11.0, COLUMNS, 8.6, 5.0, 522, method)[1:]}
+        assert close(table["Reynolds number"], ann.reynolds)
+        assert table["regime"] == ann.regime_label
+        ptable = {r[0]: r[1] for r in BF_PIPE_FLOW(11.0, COLUMNS, 4.276, 522, method)[1:]}
+        assert close(ptable["Fanning friction factor"], one.friction_factor)
+
+
+def test_laminar_pipe_external_hagen_poiseuille():
+    # External: exact laminar Newtonian pipe flow, -dp/dL = 32μV/D² (Hagen-Poiseuille), with μ
+    # the Newtonian fit of readings proportional to speed (θ = N/15, about 20 cP).
+    from addin.sheets.functions import BF_PIPE_GRAD
+
+    readings = [[s, s / 15.0] for s in SPEEDS]
+    mu = cr.fit(
+        cr.ViscometerReadings(SPEEDS, [s / 15.0 for s in SPEEDS]), "newtonian_least_squares"
+    ).model.k
+    q, d = 20 * GPM, 4.276 * INCH
+    v = q / (math.pi * d**2 / 4)
+    assert v * d * 1000 / mu < 2000  # laminar at 1 sg
+    got = BF_PIPE_GRAD(1.0, readings, 4.276, 20, "newtonian", "oilfield; density=sg")
+    assert got == pytest.approx(oil(32 * mu * v / d**2, "pressure_gradient"), rel=1e-9)
