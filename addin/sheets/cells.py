@@ -182,6 +182,8 @@ def as_grid(value) -> list[list]:
         return [[value]]
     if not value:
         return [[None]]
+    if set(map(type, value)) == {list} and len(set(map(len, value))) == 1 and value[0]:
+        return value  # already a rectangular 2-D list (what xlwings passes with ndim=2)
     if not any(isinstance(r, list | tuple) for r in value):
         return [list(value)]
     rows = [list(r) if isinstance(r, list | tuple) else [r] for r in value]

@@ -135,6 +135,8 @@ def clean_result(out):
             return _clean_scalar(out.item())
         if out.ndim == 1:
             out = out.reshape(-1, 1)
+        if out.dtype.kind == "f" and np.all(np.isfinite(out)):
+            return out.tolist()  # fast path: a finite numeric table, no per-cell work
         out = out.tolist()
     if isinstance(out, list | tuple):
         rows = [list(r) if isinstance(r, list | tuple | np.ndarray) else [r] for r in out]
