@@ -1,0 +1,413 @@
+"""Build workbooks/demo-workbook.xlsx: a daily hydraulics sheet driven by boreflow functions.
+
+    python workbooks/build_demo_workbook.py [--check D1|D2] [--out PATH]
+
+The inputs come from the invented demo case (workbooks/demo-case.toml): one mud check, the
+string, the hole, the bit.  Every result cell is a ``BF_…`` formula (or a SUM of them), so the
+sheet recomputes when an input changes once the functions are enabled (see
+docs/worksheet-functions.md); ``addin.sheets.engine.calculate`` computes it headlessly.
+
+Layout (a design of our own): one sheet "Daily hydraulics" in five bands, inputs in blue-grey
+cells on the left of each band, results to the right — 1 mud check and readings,
+2 rheology, 3 circulating losses interval by interval, 4 bit and ECD, 5 hole cleaning — plus
+"Rate sweep" (a column of rates through the array form of the functions), "Units" and the
+"xlwings.conf" sheet that tells xlwings where the functions are.
+
+The sheet is a hand-level calculation: intervals are concentric, tool joints and the MWD/RSS
+drop are not modelled here (the drop is typed in from the supplier's sheet); the full-well
+calculation is boreflow's report.  All data are invented.
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+import tomllib
+from dataclasses import dataclass, field
+from pathlib import Path
+
+from openpyxl import Workbook
+from openpyxl.styles import Alignment, Font, PatternFill
+from openpyxl.worksheet.formula import ArrayFormula
+
+HERE = Path(__file__).resolve().parent
+sys.path.insert(0, str(HERE.parent))
+
+from calc.geometry import Survey  # noqa: E402
+
+CASE = HERE / "demo-case.toml"
+OUT = HERE / "demo-workbook.xlsx"
+SHEET = "Daily hydraulics"
+
+_INPUT = PatternFill("solid", fgColor="DCE3EA")
+_HEAD = Font(bold=True, size=12)
+_BOLD = Font(bold=True)
+
+
+def _skip_empty(formula):
+    """An option left out in the middle of a call is given as "" (empty text): every
+    spreadsheet passes that to the function as a blank, whereas an empty argument (",,")
+    reaches some engines as 0."""
+    if isinstance(formula, str) and formula.startswith("="):
+        while ",," in formula:
+            formula = formula.replace(",,", ',"",')
+    return formula
+
+
+def _array(ref: str, formula: str) -> ArrayFormula:
+    return ArrayFormula(ref, _skip_empty(formula))
+
+
+@dataclass
+class Interval:
+    path: str  # "surface", "string" or "annulus"
+    name: str
+    d_outer: float  # in: pipe ID, or hole/casing ID
+    d_inner: float | None  # in: pipe OD for an annulus
+    length: float  # ft
+    above_shoe: bool = False
+
+
+@dataclass
+class Layout:
+    """Where things are: name → cell address on the main sheet (and the sweep ranges)."""
+
+    cells: dict[str, str] = field(default_factory=dict)
+    intervals: list[Interval] = field(default_factory=list)
+    loss_cells: list[str] = field(default_factory=list)
+    cleaning_rows: list[tuple[Interval, dict[str, str]]] = field(default_factory=list)
+    sweep_rates: list[float] = field(default_factory=list)
+    sweep_cells: dict[str, list[str]] = field(default_factory=dict)
+    check: dict = field(default_factory=dict)
+    tvd: dict[str, float] = field(default_factory=dict)
+
+
+def _intervals(case: dict, bit_depth: float) -> list[Interval]:
+    """Concentric intervals from the case: surface lines, string (bit up), annulus."""
+    out = [Interval("surface", s["name"], s["id"], None, s["length"]) for s in case["surface_line"]]
+    string = case["string"]
+    fixed = sum(c["length"] for c in string if c["length"] != "fill")
+    fill = bit_depth - fixed
+    lengths = [fill if c["length"] == "fill" else c["length"] for c in string]
+    for comp, length in reversed(list(zip(string, lengths, strict=True))):
+        out.append(Interval("string", comp["name"], comp["id"], None, length))
+    shoe = max(c["shoe"] for c in case["casing"])
+    casing_id = min(c["id"] for c in case["casing"])
+    hole = case["open_hole"]["diameter"]
+    top = 0.0
+    for comp, length in reversed(list(zip(string, lengths, strict=True))):
+        bottom = top + length
+        if top < shoe:
+            seg = min(bottom, shoe) - top
+            out.append(
+                Interval("annulus", f"{comp['name']} in casing", casing_id, comp["od"], seg, True)
+            )
+        if bottom > shoe:
+            seg = bottom - max(top, shoe)
+            out.append(Interval("annulus", f"{comp['name']} in open hole", hole, comp["od"], seg))
+        top = bottom
+    return out
+
+
+def build(out: Path = OUT, check_label: str = "D1") -> Layout:
+    case = tomllib.loads(CASE.read_text(encoding="utf-8"))
+    check = next(c for c in case["check"] if c["label"].startswith(check_label))
+    st = case["survey"]["stations"]
+    survey = Survey([s[0] for s in st], [s[1] for s in st], [s[2] for s in st])
+    ft = 0.3048
+    shoe = max(c["shoe"] for c in case["casing"])
+    tvd_bit = float(survey.tvd_at(check["bit_depth"] * ft)) / ft
+    tvd_shoe = float(survey.tvd_at(shoe * ft)) / ft
+    lay = Layout(check=check, tvd={"bit": tvd_bit, "shoe": tvd_shoe})
+    lay.intervals = _intervals(case, check["bit_depth"])
+
+    wb = Workbook()
+    ws = wb.active
+    ws.title = SHEET
+    for col, width in zip("ABCDEFGHIJ", (34, 14, 14, 14, 14, 16, 16, 16, 16, 16), strict=True):
+        ws.column_dimensions[col].width = width
+
+    def put(addr, value, *, name=None, fill=None, bold=False, fmt=None):
+        ws[addr] = _skip_empty(value)
+        if fill:
+            ws[addr].fill = fill
+        if bold:
+            ws[addr].font = _BOLD
+        if fmt:
+            ws[addr].number_format = fmt
+        if name:
+            lay.cells[name] = addr
+
+    def head(row, text):
+        ws[f"A{row}"] = text
+        ws[f"A{row}"].font = _HEAD
+
+    # ------------------------------------------------------------------ band 0: title
+    ws["A1"] = f"{case['case']['title']} — daily hydraulics (boreflow worksheet functions)"
+    ws["A1"].font = Font(bold=True, size=14)
+    put("A2", "=BF_CAUTION()", name="caution")
+    ws["A2"].alignment = Alignment(wrap_text=False)
+    put("A3", "Computed by")
+    put("B3", "=BF_VERSION()", name="version")
+    put("A4", "Units (blank = oilfield)")
+    put("B4", None, name="units", fill=_INPUT)
+    u = "$B$4"
+
+    # ------------------------------------------------------------------ band 1: mud check
+    head(6, "1  Mud check")
+    rows = [
+        ("check", "Check", check["label"], ""),
+        ("density", "Mud density", check["density"], "ppg"),
+        ("rate", "Flow rate", check["flow_rate"], "gpm"),
+        ("rop", "ROP", check["rop"], "ft/h"),
+        ("bit_md", "Bit depth (MD)", check["bit_depth"], "ft"),
+        ("tvd_bit", "Bit depth (TVD, from the survey)", round(tvd_bit, 2), "ft"),
+        ("shoe_md", "Last shoe (MD)", shoe, "ft"),
+        ("tvd_shoe", "Last shoe (TVD, from the survey)", round(tvd_shoe, 2), "ft"),
+        ("cut_size", "Cuttings size", check["cuttings"]["size"], "in"),
+        ("cut_density", "Cuttings density", check["cuttings"]["density"], "(text with unit)"),
+        ("tool_dp", "MWD/RSS pressure drop (supplier sheet)", 320.0, "psi"),
+        ("pwd", "PWD ECD (measured)", check["pwd"]["ecd"], "ppg"),
+        ("spp_measured", "Standpipe pressure (measured)", check["measured_spp"], "psi"),
+    ]
+    r = 7
+    for name, label, value, unit in rows:
+        put(f"A{r}", label)
+        put(f"B{r}", value, name=name, fill=_INPUT)
+        put(f"C{r}", unit)
+        r += 1
+    ref = {k: f"$B${int(v[1:])}" for k, v in lay.cells.items() if v.startswith("B")}
+    put("E6", "rpm", bold=True)
+    put("F6", "dial", bold=True)
+    speeds = sorted((float(k) for k in check["dial"]), reverse=True)
+    for i, s in enumerate(speeds):
+        put(f"E{7 + i}", s, fill=_INPUT)
+        put(f"F{7 + i}", check["dial"][f"{s:g}"], fill=_INPUT)
+    readings = f"$E$7:$F${6 + len(speeds)}"
+    lay.cells["readings"] = readings
+    put("E14", "Nozzles (1/32 in)")
+    nozzle_text = " ".join(str(n) for n in case["bit"]["nozzles"])
+    put("F14", nozzle_text, name="nozzles", fill=_INPUT)
+    put("E15", "Bit size (in)")
+    put("F15", case["bit"]["size"], name="bit_size", fill=_INPUT)
+    ref.update(nozzles="$F$14", bit_size="$F$15")
+
+    # ------------------------------------------------------------------ band 2: rheology
+    head(21, "2  Rheology")
+    for i, (label, formula, name) in enumerate(
+        [
+            ("PV [cP]", f"=BF_PV({readings},{u})", "pv"),
+            ("YP [lbf/100ft²]", f"=BF_YP({readings},{u})", "yp"),
+            ("LSYP [lbf/100ft²]", f"=BF_LSYP({readings},{u})", "lsyp"),
+            ("AV [cP]", f"=BF_AV({readings},{u})", "av"),
+            ("τy, API RP 13D HB", f'=BF_TAU_Y({readings},"api13d_2010_hb",{u})', "tau_y"),
+            ("K, API RP 13D HB", f'=BF_K({readings},"api13d_2010_hb",{u})', "k"),
+            ("n, API RP 13D HB", f'=BF_N({readings},"api13d_2010_hb")', "n"),
+        ]
+    ):
+        put(f"A{22 + i}", label)
+        put(f"B{22 + i}", formula, name=name, fmt="0.000")
+    put("D21", "All fits, best first (array formula)", bold=True)
+    fits_rows = 10
+    ws["D22"] = _array(f"D22:K{21 + fits_rows}", f"=BF_FITS({readings},{u})")
+    lay.cells["fits"] = f"D22:K{21 + fits_rows}"
+
+    # ------------------------------------------------------------------ band 3: losses
+    head(33, "3  Circulating pressure losses (concentric, no tool joints)")
+    for col, text in zip(
+        "ABCDEF",
+        ("interval", "path", "outer [in]", "inner [in]", "length [ft]", "loss [psi]"),
+        strict=True,
+    ):
+        put(f"{col}34", text, bold=True)
+    r = 35
+    rho, q = ref["density"], ref["rate"]
+    for iv in lay.intervals:
+        put(f"A{r}", iv.name)
+        put(f"B{r}", iv.path)
+        put(f"C{r}", iv.d_outer, fill=_INPUT)
+        put(f"D{r}", iv.d_inner, fill=_INPUT)
+        put(f"E{r}", round(iv.length, 2), fill=_INPUT)
+        if iv.path == "annulus":
+            f = f"=BF_ANN_LOSS({rho},{readings},C{r},D{r},E{r},{q},,,{u})"
+        else:
+            f = f"=BF_PIPE_LOSS({rho},{readings},C{r},E{r},{q},,{u})"
+        put(f"F{r}", f, fmt="0.0")
+        lay.loss_cells.append(f"F{r}")
+        r += 1
+    last = r - 1
+    ann_rows = [i for i, iv in enumerate(lay.intervals) if iv.path == "annulus"]
+    shoe_rows = [i for i, iv in enumerate(lay.intervals) if iv.path == "annulus" and iv.above_shoe]
+    first_ann = 35 + ann_rows[0]
+    r += 1
+    totals = [
+        ("surface", "Surface lines", f'=SUMIF($B$35:$B${last},"surface",$F$35:$F${last})'),
+        ("string_loss", "Drill string", f'=SUMIF($B$35:$B${last},"string",$F$35:$F${last})'),
+        ("annulus_loss", "Annulus", f'=SUMIF($B$35:$B${last},"annulus",$F$35:$F${last})'),
+        ("annulus_shoe", "Annulus above the shoe", f"=SUM($F${first_ann}:$F${35 + shoe_rows[-1]})"),
+        ("bit_dp", "Bit nozzles", f"=BF_BIT_DP({rho},{ref['nozzles']},{q},,{u})"),
+        ("tools", "MWD/RSS (typed in)", f"={ref['tool_dp']}"),
+    ]
+    for name, label, formula in totals:
+        put(f"A{r}", label)
+        put(f"F{r}", formula, name=name, fmt="0.0")
+        r += 1
+    put(f"A{r}", "Standpipe pressure estimate", bold=True)
+    c = lay.cells
+    put(
+        f"F{r}",
+        f"={c['surface']}+{c['string_loss']}+{c['annulus_loss']}+{c['bit_dp']}+{c['tools']}",
+        name="spp",
+        fmt="0.0",
+        bold=True,
+    )
+    put(f"G{r}", f"={c['spp']}-{ref['spp_measured']}", name="spp_gap", fmt="0.0")
+    put(f"H{r}", "estimate − measured")
+    r += 2
+
+    # ------------------------------------------------------------------ band 4: bit and ECD
+    head(r, "4  Bit and ECD")
+    r += 1
+    band4 = r
+    ws[f"A{r}"] = _array(
+        f"A{r}:C{r + 8}",
+        f"=BF_BIT({rho},{ref['nozzles']},{ref['bit_size']},{q},,{u})",
+    )
+    lay.cells["bit_table"] = f"A{r}:C{r + 8}"
+    for i, (label, formula, name) in enumerate(
+        [
+            (
+                "Hydrostatic at bit [psi]",
+                f"=BF_HYDROSTATIC({rho},{ref['tvd_bit']},,{u})",
+                "hydrostatic",
+            ),
+            (
+                "ECD at the shoe [ppg]",
+                f"=BF_ECD({rho},{ref['tvd_shoe']},{c['annulus_shoe']},,,{u})",
+                "ecd_shoe",
+            ),
+            (
+                "ECD at the bit [ppg]",
+                f"=BF_ECD({rho},{ref['tvd_bit']},{c['annulus_loss']},,,{u})",
+                "ecd_bit",
+            ),
+            ("ECD at the bit − PWD [ppg]", f"=H{band4 + 2}-{ref['pwd']}", "ecd_gap"),
+            (
+                "Critical rate, open hole × DP [gpm]",
+                f"=BF_CRIT_RATE({rho},{readings},{case['open_hole']['diameter']},5,,{u})",
+                "crit_rate",
+            ),
+        ]
+    ):
+        put(f"E{band4 + i}", label)
+        put(f"H{band4 + i}", formula, name=name, fmt="0.000")
+    r = band4 + 11
+
+    # ------------------------------------------------------------------ band 5: cleaning
+    head(r, "5  Hole cleaning per annular interval")
+    r += 1
+    for col, text in zip(
+        "ABCDEFG",
+        (
+            "interval",
+            "AV [ft/min]",
+            "slip [ft/min]",
+            "transport ratio",
+            "CCI",
+            "cuttings conc.",
+            "critical rate [gpm]",
+        ),
+        strict=True,
+    ):
+        put(f"{col}{r}", text, bold=True)
+    r += 1
+    cs, cd, rop = ref["cut_size"], ref["cut_density"], ref["rop"]
+    for i in ann_rows:
+        iv = lay.intervals[i]
+        row = 35 + i
+        oh, ip = f"$C${row}", f"$D${row}"
+        cellmap = {
+            "av": f"B{r}",
+            "slip": f"C{r}",
+            "tr": f"D{r}",
+            "cci": f"E{r}",
+            "conc": f"F{r}",
+            "crit": f"G{r}",
+        }
+        put(f"A{r}", f"=A{row}")
+        put(cellmap["av"], f"=BF_ANN_VEL({oh},{ip},{q},{u})", fmt="0.0")
+        put(cellmap["slip"], f"=BF_SLIP({rho},{readings},{cs},{cd},{oh},{ip},{q},,,{u})", fmt="0.0")
+        put(
+            cellmap["tr"],
+            f"=BF_TRANSPORT_RATIO({rho},{readings},{cs},{cd},{oh},{ip},{q})",
+            fmt="0.00",
+        )
+        put(cellmap["cci"], f"=BF_CCI({rho},{readings},{oh},{ip},{q},,{u})", fmt="0.00")
+        put(
+            cellmap["conc"],
+            f"=BF_CUTTINGS_CONC({rho},{readings},{cs},{cd},{oh},{ip},"
+            f"{ref['bit_size']},{q},{rop},,,{u})",
+            fmt="0.00%",
+        )
+        put(cellmap["crit"], f"=BF_CRIT_RATE({rho},{readings},{oh},{ip},,{u})", fmt="0")
+        lay.cleaning_rows.append((iv, cellmap))
+        r += 1
+
+    # ------------------------------------------------------------------ rate sweep
+    sw = wb.create_sheet("Rate sweep")
+    sw["A1"] = "Rate sweep: one array formula per column (open hole around drill pipe)"
+    sw["A1"].font = _HEAD
+    for col, text in zip(
+        "ABCD",
+        ("rate [gpm]", "bit ΔP [psi]", "annulus gradient [psi/ft]", "jet velocity [ft/s]"),
+        strict=True,
+    ):
+        sw[f"{col}2"] = text
+        sw[f"{col}2"].font = _BOLD
+    lay.sweep_rates = [400.0 + 25.0 * i for i in range(11)]
+    for i, qq in enumerate(lay.sweep_rates):
+        sw[f"A{3 + i}"] = qq
+        sw[f"A{3 + i}"].fill = _INPUT
+    end = 2 + len(lay.sweep_rates)
+    rates = f"$A$3:$A${end}"
+    main = f"'{SHEET}'!"
+    sw["B3"] = _array(
+        f"B3:B{end}", f"=BF_BIT_DP({main}{ref['density']},{main}{ref['nozzles']},{rates})"
+    )
+    sw["C3"] = _array(
+        f"C3:C{end}",
+        f"=BF_ANN_GRAD({main}{ref['density']},{main}"
+        f"{readings},{case['open_hole']['diameter']},5,{rates})",
+    )
+    sw["D3"] = _array(f"D3:D{end}", f"=BF_JET_VEL({main}{ref['nozzles']},{rates})")
+    lay.sweep_cells = {col: [f"{col}{3 + i}" for i in range(len(lay.sweep_rates))] for col in "BCD"}
+
+    # ------------------------------------------------------------------ units, config
+    un = wb.create_sheet("Units")
+    un["A1"] = "Units in force (from the Units cell of the main sheet)"
+    un["A1"].font = _HEAD
+    n_kinds = 27
+    un["A2"] = _array(f"A2:B{1 + n_kinds}", f"=BF_UNITS({main}{u})")
+    conf = wb.create_sheet("xlwings.conf")
+    conf["A1"], conf["B1"] = "UDF Modules", "addin.sheets.functions"
+    conf["A2"], conf["B2"] = "Show Console", "False"
+
+    out = Path(out)
+    tmp = out.with_suffix(".tmp.xlsx")
+    wb.save(tmp)
+    tmp.replace(out)
+    return lay
+
+
+def main(argv=None) -> int:
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--check", default="D1", help="mud check label prefix (D1 or D2)")
+    ap.add_argument("--out", default=str(OUT))
+    a = ap.parse_args(argv)
+    build(Path(a.out), a.check)
+    print(f"wrote {a.out}")
+    return 0
+
+
+if __name__ == "__main__":
+    raise SystemExit(main())
