@@ -18,7 +18,7 @@ pytestmark = [
     pytest.mark.libreoffice,
     pytest.mark.skipif(
         recalc.soffice() is None,
-        reason="LibreOffice headless not installed (Debian: apt-get install libreoffice-calc-nogui)",
+        reason="LibreOffice headless not installed (Debian package libreoffice-calc-nogui)",
     ),
 ]
 
