@@ -817,6 +817,7 @@ def unit_labels(system: str):
 
     return unit_of
 
+
 #: How the template spreads the blocks over sheets.
 TEMPLATE_SHEETS: dict[str, tuple[str, ...]] = {
     "Well": ("case", "limits", "open_hole", "casing", "survey", "pressure_window", "weak_point"),
