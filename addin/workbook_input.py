@@ -169,8 +169,23 @@ def open_workbook_safely(path, limits: Limits | None = None):
             p, read_only=True, data_only=True, keep_vba=False, keep_links=False
         )
     except Exception as exc:  # openpyxl raises many types on damaged or hostile content
+        from defusedxml import DefusedXmlException
+
+        chain, e = [], exc
+        while e is not None and len(chain) < 10:
+            chain.append(e)
+            e = e.__cause__ or e.__context__
+        hostile = next((c for c in chain if isinstance(c, DefusedXmlException)), None)
+        if hostile is not None:
+            raise WorkbookError(
+                str(p),
+                type(hostile).__name__,
+                "plain XML without entity or DTD declarations",
+                "unreadable (hostile XML refused by defusedxml)",
+            ) from exc
+        first = str(exc).splitlines()[0][:120] if str(exc) else ""
         raise WorkbookError(
-            str(p), type(exc).__name__ + ": " + str(exc)[:160], "a valid .xlsx", "unreadable"
+            str(p), f"{type(exc).__name__}: {first}", "a valid .xlsx", "unreadable"
         ) from exc
     if len(wb.sheetnames) > lim.max_sheets:
         wb.close()

@@ -101,7 +101,7 @@ def test_too_many_cells_is_refused(tmp_path):
     p = tmp_path / "big.xlsx"
     wb = openpyxl.Workbook()
     ws = wb.active
-    for r in range(1, 301):
+    for _ in range(300):
         ws.append(list(range(50)))
     wb.save(p)
     with pytest.raises(wi.WorkbookError, match="cells"):

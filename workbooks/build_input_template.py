@@ -27,7 +27,8 @@ from addin.workbook_input import MARK, write_case_sheets  # noqa: E402
 HELP = (
     "boreflow input workbook (DEMO DATA, ENTIRELY FICTITIOUS: replace with your own)",
     "",
-    f"Each block starts with a title cell '{MARK} key' in column A and ends at the first empty row.",
+    f"Each block starts with a title cell '{MARK} key' in column A and ends at the first "
+    "empty row.",
     "Values blocks: column B holds the key boreflow reads, column C the unit, column D on the "
     "value(s).",
     "Tables: the first row holds the keys, the second the units, then one row per item.",
