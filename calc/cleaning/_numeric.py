@@ -1,0 +1,37 @@
+"""Small vectorised numerical helpers shared by the cleaning, surge and window modules."""
+
+from __future__ import annotations
+
+import numpy as np
+
+__all__ = ["bisect_increasing", "scalar_or_array"]
+
+
+def bisect_increasing(fun, lo, hi, *, iterations: int = 64, log: bool = False):
+    """Root of an increasing function on whole arrays at once (vectorised bisection).
+
+    ``fun(x)`` must accept and return arrays of the broadcast shape of ``lo`` and ``hi`` and be
+    non-decreasing in ``x`` (a jump through zero is allowed; the jump point is returned).  Where
+    ``fun(lo) >= 0`` the result is ``lo``; where ``fun(hi) <= 0`` it is ``hi`` — callers check
+    the bracket themselves when that matters.  ``log=True`` bisects on ``log(x)`` (``lo > 0``).
+
+    >>> float(bisect_increasing(lambda x: x**2 - 2.0, 0.0, 2.0))  # doctest: +ELLIPSIS
+    1.41421356...
+    """
+    lo, hi = np.broadcast_arrays(np.asarray(lo, dtype=float), np.asarray(hi, dtype=float))
+    a = np.log(lo) if log else lo.copy()
+    b = np.log(hi) if log else hi.copy()
+    for _ in range(iterations):
+        m = 0.5 * (a + b)
+        x = np.exp(m) if log else m
+        up = np.asarray(fun(x)) > 0.0
+        b = np.where(up, m, b)
+        a = np.where(up, a, m)
+    m = 0.5 * (a + b)
+    return np.exp(m) if log else m
+
+
+def scalar_or_array(x):
+    """Python float for 0-d input, the array otherwise (the project's scalar-in, scalar-out rule)."""
+    arr = np.asarray(x)
+    return float(arr) if arr.ndim == 0 else arr

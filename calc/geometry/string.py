@@ -1,0 +1,264 @@
+"""The drill string, listed from the bit upwards: BHA tools, collars, heavy-weight and drill pipe.
+
+All lengths and diameters in metres.  One component may have ``length="fill"``: it takes the
+length that brings the string to surface for a given bit depth.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from calc.errors import InputError, Note, check_nonnegative, check_positive
+from calc.geometry._fmt import show
+from calc.units import to_si
+
+__all__ = ["FILL", "DrillString", "StringComponent"]
+
+FILL = "fill"
+#: Default joint length when tool joints are given without one: 30 ft, API range 2 (common
+#: practice).
+DEFAULT_JOINT_LENGTH = to_si(30.0, "ft")
+#: Default tool-joint (upset) length per joint: 1.5 ft (METHODS §4 "~1.5–3 ft per 30 ft
+#: joint"; from memory, unverified — METHODS §4).
+DEFAULT_TOOL_JOINT_LENGTH = to_si(1.5, "ft")
+#: Tolerance when the component lengths must add up to the bit depth [m].
+LENGTH_TOLERANCE = 0.01
+
+
+@dataclass(frozen=True)
+class StringComponent:
+    """One string component (a tool, a run of collars, heavy-weight or drill pipe).
+
+    Parameters
+    ----------
+    name : str
+    od, id : float
+        Body outside and inside diameters [m]; 0 ≤ id < od.
+    length : float or "fill"
+        Length [m], or ``"fill"`` to fill to surface (at most one component per string).
+    tool_joint_od, tool_joint_id : float, optional
+        Tool-joint (upset) outside and inside diameters [m]; OD ≥ body OD, 0 ≤ ID < OD.
+        Without ``tool_joint_od`` the component is treated as uniform.
+    joint_length : float, optional
+        Length of one joint, tool joint included [m]; default 30 ft (range 2, common practice).
+    tool_joint_length : float, optional
+        Length of the tool joint (box + pin upset) per joint [m]; default 1.5 ft (from memory,
+        unverified — METHODS §4).
+    float_valve : bool
+        The component carries a float (non-return) valve.
+
+    Attributes
+    ----------
+    tool_joint_fraction : float
+        ``tool_joint_length / joint_length`` (0 without tool joints): the share of the
+        component's length given to tool-joint sub-intervals (METHODS §4, from memory).
+    notes : tuple of Note
+        Interpretations made (defaulted joint or tool-joint length).
+    """
+
+    name: str
+    od: float
+    id: float
+    length: float | str
+    tool_joint_od: float | None = None
+    tool_joint_id: float | None = None
+    joint_length: float | None = None
+    tool_joint_length: float | None = None
+    float_valve: bool = False
+    tool_joint_fraction: float = field(init=False)
+    notes: tuple[Note, ...] = field(init=False, repr=False)
+
+    def __post_init__(self):
+        who = f"'{self.name}'"
+        od = float(check_positive(f"OD of {who}", self.od, "m"))
+        idd = float(check_nonnegative(f"ID of {who}", self.id, "m"))
+        if idd >= od:
+            raise InputError(
+                f"ID of {who}",
+                show(idd, "diameter"),
+                f"< OD {show(od, 'diameter')}",
+                problem="ID at or above the OD",
+            )
+        object.__setattr__(self, "od", od)
+        object.__setattr__(self, "id", idd)
+        if isinstance(self.length, str):
+            if self.length.strip().lower() != FILL:
+                raise InputError(f"length of {who}", self.length, "a length in m or 'fill'")
+            object.__setattr__(self, "length", FILL)
+        else:
+            object.__setattr__(
+                self, "length", float(check_positive(f"length of {who}", self.length, "m"))
+            )
+        notes = []
+        frac = 0.0
+        if self.tool_joint_od is None:
+            for extra in ("tool_joint_id", "joint_length", "tool_joint_length"):
+                if getattr(self, extra) is not None:
+                    raise InputError(
+                        f"{extra.replace('_', ' ')} of {who}",
+                        getattr(self, extra),
+                        "only together with a tool-joint OD",
+                    )
+        else:
+            tj_od = float(check_positive(f"tool-joint OD of {who}", self.tool_joint_od, "m"))
+            if tj_od < od:
+                raise InputError(
+                    f"tool-joint OD of {who}",
+                    show(tj_od, "diameter"),
+                    f">= body OD {show(od, 'diameter')}",
+                )
+            tj_id = idd if self.tool_joint_id is None else self.tool_joint_id
+            tj_id = float(check_nonnegative(f"tool-joint ID of {who}", tj_id, "m"))
+            if tj_id >= tj_od:
+                raise InputError(
+                    f"tool-joint ID of {who}",
+                    show(tj_id, "diameter"),
+                    f"< tool-joint OD {show(tj_od, 'diameter')}",
+                )
+            jl, tjl = self.joint_length, self.tool_joint_length
+            if jl is None:
+                jl = DEFAULT_JOINT_LENGTH
+                notes.append(
+                    Note(
+                        "info",
+                        "default_joint_length",
+                        "joint length not given: 30 ft assumed (range 2)",
+                        self.name,
+                    )
+                )
+            if tjl is None:
+                tjl = DEFAULT_TOOL_JOINT_LENGTH
+                notes.append(
+                    Note(
+                        "info",
+                        "default_tool_joint_length",
+                        "tool-joint length not given: 1.5 ft per joint assumed",
+                        self.name,
+                    )
+                )
+            jl = float(check_positive(f"joint length of {who}", jl, "m"))
+            tjl = float(check_positive(f"tool-joint length of {who}", tjl, "m"))
+            if tjl >= jl:
+                raise InputError(f"tool-joint length of {who}", tjl, f"< joint length {jl:g} m")
+            if jl < to_si(15.0, "ft") or jl > to_si(50.0, "ft"):
+                notes.append(
+                    Note(
+                        "warning",
+                        "odd_joint_length",
+                        f"joint length {show(jl, 'length')} is outside ~15–50 ft: "
+                        "metres typed as feet, or the reverse?",
+                        self.name,
+                    )
+                )
+            for name, v in (
+                ("tool_joint_od", tj_od),
+                ("tool_joint_id", tj_id),
+                ("joint_length", jl),
+                ("tool_joint_length", tjl),
+            ):
+                object.__setattr__(self, name, v)
+            frac = tjl / jl
+        object.__setattr__(self, "float_valve", bool(self.float_valve))
+        object.__setattr__(self, "tool_joint_fraction", frac)
+        object.__setattr__(self, "notes", tuple(notes))
+
+    @property
+    def has_tool_joints(self) -> bool:
+        return self.tool_joint_od is not None
+
+    @property
+    def is_fill(self) -> bool:
+        return self.length == FILL
+
+
+@dataclass(frozen=True)
+class DrillString:
+    """The string from the bit upwards.
+
+    Parameters
+    ----------
+    components : sequence of StringComponent
+        Bottom (bit end) first.  At most one may have ``length="fill"``.
+
+    Examples
+    --------
+    >>> s = DrillString([StringComponent("collars", 0.165, 0.071, 100.0),
+    ...                  StringComponent("pipe", 0.127, 0.1086, "fill")])
+    >>> [round(float(x), 3) for x in s.lengths_for(1000.0)]
+    [100.0, 900.0]
+    """
+
+    components: tuple[StringComponent, ...]
+    notes: tuple[Note, ...] = field(init=False, repr=False)
+
+    def __post_init__(self):
+        comps = tuple(self.components)
+        if not comps:
+            raise InputError("drill string", 0, "at least one component")
+        for c in comps:
+            if not isinstance(c, StringComponent):
+                raise InputError("string component", c, "StringComponent objects")
+        fills = [c.name for c in comps if c.is_fill]
+        if len(fills) > 1:
+            raise InputError(
+                "components with length 'fill'", ", ".join(fills), "at most one per string"
+            )
+        object.__setattr__(self, "components", comps)
+        object.__setattr__(self, "notes", tuple(n for c in comps for n in c.notes))
+
+    @property
+    def fixed_length(self) -> float:
+        """Sum of the lengths of the components that are not ``"fill"`` [m]."""
+        return float(sum(c.length for c in self.components if not c.is_fill))
+
+    def lengths_for(self, bit_depth: float, message_units: str = "oilfield") -> np.ndarray:
+        """Component lengths [m], bottom up, for the bit at MD ``bit_depth`` [m].
+
+        Raises
+        ------
+        InputError
+            the fixed components are longer than the bit depth ("string longer than the
+            hole"), or (no fill component) they do not add up to the bit depth within 1 cm.
+        """
+        depth = float(check_positive("bit depth", bit_depth, "m"))
+        fixed = self.fixed_length
+        u = message_units
+        has_fill = any(c.is_fill for c in self.components)
+        if fixed > depth + LENGTH_TOLERANCE or (has_fill and fixed >= depth):
+            raise InputError(
+                "drill string length",
+                show(fixed, "depth", u),
+                f"< bit depth {show(depth, 'depth', u)}"
+                + (
+                    " (the rest of the string is filled by the 'fill' component)"
+                    if has_fill
+                    else ""
+                ),
+                problem="string longer than the bit depth",
+            )
+        if not has_fill and abs(fixed - depth) > LENGTH_TOLERANCE:
+            raise InputError(
+                "drill string length",
+                show(fixed, "depth", u),
+                f"= bit depth {show(depth, 'depth', u)}, or one component with length 'fill'",
+                problem="string does not reach surface",
+            )
+        out = np.array([depth - fixed if c.is_fill else c.length for c in self.components])
+        if not has_fill:
+            out *= depth / fixed  # absorb the sub-centimetre mismatch
+        return out
+
+    def fill_note(self, bit_depth: float, message_units: str = "oilfield") -> tuple[Note, ...]:
+        """An info note stating the length given to the ``"fill"`` component, if any."""
+        lengths = self.lengths_for(bit_depth, message_units)
+        for c, length in zip(self.components, lengths, strict=True):
+            if c.is_fill:
+                msg = f"'{c.name}' filled to surface: {show(length, 'length', message_units)}"
+                return (Note("info", "string_filled", msg, c.name),)
+        return ()
+
+    def component_names(self) -> Sequence[str]:
+        return [c.name for c in self.components]

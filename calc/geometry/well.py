@@ -1,0 +1,421 @@
+"""The well as it stands: survey, hole, string, bit, surface lines and tool drops, split into
+flow intervals wherever the pipe or the hole changes.
+
+SI throughout (m; angles in degrees).  :meth:`Well.flow_intervals` returns a frozen
+struct-of-arrays, one row per interval: the string from surface down to the bit, then the
+annulus from the bit up to surface.
+
+Tool joints (METHODS §4, from memory, unverified): each stretch of a component with tool joints
+is given as two sub-intervals over the same MD span, a *body* share (1 - f) and a *tool-joint*
+share f of its length, f = tool-joint length / joint length.  Summing ``length`` (or
+``delta_tvd``) over the rows of one path therefore covers each metre of the well exactly once.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass, field, fields
+
+import numpy as np
+
+from calc.bit import Bit
+from calc.errors import InputError, Note, check_positive
+from calc.geometry._fmt import show
+from calc.geometry.hole import Hole
+from calc.geometry.string import DrillString
+from calc.geometry.surface import SurfaceLine, ToolPressureDrop
+from calc.geometry.survey import Survey
+
+__all__ = ["DepthGrid", "FlowIntervals", "Well"]
+
+_KIND_LABEL = {"casing": "casing", "liner": "liner", "open_hole": "open hole"}
+
+
+def _frozen(a) -> np.ndarray:
+    a = np.ascontiguousarray(a)
+    a.setflags(write=False)
+    return a
+
+
+@dataclass(frozen=True)
+class FlowIntervals:
+    """Flow intervals as read-only arrays (one element per interval).
+
+    Attributes
+    ----------
+    path : ndarray of str
+        ``"string"`` or ``"annulus"``.
+    top_md, bottom_md : ndarray
+        MD span of the interval [m].
+    length : ndarray
+        Flow length [m] = ``share × (bottom_md - top_md)``.
+    share : ndarray
+        Share of the span this row stands for: 1, or (1 - f) for a body and f for a tool-joint
+        sub-interval.
+    top_tvd, bottom_tvd : ndarray
+        TVD at the span ends [m].
+    inclination : ndarray
+        Mean inclination over the span [degree]: arccos(ΔTVD/ΔMD), the angle whose cosine is
+        the MD-average of cos I.
+    outer_diameter : ndarray
+        Flow-path outer diameter [m]: pipe (or tool-joint) ID in the string, governing hole or
+        casing ID in the annulus.
+    inner_diameter : ndarray
+        0 in the string; pipe body or tool-joint OD in the annulus [m].
+    component, section : ndarray of str
+        String-component and hole-section names; ``component_index`` (bottom-up index into the
+        string) and ``section_index`` (into :attr:`Hole.sections`).
+    is_tool_joint : ndarray of bool
+    tool_joint_fraction : ndarray
+        f used for the component (0 without tool joints).
+    """
+
+    path: np.ndarray
+    top_md: np.ndarray
+    bottom_md: np.ndarray
+    length: np.ndarray
+    share: np.ndarray
+    top_tvd: np.ndarray
+    bottom_tvd: np.ndarray
+    inclination: np.ndarray
+    outer_diameter: np.ndarray
+    inner_diameter: np.ndarray
+    component: np.ndarray
+    component_index: np.ndarray
+    section: np.ndarray
+    section_index: np.ndarray
+    is_tool_joint: np.ndarray
+    tool_joint_fraction: np.ndarray
+
+    def __len__(self) -> int:
+        return int(self.path.size)
+
+    def select(self, mask) -> FlowIntervals:
+        """The rows where ``mask`` is true (or of the path named by a string)."""
+        if isinstance(mask, str):
+            mask = self.path == mask
+        return FlowIntervals(**{f.name: _frozen(getattr(self, f.name)[mask]) for f in fields(self)})
+
+    @property
+    def string(self) -> FlowIntervals:
+        """String rows, surface down to the bit."""
+        return self.select("string")
+
+    @property
+    def annulus(self) -> FlowIntervals:
+        """Annulus rows, bit up to surface."""
+        return self.select("annulus")
+
+    @property
+    def hydraulic_diameter(self) -> np.ndarray:
+        """D_o - D_i [m] (pipe ID in the string; D_hole - D_pipe in the annulus)."""
+        return self.outer_diameter - self.inner_diameter
+
+    @property
+    def flow_area(self) -> np.ndarray:
+        """π/4·(D_o² - D_i²) [m²]."""
+        return np.pi / 4.0 * (self.outer_diameter**2 - self.inner_diameter**2)
+
+    @property
+    def volume(self) -> np.ndarray:
+        """Fluid volume of each row, flow area × length [m³]."""
+        return self.flow_area * self.length
+
+    @property
+    def delta_tvd(self) -> np.ndarray:
+        """Vertical extent this row stands for, share × (bottom_tvd - top_tvd) [m]."""
+        return self.share * (self.bottom_tvd - self.top_tvd)
+
+    def to_records(self) -> list[dict]:
+        """Rows as dictionaries (for tables and reports)."""
+        names = [f.name for f in fields(self)]
+        cols = [getattr(self, n).tolist() for n in names]
+        return [dict(zip(names, row, strict=True)) for row in zip(*cols, strict=True)]
+
+
+@dataclass(frozen=True)
+class DepthGrid:
+    """Depth points for profiles: MD [m] increasing from surface to the bit, TVD [m],
+    inclination [degree], governing hole diameter [m] and hole-section index."""
+
+    md: np.ndarray
+    tvd: np.ndarray
+    inclination: np.ndarray
+    hole_diameter: np.ndarray
+    section_index: np.ndarray
+
+
+@dataclass(frozen=True)
+class Well:
+    """The circulating system's geometry for one bit depth.
+
+    Parameters
+    ----------
+    survey : Survey
+    hole : Hole
+    string : DrillString
+        Bottom (bit end) first.
+    bit : Bit
+    surface_lines : sequence of SurfaceLine
+    tool_drops : sequence of ToolPressureDrop
+    bit_depth : float
+        Bit MD [m]; ≤ the hole depth.
+    message_units : str
+        Unit system for messages ("oilfield" default, "metric", "si").
+    split_at_stations : bool
+        Also split intervals at survey stations (better TVD and inclination per interval).
+
+    Raises
+    ------
+    InputError
+        bit below the hole depth; string longer than the bit depth (or not reaching surface);
+        a pipe body or tool-joint OD at or above the hole/casing ID over its interval.
+
+    Notes
+    -----
+    Warnings: the bit larger than the drift (or ID) of a casing it passed; the bit size differs
+    from the open hole's; bit below the last survey station (projected).  With these, the
+    notes of the survey, hole, string components and bit are collected in :attr:`notes`.
+    """
+
+    survey: Survey
+    hole: Hole
+    string: DrillString
+    bit: Bit
+    surface_lines: Sequence[SurfaceLine] = ()
+    tool_drops: Sequence[ToolPressureDrop] = ()
+    bit_depth: float = 0.0
+    message_units: str = "oilfield"
+    split_at_stations: bool = True
+    notes: tuple[Note, ...] = field(init=False, repr=False)
+    component_lengths: np.ndarray = field(init=False, repr=False)
+    _intervals: FlowIntervals = field(init=False, repr=False)
+
+    def __post_init__(self):
+        for name, cls in (
+            ("survey", Survey),
+            ("hole", Hole),
+            ("string", DrillString),
+            ("bit", Bit),
+        ):
+            if not isinstance(getattr(self, name), cls):
+                raise InputError(name, type(getattr(self, name)).__name__, cls.__name__)
+        lines = tuple(self.surface_lines)
+        drops = tuple(self.tool_drops)
+        for x in lines:
+            if not isinstance(x, SurfaceLine):
+                raise InputError("surface line", x, "SurfaceLine objects")
+        for x in drops:
+            if not isinstance(x, ToolPressureDrop):
+                raise InputError("tool drop", x, "ToolPressureDrop objects")
+        object.__setattr__(self, "surface_lines", lines)
+        object.__setattr__(self, "tool_drops", drops)
+        u = self.message_units
+        depth = float(check_positive("bit depth", self.bit_depth, "m"))
+        object.__setattr__(self, "bit_depth", depth)
+        if depth > self.hole.depth + 1e-6:
+            raise InputError(
+                "bit depth",
+                show(depth, "depth", u),
+                f"<= hole depth {show(self.hole.depth, 'depth', u)}",
+                problem="string longer than the hole",
+            )
+        lengths = _frozen(self.string.lengths_for(depth, u))
+        object.__setattr__(self, "component_lengths", lengths)
+        notes: list[Note] = [
+            *self.survey.notes,
+            *self.hole.notes,
+            *self.string.notes,
+            *self.bit.notes,
+            *self.string.fill_note(depth, u),
+        ]
+        notes.extend(self._bit_notes())
+        if depth > self.survey.md[-1] + 1e-6:
+            notes.append(
+                Note(
+                    "info",
+                    "survey_projected",
+                    f"bit depth {show(depth, 'depth', u)} is below the last survey station "
+                    f"({show(self.survey.md[-1], 'depth', u)}): path projected along its tangent",
+                    "survey",
+                )
+            )
+        intervals = self._build_intervals()
+        self._check_clearance(intervals)
+        object.__setattr__(self, "_intervals", intervals)
+        object.__setattr__(self, "notes", tuple(notes))
+
+    # ------------------------------------------------------------------------- checks
+    def _bit_notes(self) -> list[Note]:
+        u = self.message_units
+        out = []
+        size = self.bit.size
+        for s in self.hole.cased_above(self.bit_depth):
+            limit, what = (s.drift, "drift") if s.drift is not None else (s.diameter, "ID")
+            if size > limit:
+                out.append(
+                    Note(
+                        "warning",
+                        "bit_above_drift",
+                        f"{show(size, 'diameter', u)} bit will not pass the "
+                        f"{show(limit, 'diameter', u)} {what} of '{s.name}'",
+                        s.name,
+                    )
+                )
+        k = self.hole.section_index_at(self.bit_depth)
+        sec = self.hole.sections[k]
+        if sec.is_open_hole and sec.bit_size is not None and abs(sec.bit_size - size) > 1e-4:
+            out.append(
+                Note(
+                    "info",
+                    "bit_size_differs",
+                    f"bit size {show(size, 'diameter', u)} differs from the bit size of "
+                    f"'{sec.name}' ({show(sec.bit_size, 'diameter', u)})",
+                    sec.name,
+                )
+            )
+        return out
+
+    def _check_clearance(self, iv: FlowIntervals) -> None:
+        ann = iv.path == "annulus"
+        bad = ann & (iv.inner_diameter >= iv.outer_diameter)
+        if not np.any(bad):
+            return
+        rows = np.flatnonzero(bad)
+        k = rows[np.argmin(iv.top_md[rows])]
+        u = self.message_units
+        sec = self.hole.sections[int(iv.section_index[k])]
+        hole_txt = f"{_KIND_LABEL[sec.kind]} ID {show(iv.outer_diameter[k], 'diameter', u)}"
+        part = "tool joint" if iv.is_tool_joint[k] else "pipe OD"
+        od_txt = show(iv.inner_diameter[k], "diameter", u)
+        raise InputError(
+            f"{'tool-joint OD' if iv.is_tool_joint[k] else 'OD'} of '{iv.component[k]}'",
+            od_txt,
+            f"< {hole_txt} of '{sec.name}'",
+            problem=f"{part} {od_txt} ≥ {hole_txt} at {show(iv.top_md[k], 'depth', u)}",
+        )
+
+    # ------------------------------------------------------------------------- intervals
+    def _breakpoints(self) -> np.ndarray:
+        depth = self.bit_depth
+        comp_tops = depth - np.cumsum(self.component_lengths)
+        pts = [np.array([0.0, depth]), comp_tops, self.hole.boundaries()]
+        if self.split_at_stations:
+            pts.append(self.survey.md)
+        b = np.unique(np.concatenate(pts))
+        b = b[(b >= 0.0) & (b <= depth)]
+        # drop slivers from rounding (< 1 mm)
+        keep = np.concatenate([[True], np.diff(b) > 1e-3])
+        b = b[keep]
+        b[-1] = depth
+        return b
+
+    def _component_at(self, md) -> np.ndarray:
+        """Bottom-up component index at MD(s) strictly inside a component."""
+        cum = np.cumsum(self.component_lengths)
+        h = self.bit_depth - np.asarray(md, dtype=float)
+        return np.clip(np.searchsorted(cum, h, side="right"), 0, cum.size - 1)
+
+    def _build_intervals(self) -> FlowIntervals:
+        b = self._breakpoints()
+        top, bot = b[:-1], b[1:]
+        mid = 0.5 * (top + bot)
+        ci = self._component_at(mid)
+        si = np.asarray(self.hole.section_index_at(mid))
+        comps = self.string.components
+        frac_c = np.array([c.tool_joint_fraction for c in comps])
+        od_c = np.array([c.od for c in comps])
+        id_c = np.array([c.id for c in comps])
+        tjod_c = np.array([c.tool_joint_od if c.has_tool_joints else c.od for c in comps])
+        tjid_c = np.array([c.tool_joint_id if c.has_tool_joints else c.id for c in comps])
+        names_c = np.array([c.name for c in comps], dtype=object)
+        names_s = np.array([s.name for s in self.hole.sections], dtype=object)
+        dia_s = np.array([s.diameter for s in self.hole.sections])
+        tvd = np.asarray(self.survey.tvd_at(b))
+        ttop, tbot = tvd[:-1], tvd[1:]
+        span = bot - top
+        inc = np.degrees(np.arccos(np.clip((tbot - ttop) / span, -1.0, 1.0)))
+        f = frac_c[ci]
+        has_tj = f > 0
+        # rows per span: body (share 1 - f, or 1), then tool joint where present
+        span_idx = np.concatenate([np.arange(span.size), np.flatnonzero(has_tj)])
+        is_tj = np.concatenate([np.zeros(span.size, bool), np.ones(int(has_tj.sum()), bool)])
+        order = np.lexsort((is_tj, span_idx))
+        span_idx, is_tj = span_idx[order], is_tj[order]
+        share = np.where(is_tj, f[span_idx], 1.0 - f[span_idx])
+        c = ci[span_idx]
+
+        def rows(path: str, idx_order: np.ndarray) -> dict:
+            k = span_idx[idx_order]
+            tj = is_tj[idx_order]
+            cc = c[idx_order]
+            if path == "string":
+                outer = np.where(tj, tjid_c[cc], id_c[cc])
+                inner = np.zeros(k.size)
+            else:
+                outer = dia_s[si[k]]
+                inner = np.where(tj, tjod_c[cc], od_c[cc])
+            return {
+                "path": np.full(k.size, path, dtype=object),
+                "top_md": top[k],
+                "bottom_md": bot[k],
+                "length": share[idx_order] * span[k],
+                "share": share[idx_order],
+                "top_tvd": ttop[k],
+                "bottom_tvd": tbot[k],
+                "inclination": inc[k],
+                "outer_diameter": outer,
+                "inner_diameter": inner,
+                "component": names_c[cc],
+                "component_index": cc,
+                "section": names_s[si[k]],
+                "section_index": si[k],
+                "is_tool_joint": tj,
+                "tool_joint_fraction": f[k],
+            }
+
+        down = np.arange(span_idx.size)
+        # annulus: spans from the bit up; within a span keep body before tool joint
+        up = np.lexsort((is_tj, -span_idx))
+        s_rows, a_rows = rows("string", down), rows("annulus", up)
+        return FlowIntervals(**{k: _frozen(np.concatenate([s_rows[k], a_rows[k]])) for k in s_rows})
+
+    def flow_intervals(self) -> FlowIntervals:
+        """Flow intervals: string from surface to the bit, then annulus from the bit up."""
+        return self._intervals
+
+    # ------------------------------------------------------------------------- depth helpers
+    @property
+    def bit_tvd(self) -> float:
+        """TVD of the bit [m]."""
+        return float(self.survey.tvd_at(self.bit_depth))
+
+    def tvd_at(self, md):
+        """TVD [m] at MD(s) ``md`` [m] (vectorised)."""
+        return self.survey.tvd_at(md)
+
+    def annulus_depth_grid(self, step: float, extra_md: Sequence[float] = ()) -> DepthGrid:
+        """Depth points for ECD/ESD profiles, surface to bit, every ``step`` [m].
+
+        Interval boundaries (component tops, shoes, survey stations), the bit and ``extra_md``
+        (weak points, sensors) [m] are always included, so piecewise-linear profiles are exact
+        at every boundary.  The same points serve the string side.
+        """
+        step = float(check_positive("depth step", step, "m"))
+        if self.bit_depth / step > 1e6:
+            raise InputError("depth step", step, f">= {self.bit_depth / 1e6:g} m (1e6 points)")
+        extra = np.asarray(extra_md, dtype=float).ravel()
+        if np.any((extra < 0) | (extra > self.bit_depth)):
+            raise InputError(
+                "extra depth", extra.tolist(), f"between 0 and the bit depth {self.bit_depth:g} m"
+            )
+        md = np.unique(
+            np.concatenate([np.arange(0.0, self.bit_depth, step), self._breakpoints(), extra])
+        )
+        return DepthGrid(
+            md=_frozen(md),
+            tvd=_frozen(self.survey.tvd_at(md)),
+            inclination=_frozen(self.survey.inclination_at(md)),
+            hole_diameter=_frozen(self.hole.diameter_at(md)),
+            section_index=_frozen(self.hole.section_index_at(md)),
+        )
