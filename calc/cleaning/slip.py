@@ -190,8 +190,8 @@ def haider_levenspiel_drag(reynolds, sphericity=1.0):
     Haider, A. & Levenspiel, O. (1989). Drag coefficient and terminal velocity of spherical and
     nonspherical particles. Powder Technology 58(1), 63-70.
 
-    >>> round(haider_levenspiel_drag(1e-3), 0)
-    24001.0
+    >>> round(haider_levenspiel_drag(1e4), 2)
+    0.44
     """
     re = np.asarray(reynolds, dtype=float)
     p = np.asarray(sphericity, dtype=float)

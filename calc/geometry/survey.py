@@ -23,7 +23,7 @@ DOGLEG_WARN = to_si(10.0, "deg_per_100ft")
 #: Inclination above which a note says the value is unusual (PRACTICE §3.3: 0–~120°).
 INCLINATION_WARN_DEG = 120.0
 #: Below this dogleg angle [rad] the arc formulas use their straight-line limits.
-_SMALL = 1e-9
+_SMALL = 1e-12
 
 
 def _tangent(inc_rad, azi_rad):
@@ -42,16 +42,17 @@ def _arc_weights(beta, frac):
     """Weights (w1, w2) so that the arc position is r1 + ΔMD·(w1·t1 + w2·t2).
 
     On a circular arc of dogleg β and length ΔMD, at the fraction s of its length (φ = sβ):
-    r(φ) = r1 + ΔMD/(β sin β)·[(cos(β - φ) - cos β)·t1 + (1 - cos φ)·t2].
+    r(φ) = r1 + ΔMD/(β sin β)·[(cos(β - φ) - cos β)·t1 + (1 - cos φ)·t2], evaluated without
+    cancellation as w1 = 2 sin(β - φ/2) sin(φ/2)/(β sin β), w2 = 2 sin²(φ/2)/(β sin β).
     For β → 0 the limits are w1 = s - s²/2, w2 = s²/2 (a straight line).
     """
     small = beta < _SMALL
     b = np.where(small, 1.0, beta)
     phi = frac * b
     denom = b * np.sin(b)
-    denom = np.where(np.abs(denom) < 1e-300, 1.0, denom)
-    w1 = (np.cos(b - phi) - np.cos(b)) / denom
-    w2 = (1.0 - np.cos(phi)) / denom
+    half = np.sin(phi / 2.0)
+    w1 = 2.0 * np.sin(b - phi / 2.0) * half / denom
+    w2 = 2.0 * half**2 / denom
     w1 = np.where(small, frac - frac**2 / 2.0, w1)
     w2 = np.where(small, frac**2 / 2.0, w2)
     return w1, w2
@@ -156,6 +157,13 @@ class Survey:
         check_range("survey azimuth", azi, 0.0, 360.0, "degree", hi_open=True)
         t = _tangent(np.radians(inc), np.radians(azi))
         beta = _dogleg(t[:-1], t[1:])
+        if np.any(beta > np.pi - 1e-6):
+            k = int(np.flatnonzero(beta > np.pi - 1e-6)[0])
+            raise InputError(
+                f"dogleg between stations {k + 1} and {k + 2}",
+                float(np.degrees(beta[k])),
+                "< 180° (the arc between opposite directions is undefined)",
+            )
         w1, w2 = _arc_weights(beta, 1.0)
         d = steps[:, None] * (w1[:, None] * t[:-1] + w2[:, None] * t[1:])
         tvd0 = md[0] if self.tie_in_tvd is None else float(self.tie_in_tvd)

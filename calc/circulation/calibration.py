@@ -1,0 +1,179 @@
+"""Calibration of the friction prediction against a measured standpipe pressure.
+
+The prediction splits the standpipe pressure into a *fixed* part — surface back-pressure, the
+bit's jet loss and the suppliers' fixed tool drops — and a *frictional* part — surface lines,
+drill string and annulus.  The friction multiplier scales only the frictional part:
+
+.. math:: p_{meas} = p_{fixed} + m\\, p_{fric}\\quad\\Rightarrow\\quad
+          m = \\frac{p_{meas} - p_{fixed}}{p_{fric}}
+
+Why those parts: the bit loss follows from the nozzle areas and a discharge coefficient
+(Bernoulli), and the tool drops come from a supplier's test; the friction correlations, the
+rheology fit, the assumed open-hole size and the guessed surface equipment are where the
+prediction is most uncertain.  Because the annular friction is scaled too, the calibrated
+result also carries a changed ECD.  The factor fits one rate, one mud and one well state;
+it is a calibration, not a measurement, and the result says so.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from calc.circulation.loop import CirculationResult, circulate
+from calc.errors import InputError, Note, check_positive
+
+__all__ = ["CALIBRATION_LABEL", "FrictionCalibration", "calibrate_friction"]
+
+#: Label carried by every calibration result.
+CALIBRATION_LABEL = (
+    "CALIBRATION: friction multiplier fitted to a measured standpipe pressure; it scales surface, "
+    "string and annular friction (not the bit or fixed tool drops) and holds for these "
+    "conditions only"
+)
+
+#: Relative SPP gap above which a note is given (PRACTICE §3.4: beyond ±10 %; user-settable).
+DEFAULT_TOLERANCE = 0.10
+
+
+def _plain(x):
+    x = np.asarray(x, dtype=float)
+    return float(x) if x.ndim == 0 else x
+
+
+@dataclass(frozen=True, eq=False)
+class FrictionCalibration:
+    """Measured versus predicted standpipe pressure and the friction multiplier.
+
+    Attributes
+    ----------
+    label : str
+        :data:`CALIBRATION_LABEL`.
+    q : float or ndarray
+        Flow rate [m³/s].
+    measured_spp, predicted_spp : float or ndarray
+        Standpipe pressures [Pa]; ``predicted_spp`` with multiplier 1.
+    deviation : float or ndarray
+        measured − predicted [Pa].
+    deviation_percent : float or ndarray
+        100·deviation/predicted [%].
+    fixed_loss, frictional_loss : float or ndarray
+        The two parts of the prediction [Pa] (module docstring).
+    multiplier : float or ndarray
+        m = (measured − fixed)/frictional [-].
+    predicted, calibrated : CirculationResult
+        The uncalibrated result and the result recomputed with ``multiplier``.
+    notes : tuple of Note
+    """
+
+    label: str
+    q: object
+    measured_spp: object
+    predicted_spp: object
+    deviation: object
+    deviation_percent: object
+    fixed_loss: object
+    frictional_loss: object
+    multiplier: object
+    predicted: CirculationResult
+    calibrated: CirculationResult
+    notes: tuple[Note, ...]
+
+
+def calibrate_friction(
+    well, fluid, q, measured_spp, *, tolerance: float = DEFAULT_TOLERANCE, **circulate_options
+) -> FrictionCalibration:
+    """Deviation of the predicted standpipe pressure and the friction multiplier reproducing it.
+
+    .. math:: m = \\frac{p_{meas} - (p_s + \\Delta p_{bit} + \\Delta p_{tools})}
+                       {\\Delta p_{lines} + \\Delta p_{string} + \\Delta p_{ann}}
+
+    Parameters
+    ----------
+    well, fluid :
+        As for :func:`~calc.circulation.circulate`.
+    q : float or array_like
+        Flow rate(s) of the measurement [m³/s].
+    measured_spp : float or array_like
+        Measured standpipe pressure(s) [Pa], > 0, broadcast with ``q``.
+    tolerance : float
+        Relative gap above which a note is added (default 0.10, PRACTICE §3.4).
+    **circulate_options
+        Any keyword of :func:`~calc.circulation.circulate` except ``friction_multiplier``.
+
+    Returns
+    -------
+    FrictionCalibration
+
+    Raises
+    ------
+    InputError
+        ``measured_spp`` not above the fixed part of the prediction (no positive multiplier can
+        reproduce it), or a ``friction_multiplier`` option given.
+
+    Notes
+    -----
+    Exact for the model: the frictional losses are proportional to the multiplier, so the
+    calibrated result reproduces ``measured_spp`` to rounding.  The deviation is also reported
+    as a percentage of the prediction.
+    """
+    if "friction_multiplier" in circulate_options:
+        raise InputError(
+            "friction_multiplier",
+            circulate_options["friction_multiplier"],
+            "not given here: the calibration computes it",
+        )
+    tol = float(check_positive("tolerance", tolerance))
+    meas = check_positive("measured standpipe pressure", measured_spp, "Pa")
+    qv = check_positive("flow rate", q, "m³/s")
+    shape = np.broadcast_shapes(qv.shape, meas.shape)
+    qb = np.broadcast_to(qv, shape)
+    mb = np.broadcast_to(meas, shape)
+    base = circulate(well, fluid, qb if shape else float(qb), **circulate_options)
+    spp = np.asarray(base.standpipe_pressure, dtype=float)
+    fric = np.asarray(base.frictional_loss, dtype=float)
+    fixed = spp - fric
+    mb = np.broadcast_to(mb, np.broadcast_shapes(mb.shape, spp.shape))
+    if np.any(mb <= fixed):
+        i = np.flatnonzero((mb <= fixed).ravel())[0]
+        raise InputError(
+            "measured standpipe pressure",
+            float(mb.ravel()[i]),
+            f"> the fixed part of the prediction (back-pressure + bit + tools = "
+            f"{fixed.ravel()[i]:.6g} Pa), since only friction is calibrated",
+        )
+    mult = (mb - fixed) / fric
+    dev = mb - spp
+    pct = 100.0 * dev / spp
+    calibrated = circulate(
+        well, fluid, qb if shape else float(qb), friction_multiplier=_plain(mult),
+        **circulate_options,
+    )  # fmt: skip
+    notes = [Note("info", "calibration", CALIBRATION_LABEL, "friction multiplier")]
+    big = np.abs(pct) > 100.0 * tol
+    if np.any(big):
+        notes.append(
+            Note(
+                "warning",
+                "spp_gap",
+                f"measured and predicted standpipe pressure differ by up to "
+                f"{np.max(np.abs(pct)):.1f} % (beyond ±{100 * tol:.0f} %): check the rate, pump "
+                "efficiency, nozzles, surface equipment and mud before trusting a calibration",
+                "standpipe",
+            )
+        )
+    return FrictionCalibration(
+        label=CALIBRATION_LABEL,
+        q=_plain(qb),
+        measured_spp=_plain(mb),
+        predicted_spp=_plain(spp),
+        deviation=_plain(dev),
+        deviation_percent=_plain(pct),
+        fixed_loss=_plain(fixed),
+        frictional_loss=_plain(fric),
+        multiplier=_plain(mult),
+        predicted=base,
+        calibrated=calibrated,
+        notes=tuple(notes),
+    )

@@ -1,0 +1,97 @@
+"""Fit one method, fit all candidates, and rank them (methods resolved through the registries).
+
+>>> from calc.rheology.viscometer import ViscometerReadings
+>>> r = ViscometerReadings([600, 300, 200, 100, 6, 3], [56, 37, 29, 20, 8, 7])
+>>> round(fit(r, "api13d_1995_pipe").model.n, 3)
+0.598
+>>> fs = fit_all(r)
+>>> fs.ranking[0].method in fs.methods
+True
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from calc.errors import InputError, Note
+
+# importing the fit modules registers their methods
+from calc.rheology import fit_table as _fit_table  # noqa: F401
+from calc.rheology import fit_viscometer as _fit_viscometer  # noqa: F401
+from calc.rheology.fitresult import (
+    LOG_SPACE,
+    STRESS_SPACE,
+    TABLE_FITS,
+    VISCOMETER_FITS,
+    FitResult,
+    FitSet,
+    RankEntry,
+    quality_of,
+)
+from calc.rheology.table import RheometerTable
+from calc.rheology.viscometer import ViscometerReadings
+
+__all__ = ["fit", "fit_all", "methods_for", "rank_fits"]
+
+
+def _registry(data):
+    if isinstance(data, ViscometerReadings):
+        return VISCOMETER_FITS, STRESS_SPACE
+    if isinstance(data, RheometerTable):
+        return TABLE_FITS, LOG_SPACE
+    raise InputError("data to fit", type(data).__name__, "ViscometerReadings or RheometerTable")
+
+
+def methods_for(data) -> list[str]:
+    """Names of the fit methods that apply to ``data`` (readings or a table)."""
+    return _registry(data)[0].names()
+
+
+def fit(data, method: str = "hb_least_squares") -> FitResult:
+    """Fit ``data`` (:class:`ViscometerReadings` or :class:`RheometerTable`) by ``method``.
+
+    Raises
+    ------
+    InputError
+        unknown method (with the nearest name), or readings the method cannot use.
+    """
+    reg, _ = _registry(data)
+    return reg.get(method).func(data)
+
+
+def rank_fits(data, fits) -> tuple[RankEntry, ...]:
+    """Rank fitted models on *all* points of ``data`` in its space by √(SSE/(N − p)).
+
+    Viscometer readings are scored in stress [Pa], tables in log₁₀ stress, so every candidate
+    is judged on the same points with the same weights (a two-point fit is scored on all
+    readings, not only its two).  Ties go to the model with fewer parameters.
+    """
+    _, space = _registry(data)
+    g, tau = data.shear_rate, (data.shear_stress if space == STRESS_SPACE else data.stress)
+    rows = []
+    for f in fits:
+        q = quality_of(f.model, g, tau, space, f.quality.n_params)
+        s = q.std_error
+        rows.append((s is None, np.inf if s is None else s, q.n_params, f, q))
+    rows.sort(key=lambda r: (r[0], r[1], r[2]))
+    return tuple(
+        RankEntry(i + 1, f.method, f.model.name, q.std_error, q.rmse, q.r2, q.n_params, space)
+        for i, (_, _, _, f, q) in enumerate(rows)
+    )
+
+
+def fit_all(data, methods=None) -> FitSet:
+    """Every applicable fit (or those named in ``methods``), ranked; unusable ones become notes.
+
+    A method that cannot use these readings (e.g. the API annulus pair without a 3-rpm
+    reading) is skipped with an info note naming why; an unknown method name raises.
+    """
+    reg, _ = _registry(data)
+    names = reg.names() if methods is None else [reg.get(m).name for m in methods]
+    results, notes = [], []
+    for name in names:
+        try:
+            results.append(reg.get(name).func(data))
+        except InputError as exc:
+            notes.append(Note("info", "fit_skipped", f"{name} not fitted: {exc}", name))
+    return FitSet(tuple(results), rank_fits(data, results), tuple(notes))
