@@ -61,11 +61,14 @@ class Factors:
 
     def unit(self, kind: str) -> str:
         """Factor taking a value of ``kind`` in the case's unit system to SI."""
-        u = unit_for(kind, self.system)
+        return self.unit_factor_of(unit_for(kind, self.system), kind)
+
+    def unit_factor_of(self, unit: str, kind: str) -> str:
+        """Factor taking a value in a given ``unit`` (any system) to SI."""
         return self._add(
-            f"SI per {label(u)}",
-            si_factor(u, kind),
-            f"multiplies a {kind.replace('_', ' ')} in {label(u)} to SI",
+            f"SI per {label(unit)}",
+            si_factor(unit, kind),
+            f"multiplies a {kind.replace('_', ' ')} in {label(unit)} to SI",
             "unit definitions, NIST SP 811 (2008) App. B (calc.units)",
         )
 
