@@ -144,3 +144,28 @@ def demo_surface_rating() -> float:
 
 def demo_rate(index: int = 0) -> float:
     return to_si(check(index)["flow_rate"], "gpm")
+
+
+def demo_readings(index: int = 0):
+    from calc.rheology import ViscometerReadings
+
+    c = check(index)
+    return ViscometerReadings.from_mapping(c["dial"], label=c["label"])
+
+
+def demo_fluid(method: str = "api13d_2010_hb", index: int = 0):
+    from calc.circulation import hydraulics_fluid_from_readings
+
+    return hydraulics_fluid_from_readings(
+        demo_readings(index), method, density=ppg(check(index)["density"])
+    )
+
+
+def demo_options(index: int = 0) -> dict:
+    """The circulate() keywords of the demo case: window, weak points, margins, rating."""
+    return dict(
+        window=demo_window(),
+        weak_points=demo_weak_points(),
+        margins=demo_margins(),
+        surface_rating=demo_surface_rating(),
+    )

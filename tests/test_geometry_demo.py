@@ -102,9 +102,7 @@ def load_demo(bit_depth_ft=10950.0, extra_casing=()):
         tuple(_si(x, "rate") for x in tp["flow_window"]),
         name="RSS + MWD/LWD",
     )
-    return Well(
-        survey, hole, DrillString(comps), bit, lines, [tools], bit_depth=bit_depth_ft * FT
-    )
+    return Well(survey, hole, DrillString(comps), bit, lines, [tools], bit_depth=bit_depth_ft * FT)
 
 
 # invented demo scenario, hand check (shared/demo-scenario.toml [survey] tvd column)

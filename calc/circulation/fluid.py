@@ -11,8 +11,6 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-import numpy as np
-
 from calc.errors import InputError, check_positive
 from calc.registry import MethodRegistry
 
@@ -70,6 +68,10 @@ class HydraulicsFluid:
         Free text for results ("D1 05:30, API HB fit").
     fits : str
         Which fits produced the models (filled in by :func:`hydraulics_fluid_from_readings`).
+    pipe_fit, annulus_fit : calc.rheology.FitResult, optional
+        The fits themselves (quality, intermediates), when built from readings.
+    notes : tuple of Note
+        The fits' notes; :func:`~calc.circulation.circulate` passes them on.
     """
 
     density: object
@@ -77,6 +79,9 @@ class HydraulicsFluid:
     annulus_model: object
     label: str = ""
     fits: str = ""
+    pipe_fit: object = None
+    annulus_fit: object = None
+    notes: tuple = ()
 
     def __post_init__(self):
         rho = check_positive("density", self.density, "kg/m³")
@@ -103,7 +108,7 @@ class FitChoice:
     annulus: str
 
 
-#: method → (pipe fit, annulus fit).  The fit names are resolved by ``_fit`` below.
+#: method → (pipe fit, annulus fit); fit names of :data:`calc.rheology.VISCOMETER_FITS`.
 FLUID_FITS = MethodRegistry("hydraulics method")
 
 
@@ -113,71 +118,71 @@ def _choice(name, pipe, annulus, description, source):
 
 _choice(
     "api13d_2010_hb",
-    "hb_api",
-    "hb_api",
+    "api13d_2010_hb",
+    "api13d_2010_hb",
     "API Herschel-Bulkley estimate (τ_y from 3/6 rpm, n and K from 300/600 rpm), both paths",
     "API RP 13D 6th ed. (2010); Zamora & Power (2002) AADE-02-DFWM-HO-13",
 )
 _choice(
     "api13d_1995_power_law",
-    "power_law_600_300",
-    "power_law_100_3",
+    "api13d_1995_pipe",
+    "api13d_1995_annulus",
     "power law from 600/300 rpm in pipe and from 100/3 rpm in the annulus",
     "API RP 13D 3rd ed. (1995)",
 )
 _choice(
     "newtonian",
-    "newtonian_lsq",
-    "newtonian_lsq",
+    "newtonian_least_squares",
+    "newtonian_least_squares",
     "Newtonian least-squares fit over all readings, both paths",
     "least squares over the readings (common practice)",
 )
 _choice(
     "bingham",
-    "bingham_lsq",
-    "bingham_lsq",
+    "bingham_least_squares",
+    "bingham_least_squares",
     "Bingham plastic least-squares fit over all readings, both paths",
     "Bingham (1922); least squares over the readings (API RP 10B-2 practice)",
 )
 _choice(
     "power_law",
-    "power_law_lsq",
-    "power_law_lsq",
+    "power_law_least_squares",
+    "power_law_least_squares",
     "power-law least-squares fit (log-log) over all readings, both paths",
     "least squares over the readings (common practice)",
 )
 _choice(
     "exact_laminar",
-    "hb_lsq",
-    "hb_lsq",
+    "hb_least_squares",
+    "hb_least_squares",
     "Herschel-Bulkley least-squares fit over all readings, both paths",
     "Kelessidis et al. (2006) J. Pet. Sci. Eng. 53:203-224",
 )
 
 
-def _fit(readings, which: str):
-    """Resolve a fit name of :data:`FLUID_FITS` against :mod:`calc.rheology`."""
-    from calc.circulation import _rheology_link as link
-
-    return link.fit(readings, which)
-
-
-def hydraulics_fluid_from_readings(readings, method: str = "api13d_2010_hb", *, label: str = ""):
+def hydraulics_fluid_from_readings(
+    readings, method: str = "api13d_2010_hb", *, density=None, label: str = ""
+) -> HydraulicsFluid:
     """The :class:`HydraulicsFluid` a hydraulics method uses, fitted from viscometer readings.
 
     Parameters
     ----------
-    readings : calc.rheology readings object
-        Dial readings with the density (``readings.density`` [kg/m³]).
+    readings : calc.rheology.ViscometerReadings
+        Dial readings of the check.
     method : str
         A hydraulics method (:data:`FLUID_FITS` names; the same names as :mod:`calc.flow`).
+    density : float or array_like
+        Fluid density [kg/m³] (the readings object carries none); required unless the readings
+        object has a ``density`` attribute.
     label : str
         Text for results; default the readings' label if they carry one.
 
     Returns
     -------
     HydraulicsFluid
-        With ``fits`` naming the fits used for pipe and annulus.
+        With ``fits`` naming the :func:`calc.rheology.fit` methods used for pipe and annulus,
+        ``pipe_fit``/``annulus_fit`` the :class:`~calc.rheology.FitResult` objects and their
+        notes in ``notes``.
 
     Notes
     -----
@@ -191,20 +196,28 @@ def hydraulics_fluid_from_readings(readings, method: str = "api13d_2010_hb", *, 
     power_law                     power-law least squares    same
     exact_laminar                 HB least squares           same
     ============================  =========================  =========================
+
+    The fit names are those of :data:`calc.rheology.VISCOMETER_FITS`.
     """
-    info = FLUID_FITS.get(method)
-    choice: FitChoice = info.func
-    pipe = _fit(readings, choice.pipe)
-    ann = pipe if choice.annulus == choice.pipe else _fit(readings, choice.annulus)
-    density = getattr(readings, "density", None)
+    from calc.rheology import fit
+
+    choice: FitChoice = FLUID_FITS.get(method).func
     if density is None:
-        raise InputError("readings density", None, "readings that carry the fluid density")
+        density = getattr(readings, "density", None)
+    if density is None:
+        raise InputError("density", None, "the fluid density in kg/m³")
+    pipe = fit(readings, choice.pipe)
+    ann = pipe if choice.annulus == choice.pipe else fit(readings, choice.annulus)
     lab = label or str(getattr(readings, "label", "") or "")
     fits = choice.pipe if choice.pipe == choice.annulus else f"{choice.pipe} | {choice.annulus}"
+    notes = tuple(dict.fromkeys((*pipe.notes, *ann.notes)))
     return HydraulicsFluid(
-        density=np.asarray(density, dtype=float) if np.ndim(density) else float(density),
-        pipe_model=pipe,
-        annulus_model=ann,
+        density=density,
+        pipe_model=pipe.model,
+        annulus_model=ann.model,
         label=lab,
         fits=fits,
+        pipe_fit=pipe,
+        annulus_fit=ann,
+        notes=notes,
     )

@@ -196,10 +196,16 @@ class CirculationResult:
         return _scalar(np.broadcast_to(rho, np.shape(self.density) + mdv.shape).copy())
 
     def profile(self, step: float = MARGIN_STEP) -> Profile:
-        """ESD, ECD, pressure, pore and fracture on an MD grid from ``step`` to the bit [m]."""
+        """ESD, ECD, pressure, pore and fracture on an MD grid from ``step`` to the bit [m].
+
+        The grid (:meth:`calc.geometry.Well.annulus_depth_grid`) holds every interval boundary,
+        so the piecewise-linear annular pressure is exact at the grid points.
+        """
         step = float(check_positive("profile step", step, "m"))
-        md = np.unique(np.append(np.arange(step, self.bit_md, step), self.bit_md))
-        tvd = np.asarray(self._well.survey.tvd_at(md), dtype=float)
+        grid = self._well.annulus_depth_grid(step)
+        keep = grid.md > 0
+        md = np.asarray(grid.md[keep], dtype=float)
+        tvd = np.asarray(grid.tvd[keep], dtype=float)
         g = gravity_for(self.hydrostatic)
         ecd = np.asarray(self.ecd_at(md))
         names = [""] * md.size
@@ -361,11 +367,13 @@ def circulate(
     Q = qf[:, None]
     R = rf[:, None]
     M = mf[:, None]
-    notes: list[Note] = []
+    notes: list[Note] = list(fluid.notes)
 
     def fmt(v, kind):
         u = wl.unit_text(kind, message_units)
-        return f"{from_si(v, u):.4g} {wl.label(u)}"
+        x = float(from_si(v, u))
+        txt = f"{x:,.0f}" if abs(x) >= 1000 else (f"{x:.1f}" if kind == "depth" else f"{x:.3g}")
+        return f"{txt} {wl.label(u)}"
 
     # ---------------------------------------------------------------- the well
     parts = wl.parts(well)
@@ -542,9 +550,9 @@ def _margin_table(res, parts, window, weak_points, margins, step, notes, fmt):
     top = parts.exposed_top
     names: list[str] = []
     md: list[float] = []
-    grid = np.arange(top, res.bit_md, step)
-    grid = grid[grid > 0]
-    names += [f"MD {m:.1f} m" for m in grid]
+    grid = np.asarray(res._well.annulus_depth_grid(step).md, dtype=float)
+    grid = grid[(grid >= top) & (grid > 0)]
+    names += [f"MD {fmt(m, 'depth')}" for m in grid]
     md += list(grid)
     at_shoe = any(abs(wp.md - top) < 0.5 for wp in weak_points)
     if top > 0 and parts.shoe_name and not at_shoe:
@@ -635,4 +643,3 @@ def _margin_notes(table: MarginTable, margins: Margins, qf, notes, fmt):
                     name,
                 )
             )
-

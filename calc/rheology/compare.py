@@ -168,7 +168,8 @@ def _values(r: ViscometerReadings, model) -> dict[str, float]:
 def _change(name, a, b, tol: Tolerance) -> ParameterChange:
     d = b - a
     rel = d / abs(a) if a != 0 else None
-    flagged = abs(d) > tol.abs and (rel is None or abs(rel) > tol.rel)
+    eps = 1e-9  # values on the tolerance itself are not beyond it (floating-point round-off)
+    flagged = abs(d) > tol.abs * (1 + eps) and (rel is None or abs(rel) > tol.rel * (1 + eps))
     return ParameterChange(name, PARAMETER_KINDS[name], a, b, d, rel, tol, bool(flagged))
 
 

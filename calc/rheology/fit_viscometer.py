@@ -70,12 +70,11 @@ def n_notes(n: float, method: str) -> list[Note]:
 def _at(r: ViscometerReadings, rpm: float, what: str):
     val = r.reading(rpm)
     if val is None:
-        have = ", ".join(f"{s:g}" for s in r.speeds)
         raise InputError(
-            f"{rpm:g}-rpm reading for {what}",
-            f"speeds {have} rpm",
+            f"speeds [rpm] for {what}",
+            [float(f"{s:g}") for s in r.speeds],
             f"a reading at {rpm:g} rpm",
-            problem="missing",
+            problem=f"no {rpm:g}-rpm reading",
         )
     return rpm * r.geometry.shear_rate_per_rpm, val * r.geometry.stress_per_reading, val
 
@@ -83,6 +82,19 @@ def _at(r: ViscometerReadings, rpm: float, what: str):
 def _two_speeds(r: ViscometerReadings, method: str) -> tuple[float, float, list[Note]]:
     if r.reading(600) is not None and r.reading(300) is not None:
         return 600.0, 300.0, []
+    if r.mode == "cement" and r.reading(300) is not None and r.reading(100) is not None:
+        return (
+            300.0,
+            100.0,
+            [
+                Note(
+                    "info",
+                    "two_speed_choice",
+                    "cement/spacer: used 300/100 rpm (the cement PV pair)",
+                    method,
+                )
+            ],
+        )
     hi, lo = float(r.speeds[-1]), float(r.speeds[-2])
     return (
         hi,

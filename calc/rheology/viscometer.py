@@ -524,12 +524,11 @@ class ViscometerReadings:
     def _need(self, *rpms, what: str) -> list[float]:
         vals = [self.reading(r) for r in rpms]
         if any(v is None for v in vals):
-            have = ", ".join(f"{s:g}" for s in self.speeds)
             raise InputError(
-                f"readings for {what}",
-                f"speeds {have} rpm",
+                f"speeds [rpm] for {what}",
+                [float(f"{s:g}") for s in self.speeds],
                 "readings at " + " and ".join(f"{r:g}" for r in rpms) + " rpm",
-                problem="missing",
+                problem="missing reading",
             )
         return vals
 

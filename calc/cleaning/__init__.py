@@ -1,0 +1,62 @@
+"""Hole cleaning: cuttings slip velocity, transport per annular interval, indicators, verdicts.
+
+Modules: :mod:`~calc.cleaning.slip` (slip-velocity correlations, :data:`SLIP_METHODS`),
+:mod:`~calc.cleaning.transport` (annular velocity, transport ratio, concentration, loading),
+:mod:`~calc.cleaning.indicators` (CCI, Larsen-Pilehvari-Azar, thresholds),
+:mod:`~calc.cleaning.hole` (a whole well: per-interval table, minimum rates, loaded ECD).
+All SI.
+"""
+
+from calc.cleaning.hole import HoleCleaningResult, cuttings_ecd_increment, hole_cleaning
+from calc.cleaning.indicators import (
+    VERDICTS,
+    CCIResult,
+    CleaningCriteria,
+    LarsenResult,
+    carrying_capacity_index,
+    larsen_critical_velocity,
+    robinson_power_law,
+)
+from calc.cleaning.slip import (
+    SLIP_METHODS,
+    SlipResult,
+    annular_apparent_viscosity,
+    haider_levenspiel_drag,
+    hb_apparent_viscosity,
+    slip_velocity,
+)
+from calc.cleaning.transport import (
+    Cuttings,
+    TransportResult,
+    annular_transport,
+    annular_velocity,
+    cuttings_volume_rate,
+    in_situ_concentration,
+    loaded_density,
+)
+
+__all__ = [
+    "SLIP_METHODS",
+    "VERDICTS",
+    "CCIResult",
+    "CleaningCriteria",
+    "Cuttings",
+    "HoleCleaningResult",
+    "LarsenResult",
+    "SlipResult",
+    "TransportResult",
+    "annular_apparent_viscosity",
+    "annular_transport",
+    "annular_velocity",
+    "carrying_capacity_index",
+    "cuttings_ecd_increment",
+    "cuttings_volume_rate",
+    "haider_levenspiel_drag",
+    "hb_apparent_viscosity",
+    "hole_cleaning",
+    "in_situ_concentration",
+    "larsen_critical_velocity",
+    "loaded_density",
+    "robinson_power_law",
+    "slip_velocity",
+]

@@ -1,0 +1,335 @@
+"""Hole cleaning for a whole well: per-interval table, minimum rates, cuttings-loaded ECD."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from calc.cleaning._numeric import bisect_increasing, scalar_or_array
+from calc.cleaning.indicators import (
+    LARSEN_RANGE,
+    VERDICTS,
+    CCIResult,
+    CleaningCriteria,
+    LarsenResult,
+    carrying_capacity_index,
+    cleaning_score,
+    larsen_critical_velocity,
+    verdict_levels,
+)
+from calc.cleaning.transport import Cuttings, TransportResult, annular_transport
+from calc.errors import InputError, Note, check_choice, check_nonnegative, check_positive
+from calc.units import G_N
+
+__all__ = ["HoleCleaningResult", "cuttings_ecd_increment", "hole_cleaning"]
+
+#: Default bracket for minimum-rate searches [m³/s] (≈ 1.6-3200 gpm).
+RATE_BRACKET = (1e-4, 0.2)
+
+
+def _annulus_rows(well):
+    a = well.flow_intervals().annulus
+    names = []
+    for comp, sec, tj, top, bot in zip(
+        a.component, a.section, a.is_tool_joint, a.top_md, a.bottom_md, strict=True
+    ):
+        part = f"{comp} tool joints" if tj else str(comp)
+        names.append(f"{part} in {sec}, MD {top:.1f}-{bot:.1f} m")
+    return a, tuple(names)
+
+
+@dataclass(frozen=True, eq=False)
+class HoleCleaningResult:
+    """Per-interval hole cleaning for the annulus, bit upwards (SI; arrays: rate axes + interval).
+
+    Attributes
+    ----------
+    q : float or ndarray
+        Flow rate(s) [m³/s].
+    names, top_md, bottom_md, inclination, d_hole, d_pipe, is_tool_joint
+        The annular intervals (as :meth:`calc.geometry.Well.flow_intervals` gives them).
+    vertical : ndarray of bool
+        Interval below ``criteria.vertical_limit`` (vertical criteria apply).
+    transport : TransportResult
+        Velocities, slip, transport ratio, concentration, loaded density.
+    cci : CCIResult
+        Carrying capacity index (meaningful where ``vertical``).
+    larsen : LarsenResult
+        High-angle critical velocity and rate (meaningful where not ``vertical``).
+    critical_ratio : ndarray
+        Q/Q_crit (Larsen).
+    levels : dict
+        Per-criterion levels 0/1/2 (adequate/marginal/poor; -1 not applicable) and "overall".
+    verdict : ndarray of str
+        "adequate", "marginal" or "poor" per interval.
+    minimum_rate : ndarray
+        Smallest flow rate giving the ``require`` verdict in each interval [m³/s] (``inf`` where
+        not reached inside the search bracket).
+    controlling_interval, controlling_rate
+        The interval needing the highest rate, and that rate [m³/s].
+    require : str
+        "adequate" or "marginal".
+    criteria : CleaningCriteria
+    criteria_text : str
+    method : str
+        Slip method and indicator sources.
+    notes : tuple of Note
+    """
+
+    q: object
+    names: tuple[str, ...]
+    top_md: np.ndarray
+    bottom_md: np.ndarray
+    inclination: np.ndarray
+    d_hole: np.ndarray
+    d_pipe: np.ndarray
+    is_tool_joint: np.ndarray
+    vertical: np.ndarray
+    transport: TransportResult
+    cci: CCIResult
+    larsen: LarsenResult
+    critical_ratio: object
+    levels: dict
+    verdict: np.ndarray
+    minimum_rate: np.ndarray
+    controlling_interval: str
+    controlling_rate: float
+    require: str
+    criteria: CleaningCriteria
+    criteria_text: str
+    method: str
+    notes: tuple[Note, ...] = field(default=())
+
+    def table(self) -> list[dict]:
+        """One dictionary per interval (single rate) for tables and reports, SI values."""
+        if np.ndim(self.q) != 0:
+            raise InputError("q", "a sweep", "a single rate for the table")
+        t = self.transport
+        rows = []
+        for i, name in enumerate(self.names):
+            rows.append(
+                {
+                    "interval": name,
+                    "top_md": float(self.top_md[i]),
+                    "bottom_md": float(self.bottom_md[i]),
+                    "inclination": float(self.inclination[i]),
+                    "annular_velocity": float(np.asarray(t.annular_velocity)[i]),
+                    "slip_velocity": float(np.asarray(t.slip_velocity)[i]),
+                    "transport_ratio": float(np.asarray(t.transport_ratio)[i]),
+                    "net_rise_velocity": float(np.asarray(t.net_rise_velocity)[i]),
+                    "concentration": float(np.asarray(t.concentration)[i]),
+                    "loaded_density": float(np.asarray(t.loaded_density)[i]),
+                    "cci": float(np.asarray(self.cci.cci)[i]) if self.vertical[i] else None,
+                    "critical_rate": None
+                    if self.vertical[i]
+                    else float(np.asarray(self.larsen.critical_rate)[i]),
+                    "minimum_rate": float(self.minimum_rate[i]),
+                    "verdict": str(self.verdict[i]),
+                }
+            )
+        return rows
+
+
+def _evaluate(q, rows, rho, params, cuttings, rop, bit_d, method, criteria, larsen_rate):
+    """Transport, CCI, ratio and levels at rates ``q`` (broadcast against the interval axis)."""
+    ty, k, n = params
+    tr = annular_transport(
+        q, rows["d_hole"], rows["d_pipe"], density=rho, k=k, tau_y=ty, n=n,
+        cuttings=cuttings, rop=rop, bit_diameter=bit_d, method=method,
+    )  # fmt: skip
+    cci = carrying_capacity_index(tr.annular_velocity, density=rho, k=k, tau_y=ty, n=n)
+    ratio = np.asarray(q) / larsen_rate
+    return tr, cci, ratio
+
+
+def hole_cleaning(
+    well,
+    fluid,
+    q,
+    *,
+    rop,
+    cuttings: Cuttings,
+    method: str = "moore",
+    criteria: CleaningCriteria | None = None,
+    require: str = "adequate",
+    rate_bracket: tuple[float, float] = RATE_BRACKET,
+) -> HoleCleaningResult:
+    """Hole cleaning in every annular interval of a well at flow rate(s) ``q``.
+
+    For each interval: annular velocity, slip velocity (``method``), transport ratio, net rise
+    velocity, in-situ cuttings concentration from ROP, bit size and rate, loaded density; the
+    carrying capacity index for near-vertical intervals and the Larsen-Pilehvari-Azar critical
+    rate for inclined ones; a verdict per interval against ``criteria``; the minimum rate for the
+    ``require`` verdict in each interval (vectorised bisection on the rate) and the interval that
+    controls it.
+
+    Parameters
+    ----------
+    well : calc.geometry.Well
+    fluid : calc.circulation.HydraulicsFluid
+        Scalar density; the annulus model's (τ_y, K, n) are used.
+    q : float or array_like
+        Flow rate(s) [m³/s], > 0.  An array adds a leading axis to every per-interval array.
+    rop : float
+        Rate of penetration [m/s], ≥ 0.
+    cuttings : Cuttings
+    method : str
+        Slip-velocity method (:data:`calc.cleaning.SLIP_METHODS`).
+    criteria : CleaningCriteria, optional
+        Verdict thresholds (defaults: common practice, see :class:`CleaningCriteria`).
+    require : {"adequate", "marginal"}
+        Verdict the minimum rates are computed for.
+    rate_bracket : (float, float)
+        Search bracket for minimum rates [m³/s].
+
+    Returns
+    -------
+    HoleCleaningResult
+
+    Notes
+    -----
+    Below ``criteria.vertical_limit`` (35°) the vertical criteria apply (transport ratio,
+    concentration, CCI); at and above it the Larsen critical rate and the concentration — Larsen
+    et al. is stated for 55-90°, so between 35° and 55° it is extrapolated (a note says so).
+    Pipe rotation, eccentricity and cuttings beds are not modelled.
+
+    References
+    ----------
+    See :mod:`calc.cleaning.slip`, :mod:`calc.cleaning.transport`, :mod:`calc.cleaning.indicators`.
+    """
+    criteria = CleaningCriteria() if criteria is None else criteria
+    require = check_choice("require", require, ("adequate", "marginal"))
+    qv = check_positive("flow rate", q, "m³/s")
+    r = float(check_nonnegative("rate of penetration", rop, "m/s"))
+    rho = check_positive("mud density", fluid.density, "kg/m³")
+    if rho.ndim:
+        raise InputError("fluid density", "an array", "one density for hole cleaning")
+    rho = float(rho)
+    params = fluid.annulus_parameters
+    a, names = _annulus_rows(well)
+    d2 = np.asarray(a.outer_diameter, dtype=float)
+    d1 = np.asarray(a.inner_diameter, dtype=float)
+    gap = 0.5 * (d2 - d1)
+    if np.any(cuttings.size >= gap):
+        i = int(np.argmin(gap))
+        raise InputError(
+            "cuttings size", cuttings.size, f"< the radial gap {gap[i]:.4g} m of '{names[i]}'"
+        )
+    inc = np.asarray(a.inclination, dtype=float)
+    bit_d = float(well.bit.size)
+    rows = {"d_hole": d2, "d_pipe": d1}
+    vertical = inc < criteria.vertical_limit
+    lar = larsen_critical_velocity(
+        r, d2, d1, density=rho, k=params[1], tau_y=params[0], n=params[2],
+        cuttings_size=cuttings.size, inclination=np.clip(inc, 0.0, 90.0),
+    )  # fmt: skip
+    q_crit = np.asarray(lar.critical_rate)
+    q_arr = np.asarray(qv, dtype=float)
+    q_b = q_arr[..., None] if q_arr.ndim else q_arr
+    tr, cci, ratio = _evaluate(q_b, rows, rho, params, cuttings, r, bit_d, method, criteria, q_crit)
+    levels = verdict_levels(
+        criteria, vertical, np.asarray(tr.transport_ratio), np.asarray(tr.concentration),
+        np.asarray(cci.cci), ratio,
+    )  # fmt: skip
+    verdict = np.asarray(VERDICTS, dtype=object)[levels["overall"]]
+
+    # minimum rate per interval: the score rises with the rate; bisect on log q, all at once
+    def score(qq):
+        t2, c2, r2 = _evaluate(qq, rows, rho, params, cuttings, r, bit_d, method, criteria, q_crit)
+        return cleaning_score(
+            criteria, require, vertical, np.asarray(t2.transport_ratio),
+            np.asarray(t2.concentration), np.asarray(c2.cci), r2,
+        )  # fmt: skip
+
+    lo = np.full(d2.shape, float(rate_bracket[0]))
+    hi = np.full(d2.shape, float(rate_bracket[1]))
+    s_hi = score(hi)
+    q_min = bisect_increasing(score, lo, hi, iterations=50, log=True)
+    q_min = np.where(score(lo) >= 0, lo, q_min)
+    q_min = np.where(s_hi < 0, np.inf, q_min)
+    ctrl = int(np.argmax(q_min))
+
+    notes = list(tr.notes) + list(cci.notes)
+    if np.any(~vertical & (inc < LARSEN_RANGE[0])):
+        notes.append(
+            Note(
+                "warning",
+                "larsen_extrapolated",
+                f"Larsen-Pilehvari-Azar critical rate used between {criteria.vertical_limit:g}° "
+                f"and {LARSEN_RANGE[0]:g}°, below its stated range (45-60° is the hardest band).",
+                "hole cleaning",
+            )
+        )
+    if np.any(~np.isfinite(q_min)):
+        notes.append(
+            Note(
+                "caution",
+                "cleaning_rate_unreachable",
+                f"no rate up to {rate_bracket[1]:g} m³/s gives '{require}' cleaning in "
+                f"{int(np.sum(~np.isfinite(q_min)))} interval(s).",
+                "hole cleaning",
+            )
+        )
+    if np.any(levels["overall"] == 2):
+        notes.append(
+            Note("caution", "poor_cleaning", "poor hole cleaning predicted", "hole cleaning")
+        )
+    return HoleCleaningResult(
+        q=scalar_or_array(q_arr),
+        names=names,
+        top_md=np.asarray(a.top_md),
+        bottom_md=np.asarray(a.bottom_md),
+        inclination=inc,
+        d_hole=d2,
+        d_pipe=d1,
+        is_tool_joint=np.asarray(a.is_tool_joint),
+        vertical=vertical,
+        transport=tr,
+        cci=cci,
+        larsen=lar,
+        critical_ratio=scalar_or_array(ratio),
+        levels=levels,
+        verdict=verdict,
+        minimum_rate=q_min,
+        controlling_interval=names[ctrl],
+        controlling_rate=float(q_min[ctrl]),
+        require=require,
+        criteria=criteria,
+        criteria_text=criteria.describe(),
+        method=f"slip {tr.method}; CCI (Robinson); {lar.method}",
+        notes=tuple(dict.fromkeys(notes)),
+    )
+
+
+def cuttings_ecd_increment(well, loaded_density, density, md, *, hydrostatic: str = "exact"):
+    """Extra EMW from the cuttings load at measured depth(s) ``md`` [kg/m³].
+
+    .. math:: \\Delta\\mathrm{ECD}(z) = \\frac{\\sum_i (\\rho_{eff,i} - \\rho)\\,g\\,w_i(z)\\,
+              \\Delta TVD_i}{g\\,TVD(z)}
+
+    w_i the fraction of annular interval i above z (linear in MD), ΔTVD_i its vertical extent
+    (tool-joint rows carry their share).  Add it to the clean ECD for the loaded profile; the
+    extra friction of the laden mud is neglected.
+
+    Parameters
+    ----------
+    well : calc.geometry.Well
+    loaded_density : array_like
+        ρ_eff per annular interval [kg/m³] (leading rate axes allowed; last axis the intervals).
+    density : float
+        Clean mud density [kg/m³].
+    md : array_like
+        Measured depths [m], 0 < md ≤ bit depth.
+    hydrostatic : {"exact", "0.052"}
+        Cancels (g appears above and below); kept for symmetry with the circulation API.
+    """
+    a = well.flow_intervals().annulus
+    mdv = check_positive("MD", md, "m")
+    tvd = np.asarray(well.tvd_at(mdv), dtype=float)
+    top, bot = np.asarray(a.top_md), np.asarray(a.bottom_md)
+    w = np.clip((mdv.ravel()[:, None] - top[None, :]) / (bot - top)[None, :], 0.0, 1.0)
+    extra = (np.asarray(loaded_density, dtype=float) - density) * np.asarray(a.delta_tvd)
+    dp = extra @ w.T  # per unit g
+    out = dp.reshape(dp.shape[:-1] + mdv.shape) / np.where(tvd > 0, tvd, np.inf)
+    return scalar_or_array(out)

@@ -1,0 +1,100 @@
+"""The demo well (workbooks/demo-case.toml, invented data) in every hydraulics method.
+
+The scenario's [expected_approx] figures (/work/shared/demo-scenario.toml, copied below with
+their keys) come from a simplified hand check: API RP 13D (1995)-style power law, concentric
+annulus, no tool joints, the 8.5 in bit size as open hole, surface losses from a loss
+coefficient.  They are good to about ±10–15 % only and are NOT golden values: the checks below
+catch gross errors, nothing more.  Our model differs on purpose (8.6 in effective hole, tool-joint
+sub-intervals, surface lines as pipe runs), so the annulus is compared more loosely.
+"""
+
+import numpy as np
+import pytest
+import test_circulation_case as demo
+
+from calc.circulation import FLUID_FITS, calibrate_friction, circulate
+from calc.units import from_si
+
+METHODS = FLUID_FITS.names()
+
+# [expected_approx] of the demo scenario (hand check, ±10–15 %; see the module docstring).
+HAND = {
+    0: dict(spp=2430, surface=100, string=1020, tools=320, bit=740, annulus=245, ecd_bit=11.47,
+            ecd_sand_b=11.46, pct_bit=31, hsi=4.0),
+    1: dict(spp=2710, bit=755, annulus=335, hsi=4.1, ecd_bit=11.80, ecd_sand_b=11.77),
+}  # fmt: skip
+SAND_B = "Sand B (depleted, fictitious)"
+
+
+def run(method, day):
+    return circulate(
+        demo.demo_well(day),
+        demo.demo_fluid(method, day),
+        demo.demo_rate(day),
+        method=method,
+        **demo.demo_options(day),
+    )
+
+
+@pytest.mark.parametrize("day", [0, 1])
+@pytest.mark.parametrize("method", METHODS)
+def test_demo_computes_in_every_method(method, day):
+    r = run(method, day)
+    parts = r.breakdown()
+    assert r.standpipe_pressure == pytest.approx(sum(parts.values()), rel=1e-13)
+    assert all(v >= 0 for v in parts.values())
+    assert r.ecd_bit > r.esd_bit
+    p = r.profile(10.0)
+    assert p.md.size > 1000 and np.all(np.isfinite(p.ecd)) and np.all(p.ecd >= p.esd)
+    assert r.margins is not None and isinstance(r.margins.tightest.name, str)
+    # Sand B (MD 10,680 ft) is above the bit on both days and is the tightest fracture point
+    # of the demo (fracture EMW 12.6 ppg against ≥ 14.5 elsewhere below the shoe).
+    assert SAND_B in r.margins.names
+    assert r.margins.tightest.name == SAND_B and r.margins.tightest.limit == "fracture"
+
+
+def psi(x):
+    return from_si(x, "psi")
+
+
+def ppg(x):
+    return from_si(x, "ppg")
+
+
+@pytest.mark.parametrize("day", [0, 1])
+def test_demo_api1995_against_the_scenario_hand_check(day):
+    # The hand check used the API RP 13D (1995) power-law method; compare loosely (±15 %, the
+    # hand check's own stated accuracy; the annulus ±35 %: hole size and tool joints differ).
+    r = run("api13d_1995_power_law", day)
+    h = HAND[day]
+    assert psi(r.standpipe_pressure) == pytest.approx(h["spp"], rel=0.15)
+    assert psi(r.bit_loss) == pytest.approx(h["bit"], rel=0.05)  # same nozzle formula
+    assert psi(r.annulus_loss) == pytest.approx(h["annulus"], rel=0.35)
+    assert ppg(r.ecd_bit) == pytest.approx(h["ecd_bit"], abs=0.15)
+    sand = ppg(r.ecd_at(demo.ft(10680.0)))
+    assert sand == pytest.approx(h["ecd_sand_b"], abs=0.15)
+    assert from_si(r.bit.hsi, "hp/in**2") == pytest.approx(h["hsi"], rel=0.15)
+    if day == 0:
+        assert psi(r.string_loss) == pytest.approx(h["string"], rel=0.15)
+        assert psi(r.tool_loss) == pytest.approx(h["tools"], rel=0.02)
+        assert 100 * r.bit_share == pytest.approx(h["pct_bit"], abs=5)
+
+
+@pytest.mark.parametrize("method", METHODS)
+def test_demo_every_method_within_a_broad_band_of_the_hand_check(method):
+    # Methods differ (laminar/turbulent criteria, fits); a ±30 % band on the SPP only catches
+    # gross errors (hand check ±10–15 % itself, different method).
+    r = run(method, 0)
+    assert psi(r.standpipe_pressure) == pytest.approx(HAND[0]["spp"], rel=0.30)
+    assert ppg(r.ecd_bit) == pytest.approx(HAND[0]["ecd_bit"], abs=0.3)
+
+
+def test_demo_calibration_against_the_measured_spp():
+    # Day 1: measured SPP 2560 psi at 522 gpm (demo case).  The hand check put the model
+    # about 5 % below the measurement ([expected_approx].measured_minus_model, ±10–15 %).
+    well, fluid = demo.demo_well(0), demo.demo_fluid("api13d_2010_hb", 0)
+    meas = demo.to_si(demo.check(0)["measured_spp"], "psi")
+    cal = calibrate_friction(well, fluid, demo.demo_rate(0), meas, **demo.demo_options(0))
+    assert cal.calibrated.standpipe_pressure == pytest.approx(meas, rel=1e-12)
+    assert -20.0 < cal.deviation_percent < 25.0
+    assert 0.5 < cal.multiplier < 2.0
