@@ -415,7 +415,13 @@ def _read_block(grid, r0, block: Block, sheet, name, unit_of, doc, where) -> int
                     continue
                 u = units[c] if c < len(units) else None
                 _assign(rec, keys[c], _with_unit(v, u, unit_of(f.kind)), loc)
-                where[f"{block.key}[{len(records)}].{keys[c]}"] = loc
+                i = len(records)
+                if block.arrays:
+                    where[f"{block.key}.{keys[c]}[{i}]"] = loc
+                elif block.rows_key:
+                    where[f"{block.key}.{block.rows_key}[{i}]"] = loc
+                else:  # records are numbered from 1, as in the case-file messages
+                    where[f"{block.key}[{i + 1}].{keys[c]}"] = loc
             if rec:
                 records.append(rec)
         if block.arrays:
@@ -441,7 +447,7 @@ def _read_block(grid, r0, block: Block, sheet, name, unit_of, doc, where) -> int
                     continue
                 rec = records.setdefault(c, {})
                 _assign(rec, key, _with_unit(v, row[2], unit_of(f.kind)), _where(name, sheet, r, c))
-                where[f"{block.key}[{c - 3}].{key}"] = _where(name, sheet, r, c)
+                where[f"{block.key}[{c - 2}].{key}"] = _where(name, sheet, r, c)
         doc[block.key] = [records[c] for c in sorted(records)]
     else:  # pragma: no cover - layout definition error
         raise ValueError(block.kind)

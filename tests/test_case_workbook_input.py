@@ -43,7 +43,7 @@ def test_demo_case_round_trips_through_the_workbook_layout(tmp_path):
     doc = _demo_workbook(tmp_path / "c.xlsx")
     back, where = wi.read_blocks(tmp_path / "c.xlsx")
     assert _norm(back) == _norm(doc)
-    assert where["check[1].dial.600"].startswith("c.xlsx: Mud checks!E")  # 2nd check: column E
+    assert where["check[2].dial.600"].startswith("c.xlsx: Mud checks!E")  # 2nd check: column E
 
 
 def test_committed_template_carries_the_demo_case():
