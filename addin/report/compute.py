@@ -62,18 +62,6 @@ class Results:
         return self.checks[-1]
 
 
-def readings_for(check, label: str):
-    """ViscometerReadings of a case check (dial keyed by rpm; gels as dial readings)."""
-    from calc.rheology import ViscometerReadings
-
-    speeds = sorted(check.dial)
-    gels = {k: v for k, v in check.raw.get("gels", {}).items()} or None
-    return ViscometerReadings(
-        speeds, [check.dial[s] for s in speeds], gels=gels, label=label,
-        temperature=check.cup_temperature,
-    )
-
-
 def fluid_for(readings, density: float, method: str, label: str):
     """HydraulicsFluid with the fits the hydraulics ``method`` prescribes (calc.circulation)."""
     from calc.circulation.fluid import FLUID_FITS, HydraulicsFluid
@@ -96,20 +84,26 @@ def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) 
     checks = []
     prev = None
     for chk in case.checks:
-        r = readings_for(chk, chk.label)
+        r = chk.readings
         fs = fit_all(r)
         cmp_ = compare_checks(prev, r) if prev is not None else None
         checks.append(CheckResults(chk.label, r, fs, cmp_))
         prev = r
-    latest = case.checks[-1]
     well = case.well(-1)
-    fluid = fluid_for(checks[-1].readings, latest.density, method, latest.label)
+    density = case.check_value(-1, "density")
+    q = case.check_value(-1, "flow_rate")
+    fluid = fluid_for(checks[-1].readings, density, method, case.checks[-1].label)
     lim = case.limits
     res = circulate(
-        well, fluid, latest.flow_rate, method=method, window=case.window,
+        well,
+        fluid,
+        q,
+        method=method,
+        window=case.window,
         weak_points=case.weak_points,
-        margins=Margins(fracture=lim.fracture_margin, pore=lim.pore_margin),
-        surface_rating=lim.surface_rating, message_units=case.system,
+        margins=Margins(fracture=lim["fracture_margin"], pore=lim["pore_margin"]),
+        surface_rating=lim["surface_rating"],
+        message_units=case.system,
     )
     step = 30.48 if case.system == "oilfield" else 25.0  # profile grid: 100 ft or 25 m
     prof = res.profile(step)
@@ -118,9 +112,18 @@ def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) 
         notes.extend(c.readings.notes)
         notes.extend(c.fits.notes)
     return Results(
-        case=case, run_time=run_time, version=calc.__version__, method=method,
-        checks=tuple(checks), well=well, fluid=fluid, circulation=res, profile=prof,
-        cleaning=None, surge=None, notes=_dedupe(notes),
+        case=case,
+        run_time=run_time,
+        version=calc.__version__,
+        method=method,
+        checks=tuple(checks),
+        well=well,
+        fluid=fluid,
+        circulation=res,
+        profile=prof,
+        cleaning=None,
+        surge=None,
+        notes=_dedupe(notes),
     )
 
 

@@ -6,15 +6,27 @@ import numpy as np
 
 from addin.report.audit import Factors, cell_ref, write_checked
 from addin.report.charts import rheogram
-from addin.report.style import heading, number_format, put, put_number, set_widths, setup_print
+from addin.report.style import (
+    heading,
+    number_format,
+    put,
+    put_number,
+    set_widths,
+    setup_print,
+    table_header,
+)
 from addin.report.style import unit_label as U
-from addin.report.style import table_header
 from calc.units import from_si, unit_for
 
 __all__ = ["write_rheology"]
 
-_MODEL_CURVES = ("api13d_2010_hb", "hb_least_squares", "bingham_least_squares",
-                 "power_law_least_squares", "api13d_1995_pipe")
+_MODEL_CURVES = (
+    "api13d_2010_hb",
+    "hb_least_squares",
+    "bingham_least_squares",
+    "power_law_least_squares",
+    "api13d_1995_pipe",
+)
 _CURVE_RATES = np.geomspace(1.0, 1100.0, 45)
 
 
@@ -33,8 +45,13 @@ def write_rheology(wb, results, factors: Factors, title: str):
     system = results.case.system
     ws = wb.create_sheet("Rheology")
     set_widths(ws, [26, 12, 11, 11, 9, 11, 11, 9, 11, 11, 9, 16, 3, 11, 11, 11, 11, 11, 11, 11])
-    row = heading(ws, 1, "Rheology: viscometer readings, field properties and fitted models",
-                  span=12, title=True)
+    row = heading(
+        ws,
+        1,
+        "Rheology: viscometer readings, field properties and fitted models",
+        span=12,
+        title=True,
+    )
     checks = results.checks
     # ---------------------------------------------------------------- readings
     row = heading(ws, row + 1, "Viscometer readings (standard rotor–bob–spring)", span=12)
@@ -58,17 +75,27 @@ def write_rheology(wb, results, factors: Factors, title: str):
             col = 3 + 2 * j
             if val is not None:
                 put_number(ws, row, col, val, "0.0", "bf_input")
-                put_number(ws, row, col + 1, _out(val * r.geometry.stress_per_reading, "stress",
-                                                   system), number_format("stress", system))
+                put_number(
+                    ws,
+                    row,
+                    col + 1,
+                    _out(val * r.geometry.stress_per_reading, "stress", system),
+                    number_format("stress", system),
+                )
                 dial_cells[j][s] = cell_ref(ws, row, col, absolute=True)
         row += 1
     read_rows = (first, row - 1)
-    put(ws, row, 1, "Stress = dial × instrument constant (k₁k₂, standard spring), shear rate = "
-        "rpm × Couette factor of the standard geometry (calc.rheology.viscometer).", "bf_note")
+    put(
+        ws,
+        row,
+        1,
+        "Stress = dial × instrument constant (k₁k₂, standard spring), shear rate = "
+        "rpm × Couette factor of the standard geometry (calc.rheology.viscometer).",
+        "bf_note",
+    )
     row += 2
     # ---------------------------------------------------------------- properties with checks
-    row = heading(ws, row, "Field properties (API RP 13B-1 definitions) with live checks",
-                  span=12)
+    row = heading(ws, row, "Field properties (API RP 13B-1 definitions) with live checks", span=12)
     heads = ["property", "unit"]
     units = ["", ""]
     for c in checks:
@@ -77,20 +104,33 @@ def write_rheology(wb, results, factors: Factors, title: str):
     heads += ["programme"]
     units += ["low – high"]
     row = table_header(ws, row, 1, heads, units)
-    f_cp = factors.named("SI per cP", 1e-3, "multiplies a dial difference read as cP to Pa·s",
-                         "API RP 13B-1 (PV = θ600 − θ300 in cP); cP = 1e-3 Pa·s exact")
+    f_cp = factors.named(
+        "SI per cP",
+        1e-3,
+        "multiplies a dial difference read as cP to Pa·s",
+        "API RP 13B-1 (PV = θ600 − θ300 in cP); cP = 1e-3 Pa·s exact",
+    )
     f_fs = factors.unit_factor_of("lbf_per_100ft_sq", "stress")
     f_visc = factors.unit("viscosity")
     f_str = factors.unit("stress")
     refs = {}
     props = [
-        ("PV", "viscosity", lambda r: r.pv, lambda d: f"({d[600]}-{d[300]})*{f_cp}/{f_visc}",
-         "pv"),
+        ("PV", "viscosity", lambda r: r.pv, lambda d: f"({d[600]}-{d[300]})*{f_cp}/{f_visc}", "pv"),
         ("YP", "stress", lambda r: r.yp, lambda d: f"(2*{d[300]}-{d[600]})*{f_fs}/{f_str}", "yp"),
-        ("LSYP = 2θ3 − θ6", "stress", lambda r: r.lsyp,
-         lambda d: f"(2*{d[3]}-{d[6]})*{f_fs}/{f_str}", "lsyp"),
-        ("AV = θ600 / 2", "viscosity", lambda r: r.av, lambda d: f"{d[600]}/2*{f_cp}/{f_visc}",
-         None),
+        (
+            "LSYP = 2θ3 − θ6",
+            "stress",
+            lambda r: r.lsyp,
+            lambda d: f"(2*{d[3]}-{d[6]})*{f_fs}/{f_str}",
+            "lsyp",
+        ),
+        (
+            "AV = θ600 / 2",
+            "viscosity",
+            lambda r: r.av,
+            lambda d: f"{d[600]}/2*{f_cp}/{f_visc}",
+            None,
+        ),
     ]
     for name, kind, get, formula, prog in props:
         put(ws, row, 1, name)
@@ -103,11 +143,12 @@ def write_rheology(wb, results, factors: Factors, title: str):
             except (KeyError, Exception):  # readings lack the speeds this property needs
                 put(ws, row, col, "n/a (speeds missing)", "bf_note")
                 continue
-            vref, _ = write_checked(ws, row, col, _out(v, kind, system), f, kind=kind,
-                                    system=system)
+            vref, _ = write_checked(
+                ws, row, col, _out(v, kind, system), f, kind=kind, system=system
+            )
             refs[(name.split()[0], j)] = vref
         if prog:
-            rng = results.case.checks[-1].raw.get("program", {}).get(prog)
+            rng = results.case.doc["check"][-1].get("program", {}).get(prog)
             if isinstance(rng, list) and len(rng) == 2:
                 put(ws, row, 3 + 3 * len(checks), f"{rng[0]} – {rng[1]}", "bf_cell")
         row += 1
@@ -117,14 +158,25 @@ def write_rheology(wb, results, factors: Factors, title: str):
         for j, c in enumerate(checks):
             g = c.readings.gels_si.get(gel) if c.readings.gels else None
             if g is not None:
-                put_number(ws, row, 3 + 3 * j, _out(g, "stress", system),
-                           number_format("stress", system))
+                put_number(
+                    ws, row, 3 + 3 * j, _out(g, "stress", system), number_format("stress", system)
+                )
         row += 1
     row += 1
     # ---------------------------------------------------------------- fits
     row = heading(ws, row, "Fitted models (every method; quality over all readings)", span=12)
-    heads = ["check / method", "model", "τy", "K", "n", "RMSE", "R²", "rank", "fitted range",
-             "source"]
+    heads = [
+        "check / method",
+        "model",
+        "τy",
+        "K",
+        "n",
+        "RMSE",
+        "R²",
+        "rank",
+        "fitted range",
+        "source",
+    ]
     units = ["", "", su, f"{su}·sⁿ", "–", su, "–", "1 = best", "1/s", ""]
     row = table_header(ws, row, 1, heads, units)
     for c in checks:
@@ -144,19 +196,32 @@ def write_rheology(wb, results, factors: Factors, title: str):
             put(ws, row, 9, f"{lo:,.0f} – {hi:,.0f}")
             put(ws, row, 10, fr.source, "bf_note")
             row += 1
-    put(ws, row, 1, "τy, K, n: Herschel-Bulkley form τ = τy + K·γ̇ⁿ (Bingham: n = 1, K = μp; "
+    put(
+        ws,
+        row,
+        1,
+        "τy, K, n: Herschel-Bulkley form τ = τy + K·γ̇ⁿ (Bingham: n = 1, K = μp; "
         "power law: τy = 0). RMSE in stress over all readings; rank by standard error.",
-        "bf_note")
+        "bf_note",
+    )
     row += 2
     # ---------------------------------------------------------------- change
     last = checks[-1]
     if last.comparison is not None:
         cmp_ = last.comparison
-        row = heading(ws, row, f"Change since the previous check ({cmp_.label_a} → "
-                      f"{cmp_.label_b}, {cmp_.method})", span=12)
-        row = table_header(ws, row, 1, ["parameter", "previous", "latest", "change",
-                                        "relative", "flagged?"],
-                           ["", "", "", "", "%", "beyond tolerance"])
+        row = heading(
+            ws,
+            row,
+            f"Change since the previous check ({cmp_.label_a} → {cmp_.label_b}, {cmp_.method})",
+            span=12,
+        )
+        row = table_header(
+            ws,
+            row,
+            1,
+            ["parameter", "previous", "latest", "change", "relative", "flagged?"],
+            ["", "", "", "", "%", "beyond tolerance"],
+        )
         for ch in cmp_.changes:
             kind = ch.kind if ch.kind in ("stress", "viscosity", "consistency") else None
             put(ws, row, 1, f"{ch.name} [{U(kind, system)}]" if kind else ch.name)
@@ -165,9 +230,15 @@ def write_rheology(wb, results, factors: Factors, title: str):
             put_number(ws, row, 5, 100 * ch.relative, "0.0")
             put(ws, row, 6, "YES" if ch.flagged else "no")
             row += 1
-        put(ws, row, 1, f"Largest difference between the fitted curves: "
+        put(
+            ws,
+            row,
+            1,
+            f"Largest difference between the fitted curves: "
             f"{_out(cmp_.max_curve_difference, 'stress', system):.2f} {su} at "
-            f"{cmp_.max_difference_at:,.0f} 1/s.", "bf_note")
+            f"{cmp_.max_difference_at:,.0f} 1/s.",
+            "bf_note",
+        )
         row += 2
     # ---------------------------------------------------------------- rheogram data and chart
     col0 = 14
@@ -178,16 +249,22 @@ def write_rheology(wb, results, factors: Factors, title: str):
         put_number(ws, row_d + i, col0, g, "#,##0.0")
         for j, m in enumerate(heads[1:]):
             model = _fit_of(last.fits, m).model
-            put_number(ws, row_d + i, col0 + 1 + j,
-                       _out(float(model.stress(g)), "stress", system), "0.00")
+            put_number(
+                ws, row_d + i, col0 + 1 + j, _out(float(model.stress(g)), "stress", system), "0.00"
+            )
     r1 = row_d + len(_CURVE_RATES) - 1
     models = [(m, (ws, col0 + 1 + j, row_d, r1)) for j, m in enumerate(heads[1:])]
-    readings = [(f"{c.label} readings", (ws, 4 + 2 * j, read_rows[0], read_rows[1]))
-                for j, c in enumerate(checks)]
-    ch = rheogram(readings, models,
-                  {"readings": (ws, 2, read_rows[0], read_rows[1]),
-                   "models": (ws, col0, row_d, r1)},
-                  stress_unit=su, title=f"Rheogram, {last.label} (log–log)")
+    readings = [
+        (f"{c.label} readings", (ws, 4 + 2 * j, read_rows[0], read_rows[1]))
+        for j, c in enumerate(checks)
+    ]
+    ch = rheogram(
+        readings,
+        models,
+        {"readings": (ws, 2, read_rows[0], read_rows[1]), "models": (ws, col0, row_d, r1)},
+        stress_unit=su,
+        title=f"Rheogram, {last.label} (log–log)",
+    )
     ws.add_chart(ch, f"A{row + 1}")
     setup_print(ws, title)
     return {"refs": refs, "next_row": row + 22}

@@ -37,8 +37,14 @@ def write_inputs(wb, results, title):
 
     case = results.case
     ws = wb.create_sheet("Inputs")
-    put(ws, 1, 1, "Inputs as read (block layout of the input workbook; this sheet reads back "
-        "as the same case)", "bf_title")
+    put(
+        ws,
+        1,
+        1,
+        "Inputs as read (block layout of the input workbook; this sheet reads back "
+        "as the same case)",
+        "bf_title",
+    )
     put(ws, 2, 1, f"source: {case.source}    inputs hash (SHA-256): {case.hash}", "bf_note")
     ws.append([])
     write_case_sheets(wb, case.doc, {"Inputs": tuple(b.key for b in LAYOUT)})
@@ -69,8 +75,9 @@ def write_cautions(wb, results, title):
         ws.row_dimensions[row].height = 15 * (1 + len(line) // 120)
         row += 1
     row += 1
-    row = heading(ws, row, "Notes from this run (inputs interpreted, doubtful values, cautions)",
-                  span=4)
+    row = heading(
+        ws, row, "Notes from this run (inputs interpreted, doubtful values, cautions)", span=4
+    )
     row = table_header(ws, row, 1, ["level", "code", "about", "message"])
     order = {"caution": 0, "warning": 1, "info": 2}
     for n in sorted(results.notes, key=lambda n: order.get(n.level, 3)):
@@ -108,10 +115,16 @@ def write_audit(ws, results, factors, title):
         put(ws, i, 1, k, "bf_cell")
         put(ws, i, 2, str(v), "bf_cell")
         ws.merge_cells(start_row=i, start_column=2, end_row=i, end_column=3)
-    put(ws, 9, 1, "How to audit: every blue cell is a live formula from native spreadsheet "
+    put(
+        ws,
+        9,
+        1,
+        "How to audit: every blue cell is a live formula from native spreadsheet "
         "functions that recomputes boreflow's number (the plain number on its left) from cells "
         f"on this workbook; the cell to its right says 'agrees' within {AGREE_TOL:g} relative. "
-        "The factors below convert the case's units to SI; each names its source.", "bf_text")
+        "The factors below convert the case's units to SI; each names its source.",
+        "bf_text",
+    )
     ws.merge_cells(start_row=9, start_column=1, end_row=9, end_column=4)
     ws.row_dimensions[9].height = 40
     table_header(ws, 11, 1, ["factor", "value", "meaning", "source"])
@@ -158,19 +171,32 @@ def write_summary(ws, results, refs, title):
         ("rig", m.get("rig", "")),
         ("location", m.get("location", "")),
         ("report period", m.get("report_period", "")),
-        ("mud check", f"{chk.label}  ({chk.raw.get('fluid', '')})"),
+        ("mud check", f"{chk.label}  ({chk.values.get('fluid', '')})"),
     ]
     bit_tvd = res.bit_tvd
+    oh_d = case.open_hole.get("diameter") or case.open_hole["bit_size"]
     right = [
-        ("bit depth MD / TVD", f"{out(chk.bit_depth, 'depth', system):,.0f} / "
-         f"{out(bit_tvd, 'depth', system):,.0f} {U('depth', system)}"),
-        ("open hole (effective)", f"{out(case.open_hole['diameter'] or case.open_hole['bit_size'], 'diameter', system):.3f} {U('diameter', system)}"),  # noqa: E501
-        ("last shoe MD, test EMW",
-         f"{out(last_shoe.bottom, 'depth', system):,.0f} {U('depth', system)}, "
-         f"{out(last_shoe.shoe_test, 'density', system):.2f} {U('density', system)}"
-         if last_shoe is not None and last_shoe.shoe_test else "–"),
-        ("mud density", f"{out(chk.density, 'density', system):.2f} {U('density', system)}"),
-        ("flow rate", f"{out(chk.flow_rate, 'flow_rate', system):,.0f} {U('flow_rate', system)}"),
+        (
+            "bit depth MD / TVD",
+            f"{out(chk.values['bit_depth'], 'depth', system):,.0f} / "
+            f"{out(bit_tvd, 'depth', system):,.0f} {U('depth', system)}",
+        ),
+        ("open hole (effective)", f"{out(oh_d, 'diameter', system):.3f} {U('diameter', system)}"),
+        (
+            "last shoe MD, test EMW",
+            f"{out(last_shoe.bottom, 'depth', system):,.0f} {U('depth', system)}, "
+            f"{out(last_shoe.shoe_test, 'density', system):.2f} {U('density', system)}"
+            if last_shoe is not None and last_shoe.shoe_test
+            else "–",
+        ),
+        (
+            "mud density",
+            f"{out(chk.values['density'], 'density', system):.2f} {U('density', system)}",
+        ),
+        (
+            "flow rate",
+            f"{out(chk.values['flow_rate'], 'flow_rate', system):,.0f} {U('flow_rate', system)}",
+        ),
         ("hydraulics method", results.method),
     ]
     for i, ((lk, lv), (rk, rv)) in enumerate(zip(left, right, strict=True)):
@@ -184,9 +210,20 @@ def write_summary(ws, results, refs, title):
     # ---- key results
     row = heading(ws, row, "Key results against limits", span=9)
     row = table_header(
-        ws, row, 1,
-        ["quantity", "boreflow", "live check", "agree?", "unit", "limit", "margin", "required",
-         "status"],
+        ws,
+        row,
+        1,
+        [
+            "quantity",
+            "boreflow",
+            "live check",
+            "agree?",
+            "unit",
+            "limit",
+            "margin",
+            "required",
+            "status",
+        ],
         ["", "computed", "from detail sheet", "", "", "", "limit − value", "", ""],
     )
     for item in results_rows(results, refs):
@@ -194,17 +231,20 @@ def write_summary(ws, results, refs, title):
         kind = item["kind"]
         fmt = number_format(kind, system)
         if item.get("value") is not None:
-            put_number(ws, row, 2, out(item["value"], kind, system) if kind else item["value"],
-                       fmt)
+            put_number(ws, row, 2, out(item["value"], kind, system) if kind else item["value"], fmt)
         elif item.get("text"):
             put(ws, row, 2, item["text"], "bf_cell")
         if item.get("check"):
             c = ws.cell(row=row, column=3, value="=" + item["check"])
             c.style = "bf_check"
             c.number_format = fmt
-            ws.cell(row=row, column=4, value=(
-                f'=IF(ABS(B{row}-C{row})<={AGREE_TOL}*MAX(ABS(B{row}),1E-12),"agrees","DIFFERS")'
-            )).style = "bf_note"
+            ws.cell(
+                row=row,
+                column=4,
+                value=(
+                    f'=IF(ABS(B{row}-C{row})<={AGREE_TOL}*MAX(ABS(B{row}),1E-12),"agrees","DIFFERS")'
+                ),
+            ).style = "bf_note"
         put(ws, row, 5, U(kind, system) if kind else item.get("unit", "–"), "bf_unit")
         for col, key in ((6, "limit"), (7, "margin"), (8, "required")):
             v = item.get(key)
@@ -229,8 +269,14 @@ def write_summary(ws, results, refs, title):
         put(ws, row, 2, str(v), "bf_cell")
         ws.merge_cells(start_row=row, start_column=2, end_row=row, end_column=9)
         row += 1
-    put(ws, row + 1, 1, "Detail on the following sheets; every caution and note on 'Cautions'; "
-        "units follow the case (" + system + ").", "bf_note")
+    put(
+        ws,
+        row + 1,
+        1,
+        "Detail on the following sheets; every caution and note on 'Cautions'; "
+        "units follow the case (" + system + ").",
+        "bf_note",
+    )
     ws.merge_cells(start_row=row + 1, start_column=1, end_row=row + 1, end_column=9)
     setup_print(ws, title, fit_height=1)
     ws.freeze_panes = None
