@@ -352,7 +352,7 @@ class Bit:
         return np.pi / 4.0 * self.size**2
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class BitHydraulics:
     """Bit hydraulics at one or many flow rates (arrays broadcast over the rates given)."""
 
@@ -571,7 +571,7 @@ def _parasitic_share_impact(m):
     return 2.0 / (m + 2.0)
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class NozzleOptimum:
     """Optimum hydraulics design for a surface-pressure limit (arrays broadcast over inputs)."""
 

@@ -159,6 +159,8 @@ def test_demo_intervals_cover_well_and_name_parts():
     cased = a.select(a.bottom_md <= 8200 * FT)
     assert np.all(np.isin(np.round(from_si(cased.outer_diameter, "in"), 3), [8.835]))
     assert np.all(iv.top_tvd <= iv.top_md + 1e-9)
+    assert set(a.section_kind) == {"casing", "open_hole"}
+    assert set(a.select(a.section_kind == "open_hole").section) == {"open hole"}
 
 
 def test_demo_bit_tfa_and_tools():
@@ -191,6 +193,9 @@ def test_demo_depth_grid_includes_boundaries_and_weak_points():
         assert np.any(np.isclose(grid.md, md))
     assert np.all(np.diff(grid.md) > 0)
     assert np.all(grid.tvd <= grid.md + 1e-9)
+    np.testing.assert_array_equal(
+        well.string_depth_grid(30 * FT).md, well.annulus_depth_grid(30 * FT).md
+    )
     k = np.flatnonzero(np.isclose(grid.md, 10680 * FT))[0]
     # invented demo scenario: Sand B top at 10,680 ft MD is 9,780 ft TVD (hand check)
     assert grid.tvd[k] / FT == pytest.approx(9780.0, abs=5.0)

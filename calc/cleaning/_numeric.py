@@ -32,6 +32,6 @@ def bisect_increasing(fun, lo, hi, *, iterations: int = 64, log: bool = False):
 
 
 def scalar_or_array(x):
-    """Python float for 0-d input, the array otherwise (the project's scalar-in, scalar-out rule)."""
+    """Python float for 0-d input, the array otherwise (scalar in, scalar out)."""
     arr = np.asarray(x)
     return float(arr) if arr.ndim == 0 else arr

@@ -20,7 +20,6 @@ from calc.cleaning.indicators import (
 )
 from calc.cleaning.transport import Cuttings, TransportResult, annular_transport
 from calc.errors import InputError, Note, check_choice, check_nonnegative, check_positive
-from calc.units import G_N
 
 __all__ = ["HoleCleaningResult", "cuttings_ecd_increment", "hole_cleaning"]
 

@@ -243,7 +243,9 @@ def larsen_critical_velocity(
 
     def v_slip(v):
         mu = np.asarray(annular_apparent_viscosity(v, d2, d1, tau_y, k, n))
-        v0 = np.where(mu <= _LPA_MU_BREAK, _LPA_A1 * mu + _LPA_B1, _LPA_A2 * (mu - _LPA_MU_BREAK) + _LPA_B2)
+        v0 = np.where(
+            mu <= _LPA_MU_BREAK, _LPA_A1 * mu + _LPA_B1, _LPA_A2 * (mu - _LPA_MU_BREAK) + _LPA_B2
+        )
         return c_ang * c_size * c_mw * v0, mu
 
     floor = np.maximum(v_cut, 1e-3)
@@ -328,7 +330,9 @@ def _level_low(x, adequate, poor):
     return np.where(x <= adequate, 0, np.where(x > poor, 2, 1))
 
 
-def verdict_levels(criteria: CleaningCriteria, vertical, transport_ratio, concentration, cci, ratio):
+def verdict_levels(
+    criteria: CleaningCriteria, vertical, transport_ratio, concentration, cci, ratio
+):
     """Per-criterion levels and the overall level (worst of those that apply).
 
     ``vertical`` marks intervals below ``criteria.vertical_limit``.  Returns a dict of arrays
@@ -353,8 +357,9 @@ def verdict_levels(criteria: CleaningCriteria, vertical, transport_ratio, concen
     }
 
 
-def cleaning_score(criteria: CleaningCriteria, level: str, vertical, transport_ratio,
-                   concentration, cci, ratio):
+def cleaning_score(
+    criteria: CleaningCriteria, level: str, vertical, transport_ratio, concentration, cci, ratio
+):
     """Smallest relative margin to the ``level`` thresholds ("adequate" or "marginal"); ≥ 0 where
     the interval is at least that good.  Increases with flow rate (used to find minimum rates).
     """

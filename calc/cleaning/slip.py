@@ -29,14 +29,14 @@ from types import SimpleNamespace
 import numpy as np
 
 from calc.cleaning._numeric import bisect_increasing, scalar_or_array
-from calc.errors import InputError, Note, check_finite, check_nonnegative, check_positive
+from calc.errors import InputError, Note, check_nonnegative, check_positive
 from calc.registry import MethodRegistry
 from calc.units import G_N, si_factor
 
 __all__ = [
+    "API13D_DRAG",
     "CHIEN_DRAG",
     "SLIP_METHODS",
-    "API13D_DRAG",
     "SlipResult",
     "annular_apparent_viscosity",
     "haider_levenspiel_drag",
@@ -273,8 +273,10 @@ def _chien(c):
     gamma = np.broadcast_to(8.0 * c.v_a / c.d, c.shape)
     mu = np.broadcast_to(hb_apparent_viscosity(gamma, c.tau_y, c.k, c.n), c.shape)
     x = mu / (c.rho * c.d)
-    v = (a / (2 * b)) * x * (
-        np.sqrt(1.0 + 16.0 * b / (3.0 * a * a) * G_N * c.d * (c.drho / c.rho) / x**2) - 1.0
+    v = (
+        (a / (2 * b))
+        * x
+        * (np.sqrt(1.0 + 16.0 * b / (3.0 * a * a) * G_N * c.d * (c.drho / c.rho) / x**2) - 1.0)
     )
     re = c.rho * v * c.d / mu
     f = a / re + b
@@ -348,9 +350,7 @@ def _drag_balance(c):
     def mu_of_v(v):
         return hb_apparent_viscosity(v / c.d, c.tau_y, c.k, c.n)
 
-    v, held = _solve_drag_balance(
-        c, mu_of_v, lambda re: haider_levenspiel_drag(re, c.psi), 0.05
-    )
+    v, held = _solve_drag_balance(c, mu_of_v, lambda re: haider_levenspiel_drag(re, c.psi), 0.05)
     vv = np.where(held, 1e-12, v)
     mu = np.asarray(mu_of_v(vv))
     re = np.where(held, 0.0, c.rho * v * c.d / mu)

@@ -96,7 +96,9 @@ def annular_velocity(q, d_hole, d_pipe):
     0.424413
     """
     d2 = np.asarray(d_hole, dtype=float)
-    return scalar_or_array(4.0 * np.asarray(q, dtype=float) / (np.pi * (d2**2 - np.asarray(d_pipe) ** 2)))
+    return scalar_or_array(
+        4.0 * np.asarray(q, dtype=float) / (np.pi * (d2**2 - np.asarray(d_pipe) ** 2))
+    )
 
 
 def cuttings_volume_rate(rop, bit_diameter):

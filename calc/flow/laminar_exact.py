@@ -112,7 +112,9 @@ def hb_pipe_wall_stress(q, d, tau_y, k, n):
     >>> bool(np.isclose(hb_pipe_flow_rate(tw, 0.1, 5.0, 0.3, 0.6), 1e-3, rtol=1e-12))
     True
     """
-    q, d, tau_y, k, n = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in (q, d, tau_y, k, n)))
+    q, d, tau_y, k, n = np.broadcast_arrays(
+        *(np.asarray(x, dtype=float) for x in (q, d, tau_y, k, n))
+    )
     v = q / (np.pi * d**2 / 4.0)
     lo = tau_y + power_law_pipe_wall_stress(v, d, k, n)
     ln_q = np.log(q)
@@ -145,7 +147,8 @@ def hb_slot_velocity(tau_w, gap, tau_y, k, n):
     """Mean laminar velocity of a Herschel-Bulkley fluid in a plane slot [m/s].
 
     .. math::
-        V = \\frac{H}{2}(τ_w/K)^{1/n}(1-φ)^{1+1/n}\\left[\\frac{1-φ}{2+1/n} + \\frac{φ}{1+1/n}\\right]
+        V = \\frac{H}{2}(τ_w/K)^{1/n}(1-φ)^{1+1/n}
+            \\left[\\frac{1-φ}{2+1/n} + \\frac{φ}{1+1/n}\\right]
 
     Parameters: tau_w wall stress [Pa] (= G·H/2), gap H [m], tau_y [Pa], k [Pa·sⁿ], n [-].
     Newtonian check: V = Hτ_w/(6μ), i.e. plane Poiseuille flow.
@@ -324,7 +327,9 @@ def hb_annulus_gradient(q, d_hole, d_pipe, tau_y, k, n):
     >>> bool(np.isclose(hb_annulus_flow_rate(g, 0.2159, 0.127, 5.0, 0.4, 0.6), 0.02, rtol=1e-9))
     True
     """
-    arrs = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in (q, d_hole, d_pipe, tau_y, k, n)))
+    arrs = np.broadcast_arrays(
+        *(np.asarray(x, dtype=float) for x in (q, d_hole, d_pipe, tau_y, k, n))
+    )
     shape = arrs[0].shape
     qq, d2, d1, ty, kk, nn = (np.atleast_1d(a).ravel() for a in arrs)
     gap = 0.5 * (d2 - d1)

@@ -20,7 +20,7 @@ from collections.abc import Callable
 
 import numpy as np
 
-__all__ = ["expand_bracket", "itp_solve", "newton_increasing_concave"]
+__all__ = ["expand_bracket", "itp_solve", "newton_increasing_concave", "solve_positive"]
 
 #: ITP slack n0: iterations allowed beyond bisection's count (Oliveira & Takahashi use 1; a
 #: larger slack lets the interpolation steps work on one-sided convergence).
@@ -171,3 +171,40 @@ def newton_increasing_concave(
             return x_new
         x = x_new
     return x
+
+
+def solve_positive(
+    func: Callable[[np.ndarray], np.ndarray],
+    guess,
+    *,
+    factor: float = 4.0,
+    rtol: float = 1e-12,
+) -> np.ndarray:
+    """Root of an increasing ``func`` of a positive unknown, starting from ``guess``.
+
+    Brackets by dividing/multiplying ``guess`` by ``factor`` until the residual changes sign,
+    then solves in ln x with :func:`itp_solve`.  Vectorised.
+
+    >>> float(solve_positive(lambda x: x**2 - 9.0, 1.0))
+    3.0
+    """
+    g = np.atleast_1d(np.array(guess, dtype=float))
+    lo = g / factor
+    hi = g * factor
+    for _ in range(400):
+        f_lo = np.asarray(func(lo))
+        bad = f_lo > 0
+        if not np.any(bad):
+            break
+        lo[bad] /= factor
+    for _ in range(400):
+        f_hi = np.asarray(func(hi))
+        bad = f_hi < 0
+        if not np.any(bad):
+            break
+        hi[bad] *= factor
+    x = itp_solve(
+        lambda x: func(np.exp(x)), np.log(lo), np.log(hi), xtol=rtol, rtol=0.0, f_lo=f_lo, f_hi=f_hi
+    )
+    out = np.exp(x)
+    return out.reshape(np.shape(guess)) if np.ndim(guess) == 0 else out

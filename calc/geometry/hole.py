@@ -97,7 +97,7 @@ class HoleSection:
         return self.kind == "open_hole"
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class Hole:
     """The hole as a set of sections; the innermost inside diameter governs at each depth.
 

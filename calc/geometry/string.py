@@ -174,7 +174,7 @@ class StringComponent:
         return self.length == FILL
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class DrillString:
     """The string from the bit upwards.
 

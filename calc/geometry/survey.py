@@ -58,7 +58,7 @@ def _arc_weights(beta, frac):
     return w1, w2
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class Survey:
     """A directional survey evaluated by the minimum-curvature method.
 

@@ -37,7 +37,7 @@ def _frozen(a) -> np.ndarray:
     return a
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class FlowIntervals:
     """Flow intervals as read-only arrays (one element per interval).
 
@@ -64,7 +64,8 @@ class FlowIntervals:
         0 in the string; pipe body or tool-joint OD in the annulus [m].
     component, section : ndarray of str
         String-component and hole-section names; ``component_index`` (bottom-up index into the
-        string) and ``section_index`` (into :attr:`Hole.sections`).
+        string), ``section_index`` (into :attr:`Hole.sections`) and ``section_kind``
+        ("casing", "liner" or "open_hole").
     is_tool_joint : ndarray of bool
     tool_joint_fraction : ndarray
         f used for the component (0 without tool joints).
@@ -84,6 +85,7 @@ class FlowIntervals:
     component_index: np.ndarray
     section: np.ndarray
     section_index: np.ndarray
+    section_kind: np.ndarray
     is_tool_joint: np.ndarray
     tool_joint_fraction: np.ndarray
 
@@ -133,7 +135,7 @@ class FlowIntervals:
         return [dict(zip(names, row, strict=True)) for row in zip(*cols, strict=True)]
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class DepthGrid:
     """Depth points for profiles: MD [m] increasing from surface to the bit, TVD [m],
     inclination [degree], governing hole diameter [m] and hole-section index."""
@@ -145,7 +147,7 @@ class DepthGrid:
     section_index: np.ndarray
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class Well:
     """The circulating system's geometry for one bit depth.
 
@@ -330,6 +332,7 @@ class Well:
         tjid_c = np.array([c.tool_joint_id if c.has_tool_joints else c.id for c in comps])
         names_c = np.array([c.name for c in comps], dtype=object)
         names_s = np.array([s.name for s in self.hole.sections], dtype=object)
+        kinds_s = np.array([s.kind for s in self.hole.sections], dtype=object)
         dia_s = np.array([s.diameter for s in self.hole.sections])
         tvd = np.asarray(self.survey.tvd_at(b))
         ttop, tbot = tvd[:-1], tvd[1:]
@@ -370,6 +373,7 @@ class Well:
                 "component_index": cc,
                 "section": names_s[si[k]],
                 "section_index": si[k],
+                "section_kind": kinds_s[si[k]],
                 "is_tool_joint": tj,
                 "tool_joint_fraction": f[k],
             }
@@ -393,6 +397,10 @@ class Well:
     def tvd_at(self, md):
         """TVD [m] at MD(s) ``md`` [m] (vectorised)."""
         return self.survey.tvd_at(md)
+
+    def string_depth_grid(self, step: float, extra_md: Sequence[float] = ()) -> DepthGrid:
+        """Depth points for string-side profiles: the same points as :meth:`annulus_depth_grid`."""
+        return self.annulus_depth_grid(step, extra_md)
 
     def annulus_depth_grid(self, step: float, extra_md: Sequence[float] = ()) -> DepthGrid:
         """Depth points for ECD/ESD profiles, surface to bit, every ``step`` [m].

@@ -6,7 +6,8 @@ from columns in any units with :meth:`RheometerTable.from_units`.
 Plateau and shear-thinning region (:func:`find_plateau`, :func:`shear_thinning_region`):
 
 * the **zero-shear plateau** is the leading run (≥ 2 points) of viscosities within ``tol``
-  (default 10 %) of the lowest-shear viscosity; η₀ ≈ their geometric mean;
+  (default 10 %) of the lowest-shear viscosity; η₀ ≈ the highest of them (a geometric mean
+  would be pulled down by the points already thinning);
 * **onset of shear thinning**: the shear rate where η first falls to (1 − tol)·η₀, found by
   log-log interpolation between the bracketing points;
 * the **shear-thinning (power-law) region**: the contiguous points whose adjacent log-log
@@ -33,7 +34,7 @@ class Plateau:
     """Zero-shear plateau found in a table.
 
     found           whether ≥ 2 leading points lie within ``tol`` of each other
-    eta0            plateau viscosity [Pa·s] (geometric mean of the plateau points; the
+    eta0            plateau viscosity [Pa·s] (highest viscosity on the plateau; the
                     lowest-shear viscosity when no plateau was found)
     n_points        number of plateau points
     last_rate       highest shear rate still on the plateau [1/s]
@@ -55,7 +56,7 @@ def find_plateau(shear_rate, viscosity, tol: float = 0.1) -> Plateau:
     >>> g = np.logspace(-2, 2, 9)
     >>> p = find_plateau(g, 1.0 / (1.0 + g))
     >>> p.found, p.n_points, round(p.onset_rate, 3)
-    (True, 3, 0.143)
+    (True, 3, 0.114)
     """
     g = np.asarray(shear_rate, dtype=float)
     eta = np.asarray(viscosity, dtype=float)
@@ -63,7 +64,7 @@ def find_plateau(shear_rate, viscosity, tol: float = 0.1) -> Plateau:
     inside = np.abs(eta / ref - 1.0) <= tol
     run = int(np.argmin(inside)) if not inside.all() else inside.size
     found = run >= 2
-    eta0 = float(np.exp(np.mean(np.log(eta[:run])))) if found else float(ref)
+    eta0 = float(np.max(eta[:run])) if found else float(ref)
     below = np.flatnonzero(eta < (1.0 - tol) * eta0)
     onset = None
     if below.size:

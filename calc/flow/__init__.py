@@ -1,0 +1,36 @@
+"""Pressure gradient in pipes and annuli for Newtonian, Bingham, power-law and HB fluids.
+
+Public API (SI throughout):
+
+* :func:`pipe_flow`, :func:`annulus_flow` → :class:`FlowResult`
+* :func:`critical_flow_rate` — per interval, the rate where laminar flow ends
+* :func:`list_methods` — registered methods (``method="..."``):
+  ``api13d_2010_hb`` (default), ``api13d_1995_power_law``, ``newtonian``, ``bingham``,
+  ``power_law``, ``exact_laminar``
+* friction factors in :mod:`calc.flow.friction`, exact laminar solutions in
+  :mod:`calc.flow.laminar_exact`, the eccentricity correction in :mod:`calc.flow.eccentricity`.
+
+Newtonian fluid: ``tau_y=0, k=mu, n=1``; Bingham: ``tau_y=YP, k=PV, n=1``; power law:
+``tau_y=0, k=K, n=n``.
+"""
+
+from calc.flow import methods_api, methods_classic, methods_exact  # noqa: F401  (registration)
+from calc.flow.core import (
+    DEFAULT_METHOD,
+    annulus_flow,
+    critical_flow_rate,
+    list_methods,
+    pipe_flow,
+)
+from calc.flow.result import REGIME_LABELS, FlowResult, regime_label
+
+__all__ = [
+    "DEFAULT_METHOD",
+    "REGIME_LABELS",
+    "FlowResult",
+    "annulus_flow",
+    "critical_flow_rate",
+    "list_methods",
+    "pipe_flow",
+    "regime_label",
+]

@@ -1,0 +1,376 @@
+"""Public entry points: :func:`pipe_flow`, :func:`annulus_flow`, :func:`critical_flow_rate`.
+
+Inputs are validated and broadcast here, the method is resolved through
+:data:`calc.flow.result.FLOW_METHODS`, and the eccentricity correction, the gradient, the
+critical velocity and the notes are added to the method's state.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from calc.errors import (
+    InputError,
+    Note,
+    check_nonnegative,
+    check_positive,
+    check_range,
+)
+from calc.flow.eccentricity import VALIDITY, eccentricity_factor
+from calc.flow.result import (
+    FLOW_METHODS,
+    LAMINAR,
+    TRANSITIONAL,
+    FlowCase,
+    FlowMethod,
+    FlowResult,
+    MethodState,
+    count_note,
+)
+from calc.flow.solvers import solve_positive
+from calc.registry import MethodInfo
+
+__all__ = ["DEFAULT_METHOD", "annulus_flow", "critical_flow_rate", "list_methods", "pipe_flow"]
+
+DEFAULT_METHOD = "api13d_2010_hb"
+
+
+def list_methods() -> list[MethodInfo]:
+    """The registered flow methods (name, description, source), default first.
+
+    >>> [m.name for m in list_methods()][:2]
+    ['api13d_2010_hb', 'api13d_1995_power_law']
+    """
+    return FLOW_METHODS.describe()
+
+
+def _build_case(geometry, q, d_outer, d_inner, density, tau_y, k, n, roughness, eccentricity):
+    outer_name = "pipe inside diameter d" if geometry == "pipe" else "hole diameter d_hole"
+    vals = {
+        "q": check_positive("flow rate q", q, "m³/s"),
+        "d_outer": check_positive(outer_name, d_outer, "m"),
+        "density": check_positive("density", density, "kg/m³"),
+        "tau_y": check_nonnegative("yield stress tau_y", tau_y, "Pa"),
+        "k": check_positive("consistency k", k, "Pa·sⁿ"),
+        "n": check_positive("flow behaviour index n", n),
+        "roughness": check_nonnegative("roughness", roughness, "m"),
+        "eccentricity": check_range("eccentricity", eccentricity, 0.0, 1.0, hi_open=True),
+    }
+    if geometry == "annulus":
+        vals["d_inner"] = check_positive("pipe outside diameter d_pipe", d_inner, "m")
+    else:
+        vals["d_inner"] = np.zeros(())
+    keys = list(vals)
+    arrays = np.broadcast_arrays(*(vals[key] for key in keys))
+    shape = arrays[0].shape
+    flat = {
+        key: np.atleast_1d(a).ravel().astype(float) for key, a in zip(keys, arrays, strict=True)
+    }
+    if geometry == "annulus":
+        bad = flat["d_inner"] >= flat["d_outer"]
+        if np.any(bad):
+            i = np.flatnonzero(bad)[0]
+            raise InputError(
+                "pipe outside diameter d_pipe",
+                float(flat["d_inner"][i]),
+                f"< hole diameter d_hole ({flat['d_outer'][i]:.6g} m)",
+            )
+    d_h = flat["d_outer"] - flat["d_inner"]
+    bad = flat["roughness"] >= 0.5 * d_h
+    if np.any(bad):
+        i = np.flatnonzero(bad)[0]
+        raise InputError(
+            "roughness",
+            float(flat["roughness"][i]),
+            f"< half the hydraulic diameter ({0.5 * d_h[i]:.6g} m)",
+        )
+    case = FlowCase(geometry=geometry, **flat)
+    return case, shape
+
+
+def _generic_critical_velocity(spec: FlowMethod, case: FlowCase) -> np.ndarray:
+    target = np.log(spec.laminar_limit(case))
+    guess = np.maximum(case.velocity, 1e-3)
+
+    def resid(v):
+        return np.log(spec.reynolds(case, v)) - target
+
+    return solve_positive(resid, guess, rtol=1e-12)
+
+
+def _critical_velocity(spec: FlowMethod, case: FlowCase) -> np.ndarray:
+    if spec.critical_velocity is not None:
+        return spec.critical_velocity(case)
+    return _generic_critical_velocity(spec, case)
+
+
+def _turbulent_weight(st: MethodState) -> np.ndarray:
+    span = st.turbulent_limit - st.laminar_limit
+    safe = np.where(span > 0, span, 1.0)
+    w = np.where(span > 0, (st.reynolds - st.laminar_limit) / safe, st.reynolds >= st.laminar_limit)
+    return np.clip(w, 0.0, 1.0)
+
+
+def _shape_out(x, shape, as_int=False):
+    arr = np.asarray(x).reshape(shape)
+    if arr.ndim == 0:
+        return int(arr) if as_int else float(arr)
+    return arr.astype(int) if as_int else arr
+
+
+def _evaluate(method: str, case: FlowCase, shape) -> FlowResult:
+    info = FLOW_METHODS.get(method)
+    spec: FlowMethod = info.func
+    spec.check(case)
+    st = spec.evaluate(case)
+    v = case.velocity
+    notes: list[Note | None] = list(st.notes)
+    if case.is_annulus:
+        kappa = case.d_inner / case.d_outer
+        ecc = eccentricity_factor(case.eccentricity, kappa, case.n, _turbulent_weight(st))
+        bad = ecc <= 0
+        if np.any(bad):
+            i = np.flatnonzero(bad)[0]
+            raise InputError(
+                "eccentricity",
+                float(case.eccentricity[i]),
+                "a value for which the Haciislamoglu-Langlinais factor stays positive "
+                f"(here n = {case.n[i]:.3g}, D1/D2 = {kappa[i]:.3g})",
+            )
+        e_hi = VALIDITY["eccentricity"][1]
+        k_lo, k_hi = VALIDITY["diameter_ratio"]
+        n_lo, n_hi = VALIDITY["n"]
+        outside = (case.eccentricity > 0) & (
+            (case.eccentricity > e_hi)
+            | (kappa < k_lo)
+            | (kappa > k_hi)
+            | (case.n < n_lo)
+            | (case.n > n_hi)
+        )
+        notes.append(
+            count_note(
+                outside,
+                "warning",
+                "eccentricity_outside_validity",
+                "eccentricity correction (Haciislamoglu & Langlinais 1990) used outside its "
+                f"range e <= {e_hi}, {k_lo} <= D1/D2 <= {k_hi}, {n_lo} <= n <= {n_hi}",
+                "annulus",
+            )
+        )
+        if method == "exact_laminar":
+            notes.append(
+                count_note(
+                    case.eccentricity > 0,
+                    "info",
+                    "eccentric_not_exact",
+                    "the eccentric gradient is the exact concentric one times the "
+                    "Haciislamoglu-Langlinais laminar factor, not an exact eccentric solution",
+                    "annulus",
+                )
+            )
+    else:
+        ecc = np.ones_like(v)
+    gradient = 2.0 * st.friction_factor * case.density * v**2 / case.d_h * ecc
+    v_c = _critical_velocity(spec, case)
+    notes.append(
+        count_note(
+            st.regime == TRANSITIONAL,
+            "warning",
+            "transitional_flow",
+            "transitional flow: the Reynolds number lies between the method's laminar and "
+            "turbulent limits, where friction is least certain",
+            case.geometry,
+        )
+    )
+    notes.append(
+        count_note(
+            (st.regime == LAMINAR) & (v < v_c),
+            "info",
+            "below_critical_velocity",
+            "velocity below the critical velocity (laminar flow)",
+            case.geometry,
+        )
+    )
+    if not spec.uses_roughness:
+        notes.append(
+            count_note(
+                case.roughness > 0,
+                "info",
+                "roughness_ignored",
+                f"method '{method}' assumes smooth walls; the roughness given is not used",
+                case.geometry,
+            )
+        )
+    o = lambda x: _shape_out(x, shape)  # noqa: E731
+    return FlowResult(
+        method=method,
+        method_label=spec.label,
+        geometry=case.geometry,
+        velocity=o(v),
+        hydraulic_diameter=o(case.d_h),
+        wall_shear_rate=o(st.wall_shear_rate),
+        wall_shear_stress=o(st.wall_shear_stress),
+        reynolds=o(st.reynolds),
+        reynolds_laminar_limit=o(st.laminar_limit),
+        reynolds_turbulent_limit=o(st.turbulent_limit),
+        regime=_shape_out(st.regime, shape, as_int=True),
+        friction_factor=o(st.friction_factor),
+        gradient=o(gradient),
+        critical_velocity=o(v_c),
+        critical_flow_rate=o(v_c * case.area),
+        eccentricity_factor=o(ecc),
+        notes=tuple(x for x in notes if x is not None),
+    )
+
+
+def pipe_flow(q, d, *, density, tau_y, k, n, method=DEFAULT_METHOD, roughness=0.0) -> FlowResult:
+    """Frictional pressure gradient for flow inside a pipe.
+
+    .. math:: -\\frac{dp}{dL} = \\frac{2fρV^2}{D} = \\frac{4τ_w}{D}, \\qquad V = \\frac{4Q}{πD^2}
+
+    Parameters
+    ----------
+    q : array_like
+        Flow rate [m³/s], > 0.
+    d : array_like
+        Pipe inside diameter [m], > 0.
+    density : array_like
+        Fluid density [kg/m³], > 0.
+    tau_y : array_like
+        Herschel-Bulkley yield stress [Pa], ≥ 0 (Bingham: YP; 0 for Newtonian, power law).
+    k : array_like
+        Consistency [Pa·sⁿ], > 0 (viscosity μ for Newtonian, μ_p for Bingham).
+    n : array_like
+        Flow behaviour index [-], > 0 (1 for Newtonian and Bingham).
+    method : str
+        One of :func:`list_methods` (default ``"api13d_2010_hb"``).
+    roughness : array_like
+        Absolute wall roughness [m], ≥ 0 (used by ``"newtonian"``; others note it is ignored).
+
+    Returns
+    -------
+    FlowResult
+        Gradient [Pa/m] and the intermediates; all inputs broadcast together.
+
+    Raises
+    ------
+    calc.errors.InputError
+        Non-positive q, d, density, k, n; negative tau_y or roughness; unknown method; or
+        inputs the method cannot take (e.g. tau_y > 0 for ``"power_law"``).
+
+    Notes
+    -----
+    Each method's regime bounds and validity are in its description (:func:`list_methods`).
+    Doubtful cases (transitional flow, velocity below critical, correlations outside their
+    fitted range) are reported in ``notes``.
+
+    References
+    ----------
+    API RP 13D, 3rd ed. (1995) and 6th ed. (2010), American Petroleum Institute.
+    Bourgoyne, A. T., Millheim, K. K., Chenevert, M. E. & Young, F. S. (1986). Applied Drilling
+    Engineering. SPE Textbook Series 2, ch. 4.
+
+    Examples
+    --------
+    >>> r = pipe_flow(0.01, 0.1, density=1000.0, tau_y=0.0, k=0.001, n=1.0, method="newtonian")
+    >>> r.regime_label, round(r.reynolds)
+    ('turbulent', 127324)
+    """
+    case, shape = _build_case("pipe", q, d, 0.0, density, tau_y, k, n, roughness, 0.0)
+    return _evaluate(method, case, shape)
+
+
+def annulus_flow(
+    q,
+    d_hole,
+    d_pipe,
+    *,
+    density,
+    tau_y,
+    k,
+    n,
+    method=DEFAULT_METHOD,
+    eccentricity=0.0,
+    roughness=0.0,
+) -> FlowResult:
+    """Frictional pressure gradient for flow in the annulus between a hole and a pipe.
+
+    .. math::
+        -\\frac{dp}{dL} = R_{ecc}\\frac{2fρV^2}{D_2 - D_1}, \\qquad V = \\frac{4Q}{π(D_2^2 - D_1^2)}
+
+    Parameters
+    ----------
+    q : array_like
+        Flow rate [m³/s], > 0.
+    d_hole : array_like
+        Hole or casing inside diameter D2 [m], > 0.
+    d_pipe : array_like
+        Pipe outside diameter D1 [m], 0 < D1 < D2.
+    density, tau_y, k, n, method, roughness
+        As for :func:`pipe_flow`.
+    eccentricity : array_like
+        e = 2δ/(D2 - D1) [-], 0 ≤ e < 1 (δ the offset of the pipe centre); corrected by
+        Haciislamoglu & Langlinais (1990), laminar and turbulent forms blended across the
+        transitional band (:func:`calc.flow.eccentricity.eccentricity_factor`).
+
+    Returns
+    -------
+    FlowResult
+
+    Notes
+    -----
+    Hydraulic diameter D2 - D1 throughout.  Tool joints are separate intervals (the
+    geometry module splits them); this function treats one uniform interval.
+
+    References
+    ----------
+    Haciislamoglu, M. & Langlinais, J. (1990). J. Energy Resour. Technol. 112(3), 163-169.
+    API RP 13D, 6th ed. (2010).
+
+    Examples
+    --------
+    >>> r = annulus_flow(0.03, 0.2159, 0.127, density=1200.0, tau_y=4.0, k=0.3, n=0.65)
+    >>> r.geometry, r.regime_label
+    ('annulus', 'laminar')
+    """
+    case, shape = _build_case(
+        "annulus", q, d_hole, d_pipe, density, tau_y, k, n, roughness, eccentricity
+    )
+    return _evaluate(method, case, shape)
+
+
+def critical_flow_rate(d, d_pipe=None, *, density, tau_y, k, n, method=DEFAULT_METHOD):
+    """Flow rate at which the method's Reynolds number reaches its laminar limit [m³/s].
+
+    Pipe when ``d_pipe`` is None (``d`` the pipe ID), annulus otherwise (``d`` the hole ID).
+    Solved for all intervals at once by bracketing Re(V) = Re_lam in ln V.
+
+    Parameters
+    ----------
+    d : array_like
+        Pipe inside diameter, or hole diameter [m].
+    d_pipe : array_like or None
+        Pipe outside diameter [m] for an annulus.
+    density, tau_y, k, n, method
+        As for :func:`pipe_flow`.
+
+    Returns
+    -------
+    float or numpy.ndarray
+        Critical flow rate [m³/s].
+
+    Examples
+    --------
+    >>> qc = critical_flow_rate(0.1, density=1000.0, tau_y=0.0, k=0.001, n=1.0,
+    ...                         method="newtonian")
+    >>> round(qc / (np.pi * 0.1**2 / 4) * 1000.0 * 0.1 / 0.001)  # Re at the critical rate
+    2100
+    """
+    geometry = "pipe" if d_pipe is None else "annulus"
+    # evaluate at a nominal rate of 1e-3 m³/s: the critical velocity does not depend on q
+    case, shape = _build_case(
+        geometry, 1e-3, d, 0.0 if d_pipe is None else d_pipe, density, tau_y, k, n, 0.0, 0.0
+    )
+    spec: FlowMethod = FLOW_METHODS.get(method).func
+    spec.check(case)
+    return _shape_out(_critical_velocity(spec, case) * case.area, shape)

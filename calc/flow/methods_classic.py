@@ -1,0 +1,252 @@
+"""Textbook methods: Newtonian (with roughness), Bingham plastic and power law.
+
+References
+----------
+Colebrook, C. F. (1939). J. Inst. Civil Eng. 11(4), 133-156.
+Bird, R. B., Stewart, W. E. & Lightfoot, E. N. (2002). Transport Phenomena, 2nd ed., §2.3-2.4.
+Buckingham, E. (1921). Proc. ASTM 21, 1154-1156.
+Hanks, R. W. (1963). AIChE J. 9(3), 306-309.
+Darby, R., Mun, R. & Boger, D. V. (1992). Chem. Eng. 99(9), 116-119.
+Metzner, A. B. & Reed, J. C. (1955). AIChE J. 1(4), 434-440.
+Dodge, D. W. & Metzner, A. B. (1959). AIChE J. 5(2), 189-204.
+Guo, B. & Liu, G. (2011). Applied Drilling Circulation Systems, eq. 2.35.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from calc.flow.checks import require_n_at_most, require_n_one, require_no_yield
+from calc.flow.friction import (
+    colebrook_fanning,
+    darby_bingham_fanning,
+    dodge_metzner_fanning,
+    hanks_critical_reynolds,
+    hedstrom_number,
+    n_dependent_bounds,
+)
+from calc.flow.laminar_exact import hb_pipe_wall_stress, hb_slot_wall_stress, lamb_diameter
+from calc.flow.result import (
+    FLOW_METHODS,
+    FlowCase,
+    FlowMethod,
+    MethodState,
+    classify_regime,
+    count_note,
+)
+
+__all__ = ["bingham_state", "newtonian_state", "power_law_state"]
+
+#: Newtonian bounds: laminar below 2100, turbulent from 4000 (common practice; our choice of
+#: the common textbook pair, stated in the method description).
+NEWTONIAN_RE_LAMINAR = 2100.0
+NEWTONIAN_RE_TURBULENT = 4000.0
+
+#: Width of the Bingham transitional band above Hanks' critical Re: 1900, the Newtonian
+#: 2100-4000 band (our choice; the Darby et al. friction factor is continuous regardless).
+BINGHAM_BAND = NEWTONIAN_RE_TURBULENT - NEWTONIAN_RE_LAMINAR
+
+
+def _tidy(notes):
+    return tuple(x for x in notes if x)
+
+
+# --------------------------------------------------------------------------- Newtonian
+
+
+def _newtonian_re(case: FlowCase, v):
+    return case.density * v * case.d_h / case.k
+
+
+def _newtonian_laminar_f(case: FlowCase, re):
+    """16/Re (Hagen-Poiseuille) or (16/Re)(D_h/D_L)² (Lamb, exact concentric annulus)."""
+    if case.is_annulus:
+        ratio = (case.d_h / lamb_diameter(case.d_outer, case.d_inner)) ** 2
+        return 16.0 / re * ratio
+    return 16.0 / re
+
+
+def newtonian_state(case: FlowCase) -> MethodState:
+    """Newtonian: exact laminar, Colebrook turbulent, linear-in-Re transition 2100-4000.
+
+    In the band f = f_lam(2100) + (Re - 2100)/1900·[f_Colebrook(4000) - f_lam(2100)]: continuous
+    at both ends.  The annulus uses D_h = D2 - D1 in Re and in Colebrook.
+    """
+    v = case.velocity
+    re = _newtonian_re(case, v)
+    rr = case.roughness / case.d_h
+    lo, hi = NEWTONIAN_RE_LAMINAR, NEWTONIAN_RE_TURBULENT
+    f_lam = _newtonian_laminar_f(case, re)
+    f_turb = colebrook_fanning(np.maximum(re, hi), rr)
+    f_lo = _newtonian_laminar_f(case, np.full(re.shape, lo))
+    f_hi = colebrook_fanning(np.full(re.shape, hi), rr)
+    f_tr = f_lo + (re - lo) / (hi - lo) * (f_hi - f_lo)
+    f = np.where(re < lo, f_lam, np.where(re < hi, f_tr, f_turb))
+    tw = 0.5 * f * case.density * v**2
+    lam = np.full(re.shape, lo)
+    turb = np.full(re.shape, hi)
+    notes = (
+        count_note(
+            (re >= lo) & (rr > 0.05),
+            "warning",
+            "roughness_outside_colebrook",
+            "relative roughness above 0.05, beyond the range of the Colebrook/Moody chart",
+            case.geometry,
+        ),
+    )
+    return MethodState(
+        re, lam, turb, classify_regime(re, lam, turb), f, tw / case.k, tw, _tidy(notes)
+    )
+
+
+def _check_newtonian(case: FlowCase) -> None:
+    require_n_one(case, "newtonian")
+    require_no_yield(case, "newtonian")
+
+
+FLOW_METHODS.register(
+    "newtonian",
+    "Newtonian: Hagen-Poiseuille / Lamb laminar, Colebrook turbulent with roughness, "
+    "linear transition 2100-4000",
+    "Bird, Stewart & Lightfoot (2002) §2.3-2.4; Colebrook (1939)",
+)(
+    FlowMethod(
+        label="Newtonian: exact laminar (Hagen-Poiseuille, Lamb), Colebrook (1939) turbulent",
+        evaluate=newtonian_state,
+        reynolds=_newtonian_re,
+        laminar_limit=lambda case: np.full(case.q.shape, NEWTONIAN_RE_LAMINAR),
+        check=_check_newtonian,
+        uses_roughness=True,
+    )
+)
+
+
+# --------------------------------------------------------------------------- Bingham
+
+
+def _bingham_re(case: FlowCase, v):
+    return case.density * v * case.d_h / case.k
+
+
+def _bingham_he(case: FlowCase):
+    return hedstrom_number(case.density, case.tau_y, case.k, case.d_h)
+
+
+def _bingham_laminar_tw(case: FlowCase, v):
+    """Buckingham-Reiner (pipe, exact) or plane-slot Bingham (annulus) wall stress [Pa]."""
+    ones = np.ones_like(v)
+    if case.is_annulus:
+        gap = 0.5 * case.d_h
+        return hb_slot_wall_stress(v, gap, case.tau_y, case.k, ones)
+    return hb_pipe_wall_stress(v * case.area, case.d_h, case.tau_y, case.k, ones)
+
+
+def bingham_state(case: FlowCase) -> MethodState:
+    """Bingham plastic after Darby, Mun & Boger (1992), regimes by Hanks (1963).
+
+    f_L: Buckingham-Reiner exact in pipes; the exact plane-slot Bingham solution in annuli
+    (slot of gap (D2 - D1)/2, width π(D1 + D2)/2).  f = (f_L^m + f_T^m)^(1/m) over all Re.
+    Laminar below Hanks' Re_Bc (He on D_h); turbulent from Re_Bc + 1900.
+    """
+    v = case.velocity
+    re = _bingham_re(case, v)
+    he = _bingham_he(case)
+    tw_lam = _bingham_laminar_tw(case, v)
+    f_l = 2.0 * tw_lam / (case.density * v**2)
+    f = darby_bingham_fanning(re, he, f_l)
+    lam = hanks_critical_reynolds(he)
+    turb = lam + BINGHAM_BAND
+    tw = 0.5 * f * case.density * v**2
+    gw = np.maximum(tw - case.tau_y, 0.0) / case.k
+    return MethodState(re, lam, turb, classify_regime(re, lam, turb), f, gw, tw)
+
+
+def _check_bingham(case: FlowCase) -> None:
+    require_n_one(case, "bingham")
+
+
+FLOW_METHODS.register(
+    "bingham",
+    "Bingham plastic: Buckingham-Reiner (pipe) / plane slot (annulus) laminar, Hanks "
+    "transition, Darby-Mun-Boger turbulent and blend",
+    "Buckingham (1921); Hanks (1963); Darby, Mun & Boger (1992); METHODS §3.7 (from memory)",
+)(
+    FlowMethod(
+        label="Bingham plastic: Buckingham-Reiner / slot laminar, Hanks (1963) transition, "
+        "Darby, Mun & Boger (1992) friction factor",
+        evaluate=bingham_state,
+        reynolds=_bingham_re,
+        laminar_limit=lambda case: hanks_critical_reynolds(_bingham_he(case)),
+        check=_check_bingham,
+    )
+)
+
+
+# --------------------------------------------------------------------------- power law
+
+
+def _pl_wall(case: FlowCase, v):
+    n = case.n
+    if case.is_annulus:
+        gw = (2.0 * n + 1.0) / (3.0 * n) * 12.0 * v / case.d_h
+    else:
+        gw = (3.0 * n + 1.0) / (4.0 * n) * 8.0 * v / case.d_h
+    return gw, case.k * gw**n
+
+
+def _pl_re(case: FlowCase, v):
+    _, tw = _pl_wall(case, v)
+    return 8.0 * case.density * v**2 / tw
+
+
+def power_law_state(case: FlowCase) -> MethodState:
+    """Power law: Metzner-Reed Re, Dodge-Metzner turbulent, n-dependent bounds.
+
+    Re_MR = 8ρV²/τ_w,lam with τ_w,lam = K[(3n+1)/(4n)·8V/D]ⁿ (pipe) or K[(2n+1)/(3n)·12V/D_h]ⁿ
+    (annulus, slot basis); laminar f = 16/Re_MR (exact pipe, slot annulus); bounds
+    Re1 = 3470 - 1370n, Re2 = 4270 - 1370n; between them f = 16/Re1 + (Re - Re1)/(Re2 - Re1)·
+    [f_DM(Re2) - 16/Re1] (METHODS §3.2, with Dodge-Metzner at Re2 in place of a/Re2^b).
+    """
+    v = case.velocity
+    n = case.n
+    re = _pl_re(case, v)
+    lo, hi = n_dependent_bounds(n)
+    f_lam = 16.0 / re
+    f_turb = dodge_metzner_fanning(np.maximum(re, hi), n)
+    f_lo = 16.0 / lo
+    f_hi = dodge_metzner_fanning(hi, n)
+    f_tr = f_lo + (re - lo) / (hi - lo) * (f_hi - f_lo)
+    f = np.where(re < lo, f_lam, np.where(re < hi, f_tr, f_turb))
+    tw = 0.5 * f * case.density * v**2
+    gw = (tw / case.k) ** (1.0 / n)
+    notes = (
+        count_note(
+            (re >= lo) & ((n < 0.36) | (n > 1.0)),
+            "warning",
+            "n_outside_dodge_metzner",
+            "non-laminar flow with n outside 0.36-1, the range of the Dodge-Metzner data",
+            case.geometry,
+        ),
+    )
+    return MethodState(re, lo, hi, classify_regime(re, lo, hi), f, gw, tw, _tidy(notes))
+
+
+def _check_power_law(case: FlowCase) -> None:
+    require_no_yield(case, "power_law")
+    require_n_at_most(case, "power_law")
+
+
+FLOW_METHODS.register(
+    "power_law",
+    "Power law: Metzner-Reed Re, Dodge-Metzner turbulent (solved), bounds 3470-1370n / "
+    "4270-1370n with linear transition",
+    "Metzner & Reed (1955); Dodge & Metzner (1959); Guo & Liu (2011) eq. 2.35",
+)(
+    FlowMethod(
+        label="Power law: Metzner-Reed (1955) Re, Dodge & Metzner (1959) turbulent",
+        evaluate=power_law_state,
+        reynolds=_pl_re,
+        laminar_limit=lambda case: n_dependent_bounds(case.n)[0],
+        check=_check_power_law,
+    )
+)

@@ -1,0 +1,196 @@
+"""Result and method plumbing for :mod:`calc.flow`: the result dataclass, the method registry.
+
+Methods register a :class:`FlowMethod` in :data:`FLOW_METHODS` (a
+:class:`calc.registry.MethodRegistry`).  Each method turns a :class:`FlowCase` (the broadcast,
+validated, flattened inputs) into a :class:`MethodState` (Reynolds number, limits, regime,
+Fanning friction factor, wall shear rate and stress); :mod:`calc.flow.core` adds the
+eccentricity correction, the gradient, the critical velocity and the notes.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from calc.errors import Note
+from calc.registry import MethodRegistry
+
+__all__ = [
+    "FLOW_METHODS",
+    "LAMINAR",
+    "REGIME_LABELS",
+    "TRANSITIONAL",
+    "TURBULENT",
+    "FlowCase",
+    "FlowMethod",
+    "FlowResult",
+    "MethodState",
+    "classify_regime",
+    "regime_label",
+]
+
+LAMINAR, TRANSITIONAL, TURBULENT = 0, 1, 2
+REGIME_LABELS = ("laminar", "transitional", "turbulent")
+
+#: Registry of pipe/annulus pressure-gradient methods.
+FLOW_METHODS = MethodRegistry("flow method")
+
+
+def regime_label(regime):
+    """Text for regime codes: 0 laminar, 1 transitional, 2 turbulent (scalar or array).
+
+    >>> regime_label(1)
+    'transitional'
+    >>> regime_label(np.array([0, 2])).tolist()
+    ['laminar', 'turbulent']
+    """
+    codes = np.asarray(regime, dtype=int)
+    labels = np.array(REGIME_LABELS, dtype=object)[codes]
+    return str(labels) if codes.ndim == 0 else labels
+
+
+def classify_regime(reynolds, laminar_limit, turbulent_limit):
+    """0 where Re < laminar limit, 2 where Re ≥ turbulent limit, 1 between (int array)."""
+    re = np.asarray(reynolds)
+    out = np.full(re.shape, TRANSITIONAL, dtype=int)
+    out[re < laminar_limit] = LAMINAR
+    out[re >= turbulent_limit] = TURBULENT
+    return out
+
+
+@dataclass(frozen=True)
+class FlowCase:
+    """Validated, broadcast and flattened (1-D) inputs of one call, SI."""
+
+    geometry: str  # "pipe" or "annulus"
+    q: np.ndarray  # m³/s
+    d_outer: np.ndarray  # m: pipe ID, or hole/casing ID
+    d_inner: np.ndarray  # m: 0 for pipe, pipe OD for annulus
+    density: np.ndarray  # kg/m³
+    tau_y: np.ndarray  # Pa
+    k: np.ndarray  # Pa·sⁿ
+    n: np.ndarray  # -
+    roughness: np.ndarray  # m
+    eccentricity: np.ndarray  # -
+
+    @property
+    def is_annulus(self) -> bool:
+        return self.geometry == "annulus"
+
+    @property
+    def area(self) -> np.ndarray:
+        return np.pi / 4.0 * (self.d_outer**2 - self.d_inner**2)
+
+    @property
+    def d_h(self) -> np.ndarray:
+        """Hydraulic diameter: D (pipe), D2 - D1 (annulus) [m]."""
+        return self.d_outer - self.d_inner
+
+    @property
+    def velocity(self) -> np.ndarray:
+        return self.q / self.area
+
+
+@dataclass(frozen=True)
+class MethodState:
+    """What a method computes for a case at the case's velocity (1-D arrays)."""
+
+    reynolds: np.ndarray
+    laminar_limit: np.ndarray
+    turbulent_limit: np.ndarray
+    regime: np.ndarray
+    friction_factor: np.ndarray  # Fanning, concentric
+    wall_shear_rate: np.ndarray  # 1/s
+    wall_shear_stress: np.ndarray  # Pa, = fρV²/2
+    notes: tuple[Note, ...] = ()
+
+
+@dataclass(frozen=True)
+class FlowMethod:
+    """A registered method: label with edition, the evaluation and its Reynolds number.
+
+    ``evaluate(case)`` → :class:`MethodState`; ``reynolds(case, v)`` → the method's Re at
+    velocity ``v``; ``laminar_limit(case)`` → the Re where laminar flow ends;
+    ``check(case)`` raises :class:`calc.errors.InputError` for inputs the method cannot take;
+    ``critical_velocity(case)``, if given, replaces the generic Re(v) = limit solve.
+    """
+
+    label: str
+    evaluate: Callable[[FlowCase], MethodState]
+    reynolds: Callable[[FlowCase, np.ndarray], np.ndarray]
+    laminar_limit: Callable[[FlowCase], np.ndarray]
+    check: Callable[[FlowCase], None]
+    uses_roughness: bool = False
+    critical_velocity: Callable[[FlowCase], np.ndarray] | None = None
+
+
+@dataclass(frozen=True)
+class FlowResult:
+    """Pressure gradient in a pipe or annulus, with the intermediates for a hand check.
+
+    Arrays have the broadcast shape of the inputs; for all-scalar input they are Python
+    floats (``regime`` an int).  SI units.
+
+    Attributes
+    ----------
+    method, method_label : str
+        Registry name and the method with its edition and source.
+    geometry : str
+        ``"pipe"`` or ``"annulus"``.
+    velocity : mean velocity [m/s]
+    hydraulic_diameter : D or D2 - D1 [m]
+    wall_shear_rate : the method's wall shear rate [1/s]
+    wall_shear_stress : mean wall shear stress of the concentric geometry, fρV²/2 [Pa]
+    reynolds : the method's own Reynolds number [-]
+    reynolds_laminar_limit, reynolds_turbulent_limit : the method's bounds [-]
+    regime : 0 laminar, 1 transitional, 2 turbulent (see :attr:`regime_label`)
+    friction_factor : Fanning friction factor, concentric [-]
+    gradient : frictional pressure gradient -dp/dL, eccentricity applied [Pa/m]
+    critical_velocity : velocity where the method's Re reaches its laminar limit [m/s]
+    critical_flow_rate : critical_velocity × flow area [m³/s]
+    eccentricity_factor : (dp/dL)_eccentric/(dp/dL)_concentric [-] (1 for pipes)
+    notes : tuple of :class:`calc.errors.Note`
+    """
+
+    method: str
+    method_label: str
+    geometry: str
+    velocity: float | np.ndarray
+    hydraulic_diameter: float | np.ndarray
+    wall_shear_rate: float | np.ndarray
+    wall_shear_stress: float | np.ndarray
+    reynolds: float | np.ndarray
+    reynolds_laminar_limit: float | np.ndarray
+    reynolds_turbulent_limit: float | np.ndarray
+    regime: int | np.ndarray
+    friction_factor: float | np.ndarray
+    gradient: float | np.ndarray
+    critical_velocity: float | np.ndarray
+    critical_flow_rate: float | np.ndarray
+    eccentricity_factor: float | np.ndarray
+    notes: tuple[Note, ...] = field(default=())
+
+    @property
+    def regime_label(self):
+        """``"laminar"``, ``"transitional"`` or ``"turbulent"`` (array of them for arrays)."""
+        return regime_label(self.regime)
+
+    @property
+    def darcy_friction_factor(self):
+        """Darcy friction factor 4f [-]."""
+        return 4.0 * self.friction_factor
+
+
+def count_note(mask, level, code, what, subject=""):
+    """One :class:`Note` for the elements where ``mask`` holds, or ``None`` if none do.
+
+    The message reads "<what> (k of N evaluations)" so a 10,000-rate sweep gives one note.
+    """
+    m = np.asarray(mask, dtype=bool)
+    hits = int(np.count_nonzero(m))
+    if hits == 0:
+        return None
+    where = "" if m.size == 1 else f" ({hits} of {m.size} evaluations)"
+    return Note(level, code, f"{what}{where}.", subject)
