@@ -53,6 +53,10 @@ def build_report(results: Results):
     refs["hydraulics"] = write_hydraulics(wb, results, factors, title)
     refs["ecd"] = write_ecd(wb, results, factors, title)
     refs["bit"] = write_bit(wb, results, factors, title)
+    from addin.report.sheet_cleaning import write_cleaning, write_trips
+
+    refs["cleaning"] = write_cleaning(wb, results, factors, title, refs["hydraulics"]["q"])
+    refs["trips"] = write_trips(wb, results, factors, title)
     write_cautions(wb, results, title)
     write_summary(summary, results, refs, title)
     write_audit(audit, results, factors, title)

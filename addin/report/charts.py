@@ -87,6 +87,7 @@ def rheogram(
     ch.y_axis.scaling.logBase = 10
     ch.x_axis.scaling.min = 1
     ch.x_axis.scaling.max = 2000
+    ch.y_axis.scaling.min = 1
     ch.legend.position = "b"
     k = 0
     xr = shear_rate_cols["models"]

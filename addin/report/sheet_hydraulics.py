@@ -352,7 +352,9 @@ def write_ecd(wb, results, factors: Factors, title: str):
             ["", du, du, "", dn, dn, dn, dn, dn, dn, ""],
         )
         req_f, req_p = mt.margins.fracture, mt.margins.pore
-        for i, name in enumerate(mt.names):
+        named = [i for i, nm in enumerate(mt.names) if not str(nm).startswith("MD ")]
+        for i in named:
+            name = mt.names[i]
             vals = [mt.md[i], mt.tvd[i]]
             put(ws, row, 1, str(name))
             put_number(ws, row, 2, _o(vals[0], "depth", system), number_format("depth", system))

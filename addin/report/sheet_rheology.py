@@ -44,7 +44,7 @@ def write_rheology(wb, results, factors: Factors, title: str):
     """Add the sheet; return {"refs": {...}} with cells other sheets may cite."""
     system = results.case.system
     ws = wb.create_sheet("Rheology")
-    set_widths(ws, [26, 12, 11, 11, 9, 11, 11, 9, 11, 11, 9, 16, 3, 11, 11, 11, 11, 11, 11, 11])
+    set_widths(ws, [26, 12, 11, 11, 9, 11, 11, 9, 11, 11, 9, 16, 3, 11, 15, 15, 15, 15, 15, 15])
     row = heading(
         ws,
         1,
@@ -242,9 +242,9 @@ def write_rheology(wb, results, factors: Factors, title: str):
         row += 2
     # ---------------------------------------------------------------- rheogram data and chart
     col0 = 14
-    put(ws, 3, col0, "Rheogram data (latest check)", "bf_section")
+    put(ws, 27, col0, "Rheogram data (latest check's models)", "bf_section")
     heads = ["shear rate"] + [m for m in _MODEL_CURVES if _has(last.fits, m)]
-    row_d = table_header(ws, 4, col0, heads, ["1/s"] + [su] * (len(heads) - 1))
+    row_d = table_header(ws, 28, col0, heads, ["1/s"] + [su] * (len(heads) - 1))
     for i, g in enumerate(_CURVE_RATES):
         put_number(ws, row_d + i, col0, g, "#,##0.0")
         for j, m in enumerate(heads[1:]):
@@ -265,9 +265,9 @@ def write_rheology(wb, results, factors: Factors, title: str):
         stress_unit=su,
         title=f"Rheogram, {last.label} (log–log)",
     )
-    ws.add_chart(ch, f"A{row + 1}")
+    ws.add_chart(ch, "N3")
     setup_print(ws, title)
-    return {"refs": refs, "next_row": row + 22}
+    return {"refs": refs, "next_row": row}
 
 
 def _has(fs, method):

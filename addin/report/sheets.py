@@ -156,7 +156,7 @@ def write_summary(ws, results, refs, title):
     system = case.system
     res = results.circulation
     chk = case.checks[-1]
-    set_widths(ws, [34, 13, 13, 9, 11, 13, 13, 13, 14])
+    set_widths(ws, [42, 13, 13, 9, 11, 13, 13, 13, 14])
     row = heading(ws, 1, f"Daily hydraulics report: {title}", span=9, title=True)
     c = put(ws, row, 1, cautions.CELL, "bf_note")
     c.font = Font(name="Arial", size=8, italic=True, color=PALETTE["bad"])

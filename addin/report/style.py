@@ -251,7 +251,8 @@ def setup_print(ws, title: str, *, landscape=True, fit_height: int = 0) -> None:
     ws.sheet_properties.pageSetUpPr.fitToPage = True
     ws.print_options.horizontalCentered = True
     ws.page_margins.left = ws.page_margins.right = 0.4
-    ws.page_margins.top = ws.page_margins.bottom = 0.55
+    ws.page_margins.top = ws.page_margins.bottom = 0.7
+    ws.page_margins.header = ws.page_margins.footer = 0.25
     safe_title = title.replace("&", "&&")
     ws.oddHeader.left.text = safe_title
     ws.oddHeader.left.size = 8

@@ -19,13 +19,20 @@ def _status_margin(margin, required):
     return "OK"
 
 
+def _at(arr, i):
+    return float(np.asarray(arr).reshape(-1)[i])
+
+
 def summary_rows(results, refs) -> list[dict]:
+    """Rows: name, kind (calc.units kind or None), value [SI], check (formula), limit, margin,
+    required, status."""
     case, res = results.case, results.circulation
     lim = case.limits
     hyd, ecd, bit = refs["hydraulics"], refs["ecd"], refs["bit"]
     rows = []
     spp = scalar(res.standpipe_pressure)
     rating = lim["surface_rating"]
+    spare = None if rating is None else rating - spp
     rows.append(
         dict(
             name="standpipe pressure, predicted",
@@ -33,10 +40,8 @@ def summary_rows(results, refs) -> list[dict]:
             value=spp,
             check=hyd["spp"][1],
             limit=rating,
-            margin=None if rating is None else rating - spp,
-            status=_status_margin(
-                None if rating is None else rating - spp, 0.1 * rating if rating else None
-            ),
+            margin=spare,
+            status=_status_margin(spare, 0.1 * rating if rating else None),
         )
     )
     meas = case.checks[-1].values.get("measured_spp")
@@ -51,27 +56,25 @@ def summary_rows(results, refs) -> list[dict]:
             )
         )
     mt = res.margins
-    if mt is not None:
-        names = list(mt.names)
-        shoe = next((i for i, n in enumerate(names) if "shoe" in str(n).lower()), None)
-        if shoe is not None:
-            e = float(np.asarray(mt.ecd).reshape(-1)[shoe])
-            f = float(np.asarray(mt.fracture).reshape(-1)[shoe])
-            rows.append(
-                dict(
-                    name=f"ECD at {names[shoe]}",
-                    kind="density",
-                    value=e,
-                    limit=f,
-                    margin=f - e,
-                    required=mt.margins.fracture,
-                    status=_status_margin(f - e, mt.margins.fracture),
-                )
+    names = list(mt.names) if mt is not None else []
+    req_f = mt.margins.fracture if mt is not None else None
+    shoe = next((i for i, n in enumerate(names) if str(n).lower().endswith("shoe")), None)
+    if shoe is not None:
+        e, f = _at(mt.ecd, shoe), _at(mt.fracture, shoe)
+        rows.append(
+            dict(
+                name=f"ECD at the {names[shoe]}",
+                kind="density",
+                value=e,
+                limit=f,
+                margin=f - e,
+                required=req_f,
+                status=_status_margin(f - e, req_f),
             )
-    f_bit = None
-    if mt is not None:
-        f_bit = float(np.asarray(mt.fracture).reshape(-1)[-1])
+        )
     e_bit = scalar(res.ecd_bit)
+    f_bit = _at(mt.fracture, names.index("bit")) if "bit" in names else None
+    m_bit = None if f_bit is None else f_bit - e_bit
     rows.append(
         dict(
             name="ECD at the bit",
@@ -79,36 +82,33 @@ def summary_rows(results, refs) -> list[dict]:
             value=e_bit,
             check=ecd["ecd_bit"][1],
             limit=f_bit,
-            margin=None if f_bit is None else f_bit - e_bit,
-            required=None if mt is None else mt.margins.fracture,
-            status=_status_margin(
-                None if f_bit is None else f_bit - e_bit,
-                None if mt is None else mt.margins.fracture,
-            ),
+            margin=m_bit,
+            required=req_f,
+            status=_status_margin(m_bit, req_f),
         )
     )
+    t = ecd.get("tightest")
+    if t is not None:
+        m = float(np.asarray(t.margin))
+        rows.append(
+            dict(
+                name=f"tightest margin: {t.name} ({t.limit})",
+                kind="density",
+                value=m,
+                required=float(t.required),
+                status=_status_margin(m, float(t.required)),
+            )
+        )
     rows.append(dict(name="static mud weight (ESD)", kind="density", value=scalar(res.esd_bit)))
     if "pwd" in ecd:
         pred, gauge, _ = ecd["pwd"]
         rows.append(
             dict(
-                name="downhole gauge ECD (predicted − gauge shown as margin)",
+                name="downhole gauge (PWD) ECD; margin = gauge − predicted",
                 kind="density",
                 value=gauge,
-                limit=None,
                 margin=gauge - pred,
                 status="INFO",
-            )
-        )
-    t = ecd.get("tightest")
-    if t is not None:
-        rows.append(
-            dict(
-                name=f"tightest margin: {t.name} ({t.limit})",
-                kind="density",
-                value=float(np.asarray(t.margin)),
-                required=float(t.required),
-                status=_status_margin(float(np.asarray(t.margin)), float(t.required)),
             )
         )
     rows.append(
@@ -134,10 +134,55 @@ def summary_rows(results, refs) -> list[dict]:
     if av is not None:
         rows.append(
             dict(
-                name=f"lowest annular velocity: {av[1]}",
+                name="lowest annular velocity (see Hydraulics)",
                 kind="velocity",
                 value=float(av[0]),
                 check=av[3],
             )
+        )
+    cl = refs.get("cleaning") or {}
+    if cl:
+        status = {"adequate": "OK", "marginal": "NEAR LIMIT", "poor": "EXCEEDED"}[cl["verdict"]]
+        rows.append(
+            dict(
+                name="hole cleaning verdict (worst interval)",
+                kind=None,
+                text=cl["verdict"],
+                unit="",
+                status=status,
+            )
+        )
+        rows.append(
+            dict(
+                name="flow rate needed for adequate cleaning",
+                kind="flow_rate",
+                value=cl["controlling"][1],
+            )
+        )
+    w = results.window
+    if w is not None:
+        if w["low"] is not None:
+            rows.append(
+                dict(
+                    name="operating window, lowest rate (hole cleaning)",
+                    kind="flow_rate",
+                    value=w["low"],
+                )
+            )
+        if w["high"] is not None:
+            rows.append(
+                dict(
+                    name="operating window, highest rate (ECD, SPP)",
+                    kind="flow_rate",
+                    value=w["high"],
+                )
+            )
+    tr = refs.get("trips") or {}
+    if tr:
+        rows.append(
+            dict(name="max. running speed (surge limit)", kind="trip_speed", value=tr["running"])
+        )
+        rows.append(
+            dict(name="max. pulling speed (swab limit)", kind="trip_speed", value=tr["pulling"])
         )
     return rows
