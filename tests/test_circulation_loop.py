@@ -9,6 +9,7 @@ Bernoulli nozzle equation with a discharge coefficient (Bourgoyne et al. (1986) 
 
 import numpy as np
 import pytest
+from calc.flow import annulus_flow, pipe_flow
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
@@ -23,7 +24,6 @@ from calc.circulation import (
     circulate,
 )
 from calc.errors import InputError
-from calc.flow import annulus_flow, pipe_flow
 from calc.geometry import (
     DrillString,
     Hole,
