@@ -162,10 +162,13 @@ def demo_fluid(method: str = "api13d_2010_hb", index: int = 0):
 
 
 def demo_options(index: int = 0) -> dict:
-    """The circulate() keywords of the demo case: window, weak points, margins, rating."""
+    """The circulate() keywords of the demo case: window, weak points, margins, rating, and the
+    tools whose bore the fixed drop covers (the case's [tool_pressure] is "fixed drop of the
+    RSS + MWD/LWD, from the supplier's sheet")."""
     return dict(
         window=demo_window(),
         weak_points=demo_weak_points(),
         margins=demo_margins(),
         surface_rating=demo_surface_rating(),
+        covered_by_tool_drops=("6-3/4 in rotary steerable", "6-3/4 in MWD/LWD (with PWD)"),
     )

@@ -45,12 +45,16 @@ def test_demo_computes_in_every_method(method, day):
     assert all(v >= 0 for v in parts.values())
     assert r.ecd_bit > r.esd_bit
     p = r.profile(10.0)
-    assert p.md.size > 1000 and np.all(np.isfinite(p.ecd)) and np.all(p.ecd >= p.esd)
+    assert p.md.size >= r.bit_md / 10.0 and np.all(np.isfinite(p.ecd)) and np.all(p.ecd >= p.esd)
     assert r.margins is not None and isinstance(r.margins.tightest.name, str)
-    # Sand B (MD 10,680 ft) is above the bit on both days and is the tightest fracture point
-    # of the demo (fracture EMW 12.6 ppg against ≥ 14.5 elsewhere below the shoe).
+    # Sand B (MD 10,680-10,820 ft, fracture EMW 12.6 ppg against ≥ 14.5 elsewhere below the
+    # shoe; demo data) is above the bit on both days; the tightest point is on its fracture
+    # side, at its base (deepest, so highest ECD).
     assert SAND_B in r.margins.names
-    assert r.margins.tightest.name == SAND_B and r.margins.tightest.limit == "fracture"
+    t = r.margins.tightest
+    assert t.limit == "fracture"
+    assert demo.ft(10680.0) - 1.0 <= t.md <= demo.ft(10820.0) + 1.0
+    assert ppg(t.margin) == pytest.approx(12.6 - ppg(r.ecd_at(t.md)), rel=1e-9)
 
 
 def psi(x):
@@ -80,10 +84,12 @@ def test_demo_api1995_against_the_scenario_hand_check(day):
         assert 100 * r.bit_share == pytest.approx(h["pct_bit"], abs=5)
 
 
-@pytest.mark.parametrize("method", METHODS)
+@pytest.mark.parametrize("method", [m for m in METHODS if m != "exact_laminar"])
 def test_demo_every_method_within_a_broad_band_of_the_hand_check(method):
     # Methods differ (laminar/turbulent criteria, fits); a ±30 % band on the SPP only catches
-    # gross errors (hand check ±10–15 % itself, different method).
+    # gross errors (hand check ±10–15 % itself, different method).  Not for "exact_laminar":
+    # the string flow is turbulent and the laminar solution underestimates it (by design; the
+    # flow results carry a warning, checked in test_demo_exact_laminar_warns).
     r = run(method, 0)
     assert psi(r.standpipe_pressure) == pytest.approx(HAND[0]["spp"], rel=0.30)
     assert ppg(r.ecd_bit) == pytest.approx(HAND[0]["ecd_bit"], abs=0.3)
@@ -98,3 +104,9 @@ def test_demo_calibration_against_the_measured_spp():
     assert cal.calibrated.standpipe_pressure == pytest.approx(meas, rel=1e-12)
     assert -20.0 < cal.deviation_percent < 25.0
     assert 0.5 < cal.multiplier < 2.0
+
+
+def test_demo_exact_laminar_warns_that_the_string_is_not_laminar():
+    r = run("exact_laminar", 0)
+    assert any(n.code == "above_laminar_limit" or "not laminar" in n.message for n in r.notes)
+    assert r.standpipe_pressure < run("api13d_2010_hb", 0).standpipe_pressure

@@ -9,7 +9,6 @@ Bernoulli nozzle equation with a discharge coefficient (Bourgoyne et al. (1986) 
 
 import numpy as np
 import pytest
-from calc.flow import annulus_flow, pipe_flow
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
@@ -24,6 +23,7 @@ from calc.circulation import (
     circulate,
 )
 from calc.errors import InputError
+from calc.flow import annulus_flow, pipe_flow
 from calc.geometry import (
     DrillString,
     Hole,
@@ -209,8 +209,8 @@ hb_params = st.tuples(
 )
 
 
-@settings(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.too_slow])
-@given(hb_params, st.sampled_from(["api13d_2010_hb", "exact_laminar", "bingham", "power_law"]))
+@settings(max_examples=15, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(hb_params, st.sampled_from(["api13d_2010_hb", "bingham", "power_law", "newtonian"]))
 def test_property_spp_non_decreasing_with_rate_and_ecd_at_least_esd(params, method):
     # Properties (DESIGN §tests): loss non-decreasing with flow rate; ECD ≥ ESD while circulating.
     ty, k, n, rho = params
@@ -218,14 +218,24 @@ def test_property_spp_non_decreasing_with_rate_and_ecd_at_least_esd(params, meth
         ty = 0.0
     if method == "bingham":
         n = 1.0
+    if method == "newtonian":
+        ty, n = 0.0, 1.0
     m = HerschelBulkley(ty, k, n)
     well = simple_well(tool_joints=True)
-    qs = to_si(np.linspace(50.0, 900.0, 120), "gpm")
+    qs = to_si(np.linspace(50.0, 900.0, 60), "gpm")
     r = circulate(well, HydraulicsFluid(rho, m, m), qs, method=method)
     spp = np.asarray(r.standpipe_pressure)
     assert np.all(np.diff(spp) >= -1e-9 * spp[1:]), "SPP fell as the rate rose"
     p = r.profile(50.0)
     assert np.all(p.ecd >= p.esd * (1 - 1e-14)), "ECD below ESD while circulating"
+
+
+def test_exact_laminar_spp_non_decreasing_with_rate():
+    # Same property for the exact laminar method (slower: fewer rates, one fluid).
+    m = HerschelBulkley(4.0, 0.3, 0.65)
+    qs = to_si(np.linspace(50.0, 900.0, 12), "gpm")
+    r = circulate(simple_well(), HydraulicsFluid(1300.0, m, m), qs, method="exact_laminar")
+    assert np.all(np.diff(np.asarray(r.standpipe_pressure)) > 0)
 
 
 def _window():
@@ -256,7 +266,7 @@ def test_notes_margins_pore_rating_and_tool_window():
         Q,
         window=PressureWindow([0.0, 3000.0], [1300.0, 1340.0], [1700.0, 1800.0]),
         weak_points=(weak, WeakPoint("below the bit", 3500.0, 1600.0)),
-        margins=Margins(fracture=100.0, pore=30.0),
+        margins=Margins(fracture=100.0, pore=150.0),
         surface_rating=to_si(1000.0, "psi"),
     )
     codes = {n.code for n in r.notes}

@@ -126,8 +126,9 @@ def test_rules_of_thumb_verdicts():
 
 def test_negative_rop_rejected():
     with pytest.raises(InputError, match="rate of penetration"):
-        annular_transport(0.03, 0.216, 0.127, density=1300.0, k=0.02, cuttings=Cuttings(0.006, 2600.0),
-                          rop=-0.001, bit_diameter=0.216)  # fmt: skip
+        annular_transport(0.03, 0.216, 0.127, density=1300.0, k=0.02,
+                          cuttings=Cuttings(0.006, 2600.0), rop=-0.001,
+                          bit_diameter=0.216)  # fmt: skip
 
 
 def test_cuttings_lighter_than_mud_rejected_in_transport():
@@ -217,3 +218,16 @@ def test_demo_cuttings_larger_than_gap_rejected():
     with pytest.raises(InputError, match="cuttings size"):
         hole_cleaning(demo_well(), demo_fluid(), demo_rate(), rop=demo_rop(),
                       cuttings=Cuttings(to_si(1.0, "in"), 2600.0))  # fmt: skip
+
+
+def test_demo_loaded_profile_beside_clean(demo):
+    from calc.circulation import circulate
+    from calc.cleaning import loaded_ecd_profile
+
+    w = demo_well()
+    circ = circulate(w, demo_fluid(), demo_rate())
+    p = loaded_ecd_profile(circ, demo, w, step=100.0)
+    assert p.ecd_loaded.shape == p.ecd.shape
+    assert np.all(p.ecd_loaded > p.ecd) and np.all(p.ecd >= p.esd)
+    with pytest.raises(InputError, match="cleaning rate"):
+        loaded_ecd_profile(circulate(w, demo_fluid(), 0.02), demo, w)

@@ -111,3 +111,32 @@ def test_table_ranking_prefers_true_model():
 
     r = ViscometerReadings([600, 300, 200, 100, 6, 3], [56, 37, 29, 20, 8, 7])
     assert fit_all(r.to_table()).ranking[0].method == "hb_least_squares"
+
+
+# ---------------------------------------------------------------- properties (hypothesis)
+from hypothesis import given, settings  # noqa: E402
+from hypothesis import strategies as st  # noqa: E402
+
+_vals = st.one_of(
+    st.floats(allow_nan=True, allow_infinity=True),
+    st.integers(-5, 1000),
+    st.text(max_size=2),
+    st.none(),
+    st.booleans(),
+)
+
+
+@settings(max_examples=60, deadline=None)
+@given(g=st.lists(_vals, max_size=8), v=st.lists(_vals, max_size=8))
+def test_bad_table_input_is_input_error_never_crash_or_nan(g, v):
+    try:
+        t = RheometerTable(g, stress=v)
+    except InputError:
+        return
+    for method in ("power_law_loglog", "hb_least_squares", "cross", "carreau_yasuda"):
+        try:
+            f = fit(t, method)
+        except InputError:
+            continue
+        assert np.all(np.isfinite(f.model.stress(t.shear_rate)))
+        assert np.all(np.isfinite(f.quality.residuals))

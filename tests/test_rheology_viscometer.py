@@ -145,7 +145,9 @@ def test_cement_above_300_note_and_two_speed_note():
         # demo-scenario bad input "600 off scale": 312° beyond the 300° dial
         ([600, 300, 200, 100, 6, 3], [312, 190, 150, 101, 22, 18], "full scale"),
         ([600, 300, 300], [56, 37, 40], "duplicate"),
-        ([600, 300], [37, 37], "PV"),
+        ([600, 300, 3], [37, 37, 5], "PV"),
+        ([600, 300], [37, 37], "rise with speed"),
+        ([600, float("inf")], [37, 20], "finite"),
         ([0, 300], [0, 37], "> 0 rpm"),
     ],
 )

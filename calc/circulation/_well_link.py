@@ -148,8 +148,16 @@ def reshape_bit(bit, shape):
     return dataclasses.replace(bit, **changes) if changes else bit
 
 
+#: calc.flow note codes the loop re-issues per named interval (so they are not repeated).
+_REISSUED = {"transitional_flow", "below_critical_velocity"}
+
+
 def flow_notes(flow) -> tuple:
-    return tuple(getattr(flow, "notes", ()) or ())
+    return tuple(n for n in (getattr(flow, "notes", ()) or ()) if n.code not in _REISSUED)
+
+
+def method_label(flow) -> str:
+    return str(getattr(flow, "method_label", "") or getattr(flow, "method", ""))
 
 
 def unit_text(kind: str, system: str) -> str:

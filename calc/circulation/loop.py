@@ -266,6 +266,7 @@ def circulate(
     surface_rating: float | None = None,
     margin_step: float = MARGIN_STEP,
     message_units: str = "oilfield",
+    covered_by_tool_drops=(),
 ) -> CirculationResult:
     """Pressure losses around the circulating system, ECD and margins, for one rate or a sweep.
 
@@ -309,6 +310,10 @@ def circulate(
         Required margins to fracture and pore (default 0 and 0).
     surface_rating : float, optional
         Surface-system pressure rating [Pa]; a note is given where the SPP exceeds it.
+    covered_by_tool_drops : sequence of str
+        Names of string components whose bore friction the fixed tool drops already include
+        (a supplier's figure for an MWD or motor usually covers the tool's whole internal
+        loss); their string-interval friction is then not added (a note says so).
     margin_step : float
         Spacing of the margin check points from the last shoe to the bit [m].
     message_units : str
@@ -322,9 +327,10 @@ def circulate(
     -----
     Steady, isothermal, incompressible flow; no cuttings load, no pipe rotation, one fluid in the
     whole system.  Pore and fracture limits are checked over the exposed formation only: from
-    the deepest casing/liner shoe to the bit, plus weak points above the bit.  The fixed tool
-    drops are added to the bore friction of the tool intervals (a supplier's figure usually
-    covers the tool's whole internal loss, so this double-counts a few psi over the tool length).
+    the deepest casing/liner shoe to the bit, on the well's depth grid (every ``margin_step``
+    plus all interval boundaries), at the pressure-window stations, the shoe, the bit and the
+    weak points above the bit.  The fixed tool drops are added to the bore friction of the tool
+    intervals unless those components are listed in ``covered_by_tool_drops``.
 
     References
     ----------
@@ -392,6 +398,31 @@ def circulate(
     # drill string
     pflow = wl.pipe(Q, parts.string_d[None, :], R, pipe_args, method)
     p_losses = pflow.gradient * parts.string_len[None, :] * M
+    covered = tuple(covered_by_tool_drops)
+    if covered:
+        known = set(parts.string_components)
+        for name in covered:
+            if name not in known:
+                raise InputError(
+                    "component covered by the tool drops",
+                    name,
+                    "a string component name: " + ", ".join(dict.fromkeys(parts.string_components)),
+                )
+        if not parts.tools:
+            raise InputError(
+                "covered_by_tool_drops", covered, "empty when the well has no fixed tool drops"
+            )
+        skip = np.array([c in covered for c in parts.string_components])
+        p_losses = np.where(skip[None, :], 0.0, p_losses)
+        notes.append(
+            Note(
+                "info",
+                "bore_covered_by_tool_drop",
+                "bore friction not added for " + ", ".join(covered) + ": the fixed tool drop "
+                "includes it",
+                "; ".join(parts.tool_names),
+            )
+        )
     # fixed tool drops
     t_losses = wl.tool_drops(parts.tools, Q, R)
     for tool in parts.tools:
@@ -471,7 +502,8 @@ def circulate(
 
     # ---------------------------------------------------------------- margins
     result_kwargs = dict(
-        method=f"{method} ({fluid.fits})" if fluid.fits else method,
+        method=f"{method}: {wl.method_label(pflow)}"
+        + (f"; fits: {fluid.fits}" if fluid.fits else ""),
         fluid_label=fluid.label,
         hydrostatic=hydrostatic,
         friction_multiplier=shaped(mf),
@@ -560,6 +592,15 @@ def _margin_table(res, parts, window, weak_points, margins, step, notes, fmt):
         md.append(top)
     names.append("bit")
     md.append(res.bit_md)
+    if window is not None:
+        g = res._well.annulus_depth_grid(step)
+        gmd, gtvd = np.asarray(g.md, dtype=float), np.asarray(g.tvd, dtype=float)
+        if np.all(np.diff(gtvd) > 0):
+            lo = float(np.interp(top, gmd, gtvd))
+            for t in window.tvd:
+                if lo <= t <= gtvd[-1] and t > 0:
+                    names.append(f"window station, TVD {fmt(t, 'depth')}")
+                    md.append(float(np.interp(t, gtvd, gmd)))
     fracture_override: dict[str, float] = {}
     if parts.shoe_test is not None and parts.shoe_name:
         fracture_override[parts.shoe_name] = parts.shoe_test

@@ -7,7 +7,13 @@ Modules: :mod:`~calc.cleaning.slip` (slip-velocity correlations, :data:`SLIP_MET
 All SI.
 """
 
-from calc.cleaning.hole import HoleCleaningResult, cuttings_ecd_increment, hole_cleaning
+from calc.cleaning.hole import (
+    HoleCleaningResult,
+    LoadedProfile,
+    cuttings_ecd_increment,
+    hole_cleaning,
+    loaded_ecd_profile,
+)
 from calc.cleaning.indicators import (
     VERDICTS,
     CCIResult,
@@ -43,6 +49,7 @@ __all__ = [
     "Cuttings",
     "HoleCleaningResult",
     "LarsenResult",
+    "LoadedProfile",
     "SlipResult",
     "TransportResult",
     "annular_apparent_viscosity",
@@ -57,6 +64,7 @@ __all__ = [
     "in_situ_concentration",
     "larsen_critical_velocity",
     "loaded_density",
+    "loaded_ecd_profile",
     "robinson_power_law",
     "slip_velocity",
 ]

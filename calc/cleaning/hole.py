@@ -21,7 +21,13 @@ from calc.cleaning.indicators import (
 from calc.cleaning.transport import Cuttings, TransportResult, annular_transport
 from calc.errors import InputError, Note, check_choice, check_nonnegative, check_positive
 
-__all__ = ["HoleCleaningResult", "cuttings_ecd_increment", "hole_cleaning"]
+__all__ = [
+    "HoleCleaningResult",
+    "LoadedProfile",
+    "cuttings_ecd_increment",
+    "hole_cleaning",
+    "loaded_ecd_profile",
+]
 
 #: Default bracket for minimum-rate searches [m³/s] (≈ 1.6-3200 gpm).
 RATE_BRACKET = (1e-4, 0.2)
@@ -332,3 +338,38 @@ def cuttings_ecd_increment(well, loaded_density, density, md, *, hydrostatic: st
     dp = extra @ w.T  # per unit g
     out = dp.reshape(dp.shape[:-1] + mdv.shape) / np.where(tvd > 0, tvd, np.inf)
     return scalar_or_array(out)
+
+
+@dataclass(frozen=True, eq=False)
+class LoadedProfile:
+    """Clean and cuttings-loaded ECD on an MD grid (one rate): ``md``, ``tvd`` [m]; ``esd``,
+    ``ecd``, ``ecd_loaded``, ``pore``, ``fracture`` [kg/m³]."""
+
+    md: np.ndarray
+    tvd: np.ndarray
+    esd: np.ndarray
+    ecd: np.ndarray
+    ecd_loaded: np.ndarray
+    pore: np.ndarray
+    fracture: np.ndarray
+
+
+def loaded_ecd_profile(circulation, cleaning: HoleCleaningResult, well, step: float = 30.0):
+    """The circulation's clean ECD profile with the cuttings-loaded ECD beside it.
+
+    ``circulation`` is a single-rate :class:`calc.circulation.CirculationResult` and ``cleaning``
+    the :func:`hole_cleaning` result at the same rate; ECD_loaded = ECD + ΔECD from
+    :func:`cuttings_ecd_increment`.
+    """
+    if np.ndim(cleaning.q) or np.ndim(circulation.q):
+        raise InputError("q", "a sweep", "one rate for a loaded profile")
+    if not np.isclose(float(cleaning.q), float(circulation.q), rtol=1e-9):
+        raise InputError("cleaning rate", float(cleaning.q), f"= circulation rate {circulation.q}")
+    p = circulation.profile(step)
+    extra = cuttings_ecd_increment(
+        well, cleaning.transport.loaded_density, float(circulation.density), p.md
+    )
+    return LoadedProfile(
+        md=p.md, tvd=p.tvd, esd=np.asarray(p.esd), ecd=np.asarray(p.ecd),
+        ecd_loaded=np.asarray(p.ecd) + extra, pore=p.pore, fracture=p.fracture,
+    )  # fmt: skip

@@ -231,7 +231,7 @@ def _fit_log_eta(t, formula, pack, x0s, lo, hi):
     return pack(best.x)
 
 
-def _plateau_fit(t, method, cls, n_extra_free):
+def _plateau_fit(t):
     lmax = float(np.log10(t.viscosity.max()))
     emin = float(t.viscosity.min())
     eta0, m0, lams = _starts(t)
@@ -248,7 +248,7 @@ def cross_fit(data) -> FitResult:
     t = _table(data)
     method = "cross"
     _need(t, 5, method)
-    _, emin, base, lo, hi, m0 = _plateau_fit(t, method, Cross, 1)
+    _, emin, base, lo, hi, m0 = _plateau_fit(t)
 
     def pack(p):
         return 10.0 ** p[0], p[1] * emin, 10.0 ** p[2], p[3]
@@ -290,7 +290,7 @@ def carreau_yasuda_fit(data) -> FitResult:
     t = _table(data)
     method = "carreau_yasuda"
     _need(t, 5, method)
-    _, emin, base, lo, hi, m0 = _plateau_fit(t, method, CarreauYasuda, 2)
+    _, emin, base, lo, hi, m0 = _plateau_fit(t)
     notes, inter = _plateau_notes(t, method)
     n0 = 1.0 - m0
     free_a = t.shear_rate.size >= 7

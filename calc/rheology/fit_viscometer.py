@@ -18,7 +18,8 @@ Two-speed (any two speeds N₁ > N₂; 600/300 rpm when present):
 Herschel–Bulkley field estimate (Zamora & Power 2002, adopted by API RP 13D from the 5th ed.
 (2006); registered as ``api13d_2010_hb`` for the 6th ed. (2010); factor and adoption from memory,
 unverified — METHODS §2): τy = 2τ3 − τ6, n = log₂[(τ600 − τy)/(τ300 − τy)],
-K = (τ300 − τy)/γ̇300ⁿ (field form τy = 1.066(2θ3 − θ6) lbf/100 ft²).
+K = (τ300 − τy)/γ̇300ⁿ (field form τy = 1.066(2θ3 − θ6) lbf/100 ft²).  Guo & Liu (2011) warn
+that 2θ3 − θ6 can overstate τy in polymer-rich water-based muds; compare ``hb_least_squares``.
 
 Least squares over all readings (``*_least_squares``): unweighted residuals in stress (see
 :mod:`calc.rheology.fitresult` for why).  For fixed n the HB model is linear in (τy, K), so
@@ -342,16 +343,30 @@ def profile_fit(shear_rate, stress, n, with_yield: bool, clip: bool = True):
 
 
 def _best_n(g, tau, with_yield, clip):
+    tau = np.asarray(tau, dtype=float)
     _, _, sse = profile_fit(g, tau, _N_GRID, with_yield, clip)
+    if not np.any(np.isfinite(sse)) or not np.max(tau) > np.min(tau):
+        raise InputError(
+            "shear stresses",
+            tau.tolist(),
+            "stresses that rise with shear rate (a flow curve with K > 0)",
+            problem="no flow curve fits",
+        )
+    # finite penalty for K <= 0 (an admissible fit has SSE below Σ(τ − τ̄)² <= Στ²)
+    penalty = 10.0 * float(np.sum(tau**2)) + 1.0
+    sse = np.where(np.isfinite(sse), sse, penalty)
     i = int(np.argmin(sse))
     lo, hi = _N_GRID[max(i - 1, 0)], _N_GRID[min(i + 1, _N_GRID.size - 1)]
-    res = minimize_scalar(
-        lambda v: float(profile_fit(g, tau, v, with_yield, clip)[2][0]),
-        bounds=(lo, hi),
-        method="bounded",
-        options={"xatol": 1e-12},
-    )
-    n = float(res.x) if res.fun <= sse[i] else float(_N_GRID[i])
+
+    def objective(v):
+        val = float(profile_fit(g, tau, v, with_yield, clip)[2][0])
+        return val if np.isfinite(val) else penalty
+
+    with np.errstate(all="ignore"):  # near-flat data: fall back to the grid point below
+        res = minimize_scalar(
+            objective, bounds=(lo, hi), method="bounded", options={"xatol": 1e-12}
+        )
+    n = float(res.x) if np.isfinite(res.fun) and res.fun <= sse[i] else float(_N_GRID[i])
     ty, k, _ = profile_fit(g, tau, n, with_yield, clip)
     at_edge = i in (0, _N_GRID.size - 1)
     return float(ty[0]), float(k[0]), n, at_edge

@@ -168,6 +168,13 @@ class RheometerTable:
                 f">= the stress at {g[i - 1]:g} 1/s ({tau[i - 1]:.4g} Pa)",
                 "falls as shear rate rises",
             )
+        if not tau[-1] > tau[0]:
+            raise InputError(
+                "shear stress",
+                tau.tolist(),
+                "stresses that rise with shear rate",
+                "flat flow curve",
+            )
         tol = float(self.plateau_tol)
         if not 0 < tol < 1:
             raise InputError("plateau tolerance", tol, "in (0, 1)")

@@ -188,7 +188,9 @@ _MODES = ("mud", "cement")
 
 
 def _reading_array(name: str, value) -> np.ndarray:
-    if isinstance(value, str):
+    if isinstance(value, str) or (
+        isinstance(value, (list, tuple)) and any(isinstance(v, (bool, str)) for v in value)
+    ):
         raise InputError(name, value, "numbers (one per speed)")
     arr = as_float_array(name, value)
     if arr.ndim != 1:
@@ -270,6 +272,9 @@ class ViscometerReadings:
         if res < 0:
             raise InputError("reading resolution", res, ">= 0 degree")
         speeds = _reading_array("viscometer speeds", self.speeds)
+        if not np.all(np.isfinite(speeds)):
+            bad = speeds[~np.isfinite(speeds)][0]
+            raise InputError("viscometer speed", float(bad), "a finite number of rpm > 0")
         up = down = None
         if self.ramp_up is not None or self.ramp_down is not None:
             if self.ramp_up is None or self.ramp_down is None:
@@ -302,6 +307,13 @@ class ViscometerReadings:
                 "viscometer speeds", speeds.tolist(), "at least two different speeds", "too few"
             )
         self._check_order(speeds, dial, res, notes)
+        if not dial[-1] > dial[0]:
+            raise InputError(
+                "dial readings",
+                dial.tolist(),
+                "readings that rise with speed",
+                problem="flat flow curve",
+            )
         object.__setattr__(self, "speeds", speeds)
         object.__setattr__(self, "dial", dial)
         object.__setattr__(self, "ramp_up", up)
