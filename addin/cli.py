@@ -346,14 +346,28 @@ def _register_report(sub) -> None:
 REGISTRATIONS: list[Callable] = [_register_rheology, _register_report]
 
 
+_EPILOG = """first run (the invented demo case):
+  boreflow report workbooks/demo-case.toml -o demo-report.xlsx
+
+more help: boreflow COMMAND --help
+
+exit codes:
+  0  success
+  1  internal error (a bug; set BOREFLOW_DEBUG=1 for the traceback)
+  2  bad input (the message names the file and key, or sheet and cell)
+  3  output exists (use --force to replace it)
+  4  cannot write the output (the previous file is left intact)
+  5  batch: some cases failed (the others were written)
+"""
+
+
 def build_parser() -> argparse.ArgumentParser:
     parser = _Parser(
         prog="boreflow",
         description="Drilling-fluid and slurry hydraulics: rheology, circulating pressures, "
         "ECD, bit, hole cleaning, surge/swab, and the daily report workbook.",
-        epilog="Start with: boreflow report workbooks/demo-case.toml -o demo-report.xlsx  "
-        "(see 'boreflow COMMAND --help'). Exit codes: 0 ok, 1 internal error, 2 bad input, "
-        "3 output exists (use --force), 4 cannot write, 5 some batch cases failed.",
+        epilog=_EPILOG,
+        formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
     for register in REGISTRATIONS:
