@@ -1,9 +1,12 @@
-"""Read a boreflow case file (TOML): the ``[case]`` header, mud ``[[check]]`` and ``[[slurry]]``.
+"""Read a boreflow case: a TOML case file or the input workbook (.xlsx), the whole case.
 
 The parser is declarative: each table has a *schema* (key → :class:`Field`) and
-:func:`parse_table` walks any table against its schema, so further sections are added by
-writing their schema (see ``SECTIONS``).  Sections of the file this module does not parse yet
-are kept verbatim in :attr:`Case.raw`.
+:func:`parse_table` walks any table against its schema (see ``SECTIONS``).  ``[case]``,
+``[[check]]`` and ``[[slurry]]`` become :class:`CheckInput`/:class:`SlurryInput` with their
+readings; every other section is parsed into :attr:`Case.sections` (SI), and :class:`Case`
+builds the :mod:`calc` inputs from it (:meth:`Case.well`, ``survey``, ``casings``, ``string``,
+``bit``, ``surface_lines``, ``tool_drops``, ``window``, ``weak_points``, ``limits``, ``trip``).
+The field-by-field documentation is ``workbooks/CASE-FORMAT.md``.
 
 Values
 ------
@@ -729,7 +732,8 @@ def parse_case(data: Mapping, source: str = "<case>") -> Case:
                 checks.append(CheckInput(label, readings, values))
             else:
                 slurries.append(SlurryInput(label, readings, values))
-    raw = {k: v for k, v in data.items() if SECTIONS[k][1] is None}
+    # the sections beyond [case]/[[check]]/[[slurry]], verbatim (parsed ones are in `sections`)
+    raw = {k: v for k, v in data.items() if k not in ("case", "check", "slurry")}
     sections: dict[str, Any] = {}
     for name, (is_list, schema) in SECTIONS.items():
         if name in ("case", "check", "slurry") or schema is None or name not in data:

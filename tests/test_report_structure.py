@@ -75,6 +75,14 @@ def test_charts_present_with_the_right_axes(wb):
     assert ecd.y_axis.scaling.orientation == "maxMin"  # depth increases downward
     titles = [s.tx.strRef.f if s.tx.strRef else s.tx.v for s in ecd.series]
     assert {"ESD", "ECD", "pore pressure", "fracture pressure"} <= set(titles)
+    # depth on the vertical axis: y values from the profile's TVD column, x from the densities
+    ws = wb["ECD"]
+    head = {ws.cell(row=4, column=c).value: c for c in range(13, 19)}
+    from openpyxl.utils import get_column_letter as col
+
+    for s in ecd.series:
+        assert f"${col(head['TVD'])}$" in s.yVal.numRef.f
+        assert f"${col(head['TVD'])}$" not in s.xVal.numRef.f
 
 
 def test_units_shown_in_the_case_system(wb):

@@ -158,7 +158,7 @@ def depth_profile(
     ch = ScatterChart()
     ch.title = title
     ch.style = 2
-    ch.height, ch.width = 12.0, 13.0
+    ch.height, ch.width = 14.0, 15.0
     _axis_common(ch.x_axis, f"equivalent density [{density_unit}]")
     _axis_common(ch.y_axis, f"true vertical depth [{depth_unit}]")
     ch.y_axis.scaling.orientation = "maxMin"
@@ -173,7 +173,7 @@ def depth_profile(
             yr, xr = rng
         else:
             yr, xr = depth, rng
-        s = Series(_ref(*xr), _ref(*yr), title=name)
+        s = Series(_ref(*yr), _ref(*xr), title=name)  # values: TVD (y); xvalues: density
         if role == "point":
             _points_only(s, PALETTE["warn"], "diamond")
         else:

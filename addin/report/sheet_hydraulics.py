@@ -46,6 +46,7 @@ def _checked_row(ws, row, name, value, formula, kind, system, note=""):
     put(ws, row, 5, U(kind, system), "bf_unit")
     if note:
         put(ws, row, 6, note, "bf_note")
+        ws.merge_cells(start_row=row, start_column=6, end_row=row, end_column=11)
     return v, f
 
 
@@ -442,7 +443,7 @@ def write_ecd(wb, results, factors: Factors, title: str):
         density_unit=dn,
         depth_unit=du,
         x_limits=(round(lo - pad, 1), round(hi + pad, 1)),
-        title="ESD and ECD against pore and fracture pressure",
+        title="ESD, ECD, pore and fracture EMW",
     )
     ws.add_chart(ch, f"A{row + 1}")
     refs["profile_rows"] = (r0, r1)

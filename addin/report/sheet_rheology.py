@@ -44,7 +44,7 @@ def write_rheology(wb, results, factors: Factors, title: str):
     """Add the sheet; return {"refs": {...}} with cells other sheets may cite."""
     system = results.case.system
     ws = wb.create_sheet("Rheology")
-    set_widths(ws, [26, 12, 11, 11, 9, 11, 11, 9, 11, 11, 9, 16, 3, 11, 15, 15, 15, 15, 15, 15])
+    set_widths(ws, [26, 12, 11, 11, 9, 11, 11, 9, 11, 48, 9, 16, 3, 11, 15, 15, 15, 15, 15, 15])
     row = heading(
         ws,
         1,

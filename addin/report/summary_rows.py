@@ -152,13 +152,6 @@ def summary_rows(results, refs) -> list[dict]:
                 status=status,
             )
         )
-        rows.append(
-            dict(
-                name="flow rate needed for adequate cleaning",
-                kind="flow_rate",
-                value=cl["controlling"][1],
-            )
-        )
     w = results.window
     if w is not None:
         if w["low"] is not None:
