@@ -1,9 +1,12 @@
-"""Read a boreflow case file (TOML): the ``[case]`` header, mud ``[[check]]`` and ``[[slurry]]``.
+"""Read a boreflow case: a TOML case file or the input workbook (.xlsx), the whole case.
 
 The parser is declarative: each table has a *schema* (key → :class:`Field`) and
-:func:`parse_table` walks any table against its schema, so further sections are added by
-writing their schema (see ``SECTIONS``).  Sections of the file this module does not parse yet
-are kept verbatim in :attr:`Case.raw`.
+:func:`parse_table` walks any table against its schema (see ``SECTIONS``).  ``[case]``,
+``[[check]]`` and ``[[slurry]]`` become :class:`CheckInput`/:class:`SlurryInput` with their
+readings; every other section is parsed into :attr:`Case.sections` (SI), and :class:`Case`
+builds the :mod:`calc` inputs from it (:meth:`Case.well`, ``survey``, ``casings``, ``string``,
+``bit``, ``surface_lines``, ``tool_drops``, ``window``, ``weak_points``, ``limits``, ``trip``).
+The field-by-field documentation is ``workbooks/CASE-FORMAT.md``.
 
 Values
 ------
@@ -23,6 +26,8 @@ what is allowed; an unknown key gets the nearest known key as a suggestion.
 from __future__ import annotations
 
 import difflib
+import hashlib
+import json
 import re
 import tomllib
 from collections.abc import Mapping
@@ -171,6 +176,26 @@ def _value(val, fld: Field, system, source, path):
         if not isinstance(val, Mapping):
             raise InputError(where, val, "a table of numbers")
         return {k: _plain_number(v, f"{where}.{k}") for k, v in val.items()}
+    if kind == "stations":
+        if not isinstance(val, list) or not val:
+            raise InputError(where, val, "a list of [md, inclination, azimuth] rows")
+        rows = []
+        for i, row in enumerate(val):
+            w = f"{where}[{i}]"
+            if not (isinstance(row, list) and len(row) == 3):
+                raise InputError(w, row, "[md, inclination, azimuth]")
+            rows.append(
+                (
+                    parse_quantity(row[0], "depth", system, w + "[0]"),
+                    _plain_number(row[1], w + "[1]"),
+                    _plain_number(row[2], w + "[2]"),
+                )
+            )
+        return rows
+    if kind == "length_or_fill":
+        if val == "fill":
+            return "fill"
+        return parse_quantity(val, "length", system, where)
     if kind in ("range", "list"):
         if not isinstance(val, list) or (kind == "range" and len(val) != 2):
             raise InputError(where, val, "[low, high]" if kind == "range" else "a list")
@@ -256,25 +281,104 @@ SLURRY_SCHEMA: dict[str, Field] = {
     "remark": Field("text"),
 }
 
+LIMITS_SCHEMA = {
+    "fracture_margin": Field("density"),
+    "pore_margin": Field("density"),
+    "surface_rating": Field("pressure"),
+    "trip_fracture_margin": Field("density"),
+    "trip_pore_margin": Field("density"),
+}
+SURVEY_SCHEMA = {"stations": Field("stations", required=True)}
+CASING_SCHEMA = {
+    "name": Field("text", required=True),
+    "od": Field("diameter"),
+    "id": Field("diameter", required=True),
+    "drift": Field("diameter"),
+    "top": Field("depth"),
+    "shoe": Field("depth", required=True),
+    "shoe_test": Field("density"),
+}
+OPEN_HOLE_SCHEMA = {
+    "bit_size": Field("diameter", required=True),
+    "diameter": Field("diameter"),
+    "washout_factor": Field("number"),
+}
+PRESSURE_WINDOW_SCHEMA = {
+    "tvd": Field("list", required=True, of="depth"),
+    "pore": Field("list", required=True, of="density"),
+    "fracture": Field("list", required=True, of="density"),
+}
+WEAK_POINT_SCHEMA = {
+    "name": Field("text", required=True),
+    "md": Field("depth", required=True),
+    "fracture": Field("density", required=True),
+    "pore": Field("density"),
+}
+PUMP_SCHEMA = {
+    "name": Field("text", required=True),
+    "liner": Field("diameter"),
+    "stroke": Field("diameter"),
+    "efficiency": Field("number"),
+    "rated_power": Field("power"),
+    "liner_rating": Field("pressure"),
+}
+SURFACE_LINE_SCHEMA = {
+    "name": Field("text", required=True),
+    "length": Field("length", required=True),
+    "id": Field("diameter", required=True),
+}
+BIT_SCHEMA = {
+    "name": Field("text"),
+    "size": Field("diameter", required=True),
+    "nozzles": Field("list", of="number"),
+    "tfa": Field("area"),
+    "ports": Field("number"),
+    "discharge_coefficient": Field("number"),
+}
+STRING_SCHEMA = {
+    "name": Field("text", required=True),
+    "od": Field("diameter", required=True),
+    "id": Field("diameter", required=True),
+    "length": Field("length_or_fill", required=True),
+    "tool_joint_od": Field("diameter"),
+    "tool_joint_id": Field("diameter"),
+    "joint_length": Field("length"),
+    "tool_joint_length": Field("length"),
+    "float_valve": Field("bool"),
+}
+TOOL_PRESSURE_SCHEMA = {
+    "name": Field("text"),
+    "reference_drop": Field("pressure", required=True),
+    "reference_density": Field("density", required=True),
+    "reference_rate": Field("flow_rate", required=True),
+    "flow_window": Field("range", of="flow_rate"),
+}
+TRIP_SCHEMA = {
+    "stand_length": Field("length"),
+    "string_end": Field("text"),
+    "speeds": Field("list", required=True, of="trip_speed"),
+}
+
 #: Top-level sections: name → (is an array of tables, schema or None if not parsed here yet).
 SECTIONS: dict[str, tuple[bool, Mapping[str, Field] | None]] = {
     "case": (False, CASE_SCHEMA),
     "check": (True, CHECK_SCHEMA),
     "slurry": (True, SLURRY_SCHEMA),
-    # parsed by the well/hydraulics parts of this module (kept raw until then)
-    "limits": (False, None),
-    "survey": (False, None),
-    "casing": (True, None),
-    "open_hole": (False, None),
-    "pressure_window": (False, None),
-    "weak_point": (True, None),
-    "pump": (True, None),
-    "surface_line": (True, None),
-    "bit": (False, None),
-    "string": (True, None),
-    "tool_pressure": (False, None),
-    "trip": (False, None),
+    "limits": (False, LIMITS_SCHEMA),
+    "survey": (False, SURVEY_SCHEMA),
+    "casing": (True, CASING_SCHEMA),
+    "open_hole": (False, OPEN_HOLE_SCHEMA),
+    "pressure_window": (False, PRESSURE_WINDOW_SCHEMA),
+    "weak_point": (True, WEAK_POINT_SCHEMA),
+    "pump": (True, PUMP_SCHEMA),
+    "surface_line": (True, SURFACE_LINE_SCHEMA),
+    "bit": (False, BIT_SCHEMA),
+    "string": (True, STRING_SCHEMA),
+    "tool_pressure": (False, TOOL_PRESSURE_SCHEMA),
+    "trip": (False, TRIP_SCHEMA),
 }
+#: Sections a hydraulics report needs (the rheology subcommand needs only checks).
+HYDRAULICS_SECTIONS = ("survey", "open_hole", "bit", "string")
 
 
 # ------------------------------------------------------------------ results
@@ -298,7 +402,14 @@ class SlurryInput:
 
 @dataclass(frozen=True, eq=False)
 class Case:
-    """A parsed case file."""
+    """A parsed case file.
+
+    ``sections`` holds every other parsed section (SI values by key; arrays of tables as
+    tuples), ``doc`` the document as read (numbers as floats: a TOML file and the workbook
+    carrying the same content give the same ``doc`` and the same ``hash``), ``where`` the
+    workbook cell of each key (empty for TOML).  :meth:`well` and the properties below build the
+    :mod:`calc` inputs.
+    """
 
     source: str
     units: str
@@ -306,6 +417,236 @@ class Case:
     checks: tuple[CheckInput, ...]
     slurries: tuple[SlurryInput, ...]
     raw: Mapping[str, Any] = field(default_factory=dict)
+    sections: Mapping[str, Any] = field(default_factory=dict)
+    doc: Mapping[str, Any] = field(default_factory=dict)
+    where: Mapping[str, str] = field(default_factory=dict)
+    hash: str = ""
+
+    # -------------------------------------------------------------- calc inputs
+    @property
+    def system(self) -> str:
+        return self.units
+
+    @property
+    def meta(self) -> Mapping[str, Any]:
+        return self.header
+
+    def _need(self, name: str):
+        if name not in self.sections:
+            brackets = f"[[{name}]]" if SECTIONS[name][0] else f"[{name}]"
+            raise InputError(
+                _where(self.source, name), None, f"a {brackets} section", problem="missing"
+            )
+        return self.sections[name]
+
+    def _build(self, path: str, func, *args, **kwargs):
+        try:
+            return func(*args, **kwargs)
+        except InputError as exc:
+            if exc.name.startswith(self.source):
+                raise
+            raise InputError(
+                f"{_where(self.source, path)}: {exc.name}", exc.value, exc.allowed, exc.problem
+            ) from exc
+
+    @property
+    def limits(self) -> Mapping[str, float]:
+        """Margins [kg/m³] and the surface rating [Pa] (margins default 0, rating None)."""
+        lim = dict(self.sections.get("limits", {}))
+        for k in ("fracture_margin", "pore_margin", "trip_fracture_margin", "trip_pore_margin"):
+            lim.setdefault(k, 0.0)
+        lim.setdefault("surface_rating", None)
+        return lim
+
+    @property
+    def survey(self):
+        from calc.geometry import Survey
+
+        st = self._need("survey")["stations"]
+        return self._build(
+            "survey",
+            Survey,
+            [r[0] for r in st],
+            [r[1] for r in st],
+            [r[2] for r in st],
+            message_units=self.units,
+        )
+
+    @property
+    def casings(self) -> tuple:
+        from calc.geometry import HoleSection
+
+        return tuple(
+            self._build(
+                f"casing[{i}]",
+                HoleSection,
+                c["name"],
+                c.get("top", 0.0),
+                c["shoe"],
+                c["id"],
+                "casing",
+                drift=c.get("drift"),
+                shoe_test=c.get("shoe_test"),
+                od=c.get("od"),
+            )
+            for i, c in enumerate(self.sections.get("casing", ()), start=1)
+        )
+
+    @property
+    def open_hole(self) -> Mapping[str, Any]:
+        return self._need("open_hole")
+
+    def hole(self, depth: float):
+        from calc.geometry import Hole
+
+        oh = self.open_hole
+        return self._build(
+            "open_hole",
+            Hole.from_casing,
+            self.casings,
+            depth=depth,
+            bit_size=oh["bit_size"],
+            diameter=oh.get("diameter"),
+            washout_factor=oh.get("washout_factor"),
+            message_units=self.units,
+        )
+
+    @property
+    def string(self):
+        from calc.geometry import DrillString, StringComponent
+
+        comps = []
+        for i, c in enumerate(self._need("string"), start=1):
+            comps.append(
+                self._build(
+                    f"string[{i}]",
+                    StringComponent,
+                    c["name"],
+                    c["od"],
+                    c["id"],
+                    c["length"],
+                    tool_joint_od=c.get("tool_joint_od"),
+                    tool_joint_id=c.get("tool_joint_id"),
+                    joint_length=c.get("joint_length"),
+                    tool_joint_length=c.get("tool_joint_length"),
+                    float_valve=bool(c.get("float_valve", False)),
+                )
+            )
+        return self._build("string", DrillString, tuple(comps))
+
+    @property
+    def bit(self):
+        from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT, Bit
+
+        b = self._need("bit")
+        nozzles = b.get("nozzles")
+        return self._build(
+            "bit",
+            Bit,
+            b["size"],
+            nozzles=tuple(int(n) if float(n).is_integer() else n for n in nozzles)
+            if nozzles
+            else None,
+            tfa=b.get("tfa"),
+            discharge_coefficient=b.get("discharge_coefficient", DEFAULT_DISCHARGE_COEFFICIENT),
+            ports=int(b["ports"]) if "ports" in b else None,
+            name=b.get("name", "bit"),
+        )
+
+    @property
+    def surface_lines(self) -> tuple:
+        from calc.geometry import SurfaceLine
+
+        return tuple(
+            self._build(f"surface_line[{i}]", SurfaceLine, s["name"], s["length"], s["id"])
+            for i, s in enumerate(self.sections.get("surface_line", ()), start=1)
+        )
+
+    @property
+    def tool_drops(self) -> tuple:
+        from calc.geometry import ToolPressureDrop
+
+        t = self.sections.get("tool_pressure")
+        if not t:
+            return ()
+        win = tuple(t["flow_window"]) if "flow_window" in t else None
+        return (
+            self._build(
+                "tool_pressure",
+                ToolPressureDrop,
+                t["reference_drop"],
+                t["reference_density"],
+                t["reference_rate"],
+                flow_window=win,
+                name=t.get("name", "downhole tools"),
+            ),
+        )
+
+    @property
+    def window(self):
+        from calc.circulation import PressureWindow
+
+        w = self.sections.get("pressure_window")
+        if not w:
+            return None
+        return self._build("pressure_window", PressureWindow, w["tvd"], w["pore"], w["fracture"])
+
+    @property
+    def weak_points(self) -> tuple:
+        from calc.circulation import WeakPoint
+
+        return tuple(
+            self._build(
+                f"weak_point[{i}]", WeakPoint, w["name"], w["md"], w["fracture"], w.get("pore")
+            )
+            for i, w in enumerate(self.sections.get("weak_point", ()), start=1)
+        )
+
+    @property
+    def trip(self) -> Mapping[str, Any] | None:
+        t = self.sections.get("trip")
+        if t and t.get("string_end", "closed") not in ("closed", "open"):
+            raise InputError(
+                _where(self.source, "trip.string_end"), t["string_end"], "closed or open"
+            )
+        return t
+
+    def check_value(self, index: int, key: str):
+        """A check's value by key (SI), raising a located error if it is missing."""
+        chk = self.checks[index]
+        if key not in chk.values:
+            n = index + 1 if index >= 0 else len(self.checks) + index + 1
+            raise InputError(
+                _where(self.source, f"check[{n}].{key}"),
+                None,
+                f"a value for {key}",
+                problem="missing",
+            )
+        return chk.values[key]
+
+    def well(self, check_index: int = -1):
+        """The :class:`calc.geometry.Well` at a check's bit depth (default the latest check)."""
+        from calc.geometry import Well
+
+        for name in HYDRAULICS_SECTIONS:
+            self._need(name)
+        if not self.checks:
+            raise InputError(
+                _where(self.source, "check"), None, "at least one [[check]]", problem="missing"
+            )
+        depth = self.check_value(check_index, "bit_depth")
+        return self._build(
+            "well",
+            Well,
+            self.survey,
+            self.hole(depth),
+            self.string,
+            self.bit,
+            self.surface_lines,
+            self.tool_drops,
+            bit_depth=depth,
+            message_units=self.units,
+        )
 
 
 def _geometry(values, where) -> ViscometerGeometry:
@@ -391,13 +732,100 @@ def parse_case(data: Mapping, source: str = "<case>") -> Case:
                 checks.append(CheckInput(label, readings, values))
             else:
                 slurries.append(SlurryInput(label, readings, values))
-    raw = {k: v for k, v in data.items() if SECTIONS[k][1] is None}
-    return Case(source, units, header, tuple(checks), tuple(slurries), raw)
+    # the sections beyond [case]/[[check]]/[[slurry]], verbatim (parsed ones are in `sections`)
+    raw = {k: v for k, v in data.items() if k not in ("case", "check", "slurry")}
+    sections: dict[str, Any] = {}
+    for name, (is_list, schema) in SECTIONS.items():
+        if name in ("case", "check", "slurry") or schema is None or name not in data:
+            continue
+        item = data[name]
+        if is_list:
+            if not isinstance(item, list):
+                raise InputError(_where(source, name), item, f"an array of tables [[{name}]]")
+            sections[name] = tuple(
+                parse_table(x, schema, units, source, f"{name}[{i}]")
+                for i, x in enumerate(item, start=1)
+            )
+        else:
+            sections[name] = parse_table(item, schema, units, source, name)
+    return Case(
+        source,
+        units,
+        header,
+        tuple(checks),
+        tuple(slurries),
+        raw,
+        sections=sections,
+        doc=_canonical(data),
+        hash=input_hash(data),
+    )
+
+
+def _canonical(x):
+    if isinstance(x, Mapping):
+        return {str(k): _canonical(v) for k, v in x.items()}
+    if isinstance(x, list | tuple):
+        return [_canonical(v) for v in x]
+    if isinstance(x, int | float) and not isinstance(x, bool):
+        return float(x)
+    return x
+
+
+def input_hash(data: Mapping) -> str:
+    """SHA-256 of the case document as canonical JSON (sorted keys, numbers as floats).
+
+    The same content gives the same hash whether it came from TOML or from the workbook.
+    """
+    text = json.dumps(_canonical(data), sort_keys=True, separators=(",", ":"), ensure_ascii=False)
+    return hashlib.sha256(text.encode("utf-8")).hexdigest()
+
+
+def _locate(exc: InputError, source: str, where: Mapping[str, str]) -> InputError:
+    """Re-word an error about ``source: path`` with the workbook cell of that path."""
+    name = exc.name
+    prefix = f"{source}: "
+    if not name.startswith(prefix):
+        return exc
+    path = name[len(prefix) :].split(" ", 1)[0].split(":", 1)[0]
+    probe = path
+    while probe:
+        if probe in where:
+            cell = where[probe].split(": ", 1)[-1]
+            new = InputError(
+                f"{source}: {cell} ({name[len(prefix) :]})", exc.value, exc.allowed, exc.problem
+            )
+            return new
+        probe = probe.rsplit(".", 1)[0] if "." in probe else ""
+    return exc
 
 
 def load_case(path) -> Case:
-    """Read and parse a case file.  Missing files and TOML syntax errors raise InputError."""
+    """Read and parse a case: a TOML case file, or an input workbook (.xlsx) in the block layout.
+
+    Errors are :class:`InputError` naming the file and key (for a workbook also the sheet and
+    cell), the value and what is allowed.
+    """
     p = Path(path)
+    if p.suffix.lower() in (".xlsx", ".xlsm"):
+        from addin.workbook_input import read_blocks
+
+        doc, where = read_blocks(p)
+        try:
+            case = parse_case(doc, p.name)
+        except InputError as exc:
+            raise _locate(exc, p.name, where) from exc
+        return Case(**{**{f: getattr(case, f) for f in case.__dataclass_fields__}, "where": where})
+    if p.suffix.lower() not in (".toml", ""):
+        raise InputError(
+            f"case file {p.name}",
+            p.suffix,
+            ".toml case file or .xlsx workbook",
+            problem="unknown file type",
+        )
+    if p.is_file() and p.stat().st_size > 5 * 2**20:
+        raise InputError(
+            f"case file {p.name}", f"{p.stat().st_size} bytes", "at most 5 MiB", problem="too large"
+        )
     try:
         text = p.read_text(encoding="utf-8")
     except OSError as exc:

@@ -7,17 +7,34 @@ Subcommands (each adds itself through a ``_register_*`` function, so later faces
     fit with its quality, the ranking and notes; then the comparison of consecutive checks and
     the one-line caution.
 
+``boreflow report CASE [-o REPORT.xlsx] [--force] [--json]``
+    The daily hydraulics report workbook from a TOML case file or an input workbook (.xlsx).
+    Written atomically; an existing file is never replaced unless ``--force`` is given.
+
+``boreflow calc hydrostatic|annular-velocity|bit|circulate ...``
+    One-off numbers (``boreflow calc QUANTITY --help`` lists each one's options).
+
+``boreflow batch PATH... -o FOLDER [--force] [--summary FILE.csv]``
+    A report for every case (folders are searched for *.toml and *.xlsx, ``@list.txt`` reads
+    paths from a file), with a progress bar on stderr and a summary table on stdout.
+
 Exit codes
 ----------
 0  success
-2  bad input (unknown option, unreadable or invalid case file, impossible readings); the
-   message is one line on stderr, no traceback
+1  internal error (a bug: please report it with the case file)
+2  bad input (unknown option, unreadable or invalid case file or workbook, impossible
+   readings); the message is one line on stderr, no traceback; nothing is written
+3  the output file exists and ``--force`` was not given; nothing is written
+4  the output could not be written (missing folder, permissions, disk full); any previous
+   file is left intact
+5  batch: at least one case failed (the others were written; see the summary table)
 """
 
 from __future__ import annotations
 
 import argparse
 import json
+import os
 import sys
 from collections.abc import Callable
 
@@ -28,10 +45,23 @@ from calc.errors import InputError
 from calc.rheology import compare_series, fit_all
 from calc.units import UNIT_SYSTEMS, from_si, label, unit_for
 
-__all__ = ["EXIT_BAD_INPUT", "EXIT_OK", "build_parser", "main"]
+__all__ = [
+    "EXIT_BAD_INPUT",
+    "EXIT_BATCH_FAILED",
+    "EXIT_EXISTS",
+    "EXIT_INTERNAL",
+    "EXIT_OK",
+    "EXIT_WRITE",
+    "build_parser",
+    "main",
+]
 
 EXIT_OK = 0
+EXIT_INTERNAL = 1
 EXIT_BAD_INPUT = 2
+EXIT_EXISTS = 3
+EXIT_WRITE = 4
+EXIT_BATCH_FAILED = 5
 
 _PARAM_LABELS = {
     "n": "n",
@@ -306,12 +336,39 @@ def _register_rheology(sub) -> None:
     p.set_defaults(func=_cmd_rheology)
 
 
+def _register_report(sub) -> None:
+    from addin.report import commands
+
+    commands.register(sub)
+
+
 #: Subcommand registrations; later faces append theirs (report, calc, batch).
-REGISTRATIONS: list[Callable] = [_register_rheology]
+REGISTRATIONS: list[Callable] = [_register_rheology, _register_report]
+
+
+_EPILOG = """first run (the invented demo case):
+  boreflow report workbooks/demo-case.toml -o demo-report.xlsx
+
+more help: boreflow COMMAND --help
+
+exit codes:
+  0  success
+  1  internal error (a bug; set BOREFLOW_DEBUG=1 for the traceback)
+  2  bad input (the message names the file and key, or sheet and cell)
+  3  output exists (use --force to replace it)
+  4  cannot write the output (the previous file is left intact)
+  5  batch: some cases failed (the others were written)
+"""
 
 
 def build_parser() -> argparse.ArgumentParser:
-    parser = _Parser(prog="boreflow", description="Drilling-fluid and slurry hydraulics.")
+    parser = _Parser(
+        prog="boreflow",
+        description="Drilling-fluid and slurry hydraulics: rheology, circulating pressures, "
+        "ECD, bit, hole cleaning, surge/swab, and the daily report workbook.",
+        epilog=_EPILOG,
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
     for register in REGISTRATIONS:
         register(sub)
@@ -333,6 +390,24 @@ def main(argv=None) -> int:
     except InputError as exc:
         print(f"boreflow: error: {exc}", file=sys.stderr)
         return EXIT_BAD_INPUT
+    except FileExistsError as exc:
+        print(f"boreflow: error: {exc}", file=sys.stderr)
+        return EXIT_EXISTS
+    except OSError as exc:
+        print(f"boreflow: error: cannot write: {exc}", file=sys.stderr)
+        return EXIT_WRITE
+    except KeyboardInterrupt:
+        print("boreflow: interrupted; nothing half-written was left behind", file=sys.stderr)
+        return 130
+    except Exception as exc:  # a bug: one line, not a traceback, unless asked
+        if os.environ.get("BOREFLOW_DEBUG"):
+            raise
+        print(
+            f"boreflow: internal error: {type(exc).__name__}: {exc} (set BOREFLOW_DEBUG=1 "
+            "for the traceback)",
+            file=sys.stderr,
+        )
+        return EXIT_INTERNAL
 
 
 if __name__ == "__main__":  # pragma: no cover

@@ -1,0 +1,79 @@
+"""The daily hydraulics report workbook (openpyxl), built from :func:`compute` results.
+
+Sheets, in order: ``Summary`` · ``Inputs`` (the case echoed in the input-workbook block layout,
+so the report parses back to the same case) · ``Rheology`` · ``Hydraulics`` · ``ECD`` · ``Bit``
+· ``Cleaning`` · ``Trips`` · ``Cautions`` · ``Audit`` (run information, conversion factors and an
+index of the live checks).  Which sheets appear depends on the calc modules present in this
+build (see :data:`SECTIONS`).
+
+Usage::
+
+    from addin.case import load_case
+    from addin.report import write_report
+    write_report(load_case("workbooks/demo-case.toml"), "demo-report.xlsx")
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from addin.report.compute import Results, compute
+
+__all__ = ["Results", "build_report", "compute", "write_report"]
+
+
+def build_report(results: Results):
+    """The report as an openpyxl Workbook (not saved)."""
+    import openpyxl
+
+    from addin.report.audit import Factors
+    from addin.report.sheets import (
+        write_audit,
+        write_cautions,
+        write_inputs,
+        write_summary,
+    )
+    from addin.report.style import add_styles
+
+    wb = openpyxl.Workbook()
+    add_styles(wb)
+    case = results.case
+    title = case.meta.get("title") or case.meta.get("well") or "boreflow report"
+    summary = wb.active
+    summary.title = "Summary"
+    write_inputs(wb, results, title)
+    audit = wb.create_sheet("Audit")
+    factors = Factors(audit, row=12, system=case.system)
+    refs = {}
+    from addin.report.sheet_rheology import write_rheology
+
+    refs["rheology"] = write_rheology(wb, results, factors, title)
+    from addin.report.sheet_hydraulics import write_bit, write_ecd, write_hydraulics
+
+    refs["hydraulics"] = write_hydraulics(wb, results, factors, title)
+    refs["ecd"] = write_ecd(wb, results, factors, title)
+    refs["bit"] = write_bit(wb, results, factors, title)
+    from addin.report.sheet_cleaning import write_cleaning, write_trips
+
+    refs["cleaning"] = write_cleaning(wb, results, factors, title, refs["hydraulics"]["q"])
+    refs["trips"] = write_trips(wb, results, factors, title)
+    write_cautions(wb, results, title)
+    write_summary(summary, results, refs, title)
+    write_audit(audit, results, factors, title)
+    # Audit last in tab order
+    wb.move_sheet("Audit", offset=len(wb.sheetnames) - 1 - wb.sheetnames.index("Audit"))
+    wb.active = 0
+    return wb
+
+
+def write_report(results: Results, path, *, overwrite: bool = False) -> Path:
+    """Build and save the report atomically; never replaces an existing file unless asked."""
+    from addin.safe_io import OutputExistsError, atomic_write
+
+    path = Path(path)
+    if path.exists() and not overwrite:
+        raise OutputExistsError(path)
+    wb = build_report(results)
+    with atomic_write(path, overwrite=overwrite) as tmp:
+        wb.save(tmp)
+    return path

@@ -1,0 +1,184 @@
+"""Native spreadsheet charts (openpyxl) for the report, drawn from cells already on a sheet.
+
+* :func:`rheogram` — shear stress against shear rate on log–log axes: viscometer readings as
+  markers only, each fitted model as a smooth line without markers.
+* :func:`pressure_breakdown` — horizontal bars, one per part of the circulating system.
+* :func:`depth_profile` — equivalent densities (ESD, ECD, pore, fracture) against true vertical
+  depth, depth increasing downward.
+
+Each builder takes column ranges as ``(sheet, col, first_row, last_row)`` tuples so the chart
+always refers to what the table shows.
+"""
+
+from __future__ import annotations
+
+from openpyxl.chart import BarChart, Reference, ScatterChart, Series
+from openpyxl.chart.layout import Layout, ManualLayout
+from openpyxl.chart.shapes import GraphicalProperties
+from openpyxl.drawing.line import LineProperties
+
+from addin.report.style import PALETTE
+
+__all__ = ["depth_profile", "pressure_breakdown", "rheogram"]
+
+_SERIES_COLOURS = ("1F5FA8", "C08A2B", "2E7D4F", "8E44AD", "B03A2E", "17808A", "6B7785")
+
+
+def _ref(ws, col, r0, r1):
+    return Reference(ws, min_col=col, min_row=r0, max_row=r1)
+
+
+def _axis_common(axis, title: str):
+    axis.title = title
+    axis.delete = False
+    axis.majorTickMark = "out"
+    axis.minorTickMark = "none"
+
+
+def _line(series, colour, *, width=19050, dash=None, marker=None, smooth=False):
+    series.graphicalProperties = GraphicalProperties(ln=LineProperties(solidFill=colour, w=width))
+    if dash:
+        series.graphicalProperties.line.dashStyle = dash
+    series.smooth = smooth
+    if marker is None:
+        series.marker.symbol = "none"
+    else:
+        series.marker.symbol = marker
+        series.marker.size = 7
+        series.marker.graphicalProperties = GraphicalProperties(solidFill=colour)
+        series.marker.graphicalProperties.line.solidFill = colour
+
+
+def _points_only(series, colour, marker="circle"):
+    series.marker.symbol = marker
+    series.marker.size = 8
+    series.marker.graphicalProperties = GraphicalProperties(solidFill=colour)
+    series.marker.graphicalProperties.line.solidFill = colour
+    series.graphicalProperties = GraphicalProperties()
+    series.graphicalProperties.line.noFill = True
+    series.smooth = False
+
+
+def rheogram(
+    readings: list[tuple[str, tuple]],
+    models: list[tuple[str, tuple]],
+    shear_rate_cols: dict,
+    *,
+    stress_unit: str,
+    title: str = "Rheogram",
+) -> ScatterChart:
+    """Log–log rheogram.
+
+    readings
+        ``[(label, (ws, stress_col, r0, r1)), ...]`` — measured stresses (markers only).
+    models
+        ``[(label, (ws, stress_col, r0, r1)), ...]`` — model curves (lines only).
+    shear_rate_cols
+        ``{"readings": (ws, col, r0, r1), "models": (ws, col, r0, r1)}`` — x values; one range
+        per kind (each readings/model range must have the same rows as its x range).
+    """
+    ch = ScatterChart()
+    ch.title = title
+    ch.style = 2
+    ch.height, ch.width = 9.5, 16.0
+    _axis_common(ch.x_axis, "shear rate [1/s]")
+    _axis_common(ch.y_axis, f"shear stress [{stress_unit}]")
+    ch.x_axis.scaling.logBase = 10
+    ch.y_axis.scaling.logBase = 10
+    ch.x_axis.scaling.min = 1
+    ch.x_axis.scaling.max = 2000
+    ch.y_axis.scaling.min = 1
+    ch.legend.position = "b"
+    k = 0
+    xr = shear_rate_cols["models"]
+    for name, (ws, col, r0, r1) in models:
+        s = Series(_ref(ws, col, r0, r1), _ref(*xr), title=name)
+        _line(s, _SERIES_COLOURS[k % len(_SERIES_COLOURS)], smooth=True)
+        ch.series.append(s)
+        k += 1
+    xr = shear_rate_cols["readings"]
+    markers = ("circle", "diamond", "triangle", "square")
+    for j, (name, (ws, col, r0, r1)) in enumerate(readings):
+        s = Series(_ref(ws, col, r0, r1), _ref(*xr), title=name)
+        _points_only(s, ("000000", PALETTE["bad"], PALETTE["muted"])[j % 3], markers[j % 4])
+        ch.series.append(s)
+    return ch
+
+
+def pressure_breakdown(
+    categories: tuple, values: tuple, *, pressure_unit: str, title="Where the pump pressure goes"
+) -> BarChart:
+    """Horizontal bars of the pressure losses, top to bottom in circulation order."""
+    ch = BarChart()
+    ch.type = "bar"
+    ch.style = 2
+    ch.title = title
+    ch.height, ch.width = 7.5, 16.0
+    ch.grouping = "clustered"
+    ch.varyColors = False
+    data = _ref(*values)
+    ch.add_data(data, titles_from_data=False)
+    ch.set_categories(_ref(*categories))
+    _axis_common(ch.y_axis, f"pressure loss [{pressure_unit}]")
+    _axis_common(ch.x_axis, "")
+    ch.x_axis.title = None
+    ch.x_axis.scaling.orientation = "maxMin"  # first part of the loop at the top
+    ch.legend = None
+    s = ch.series[0]
+    s.graphicalProperties = GraphicalProperties(solidFill=PALETTE["slate"])
+    s.graphicalProperties.line.solidFill = PALETTE["slate"]
+    ch.gapWidth = 60
+    return ch
+
+
+def depth_profile(
+    depth: tuple,
+    curves: list[tuple[str, tuple, str]],
+    *,
+    density_unit: str,
+    depth_unit: str,
+    title="Equivalent density against depth",
+    x_limits: tuple[float, float] | None = None,
+    y_max: float | None = None,
+) -> ScatterChart:
+    """EMW curves against TVD, depth increasing downward.
+
+    curves
+        ``[(label, (ws, col, r0, r1), role), ...]`` with role one of ``"ecd"``, ``"esd"``,
+        ``"pore"``, ``"fracture"``, ``"point"`` (markers only, e.g. a downhole gauge reading).
+        ``depth`` is the shared TVD range, unless a curve's range is a 2-tuple
+        ``(y_range, x_range)`` of its own.
+    """
+    style = {
+        "ecd": dict(colour=PALETTE["check"], width=28575),
+        "esd": dict(colour=PALETTE["ok"], width=19050),
+        "pore": dict(colour="7A4F9A", width=19050, dash="dash"),
+        "fracture": dict(colour=PALETTE["bad"], width=19050, dash="dash"),
+    }
+    ch = ScatterChart()
+    ch.title = title
+    ch.style = 2
+    ch.height, ch.width = 14.0, 15.0
+    _axis_common(ch.x_axis, f"equivalent density [{density_unit}]")
+    _axis_common(ch.y_axis, f"true vertical depth [{depth_unit}]")
+    ch.y_axis.scaling.orientation = "maxMin"
+    ch.y_axis.scaling.min = 0
+    if y_max is not None:
+        ch.y_axis.scaling.max = y_max
+    if x_limits is not None:
+        ch.x_axis.scaling.min, ch.x_axis.scaling.max = x_limits
+    ch.legend.position = "b"
+    for name, rng, role in curves:
+        if len(rng) == 2:
+            yr, xr = rng
+        else:
+            yr, xr = depth, rng
+        s = Series(_ref(*yr), _ref(*xr), title=name)  # values: TVD (y); xvalues: density
+        if role == "point":
+            _points_only(s, PALETTE["warn"], "diamond")
+        else:
+            st = style[role]
+            _line(s, st["colour"], width=st["width"], dash=st.get("dash"))
+        ch.series.append(s)
+    ch.layout = Layout(manualLayout=ManualLayout(x=0.02, y=0.08, w=0.96, h=0.72))
+    return ch

@@ -1,0 +1,187 @@
+"""Every result of a report run as plain JSON-ready data, in the case's units (units named)."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from addin.report.compute import scalar
+from addin.report.sheet_cleaning import short_name
+from calc.units import from_si, label, unit_for
+
+__all__ = ["results_data"]
+
+
+def _c(v, kind, system):
+    if v is None:
+        return None
+    a = np.asarray(v, dtype=float)
+    if kind in (None, "dimensionless"):
+        out = a
+    else:
+        out = np.asarray(from_si(a, unit_for(kind, system), kind))
+    out = np.where(np.isfinite(out), out, np.nan)
+    if out.ndim == 0:
+        x = float(out)
+        return None if np.isnan(x) else x
+    return [None if np.isnan(x) else float(x) for x in out.ravel()]
+
+
+def results_data(results) -> dict:
+    """The whole run: run info, summary rows, rheology, circulation, ECD, bit, cleaning, trips."""
+    from addin.cli import rheology_data
+
+    case, res = results.case, results.circulation
+    s = case.system
+    kinds = (
+        "depth",
+        "length",
+        "diameter",
+        "density",
+        "pressure",
+        "pressure_gradient",
+        "flow_rate",
+        "velocity",
+        "jet_velocity",
+        "trip_speed",
+        "stress",
+        "power",
+        "power_density",
+        "force",
+        "area",
+    )
+    out: dict = {
+        "run": {
+            "boreflow_version": results.version,
+            "run_time": results.run_time,
+            "inputs_sha256": case.hash,
+            "source": case.source,
+            "unit_system": s,
+            "method": results.method,
+            "fluid_fits": results.fluid.fits,
+        },
+        "units": {k: label(unit_for(k, s)) for k in kinds},
+    }
+    out["rheology"] = rheology_data(case, s)
+    bd = {k: _c(v, "pressure", s) for k, v in res.breakdown().items()}
+    iv = results.well.flow_intervals()
+    intervals = []
+    for path, rows, names, losses, flow in (
+        ("string", iv.select("string"), res.string_names, res.string_losses, res.string_flow),
+        ("annulus", iv.select("annulus"), res.annulus_names, res.annulus_losses, res.annulus_flow),
+    ):
+        vel = np.atleast_1d(flow.velocity).reshape(-1)
+        for i, name in enumerate(names):
+            intervals.append(
+                {
+                    "path": path,
+                    "name": short_name(name),
+                    "top_md": _c(rows.top_md[i], "depth", s),
+                    "bottom_md": _c(rows.bottom_md[i], "depth", s),
+                    "outer_diameter": _c(rows.outer_diameter[i], "diameter", s),
+                    "inner_diameter": _c(rows.inner_diameter[i], "diameter", s),
+                    "velocity": _c(vel[i], "velocity", s),
+                    "regime": int(np.atleast_1d(flow.regime).reshape(-1)[i]),
+                    "reynolds": float(np.atleast_1d(flow.reynolds).reshape(-1)[i]),
+                    "fanning_friction_factor": float(
+                        np.atleast_1d(flow.friction_factor).reshape(-1)[i]
+                    ),
+                    "gradient": _c(
+                        np.atleast_1d(flow.gradient).reshape(-1)[i], "pressure_gradient", s
+                    ),
+                    "loss": _c(np.atleast_1d(losses).reshape(-1)[i], "pressure", s),
+                }
+            )
+    out["circulation"] = {
+        "flow_rate": _c(res.q, "flow_rate", s),
+        "density": _c(res.density, "density", s),
+        "standpipe_pressure": _c(res.standpipe_pressure, "pressure", s),
+        "breakdown": bd,
+        "static_bhp": _c(res.static_bhp, "pressure", s),
+        "circulating_bhp": _c(res.circulating_bhp, "pressure", s),
+        "esd_bit": _c(res.esd_bit, "density", s),
+        "ecd_bit": _c(res.ecd_bit, "density", s),
+        "pump_power": _c(res.pump_power, "power", s),
+        "intervals": intervals,
+    }
+    mt = res.margins
+    if mt is not None:
+        named = [i for i, n in enumerate(mt.names) if not str(n).startswith("MD ")]
+        out["margins"] = {
+            "points": [
+                {
+                    "name": str(mt.names[i]),
+                    "md": _c(mt.md[i], "depth", s),
+                    "tvd": _c(mt.tvd[i], "depth", s),
+                    "pore": _c(mt.pore[i], "density", s),
+                    "fracture": _c(mt.fracture[i], "density", s),
+                    "ecd": _c(mt.ecd[i], "density", s),
+                    "fracture_margin": _c(mt.fracture_margin[i], "density", s),
+                    "pore_margin": _c(mt.pore_margin[i], "density", s),
+                }
+                for i in named
+            ],
+            "tightest": {
+                "name": str(mt.tightest.name),
+                "md": _c(mt.tightest.md, "depth", s),
+                "limit": str(mt.tightest.limit),
+                "margin": _c(mt.tightest.margin, "density", s),
+                "required": _c(mt.tightest.required, "density", s),
+            },
+        }
+    bh = res.bit
+    out["bit"] = {
+        "tfa": _c(bh.tfa, "area", s),
+        "nozzle_velocity": _c(bh.nozzle_velocity, "jet_velocity", s),
+        "pressure_drop": _c(bh.pressure_drop, "pressure", s),
+        "hydraulic_power": _c(bh.hydraulic_power, "power", s),
+        "hsi": _c(bh.hsi, "power_density", s),
+        "impact_force": _c(bh.impact_force, "force", s),
+        "share_of_standpipe": scalar(res.bit_share),
+        "method": bh.method,
+    }
+    if results.cleaning:
+        hc = results.cleaning["result"]
+        out["cleaning"] = {
+            "method": hc.method,
+            "criteria": hc.criteria_text,
+            "controlling_interval": short_name(hc.controlling_interval),
+            "controlling_rate": _c(hc.controlling_rate, "flow_rate", s),
+            "intervals": [
+                {
+                    **{k: v for k, v in r.items() if not isinstance(v, float)},
+                    "interval": short_name(r["interval"]),
+                    "top_md": _c(r["top_md"], "depth", s),
+                    "bottom_md": _c(r["bottom_md"], "depth", s),
+                    "annular_velocity": _c(r["annular_velocity"], "velocity", s),
+                    "slip_velocity": _c(r["slip_velocity"], "velocity", s),
+                    "transport_ratio": r["transport_ratio"],
+                    "concentration": r["concentration"],
+                    "cci": r["cci"],
+                    "minimum_rate": _c(r["minimum_rate"], "flow_rate", s),
+                }
+                for r in hc.table()
+            ],
+        }
+    if results.surge:
+        lim = results.surge["limits"]
+        out["trips"] = {
+            "method": lim.method,
+            "string_end": lim.string_end,
+            "max_running_speed": _c(lim.max_running_speed, "trip_speed", s),
+            "max_pulling_speed": _c(lim.max_pulling_speed, "trip_speed", s),
+            "speeds": _c(results.surge["speeds"], "trip_speed", s),
+            "surge_at_bit": _c(results.surge["running"].pressure_bit, "pressure", s),
+            "swab_at_bit": _c(results.surge["pulling"].pressure_bit, "pressure", s),
+        }
+    if results.window:
+        w = results.window
+        out["operating_window"] = {
+            "low_rate": _c(w["low"], "flow_rate", s),
+            "high_rate": _c(w["high"], "flow_rate", s),
+            "high_limited_by": w["high_limited_by"],
+        }
+    out["notes"] = [
+        {"level": n.level, "code": n.code, "subject": n.subject, "message": n.message}
+        for n in results.notes
+    ]
+    return out

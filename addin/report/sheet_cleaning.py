@@ -1,0 +1,219 @@
+"""Hole-cleaning and trip (surge/swab) sheets."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from addin.report.audit import Factors, write_checked
+from addin.report.style import (
+    heading,
+    number_format,
+    put,
+    put_number,
+    set_widths,
+    setup_print,
+    table_header,
+)
+from addin.report.style import unit_label as U
+from calc.units import from_si, unit_for
+
+__all__ = ["short_name", "write_cleaning", "write_trips"]
+
+
+def _o(v, kind, system):
+    if v is None:
+        return None
+    v = float(v)
+    if not np.isfinite(v):
+        return None
+    return float(from_si(v, unit_for(kind, system), kind))
+
+
+def short_name(name: str) -> str:
+    """An interval name without its trailing ", MD a-b m" (MD columns show the depths)."""
+    return str(name).split(", MD")[0]
+
+
+def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
+    system = results.case.system
+    part = results.cleaning
+    ws = wb.create_sheet("Cleaning")
+    set_widths(ws, [46, 9, 9, 7, 10, 10, 9, 8, 9, 9, 8, 10, 11, 11])
+    row = heading(ws, 1, "Hole cleaning (annulus, bit upwards)", span=14, title=True)
+    if part is None:
+        put(
+            ws,
+            row + 1,
+            1,
+            "Not evaluated: the latest check needs rop and cuttings (density, size).",
+            "bf_text",
+        )
+        return {}
+    hc = part["result"]
+    put(ws, row, 1, f"Method: {hc.method}", "bf_note")
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=14)
+    ws.row_dimensions[row].height = 24
+    put(ws, row + 1, 1, f"Criteria: {hc.criteria_text}", "bf_note")
+    ws.merge_cells(start_row=row + 1, start_column=1, end_row=row + 1, end_column=14)
+    ws.row_dimensions[row + 1].height = 24
+    row += 3
+    du, vu, qu = U("depth", system), U("velocity", system), U("flow_rate", system)
+    row = table_header(
+        ws,
+        row,
+        1,
+        [
+            "interval",
+            "top MD",
+            "bottom MD",
+            "incl.",
+            "annular velocity",
+            "slip velocity",
+            "transport ratio",
+            "TR live",
+            "agree?",
+            "cuttings conc.",
+            "loaded density",
+            "CCI",
+            "min. rate",
+            "verdict",
+        ],
+        ["", du, du, "°", vu, vu, "–", "1 − Vs/Va", "", "%", U("density", system), "–", qu, ""],
+    )
+    rows = hc.table()
+    refs = {}
+    for r in rows:
+        put(ws, row, 1, short_name(r["interval"]))
+        put_number(ws, row, 2, _o(r["top_md"], "depth", system), number_format("depth", system))
+        put_number(ws, row, 3, _o(r["bottom_md"], "depth", system), number_format("depth", system))
+        put_number(ws, row, 4, r["inclination"], "0.0")
+        put_number(ws, row, 5, _o(r["annular_velocity"], "velocity", system), "#,##0.0")
+        put_number(ws, row, 6, _o(r["slip_velocity"], "velocity", system), "#,##0.0")
+        write_checked(
+            ws,
+            row,
+            7,
+            r["transport_ratio"],
+            f"1-F{row}/E{row}",
+            kind="dimensionless",
+            system=system,
+        )
+        put_number(ws, row, 10, 100 * r["concentration"], "0.00")
+        put_number(
+            ws,
+            row,
+            11,
+            _o(r["loaded_density"], "density", system),
+            number_format("density", system),
+        )
+        put_number(ws, row, 12, r["cci"], "0.00")
+        put_number(ws, row, 13, _o(r["minimum_rate"], "flow_rate", system), "#,##0")
+        put(ws, row, 14, r["verdict"])
+        row += 1
+    put(
+        ws,
+        row,
+        1,
+        "Transport ratio live check: 1 − slip / annular velocity from the two "
+        "columns on its left. CCI only below the vertical limit; inclined intervals use the "
+        "critical rate of Larsen, Pilehvari & Azar (1997).",
+        "bf_note",
+    )
+    row += 2
+    worst = (
+        "poor" if "poor" in hc.verdict else "marginal" if "marginal" in hc.verdict else ("adequate")
+    )
+    refs["verdict"] = worst
+    refs["controlling"] = (short_name(hc.controlling_interval), hc.controlling_rate)
+    put(
+        ws,
+        row,
+        1,
+        f"Overall: {worst}. Rate needed for '{hc.require}' cleaning everywhere: "
+        f"{_o(hc.controlling_rate, 'flow_rate', system):,.0f} {qu} "
+        f"(controlled by {short_name(hc.controlling_interval)}).",
+        "bf_text",
+    )
+    setup_print(ws, title)
+    return refs
+
+
+def write_trips(wb, results, factors: Factors, title: str):
+    system = results.case.system
+    part = results.surge
+    ws = wb.create_sheet("Trips")
+    set_widths(ws, [34, 14, 14, 14, 14, 30])
+    row = heading(ws, 1, "Trips: surge and swab", span=6, title=True)
+    if part is None:
+        put(
+            ws,
+            row + 1,
+            1,
+            "Not evaluated: needs a [trip] section and a pressure window.",
+            "bf_text",
+        )
+        return {}
+    lim, run, pull = part["limits"], part["running"], part["pulling"]
+    put(
+        ws,
+        row,
+        1,
+        f"Method: {lim.method}; string end {lim.string_end}; peak speed = "
+        f"{lim.peak_factor:g} × average stand speed.",
+        "bf_note",
+    )
+    row += 2
+    tu, pu, du = U("trip_speed", system), U("pressure", system), U("depth", system)
+    row = heading(ws, row, "Speed limits (margins from [limits])", span=6)
+    row = table_header(
+        ws, row, 1, ["", "max. average speed", "governing depth", "MD", "TVD"], ["", tu, "", du, du]
+    )
+    for name, v, pt in (
+        ("running in (surge)", lim.max_running_speed, lim.running_point),
+        ("pulling out (swab)", lim.max_pulling_speed, lim.pulling_point),
+    ):
+        put(ws, row, 1, name)
+        put_number(ws, row, 2, _o(v, "trip_speed", system), "#,##0")
+        label = (
+            "bit"
+            if pt[0] == "bit"
+            else (pt[0] if not str(pt[0]).startswith("MD ") else "open hole")
+        )
+        put(ws, row, 3, label)
+        put_number(ws, row, 4, _o(pt[1], "depth", system), number_format("depth", system))
+        put_number(ws, row, 5, _o(pt[2], "depth", system), number_format("depth", system))
+        row += 1
+    row += 1
+    row = heading(ws, row, "Pressure change at the bit for the planned speeds", span=6)
+    row = table_header(
+        ws,
+        row,
+        1,
+        ["average stand speed", "surge (running)", "swab (pulling)", "surge EMW", "swab EMW"],
+        [tu, pu, pu, U("density", system), U("density", system)],
+    )
+    res = results.circulation
+    from calc.circulation import equivalent_density
+
+    for i, sp in enumerate(part["speeds"]):
+        s_up = float(np.asarray(run.pressure_bit).reshape(-1)[i])
+        s_dn = float(np.asarray(pull.pressure_bit).reshape(-1)[i])
+        put_number(ws, row, 1, _o(sp, "trip_speed", system), "#,##0")
+        put_number(ws, row, 2, _o(s_up, "pressure", system), number_format("pressure", system))
+        put_number(ws, row, 3, _o(s_dn, "pressure", system), number_format("pressure", system))
+        for col, dp in ((4, s_up), (5, s_dn)):
+            emw = (
+                res.density + equivalent_density(dp, res.bit_tvd)
+                if dp > 0
+                else (res.density - equivalent_density(-dp, res.bit_tvd))
+            )
+            put_number(ws, row, col, _o(emw, "density", system), number_format("density", system))
+        row += 1
+    put(ws, row, 1, "EMW at the bit = mud density ± pressure change / (g·TVD).", "bf_note")
+    setup_print(ws, title, landscape=False)
+    return {
+        "running": lim.max_running_speed,
+        "pulling": lim.max_pulling_speed,
+        "running_point": lim.running_point,
+        "pulling_point": lim.pulling_point,
+    }

@@ -1,0 +1,278 @@
+"""The rheology sheet: readings, field properties with live checks, every fit, change, rheogram."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from addin.report.audit import Factors, cell_ref, write_checked
+from addin.report.charts import rheogram
+from addin.report.style import (
+    heading,
+    number_format,
+    put,
+    put_number,
+    set_widths,
+    setup_print,
+    table_header,
+)
+from addin.report.style import unit_label as U
+from calc.units import from_si, unit_for
+
+__all__ = ["write_rheology"]
+
+_MODEL_CURVES = (
+    "api13d_2010_hb",
+    "hb_least_squares",
+    "bingham_least_squares",
+    "power_law_least_squares",
+    "api13d_1995_pipe",
+)
+_CURVE_RATES = np.geomspace(1.0, 1100.0, 45)
+
+
+def _out(v, kind, system):
+    return None if v is None else float(from_si(v, unit_for(kind, system), kind))
+
+
+def _params(model):
+    from calc.circulation.fluid import model_parameters
+
+    return model_parameters(model)
+
+
+def write_rheology(wb, results, factors: Factors, title: str):
+    """Add the sheet; return {"refs": {...}} with cells other sheets may cite."""
+    system = results.case.system
+    ws = wb.create_sheet("Rheology")
+    set_widths(ws, [26, 12, 11, 11, 9, 11, 11, 9, 11, 48, 9, 16, 3, 11, 15, 15, 15, 15, 15, 15])
+    row = heading(
+        ws,
+        1,
+        "Rheology: viscometer readings, field properties and fitted models",
+        span=12,
+        title=True,
+    )
+    checks = results.checks
+    # ---------------------------------------------------------------- readings
+    row = heading(ws, row + 1, "Viscometer readings (standard rotor–bob–spring)", span=12)
+    speeds = sorted({float(s) for c in checks for s in c.readings.speeds}, reverse=True)
+    su = U("stress", system)
+    heads = ["speed", "shear rate"]
+    units = ["rpm", "1/s"]
+    for c in checks:
+        heads += [f"{c.label}\ndial", f"{c.label}\nstress"]
+        units += ["°", su]
+    row = table_header(ws, row, 1, heads, units)
+    dial_cells: list[dict] = [dict() for _ in checks]
+    first = row
+    geom = checks[-1].readings.geometry
+    for s in speeds:
+        put_number(ws, row, 1, s, "0")
+        put_number(ws, row, 2, s * geom.shear_rate_per_rpm, "#,##0.0")
+        for j, c in enumerate(checks):
+            r = c.readings
+            val = r.reading(s) if hasattr(r, "reading") else None
+            col = 3 + 2 * j
+            if val is not None:
+                put_number(ws, row, col, val, "0.0", "bf_input")
+                put_number(
+                    ws,
+                    row,
+                    col + 1,
+                    _out(val * r.geometry.stress_per_reading, "stress", system),
+                    number_format("stress", system),
+                )
+                dial_cells[j][s] = cell_ref(ws, row, col, absolute=True)
+        row += 1
+    read_rows = (first, row - 1)
+    put(
+        ws,
+        row,
+        1,
+        "Stress = dial × instrument constant (k₁k₂, standard spring), shear rate = "
+        "rpm × Couette factor of the standard geometry (calc.rheology.viscometer).",
+        "bf_note",
+    )
+    row += 2
+    # ---------------------------------------------------------------- properties with checks
+    row = heading(ws, row, "Field properties (API RP 13B-1 definitions) with live checks", span=12)
+    heads = ["property", "unit"]
+    units = ["", ""]
+    for c in checks:
+        heads += [f"{c.label}\nboreflow", f"{c.label}\nlive check", "agree?"]
+        units += ["", "formula", ""]
+    heads += ["programme"]
+    units += ["low – high"]
+    row = table_header(ws, row, 1, heads, units)
+    f_cp = factors.named(
+        "SI per cP",
+        1e-3,
+        "multiplies a dial difference read as cP to Pa·s",
+        "API RP 13B-1 (PV = θ600 − θ300 in cP); cP = 1e-3 Pa·s exact",
+    )
+    f_fs = factors.unit_factor_of("lbf_per_100ft_sq", "stress")
+    f_visc = factors.unit("viscosity")
+    f_str = factors.unit("stress")
+    refs = {}
+    props = [
+        ("PV", "viscosity", lambda r: r.pv, lambda d: f"({d[600]}-{d[300]})*{f_cp}/{f_visc}", "pv"),
+        ("YP", "stress", lambda r: r.yp, lambda d: f"(2*{d[300]}-{d[600]})*{f_fs}/{f_str}", "yp"),
+        (
+            "LSYP = 2θ3 − θ6",
+            "stress",
+            lambda r: r.lsyp,
+            lambda d: f"(2*{d[3]}-{d[6]})*{f_fs}/{f_str}",
+            "lsyp",
+        ),
+        (
+            "AV = θ600 / 2",
+            "viscosity",
+            lambda r: r.av,
+            lambda d: f"{d[600]}/2*{f_cp}/{f_visc}",
+            None,
+        ),
+    ]
+    for name, kind, get, formula, prog in props:
+        put(ws, row, 1, name)
+        put(ws, row, 2, U(kind, system), "bf_unit")
+        for j, c in enumerate(checks):
+            col = 3 + 3 * j
+            try:
+                v = get(c.readings)
+                f = formula(dial_cells[j])
+            except (KeyError, Exception):  # readings lack the speeds this property needs
+                put(ws, row, col, "n/a (speeds missing)", "bf_note")
+                continue
+            vref, _ = write_checked(
+                ws, row, col, _out(v, kind, system), f, kind=kind, system=system
+            )
+            refs[(name.split()[0], j)] = vref
+        if prog:
+            rng = results.case.doc["check"][-1].get("program", {}).get(prog)
+            if isinstance(rng, list) and len(rng) == 2:
+                put(ws, row, 3 + 3 * len(checks), f"{rng[0]} – {rng[1]}", "bf_cell")
+        row += 1
+    for gel in ("10s", "10min", "30min"):
+        put(ws, row, 1, f"gel strength {gel}")
+        put(ws, row, 2, su, "bf_unit")
+        for j, c in enumerate(checks):
+            g = c.readings.gels_si.get(gel) if c.readings.gels else None
+            if g is not None:
+                put_number(
+                    ws, row, 3 + 3 * j, _out(g, "stress", system), number_format("stress", system)
+                )
+        row += 1
+    row += 1
+    # ---------------------------------------------------------------- fits
+    row = heading(ws, row, "Fitted models (every method; quality over all readings)", span=12)
+    heads = [
+        "check / method",
+        "model",
+        "τy",
+        "K",
+        "n",
+        "RMSE",
+        "R²",
+        "rank",
+        "fitted range",
+        "source",
+    ]
+    units = ["", "", su, f"{su}·sⁿ", "–", su, "–", "1 = best", "1/s", ""]
+    row = table_header(ws, row, 1, heads, units)
+    for c in checks:
+        rank = {e.method: e.rank for e in c.fits.ranking}
+        for fr in c.fits.results:
+            ty, k, n = _params(fr.model)
+            put(ws, row, 1, f"{c.label}: {fr.method}")
+            put(ws, row, 2, type(fr.model).__name__)
+            put_number(ws, row, 3, _out(ty, "stress", system), number_format("stress", system))
+            put_number(ws, row, 4, _out(k, "consistency", system), "0.0000")
+            put_number(ws, row, 5, n, "0.000")
+            put_number(ws, row, 6, _out(fr.quality.rmse, "stress", system), "0.00")
+            put_number(ws, row, 7, fr.quality.r2, "0.0000")
+            if fr.method in rank:
+                put_number(ws, row, 8, rank[fr.method], "0")
+            lo, hi = fr.shear_rate_range
+            put(ws, row, 9, f"{lo:,.0f} – {hi:,.0f}")
+            put(ws, row, 10, fr.source, "bf_note")
+            row += 1
+    put(
+        ws,
+        row,
+        1,
+        "τy, K, n: Herschel-Bulkley form τ = τy + K·γ̇ⁿ (Bingham: n = 1, K = μp; "
+        "power law: τy = 0). RMSE in stress over all readings; rank by standard error.",
+        "bf_note",
+    )
+    row += 2
+    # ---------------------------------------------------------------- change
+    last = checks[-1]
+    if last.comparison is not None:
+        cmp_ = last.comparison
+        row = heading(
+            ws,
+            row,
+            f"Change since the previous check ({cmp_.label_a} → {cmp_.label_b}, {cmp_.method})",
+            span=12,
+        )
+        row = table_header(
+            ws,
+            row,
+            1,
+            ["parameter", "previous", "latest", "change", "relative", "flagged?"],
+            ["", "", "", "", "%", "beyond tolerance"],
+        )
+        for ch in cmp_.changes:
+            kind = ch.kind if ch.kind in ("stress", "viscosity", "consistency") else None
+            put(ws, row, 1, f"{ch.name} [{U(kind, system)}]" if kind else ch.name)
+            for col, v in ((2, ch.a), (3, ch.b), (4, ch.change)):
+                put_number(ws, row, col, _out(v, kind, system) if kind else v, "0.000")
+            put_number(ws, row, 5, 100 * ch.relative, "0.0")
+            put(ws, row, 6, "YES" if ch.flagged else "no")
+            row += 1
+        put(
+            ws,
+            row,
+            1,
+            f"Largest difference between the fitted curves: "
+            f"{_out(cmp_.max_curve_difference, 'stress', system):.2f} {su} at "
+            f"{cmp_.max_difference_at:,.0f} 1/s.",
+            "bf_note",
+        )
+        row += 2
+    # ---------------------------------------------------------------- rheogram data and chart
+    col0 = 14
+    put(ws, 27, col0, "Rheogram data (latest check's models)", "bf_section")
+    heads = ["shear rate"] + [m for m in _MODEL_CURVES if _has(last.fits, m)]
+    row_d = table_header(ws, 28, col0, heads, ["1/s"] + [su] * (len(heads) - 1))
+    for i, g in enumerate(_CURVE_RATES):
+        put_number(ws, row_d + i, col0, g, "#,##0.0")
+        for j, m in enumerate(heads[1:]):
+            model = _fit_of(last.fits, m).model
+            put_number(
+                ws, row_d + i, col0 + 1 + j, _out(float(model.stress(g)), "stress", system), "0.00"
+            )
+    r1 = row_d + len(_CURVE_RATES) - 1
+    models = [(m, (ws, col0 + 1 + j, row_d, r1)) for j, m in enumerate(heads[1:])]
+    readings = [
+        (f"{c.label} readings", (ws, 4 + 2 * j, read_rows[0], read_rows[1]))
+        for j, c in enumerate(checks)
+    ]
+    ch = rheogram(
+        readings,
+        models,
+        {"readings": (ws, 2, read_rows[0], read_rows[1]), "models": (ws, col0, row_d, r1)},
+        stress_unit=su,
+        title=f"Rheogram, {last.label} (log–log)",
+    )
+    ws.add_chart(ch, "N3")
+    setup_print(ws, title)
+    return {"refs": refs, "next_row": row}
+
+
+def _has(fs, method):
+    return any(r.method == method for r in fs.results)
+
+
+def _fit_of(fs, method):
+    return next(r for r in fs.results if r.method == method)

@@ -1,0 +1,290 @@
+"""Inputs echo, cautions, audit sheet and the summary page."""
+
+from __future__ import annotations
+
+from openpyxl.styles import Font, PatternFill
+
+from addin.report.audit import AGREE_TOL
+from addin.report.style import (
+    PALETTE,
+    heading,
+    number_format,
+    put,
+    put_number,
+    set_widths,
+    setup_print,
+    table_header,
+)
+from addin.report.style import unit_label as U
+from calc import cautions
+from calc.units import from_si, unit_for
+
+__all__ = ["write_audit", "write_cautions", "write_inputs", "write_summary"]
+
+
+def out(v, kind, system):
+    """SI → the case's unit for ``kind`` (None stays None)."""
+    if v is None:
+        return None
+    return float(from_si(float(v), unit_for(kind, system), kind))
+
+
+# ------------------------------------------------------------------------------- inputs
+
+
+def write_inputs(wb, results, title):
+    from addin.workbook_input import LAYOUT, write_case_sheets
+
+    case = results.case
+    ws = wb.create_sheet("Inputs")
+    put(
+        ws,
+        1,
+        1,
+        "Inputs as read (block layout of the input workbook; this sheet reads back "
+        "as the same case)",
+        "bf_title",
+    )
+    put(ws, 2, 1, f"source: {case.source}    inputs hash (SHA-256): {case.hash}", "bf_note")
+    ws.append([])
+    write_case_sheets(wb, case.doc, {"Inputs": tuple(b.key for b in LAYOUT)})
+    setup_print(ws, title)
+    return ws
+
+
+# ------------------------------------------------------------------------------- cautions
+
+
+def write_cautions(wb, results, title):
+    ws = wb.create_sheet("Cautions")
+    set_widths(ws, [10, 22, 30, 90])
+    row = heading(ws, 1, "Cautions and notes", span=4, title=True)
+    put(ws, row, 1, cautions.CELL, "bf_text")
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=4)
+    ws.row_dimensions[row].height = 28
+    row += 2
+    row = heading(ws, row, "Engineering caution", span=4)
+    put(ws, row, 1, cautions.SHORT, "bf_text")
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=4)
+    ws.row_dimensions[row].height = 118
+    row += 2
+    for line in cautions.LINES:
+        put(ws, row, 1, "•", "bf_text")
+        put(ws, row, 2, line, "bf_text")
+        ws.merge_cells(start_row=row, start_column=2, end_row=row, end_column=4)
+        ws.row_dimensions[row].height = 15 * (1 + len(line) // 120)
+        row += 1
+    row += 1
+    row = heading(
+        ws, row, "Notes from this run (inputs interpreted, doubtful values, cautions)", span=4
+    )
+    row = table_header(ws, row, 1, ["level", "code", "about", "message"])
+    order = {"caution": 0, "warning": 1, "info": 2}
+    for n in sorted(results.notes, key=lambda n: order.get(n.level, 3)):
+        put(ws, row, 1, n.level.upper(), "bf_cell")
+        if n.level == "caution":
+            ws.cell(row=row, column=1).font = Font(bold=True, color=PALETTE["bad"], size=9)
+        put(ws, row, 2, n.code, "bf_cell")
+        put(ws, row, 3, n.subject, "bf_cell")
+        put(ws, row, 4, n.message, "bf_text")
+        ws.row_dimensions[row].height = 13 * (1 + len(n.message) // 110)
+        row += 1
+    if not results.notes:
+        put(ws, row, 1, "(none)", "bf_note")
+    setup_print(ws, title, landscape=False)
+    return ws
+
+
+# ------------------------------------------------------------------------------- audit
+
+
+def write_audit(ws, results, factors, title):
+    case = results.case
+    set_widths(ws, [30, 20, 52, 60])
+    heading(ws, 1, "Audit: run information and conversion factors", span=4, title=True)
+    info = [
+        ("boreflow version", results.version),
+        ("run time", results.run_time),
+        ("inputs hash (SHA-256 of the canonical case)", case.hash),
+        ("case source", case.source),
+        ("unit system", case.system),
+        ("hydraulics method", results.method),
+        ("hydraulics fluid fits", results.fluid.fits),
+    ]
+    for i, (k, v) in enumerate(info, start=2):
+        put(ws, i, 1, k, "bf_cell")
+        put(ws, i, 2, str(v), "bf_cell")
+        ws.merge_cells(start_row=i, start_column=2, end_row=i, end_column=3)
+    put(
+        ws,
+        9,
+        1,
+        "How to audit: every blue cell is a live formula from native spreadsheet "
+        "functions that recomputes boreflow's number (the plain number on its left) from cells "
+        f"on this workbook; the cell to its right says 'agrees' within {AGREE_TOL:g} relative. "
+        "The factors below convert the case's units to SI; each names its source.",
+        "bf_text",
+    )
+    ws.merge_cells(start_row=9, start_column=1, end_row=9, end_column=4)
+    ws.row_dimensions[9].height = 40
+    table_header(ws, 11, 1, ["factor", "value", "meaning", "source"])
+    setup_print(ws, title, landscape=False)
+    return ws
+
+
+# ------------------------------------------------------------------------------- summary
+
+_STATUS_FILL = {
+    "OK": PALETTE["ok"],
+    "NEAR LIMIT": PALETTE["warn"],
+    "EXCEEDED": PALETTE["bad"],
+    "CHECK": PALETTE["warn"],
+    "INFO": PALETTE["muted"],
+}
+
+
+def _status(ws, row, col, status):
+    c = put(ws, row, col, status, "bf_cell")
+    if status in _STATUS_FILL:
+        c.fill = PatternFill("solid", fgColor=_STATUS_FILL[status])
+        c.font = Font(name="Arial", size=9, bold=True, color="FFFFFF")
+
+
+def write_summary(ws, results, refs, title):
+    """The summary page: header, key results against limits, run information."""
+    case = results.case
+    system = case.system
+    res = results.circulation
+    chk = case.checks[-1]
+    set_widths(ws, [42, 13, 13, 9, 11, 13, 13, 13, 14])
+    row = heading(ws, 1, f"Daily hydraulics report: {title}", span=9, title=True)
+    c = put(ws, row, 1, cautions.CELL, "bf_note")
+    c.font = Font(name="Arial", size=8, italic=True, color=PALETTE["bad"])
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=9)
+    row += 2
+    # ---- header block (two label/value column pairs)
+    m = case.meta
+    last_shoe = max(case.casings, key=lambda s: s.bottom) if case.casings else None
+    left = [
+        ("well", m.get("well", "")),
+        ("operator", m.get("operator", "")),
+        ("rig", m.get("rig", "")),
+        ("location", m.get("location", "")),
+        ("report period", m.get("report_period", "")),
+        ("mud check", f"{chk.label}  ({chk.values.get('fluid', '')})"),
+    ]
+    bit_tvd = res.bit_tvd
+    oh_d = case.open_hole.get("diameter") or case.open_hole["bit_size"]
+    right = [
+        (
+            "bit depth MD / TVD",
+            f"{out(chk.values['bit_depth'], 'depth', system):,.0f} / "
+            f"{out(bit_tvd, 'depth', system):,.0f} {U('depth', system)}",
+        ),
+        ("open hole (effective)", f"{out(oh_d, 'diameter', system):.3f} {U('diameter', system)}"),
+        (
+            "last shoe MD, test EMW",
+            f"{out(last_shoe.bottom, 'depth', system):,.0f} {U('depth', system)}, "
+            f"{out(last_shoe.shoe_test, 'density', system):.2f} {U('density', system)}"
+            if last_shoe is not None and last_shoe.shoe_test
+            else "–",
+        ),
+        (
+            "mud density",
+            f"{out(chk.values['density'], 'density', system):.2f} {U('density', system)}",
+        ),
+        (
+            "flow rate",
+            f"{out(chk.values['flow_rate'], 'flow_rate', system):,.0f} {U('flow_rate', system)}",
+        ),
+        ("hydraulics method", results.method),
+    ]
+    for i, ((lk, lv), (rk, rv)) in enumerate(zip(left, right, strict=True)):
+        put(ws, row + i, 1, lk, "bf_note")
+        put(ws, row + i, 2, str(lv), "bf_cell")
+        ws.merge_cells(start_row=row + i, start_column=2, end_row=row + i, end_column=5)
+        put(ws, row + i, 6, rk, "bf_note")
+        put(ws, row + i, 7, str(rv), "bf_cell")
+        ws.merge_cells(start_row=row + i, start_column=7, end_row=row + i, end_column=9)
+    row += len(left) + 1
+    # ---- key results
+    row = heading(ws, row, "Key results against limits", span=9)
+    row = table_header(
+        ws,
+        row,
+        1,
+        [
+            "quantity",
+            "boreflow",
+            "live check",
+            "agree?",
+            "unit",
+            "limit",
+            "margin",
+            "required",
+            "status",
+        ],
+        ["", "computed", "from detail sheet", "", "", "", "limit − value", "", ""],
+    )
+    for item in results_rows(results, refs):
+        put(ws, row, 1, item["name"], "bf_cell")
+        kind = item["kind"]
+        fmt = number_format(kind, system)
+        if item.get("value") is not None:
+            put_number(ws, row, 2, out(item["value"], kind, system) if kind else item["value"], fmt)
+        elif item.get("text"):
+            put(ws, row, 2, item["text"], "bf_cell")
+        if item.get("check"):
+            c = ws.cell(row=row, column=3, value="=" + item["check"])
+            c.style = "bf_check"
+            c.number_format = fmt
+            ws.cell(
+                row=row,
+                column=4,
+                value=(
+                    f'=IF(ABS(B{row}-C{row})<={AGREE_TOL}*MAX(ABS(B{row}),1E-12),"agrees","DIFFERS")'
+                ),
+            ).style = "bf_note"
+        put(ws, row, 5, U(kind, system) if kind else item.get("unit", "–"), "bf_unit")
+        for col, key in ((6, "limit"), (7, "margin"), (8, "required")):
+            v = item.get(key)
+            if v is not None:
+                k2 = "density" if kind == "density" else kind
+                if key in ("margin", "required") and kind == "density":
+                    v = out(v, "density", system) - out(0.0, "density", system)
+                elif k2:
+                    v = out(v, k2, system)
+                put_number(ws, row, col, v, fmt)
+        _status(ws, row, 9, item.get("status", ""))
+        row += 1
+    row += 1
+    row = heading(ws, row, "Run", span=9)
+    for k, v in (
+        ("boreflow version", results.version),
+        ("run time", results.run_time),
+        ("inputs hash (SHA-256)", case.hash),
+        ("case source", case.source),
+    ):
+        put(ws, row, 1, k, "bf_note")
+        put(ws, row, 2, str(v), "bf_cell")
+        ws.merge_cells(start_row=row, start_column=2, end_row=row, end_column=9)
+        row += 1
+    put(
+        ws,
+        row + 1,
+        1,
+        "Detail on the following sheets; every caution and note on 'Cautions'; "
+        "units follow the case (" + system + ").",
+        "bf_note",
+    )
+    ws.merge_cells(start_row=row + 1, start_column=1, end_row=row + 1, end_column=9)
+    setup_print(ws, title, fit_height=1)
+    ws.freeze_panes = None
+    return ws
+
+
+def results_rows(results, refs):
+    """Rows of the key-results table (values SI; kinds for units)."""
+    from addin.report.summary_rows import summary_rows
+
+    return summary_rows(results, refs)

@@ -1,0 +1,181 @@
+"""The key-results rows of the summary page (values SI; live checks point at detail sheets)."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from addin.report.compute import scalar
+
+__all__ = ["summary_rows"]
+
+
+def _status_margin(margin, required):
+    if margin is None:
+        return ""
+    if margin < 0:
+        return "EXCEEDED"
+    if required is not None and margin < required:
+        return "NEAR LIMIT"
+    return "OK"
+
+
+def _at(arr, i):
+    return float(np.asarray(arr).reshape(-1)[i])
+
+
+def summary_rows(results, refs) -> list[dict]:
+    """Rows: name, kind (calc.units kind or None), value [SI], check (formula), limit, margin,
+    required, status."""
+    case, res = results.case, results.circulation
+    lim = case.limits
+    hyd, ecd, bit = refs["hydraulics"], refs["ecd"], refs["bit"]
+    rows = []
+    spp = scalar(res.standpipe_pressure)
+    rating = lim["surface_rating"]
+    spare = None if rating is None else rating - spp
+    rows.append(
+        dict(
+            name="standpipe pressure, predicted",
+            kind="pressure",
+            value=spp,
+            check=hyd["spp"][1],
+            limit=rating,
+            margin=spare,
+            status=_status_margin(spare, 0.1 * rating if rating else None),
+        )
+    )
+    meas = case.checks[-1].values.get("measured_spp")
+    if meas is not None:
+        gap = 100.0 * (spp - meas) / meas
+        rows.append(
+            dict(
+                name=f"standpipe pressure, measured (predicted {gap:+.1f} %)",
+                kind="pressure",
+                value=meas,
+                status="OK" if abs(gap) <= 10 else "CHECK",
+            )
+        )
+    mt = res.margins
+    names = list(mt.names) if mt is not None else []
+    req_f = mt.margins.fracture if mt is not None else None
+    shoe = next((i for i, n in enumerate(names) if str(n).lower().endswith("shoe")), None)
+    if shoe is not None:
+        e, f = _at(mt.ecd, shoe), _at(mt.fracture, shoe)
+        rows.append(
+            dict(
+                name=f"ECD at the {names[shoe]}",
+                kind="density",
+                value=e,
+                limit=f,
+                margin=f - e,
+                required=req_f,
+                status=_status_margin(f - e, req_f),
+            )
+        )
+    e_bit = scalar(res.ecd_bit)
+    f_bit = _at(mt.fracture, names.index("bit")) if "bit" in names else None
+    m_bit = None if f_bit is None else f_bit - e_bit
+    rows.append(
+        dict(
+            name="ECD at the bit",
+            kind="density",
+            value=e_bit,
+            check=ecd["ecd_bit"][1],
+            limit=f_bit,
+            margin=m_bit,
+            required=req_f,
+            status=_status_margin(m_bit, req_f),
+        )
+    )
+    t = ecd.get("tightest")
+    if t is not None:
+        m = float(np.asarray(t.margin))
+        rows.append(
+            dict(
+                name=f"tightest margin: {t.name} ({t.limit})",
+                kind="density",
+                value=m,
+                required=float(t.required),
+                status=_status_margin(m, float(t.required)),
+            )
+        )
+    rows.append(dict(name="static mud weight (ESD)", kind="density", value=scalar(res.esd_bit)))
+    if "pwd" in ecd:
+        pred, gauge, _ = ecd["pwd"]
+        rows.append(
+            dict(
+                name="downhole gauge (PWD) ECD; margin = gauge − predicted",
+                kind="density",
+                value=gauge,
+                margin=gauge - pred,
+                status="INFO",
+            )
+        )
+    rows.append(
+        dict(
+            name="hydrostatic pressure at the bit",
+            kind="pressure",
+            value=scalar(res.static_bhp),
+            check=ecd["hydrostatic"][1],
+        )
+    )
+    rows.append(
+        dict(
+            name="bit pressure drop",
+            kind="pressure",
+            value=scalar(res.bit_loss),
+            check=bit["dp"][1],
+        )
+    )
+    rows.append(
+        dict(name="HSI", kind="power_density", value=scalar(res.bit.hsi), check=bit["hsi"][1])
+    )
+    av = hyd.get("min_av")
+    if av is not None:
+        rows.append(
+            dict(
+                name="lowest annular velocity (see Hydraulics)",
+                kind="velocity",
+                value=float(av[0]),
+                check=av[3],
+            )
+        )
+    cl = refs.get("cleaning") or {}
+    if cl:
+        status = {"adequate": "OK", "marginal": "NEAR LIMIT", "poor": "EXCEEDED"}[cl["verdict"]]
+        rows.append(
+            dict(
+                name="hole cleaning verdict (worst interval)",
+                kind=None,
+                text=cl["verdict"],
+                unit="",
+                status=status,
+            )
+        )
+    w = results.window
+    if w is not None:
+        if w["low"] is not None:
+            rows.append(
+                dict(
+                    name="operating window, lowest rate (hole cleaning)",
+                    kind="flow_rate",
+                    value=w["low"],
+                )
+            )
+        if w["high"] is not None:
+            rows.append(
+                dict(
+                    name="operating window, highest rate (ECD, SPP)",
+                    kind="flow_rate",
+                    value=w["high"],
+                )
+            )
+    tr = refs.get("trips") or {}
+    if tr:
+        rows.append(
+            dict(name="max. running speed (surge limit)", kind="trip_speed", value=tr["running"])
+        )
+        rows.append(
+            dict(name="max. pulling speed (swab limit)", kind="trip_speed", value=tr["pulling"])
+        )
+    return rows
