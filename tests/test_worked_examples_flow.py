@@ -11,20 +11,13 @@ Sources
 [GL] Guo, B. & Liu, G. (2011). *Applied Drilling Circulation Systems: Hydraulics, Calculations
      and Models*. Gulf Professional Publishing. Illustrative Examples 2.5 (Bingham plastic,
      pp. 41-42) and 2.6 (power law, pp. 43-45); equations 2.31-2.35, 2.58-2.61, 2.66-2.67.
-[TAMU] "API Power-Law Model", Texas A&M University course notes PETE 411 *Well Drilling*, worked
-     example "Pump Pressure" after API RP 13D 3rd ed. (1995): drill-pipe and drill-collar bore
-     (reprinted publicly on scribd, doc 267606052).  Course notes, not a standard: see
-     tests/WORKED_EXAMPLES.md.
 """
 
 import numpy as np
 import pytest
 
 from calc.flow import annulus_flow, pipe_flow
-from calc.flow.friction import api_turbulent_coefficients, n_dependent_bounds
-from calc.rheology import PowerLaw
-from calc.rheology.fitting import fit
-from calc.rheology.viscometer import ViscometerGeometry, ViscometerReadings
+from calc.flow.friction import n_dependent_bounds
 from calc.units import from_si, to_si
 
 # ------------------------------------------------------------------ [GL] well and mud (p. 41)
@@ -252,110 +245,3 @@ def test_gl_2_6_power_law_annulus(name, printed_re, printed_f, printed_psi):
     # Δp = f ρ v² L/(0.816·(D2 - D1)) in consistent units = our gradient × f_GL/(0.816 f_ours)
     as_printed = _psi(r.gradient, length) * f_gl / (0.816 * r.friction_factor)
     assert as_printed == pytest.approx(printed_psi, abs=0.5 + 5e-3 * printed_psi)
-
-
-# ----------------------------------------------- [TAMU] API RP 13D (1995) power law, drill string
-#: Dial readings R3 = 3, R100 = 20, R300 = 39, R600 = 65; 12.5 ppg; 280 gpm ([TAMU] slides 8-9).
-TAMU_READINGS = ViscometerReadings([600, 300, 100, 3], [65, 39, 20, 3])
-TAMU_RHO = to_si(12.5, "ppg")
-TAMU_Q = to_si(280.0, "gpm")
-#: The rounded instrument constants printed in API RP 13D (1995): K_p = 5.11θ600/1022^n_p, i.e.
-#: 0.511 Pa per degree and 1022/600 s⁻¹ per rpm (our default instrument is 0.5107 and 1.7023).
-API95_FIELD_PIPE = ViscometerGeometry(
-    "API RP 13D (1995) rounded constants, pipe pair",
-    1022.0 / 600.0,
-    0.511,
-    source="API RP 13D 3rd ed. (1995): 5.11 dyn/cm² per degree, 1022 s⁻¹ at 600 rpm",
-)
-
-
-def test_tamu_api95_pipe_parameters():
-    """[TAMU] slide 10: n_p = 3.32 log(65/39) = 0.737; K_p = 5.11·65/1022^n_p = 2.017 dyn·sⁿ/cm².
-
-    Two conventions of API RP 13D (1995) sit in K_p: the rounded instrument constants (5.11,
-    1022) and the rounded 3.32 for 1/log 2 = 3.3219 in n_p (n_p 0.73654 vs 0.73697: invisible
-    in the printed 0.737, but K_p moves 0.3 % through 1022^n).  Our fit uses exact logarithms;
-    with API's instrument constants (a user geometry) and its 3.32 applied to our τ600 and
-    γ̇600 (K_api = τ600/γ̇600^n_api) the printed K_p follows.  Our default instrument and exact
-    n give K_p = 2.011.
-    """
-    ours = fit(TAMU_READINGS, "api13d_1995_pipe")
-    assert ours.model.n == pytest.approx(0.737, abs=5e-4)
-    assert ours.intermediates["K_dyn_s^n_per_cm2"] == pytest.approx(2.011, abs=5e-4)
-    readings = ViscometerReadings([600, 300, 100, 3], [65, 39, 20, 3], geometry=API95_FIELD_PIPE)
-    api = fit(readings, "api13d_1995_pipe")
-    assert api.model.n == pytest.approx(0.737, abs=5e-4)
-    n_api = 3.32 * np.log10(65.0 / 39.0)
-    g600 = 600.0 * API95_FIELD_PIPE.shear_rate_per_rpm
-    k_api = api.model.k * g600 ** (api.model.n - n_api)  # = τ600/γ̇600^n_api
-    assert k_api / 0.1 == pytest.approx(2.017, abs=5e-4)  # 1 dyn·sⁿ/cm² = 0.1 Pa·sⁿ
-
-
-def _tamu_pipe_model():
-    """n_p, K_p by the printed API RP 13D (1995) formulas (the inputs of the next steps)."""
-    n = 3.32 * np.log10(65.0 / 39.0)
-    k = 0.1 * 5.11 * 65.0 / 1022.0**n  # dyn·sⁿ/cm² → Pa·sⁿ
-    return PowerLaw(k, n)
-
-
-def test_tamu_api95_drill_pipe():
-    """[TAMU] slides 10-13, drill pipe 4.5 x 3.78 in, 11,400 ft:
-    V_p = 0.408·280/3.78² = 8.00 ft/s; μ_ep = 53 cP; N_Re = 6,616; a = 0.0759, b = 0.2690;
-    f = 0.007126; dP/dL = 0.05837 psi/ft (an arithmetic slip, see below); ΔP_dp = 665 psi.
-
-    The notes carry V = 8.00 ft/s (unrounded 8.005) forward, so the check evaluates our method
-    at that velocity; the remaining difference in N_Re is the constant 928 (exact 927.69, 0.03 %).
-    """
-    model = _tamu_pipe_model()
-    d = to_si(3.78, "in")
-    r0 = pipe_flow(
-        TAMU_Q, d, density=TAMU_RHO, tau_y=0.0, k=model.k, n=model.n, method="api13d_1995_power_law"
-    )
-    # printed with 0.408 for the exact 77/(60π) = 0.40850 (our 8.005 ft/s)
-    v_field = from_si(r0.velocity, "ft/s") * 0.408 / (77 / (60 * np.pi))
-    assert v_field == pytest.approx(8.00, abs=0.005)
-    q_printed_v = to_si(8.00, "ft/s") * np.pi * d**2 / 4.0
-    r = pipe_flow(
-        q_printed_v,
-        d,
-        density=TAMU_RHO,
-        tau_y=0.0,
-        k=model.k,
-        n=model.n,
-        method="api13d_1995_power_law",
-    )
-    mu_e = TAMU_RHO * r.velocity * d / r.reynolds  # Re = ρVD/μ_ep, so μ_ep from our Re
-    assert from_si(mu_e, "cP") == pytest.approx(53, abs=0.5)
-    assert r.reynolds == pytest.approx(6_616, rel=6e-4)
-    a, b = api_turbulent_coefficients(model.n)
-    assert float(a) == pytest.approx(0.0759, abs=5e-5)
-    assert float(b) == pytest.approx(0.2690, abs=5e-5)
-    assert r.regime_label == "turbulent"
-    assert r.friction_factor == pytest.approx(0.007126, rel=3e-4)
-    # The notes print dP/dL = 0.007126·8²·12.5/(25.81·3.78) = 0.05837 psi/ft, but those printed
-    # factors give 0.058433: an arithmetic slip of 0.11 % in the source.  Ours is checked
-    # against the printed factors, and ΔP against the printed 665 psi within that slip.
-    from_printed_factors = 0.007126 * 8.00**2 * 12.5 / (25.81 * 3.78)
-    assert from_printed_factors == pytest.approx(0.058433, abs=5e-7)
-    assert from_si(r.gradient, "psi/ft") == pytest.approx(from_printed_factors, rel=4e-4)
-    assert from_si(r.gradient, "psi/ft") * 11_400 == pytest.approx(665, rel=2e-3)
-    # unrounded (our own V = 8.005 ft/s): 0.3 % above the printed chain
-    assert from_si(r0.gradient, "psi/ft") * 11_400 == pytest.approx(665, rel=4e-3)
-
-
-def test_tamu_api95_drill_collar_velocity():
-    """[TAMU] slide 14, drill collar 6.5 x 2.5 in: V = 0.408·280/2.5² = 18.28 ft/s (printed,
-    with 0.408; the exact 77/(60π) = 0.40850 gives 18.30)."""
-    model = _tamu_pipe_model()
-    r = pipe_flow(
-        TAMU_Q,
-        to_si(2.5, "in"),
-        density=TAMU_RHO,
-        tau_y=0.0,
-        k=model.k,
-        n=model.n,
-        method="api13d_1995_power_law",
-    )
-    assert from_si(r.velocity, "ft/s") * 0.408 / (77 / (60 * np.pi)) == pytest.approx(
-        18.28, abs=0.005
-    )
