@@ -347,3 +347,105 @@ def test_laminar_pipe_external_hagen_poiseuille():
     assert v * d * 1000 / mu < 2000  # laminar at 1 sg
     got = BF_PIPE_GRAD(1.0, readings, 4.276, 20, "newtonian", "oilfield; density=sg")
     assert got == pytest.approx(oil(32 * mu * v / d**2, "pressure_gradient"), rel=1e-9)
+
+
+# ---------------------------------------------------------------- surge
+
+
+def test_surge_functions_match_calc():
+    from addin.sheets.functions import (
+        BF_BREAK_CIRC,
+        BF_SURGE,
+        BF_SURGE_EMW,
+        BF_SURGE_TABLE,
+        BF_TRIP_SPEED,
+    )
+    from calc import surge as cs
+
+    fpm = cu.si_factor("ft/min")
+    fluid = cc.hydraulics_fluid_from_readings(READINGS, density=11 * PPG)
+    ty, k, n = fluid.annulus_parameters
+    d2 = np.array([8.835, 8.6]) * INCH
+    d1 = np.array([5.0, 5.0]) * INCH
+    ln = np.array([8200.0, 2750.0]) * FT
+    col = lambda a: [[float(x)] for x in a]  # noqa: E731
+    hole, pipe, length = col([8.835, 8.6]), col([5.0, 5.0]), col([8200.0, 2750.0])
+    kw = dict(density=11 * PPG, tau_y=ty, k=k, n=n)
+    # a column of intervals, running in, closed string
+    res = cs.interval_surge(90 * fpm, d2, d1, ln, **kw)
+    got = BF_SURGE(11.0, COLUMNS, hole, pipe, length, 90.0)
+    assert np.allclose(got, oil(res.pressure_change, "pressure").reshape(-1, 1), rtol=1e-12)
+    # a column of speeds through one interval, pulling out, given K_c and peak factor
+    sp = np.array([60.0, 120.0])
+    one = cs.interval_surge(sp * fpm, d2[1], d1[1], ln[1], direction="pulling", clinging=0.45,
+                            peak_factor=1.2, **kw)  # fmt: skip
+    got = BF_SURGE(11.0, COLUMNS, 8.6, 5.0, 2750.0, col(sp), "swab", None, None, None, 0.45, 1.2)
+    assert np.allclose(got, oil(one.pressure_change, "pressure").reshape(-1, 1), rtol=1e-12)
+    # an open string with bit nozzles: bore uses the pipe fit
+    tfa = cb.total_flow_area("3x12 3x11")
+    op = cs.interval_surge(
+        90 * fpm, d2, d1, ln, d_bore=4.276 * INCH, tfa=tfa, string_end="open",
+        bore_parameters=fluid.pipe_parameters, **kw,
+    )  # fmt: skip
+    got = BF_SURGE(11.0, COLUMNS, hole, pipe, length, 90.0, None, 4.276, "3x12 3x11")
+    assert np.allclose(got, oil(op.pressure_change, "pressure").reshape(-1, 1), rtol=1e-12)
+    table = BF_SURGE_TABLE(11.0, COLUMNS, hole, pipe, length, 90.0)
+    assert table[0][0] == "interval" and len({len(r) for r in table}) == 1
+    assert close(table[1][1], res.clinging[0]) and table[1][3] == "laminar"
+    assert close(table[3][5], oil(res.total_pressure_change, "pressure"))
+    # EMW while tripping from the summed pressure (the column BF_SURGE gave)
+    tvd = 9480.0
+    emw = cs.trip_emw(11 * PPG, res.total_pressure_change, tvd * FT)
+    summed = BF_SURGE_EMW(11.0, tvd, BF_SURGE(11.0, COLUMNS, hole, pipe, length, 90.0))
+    assert close(summed, oil(emw, "density"))
+    # trip-speed limit against a limit EMW
+    allow = cs.trip_allowance(12.4 * PPG, 11 * PPG, tvd * FT)
+    lim = cs.trip_speed_limit(allow, d2, d1, ln, **kw)
+    assert close(BF_TRIP_SPEED(11.0, COLUMNS, hole, pipe, length, 12.4, tvd),
+                 oil(lim.max_speed, "trip_speed"))  # fmt: skip
+    swab = cs.trip_speed_limit(
+        cs.trip_allowance(10.8 * PPG, 11 * PPG, tvd * FT, "pulling"), d2, d1, ln,
+        direction="pulling", **kw,
+    )  # fmt: skip
+    got = BF_TRIP_SPEED(11.0, COLUMNS, hole, pipe, length, 10.8, tvd, "pulling")
+    assert close(got, oil(swab.max_speed, "trip_speed"))
+    assert BF_TRIP_SPEED(11.0, COLUMNS, hole, pipe, length, 10.8, tvd).startswith(MARK)
+    # breaking circulation: pipe bore and annulus rows in one column
+    tau = cu.to_si(12.0, "lbf_per_100ft_sq")
+    gb = cs.gel_break_pressure(tau, np.array([4.276, 8.6]) * INCH, ln, np.array([0, 5.0]) * INCH)
+    got = BF_BREAK_CIRC(12.0, col([4.276, 8.6]), length, [[None], [5.0]])
+    assert np.allclose(got, oil(gb, "pressure").reshape(-1, 1), rtol=1e-12)
+
+
+def test_surge_bad_inputs_name_the_problem():
+    from addin.sheets.functions import BF_SURGE, BF_TRIP_SPEED
+
+    two = [[8.6], [8.6]]
+    out = BF_SURGE(11.0, COLUMNS, two, [[5.0], [5.0]], [[100.0], [100.0]], [[60.0], [90.0]])
+    assert out.startswith(MARK) and "trip speed" in out
+    out = BF_SURGE(11.0, COLUMNS, 8.6, 5.0, 100.0, 90.0, None, None, "3x12")
+    assert out.startswith(MARK) and "d_bore" in out
+    out = BF_SURGE(11.0, COLUMNS, [[8.6], [5.0]], 5.0, 100.0, 90.0)
+    assert out.startswith(MARK) and "row 2" in out
+    out = BF_TRIP_SPEED(11.0, COLUMNS, 8.6, 5.0, 100.0, 12.0, 9000.0, "sideways")
+    assert out.startswith(MARK) and "direction" in out
+
+
+def test_surge_external_exact_newtonian_closed_end():
+    # External: closed-end surge of a Newtonian fluid in a concentric annulus equals the exact
+    # moving-rod solution (Bird, Stewart & Lightfoot 2002, problem 2B.7 type; helper in
+    # tests/test_surge.py) when K_c is the exact constant and the speed is the peak speed.
+    from addin.sheets.functions import BF_SURGE
+    from calc.surge import clinging_constant_exact_newtonian
+    from tests.test_surge import exact_moving_rod_gradient
+
+    readings = [[s, s / 15.0] for s in SPEEDS]  # θ ∝ N: Newtonian, about 20 cP
+    mu = cr.fit(
+        cr.ViscometerReadings(SPEEDS, [s / 15.0 for s in SPEEDS]), "newtonian_least_squares"
+    ).model.k
+    d2, d1, vp = 8.5 * INCH, 5.0 * INCH, cu.to_si(60.0, "ft/min")
+    kc = clinging_constant_exact_newtonian(d1, d2)
+    got = BF_SURGE(1.0, readings, 8.5, 5.0, 1000.0, 60.0, None, None, None, "newtonian", kc,
+                   1.0, "oilfield; density=sg")  # fmt: skip
+    exact = exact_moving_rod_gradient(d1 / 2, d2 / 2, vp, mu) * 1000.0 * FT
+    assert got == pytest.approx(oil(exact, "pressure"), rel=1e-6)

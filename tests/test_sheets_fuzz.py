@@ -174,6 +174,13 @@ VALID = {
     "from_unit": "bbl/min",
     "to_unit": "gpm",
     "kind": "pressure",
+    "speed": 90.0,
+    "direction": None,
+    "d_bore": 4.276,  # an open string, so the nozzles below are used
+    "clinging": None,
+    "peak_factor": None,
+    "limit_emw": 12.4,
+    "gel_strength": 12.0,
 }
 
 
@@ -265,3 +272,29 @@ def test_good_conversions_equal_calc(value, unit):
     }[unit]
     got = BF_CONVERT(value, unit, target)
     assert got == pytest.approx(cu.convert(value, unit, target), rel=1e-12, abs=1e-300)
+
+
+@SETTINGS
+@given(
+    st.floats(min_value=8.0, max_value=16.0),
+    st.floats(min_value=6.0, max_value=12.25),
+    st.floats(min_value=0.3, max_value=0.85),
+    st.floats(min_value=1.0, max_value=300.0),
+    st.sampled_from(["running", "pulling"]),
+)
+def test_good_surge_calls_equal_calc(density, d_hole, ratio, speed, direction):
+    from addin.sheets.functions import BF_SURGE
+    from calc import circulation as cc
+    from calc import surge as cs
+
+    r = cr.ViscometerReadings([600, 300, 200, 100, 6, 3], [56, 37, 29, 20, 8, 7])
+    fluid = cc.hydraulics_fluid_from_readings(r, density=density * cu.si_factor("ppg"))
+    ty, k, n = fluid.annulus_parameters
+    inch = cu.si_factor("in")
+    res = cs.interval_surge(
+        speed * cu.si_factor("ft/min"), d_hole * inch, ratio * d_hole * inch,
+        1000.0 * cu.si_factor("ft"), density=fluid.density, tau_y=ty, k=k, n=n,
+        direction=direction,
+    )  # fmt: skip
+    got = BF_SURGE(density, GOOD_READINGS, d_hole, ratio * d_hole, 1000.0, speed, direction)
+    assert got == pytest.approx(cu.from_si(res.pressure_change, "psi"), rel=1e-12)

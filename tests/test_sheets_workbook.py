@@ -16,6 +16,7 @@ from calc import cautions
 from calc import circulation as cc
 from calc import flow as cf
 from calc import rheology as cr
+from calc import surge as cs
 from calc import units as cu
 from calc.cleaning.indicators import carrying_capacity_index
 from calc.cleaning.transport import Cuttings, annular_transport, annular_velocity
@@ -51,6 +52,12 @@ def book(tmp_path_factory):
                 if isinstance(text, str) and text.startswith("="):
                     formulas_at[(ws.title.upper(), c.coordinate)] = text
     return layout, values, formulas_at
+
+
+def _geometry(intervals):
+    """(hole IDs, pipe ODs, lengths) [m] of annular intervals as the sheet holds them."""
+    rows = [(iv.d_outer * INCH, iv.d_inner * INCH, round(iv.length, 2) * FT) for iv in intervals]
+    return [np.array(col) for col in zip(*rows, strict=True)]
 
 
 class Checker:
@@ -192,6 +199,47 @@ def test_every_result_cell_equals_calc(book):
         check(MAIN, cm["crit"], oil(crit, "flow_rate"))
         label_row = int(cm["av"][1:])
         check(MAIN, f"A{label_row}", iv.name)
+    # gel break per string/annulus row and its total (4τL/ΔD, calc.surge.gel_break_pressure)
+    tau_g = cu.to_si(d["gels"]["10min"], "lbf_per_100ft_sq")
+    g_first, g_last = lay.surge["gel_rows"]
+    gel = {}
+    for i, iv in enumerate(lay.intervals):
+        row = 35 + i
+        if g_first <= row <= g_last:
+            di = 0.0 if iv.d_inner is None else iv.d_inner * INCH
+            gel[row] = cs.gel_break_pressure(tau_g, iv.d_outer * INCH, round(iv.length, 2) * FT, di)
+            check(MAIN, f"G{row}", oil(gel[row], "pressure"))
+    check(MAIN, c["gel_break"], oil(sum(gel.values()), "pressure"))
+    ann_gel = sum(v for row, v in gel.items() if lay.intervals[row - 35].path == "annulus")
+    check(MAIN, c["gel_emw"], oil(cs.trip_emw(rho, ann_gel, tvd_bit), "density"))
+    # surge and swab at the bit for the planned speeds (calc.surge.interval_surge)
+    ann = [iv for iv in lay.intervals if iv.path == "annulus"]
+    geo = _geometry(ann)
+    kw = dict(density=rho, tau_y=ta, k=ka, n=na)
+    top, bottom = lay.surge["rows"]
+    for cell, src in lay.surge["names"]:
+        check(MAIN, cell, values[(MAIN, src)])
+    for col, speed, direction in lay.surge["columns"]:
+        res = cs.interval_surge(cu.to_si(speed, "ft/min"), *geo, direction=direction, **kw)
+        for i in range(bottom - top + 1):
+            check(MAIN, f"{col}{top + i}", oil(res.pressure_change[i], "pressure"))
+        check(MAIN, f"{col}{lay.surge['total_row']}", oil(res.total_pressure_change, "pressure"))
+        emw = cs.trip_emw(rho, res.total_pressure_change, tvd_bit)
+        check(MAIN, f"{col}{lay.surge['emw_row']}", oil(emw, "density"))
+    # trip-speed limits (calc.surge.trip_speed_limit against calc.surge.trip_allowance)
+    sand_geo = _geometry(lay.surge["sand_intervals"])
+    sand_tvd = values[(MAIN, c["sand_tvd"])] * FT
+    shoe_n = lay.surge["shoe_rows"][1] - lay.surge["shoe_rows"][0] + 1
+    shoe_geo = [g[:shoe_n] for g in geo]
+    for name, g, lim_name, tvd, direction in (
+        ("run_sand", sand_geo, "surge_lim_sand", sand_tvd, "running"),
+        ("run_shoe", shoe_geo, "surge_lim_shoe", tvd_shoe, "running"),
+        ("pull_bit", geo, "swab_lim", tvd_bit, "pulling"),
+    ):
+        limit = values[(MAIN, c[lim_name])] * PPG
+        allow = cs.trip_allowance(limit, rho, tvd, direction)
+        got = cs.trip_speed_limit(allow, *g, direction=direction, **kw).max_speed
+        check(MAIN, c[name], oil(got, "trip_speed"))
     # rate sweep (array formulas)
     rates = np.array(lay.sweep_rates) * GPM
     tfa = bit.tfa

@@ -13,7 +13,12 @@ from calc.surge import (
     break_circulation_pressure,
     clinging_constant,
     clinging_constant_exact_newtonian,
+    gel_break_pressure,
+    interval_surge,
     surge_pressure,
+    trip_allowance,
+    trip_emw,
+    trip_speed_limit,
     trip_speed_limits,
 )
 from calc.units import from_si, to_si
@@ -192,3 +197,151 @@ def test_demo_break_circulation():
                        + np.sum(a.length / (a.outer_diameter - a.inner_diameter)))  # fmt: skip
     assert b.pressure == pytest.approx(expect, rel=1e-12)
     assert b.bottom_emw > ppg(11.0)
+
+
+# ---------------------------------------------------------------------------- flat forms
+def _hb_fluid(rho=1300.0):
+    m = HerschelBulkley(4.0, 0.3, 0.65)
+    return HydraulicsFluid(rho, m, m)
+
+
+@pytest.mark.parametrize("end", ["closed", "open"])
+@pytest.mark.parametrize("method", ["api13d_2010_hb", "bingham", "exact_laminar"])
+def test_flat_equals_whole_well_for_the_same_interval(end, method):
+    # the same solver behind both entry points: one interval, one bore, the same nozzles
+    d2, d1, di = 0.2159, 0.127, 0.1086
+    w = simple_well(d2, d1, float_valve=False, d_bore=di)
+    f = _hb_fluid() if method != "bingham" else HydraulicsFluid(1300.0, *[
+        HerschelBulkley(4.0, 0.02, 1.0)] * 2)  # fmt: skip
+    ty, k, n = f.annulus_parameters
+    speeds = np.array([0.1, 0.5, 1.5])
+    whole = surge_pressure(w, f, speeds, string_end=end, method=method, direction="pulling")
+    flat = interval_surge(
+        speeds, d2, d1, L, density=f.density, tau_y=ty, k=k, n=n, d_bore=di,
+        tfa=w.bit.tfa, discharge_coefficient=w.bit.discharge_coefficient, string_end=end,
+        method=method, direction="pulling",
+    )  # fmt: skip
+    assert np.allclose(flat.total_pressure_change, whole.pressure_bit, rtol=1e-12, atol=0)
+    assert np.allclose(flat.clinging, whole.clinging[:, 0], rtol=1e-12)
+    assert np.allclose(flat.effective_velocity, whole.effective_velocity[:, 0], rtol=1e-12)
+    assert np.array_equal(flat.regime, whole.regime[:, 0])
+    assert np.allclose(flat.relative_inflow, whole.relative_inflow, rtol=1e-12, atol=0)
+    if method == "exact_laminar":
+        return  # the trip-limit check below costs many calls of this slow method
+    # the flat trip limit inverts the flat surge at the bit (allowances away from the jumps of
+    # the Burkhardt fit between regimes; observed: 3e5 and 8e5 Pa for these cases)
+    allow = np.array([3.0e5, 8.0e5])
+    lim = trip_speed_limit(
+        allow, d2, d1, L, density=f.density, tau_y=ty, k=k, n=n, d_bore=di, tfa=w.bit.tfa,
+        string_end=end, method=method,
+    )  # fmt: skip
+    at = interval_surge(
+        lim.max_speed, d2, d1, L, density=f.density, tau_y=ty, k=k, n=n, d_bore=di,
+        tfa=w.bit.tfa, string_end=end, method=method,
+    )  # fmt: skip
+    assert np.allclose(at.total_pressure_change, allow, rtol=1e-6)
+    assert np.allclose(lim.pressure_at_limit, allow, rtol=1e-6)
+    assert np.all(lim.pressure_at_limit <= allow * (1 + 1e-9))  # on the safe side
+
+
+def test_trip_limit_stays_safe_across_a_regime_jump():
+    # where Δp(V) jumps (laminar → turbulent K_c), the limit is the speed just below the jump
+    kw = dict(density=1300.0, tau_y=4.0, k=0.3, n=0.65, method="api13d_2010_hb")
+    lim = trip_speed_limit(1.5e6, 0.2159, 0.127, L, **kw)
+    below = interval_surge(lim.max_speed, 0.2159, 0.127, L, **kw).total_pressure_change
+    above = interval_surge(lim.max_speed * 1.001, 0.2159, 0.127, L, **kw).total_pressure_change
+    assert below <= 1.5e6 < above and below < 0.99 * 1.5e6  # a jump, straddled safely
+
+
+@pytest.mark.parametrize("kappa", [0.3, 0.5, 0.7, 0.85])
+def test_flat_closed_end_equals_exact_moving_rod(kappa):
+    # exact solution: Bird, Stewart & Lightfoot (2002), moving inner rod in an annulus
+    # (exact_moving_rod_gradient above), through the flat function, vectorised over speeds
+    d2, mu = 0.2, 0.05
+    d1 = kappa * d2
+    speeds = np.array([0.05, 0.2, 0.5])
+    kc = clinging_constant_exact_newtonian(d1, d2)
+    r = interval_surge(
+        speeds, d2, d1, L, density=1200.0, tau_y=0.0, k=mu, n=1.0, clinging=kc,
+        peak_factor=1.0, method="newtonian",
+    )  # fmt: skip
+    assert np.all(r.regime == 0)
+    exact = np.array([exact_moving_rod_gradient(d1 / 2, d2 / 2, v, mu) for v in speeds])
+    assert np.allclose(r.gradient, exact, rtol=1e-6)
+    assert np.allclose(r.total_pressure_change, exact * L, rtol=1e-6)
+    # the trip-speed limit inverts it exactly: Δp is linear in V for laminar Newtonian flow
+    allow = 0.5 * exact[1] * L
+    lim = trip_speed_limit(
+        allow, d2, d1, L, density=1200.0, tau_y=0.0, k=mu, n=1.0, clinging=kc,
+        peak_factor=1.5, method="newtonian",
+    )  # fmt: skip
+    assert lim.max_speed == pytest.approx(0.5 * 0.2 / 1.5, rel=1e-6)
+
+
+def test_flat_intervals_of_one_string_and_shapes():
+    d2 = np.array([0.2245, 0.2184, 0.2184])
+    d1 = np.array([0.127, 0.127, 0.165])
+    ln = np.array([2500.0, 700.0, 150.0])
+    kw = dict(density=1318.0, tau_y=3.5, k=0.35, n=0.62)
+    one = [interval_surge(0.5, a, b, c, **kw) for a, b, c in zip(d2, d1, ln, strict=True)]
+    many = interval_surge(0.5, d2, d1, ln, **kw)
+    # closed end: intervals are independent, the set is the same as each alone
+    assert np.allclose(many.pressure_change, [o.pressure_change for o in one], rtol=1e-12)
+    assert many.total_pressure_change == pytest.approx(sum(o.pressure_change for o in one))
+    assert isinstance(one[0].pressure_change, float) and isinstance(one[0].regime, int)
+    grid = interval_surge(np.array([[0.2], [0.6]]), d2, d1, ln, **kw)
+    assert grid.pressure_change.shape == (2, 1, 3) and grid.total_pressure_change.shape == (2, 1)
+    # a speed of 0 moves nothing: no surge (not the yield-stress gradient)
+    assert interval_surge(0.0, d2, d1, ln, **kw).total_pressure_change == 0.0
+    # vectorised limits: several allowances at once, each equal to a scalar call
+    allow = np.array([8e5, 1.2e6, 2e6])
+    vec = trip_speed_limit(allow, d2, d1, ln, **kw)
+    for a, v in zip(allow, vec.max_speed, strict=True):
+        assert trip_speed_limit(a, d2, d1, ln, **kw).max_speed == pytest.approx(v, rel=1e-12)
+    assert np.all(np.diff(vec.max_speed) > 0)
+    none = trip_speed_limit(-1.0, d2, d1, ln, **kw)
+    assert none.max_speed == 0.0 and any("violated" in x.code for x in none.notes)
+    # below the yield-stress pressure (slowest motion) no speed is safe in the steady model
+    slow = interval_surge(1e-4, d2, d1, ln, peak_factor=1.0, **kw).total_pressure_change
+    stuck = trip_speed_limit(0.9 * slow, d2, d1, ln, **kw)
+    assert stuck.max_speed == 0.0 and any("slowest" in x.code for x in stuck.notes)
+
+
+def test_trip_allowance_and_emw_field_forms():
+    # field form (METHODS §8, from memory): ΔP_max = 0.052·TVD·(ρ_limit − ρ) psi, ppg, ft
+    tvd, rho, lim = 10000.0, 11.0, 12.4
+    got = trip_allowance(ppg(lim), ppg(rho), to_si(tvd, "ft"), hydrostatic="0.052")
+    assert from_si(got, "psi") == pytest.approx(0.052 * tvd * (lim - rho), rel=1e-12)
+    swab = trip_allowance(ppg(10.8), ppg(rho), to_si(tvd, "ft"), "pulling", hydrostatic="0.052")
+    assert from_si(swab, "psi") == pytest.approx(0.052 * tvd * (rho - 10.8), rel=1e-12)
+    # EMW = ρ + Δp/(0.052·TVD), Δp signed (swab lowers it)
+    emw = trip_emw(ppg(rho), to_si(-104.0, "psi"), to_si(tvd, "ft"), hydrostatic="0.052")
+    assert from_si(emw, "ppg") == pytest.approx(rho - 104.0 / (0.052 * tvd), rel=1e-12)
+
+
+def test_gel_break_field_form():
+    # field form (Bourgoyne et al. 1986, ch. 4, from memory, unverified — METHODS §8):
+    # Δp = τ_g·L/(300·d) psi (τ_g lbf/100 ft², L ft, d in) in pipe, d2 − d1 in the annulus.
+    tau = to_si(12.0, "lbf_per_100ft_sq")
+    pipe = gel_break_pressure(tau, to_si(4.276, "in"), to_si(10000.0, "ft"))
+    assert from_si(pipe, "psi") == pytest.approx(12.0 * 10000.0 / (300 * 4.276), rel=1e-4)
+    ann = gel_break_pressure(tau, to_si(8.6, "in"), to_si(2000.0, "ft"), to_si(5.0, "in"))
+    assert from_si(ann, "psi") == pytest.approx(12.0 * 2000.0 / (300 * 3.6), rel=1e-4)
+
+
+def test_flat_bad_input():
+    kw = dict(density=1200.0, tau_y=0.0, k=0.05, n=1.0)
+    with pytest.raises(InputError, match="d_bore"):
+        interval_surge(0.5, 0.2, 0.127, L, string_end="open", **kw)
+    with pytest.raises(InputError, match="d_bore"):
+        interval_surge(0.5, 0.2, 0.127, L, string_end="open", d_bore=0.13, **kw)
+    with pytest.raises(InputError, match="d_pipe"):
+        interval_surge(0.5, 0.2, 0.25, L, **kw)
+    with pytest.raises(InputError, match="geometry"):
+        interval_surge(0.5, np.ones((2, 2)) * 0.2, 0.127, L, **kw)
+    with pytest.raises(InputError, match="one fluid"):
+        interval_surge(0.5, 0.2, 0.127, L, density=1200.0, tau_y=[0.0, 1.0], k=0.05, n=1.0)
+    with pytest.raises(InputError, match="allowed pressure"):
+        trip_speed_limit(np.nan, 0.2, 0.127, L, **kw)
+    with pytest.raises(InputError, match="inner diameter"):
+        gel_break_pressure(5.0, 0.1, L, 0.2)

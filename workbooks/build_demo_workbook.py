@@ -7,9 +7,10 @@ string, the hole, the bit.  Every result cell is a ``BF_…`` formula (or a SUM 
 sheet recomputes when an input changes once the functions are enabled (see
 docs/worksheet-functions.md); ``addin.sheets.engine.calculate`` computes it headlessly.
 
-Layout (a design of our own): one sheet "Daily hydraulics" in five bands, inputs in blue-grey
+Layout (a design of our own): one sheet "Daily hydraulics" in six bands, inputs in blue-grey
 cells on the left of each band, results to the right — 1 mud check and readings,
-2 rheology, 3 circulating losses interval by interval, 4 bit and ECD, 5 hole cleaning — plus
+2 rheology, 3 circulating losses (and the gel-break pressure) interval by interval, 4 bit and
+ECD, 5 hole cleaning, 6 surge and swab for the planned trip speeds and trip-speed limits — plus
 "Rate sweep" (a column of rates through the array form of the functions), "Units" and the
 "xlwings.conf" sheet that tells xlwings where the functions are.
 
@@ -80,6 +81,7 @@ class Layout:
     sweep_cells: dict[str, list[str]] = field(default_factory=dict)
     check: dict = field(default_factory=dict)
     tvd: dict[str, float] = field(default_factory=dict)
+    surge: dict = field(default_factory=dict)
 
 
 def _intervals(case: dict, bit_depth: float) -> list[Interval]:
@@ -109,12 +111,142 @@ def _intervals(case: dict, bit_depth: float) -> list[Interval]:
     return out
 
 
+def _cut(intervals: list[Interval], md: float) -> list[Interval]:
+    """The annular intervals from surface down to ``md`` (the last one shortened)."""
+    out, top = [], 0.0
+    for iv in intervals:
+        if top >= md:
+            break
+        length = min(iv.length, md - top)
+        out.append(Interval("annulus", iv.name, iv.d_outer, iv.d_inner, length, iv.above_shoe))
+        top += iv.length
+    return out
+
+
+def _surge_band(case, lay, put, head, r, ref, readings, u, first_ann, last, survey) -> int:
+    """Band 6: surge and swab at the bit for the planned speeds, trip-speed limits at the
+    weak points, breaking circulation.  Returns the next free row."""
+    ft = 0.3048
+    lim = case["limits"]
+    sand = next(w for w in case["weak_point"] if "Sand B" in w["name"])
+    shoe_wp = next(w for w in case["weak_point"] if "shoe" in w["name"])
+    win = case["pressure_window"]
+    tvd_shoe = lay.tvd["shoe"]
+    pore_oh = max(p for t, p in zip(win["tvd"], win["pore"], strict=True) if t >= tvd_shoe)
+    tvd_sand = float(survey.tvd_at(sand["md"] * ft)) / ft
+    sv = lay.surge
+    rho = ref["density"]
+    head(r, "6  Surge and swab while tripping (closed string, float valve; Burkhardt, steady)")
+    r += 1
+    speeds = [float(x) for x in case["trip"]["speeds"]]
+    put(f"A{r}", "Average stand speed [ft/min]")
+    cols_run, cols_pull = "BCDE", "FGHI"
+    for col, v in zip(cols_run, speeds, strict=True):
+        put(f"{col}{r}", v, fill=_INPUT)
+    speed_row = r
+    r += 1
+    put(f"A{r}", "interval", bold=True)
+    for cr_, cp, v in zip(cols_run, cols_pull, speeds, strict=True):
+        put(f"{cr_}{r}", f"surge @ {v:g} [psi]", bold=True)
+        put(f"{cp}{r}", f"swab @ {v:g} [psi]", bold=True)
+    r += 1
+    top, n_ann = r, last - first_ann + 1
+    bottom = top + n_ann - 1
+    geo = f"$C${first_ann}:$C${last},$D${first_ann}:$D${last},$E${first_ann}:$E${last}"
+    sv["names"] = []
+    for i in range(n_ann):
+        put(f"A{top + i}", f"=A{first_ann + i}")
+        sv["names"].append((f"A{top + i}", f"A{first_ann + i}"))
+    sv["columns"] = []
+    for cols, direction in ((cols_run, "running"), (cols_pull, "pulling")):
+        for j, col in enumerate(cols):
+            speed = f"{cols_run[j]}${speed_row}"
+            sv["columns"].append((col, speeds[j], direction))
+            put(
+                f"{col}{top}",
+                _array(
+                    f"{col}{top}:{col}{bottom}",
+                    f'=BF_SURGE({rho},{readings},{geo},{speed},"{direction}",,,,,,{u})',
+                ),
+                fmt="0.0",
+            )
+    sv["rows"] = (top, bottom)
+    r = bottom + 1
+    put(f"A{r}", "Total at the bit [psi]", bold=True)
+    put(f"A{r + 1}", "EMW at the bit [ppg]", bold=True)
+    for col in cols_run + cols_pull:
+        put(f"{col}{r}", f"=SUM({col}{top}:{col}{bottom})", fmt="0.0")
+        put(f"{col}{r + 1}", f"=BF_SURGE_EMW({rho},{ref['tvd_bit']},{col}{top}:{col}{bottom},,{u})",
+            fmt="0.000")  # fmt: skip
+    sv["total_row"], sv["emw_row"] = r, r + 1
+    r += 3
+
+    # trip-speed limits: inputs, then the intervals above Sand B
+    inputs = [
+        ("surge_lim_sand", f"Surge limit EMW at {sand['name']} (fracture − margin)",
+         round(sand["fracture"] - lim["trip_fracture_margin"], 3), "ppg"),
+        ("sand_md", f"{sand['name']} MD", sand["md"], "ft"),
+        ("sand_tvd", f"{sand['name']} TVD (from the survey)", round(tvd_sand, 2), "ft"),
+        ("surge_lim_shoe", f"Surge limit EMW at the {shoe_wp['name']} (FIT − margin)",
+         round(shoe_wp["fracture"] - lim["trip_fracture_margin"], 3), "ppg"),
+        ("swab_lim", "Swab limit EMW (highest open-hole pore + margin)",
+         round(pore_oh + lim["trip_pore_margin"], 3), "ppg"),
+    ]  # fmt: skip
+    for name, label, value, unit in inputs:
+        put(f"A{r}", label)
+        put(f"B{r}", value, name=name, fill=_INPUT)
+        put(f"C{r}", unit)
+        ref[name] = f"$B${r}"
+        r += 1
+    r += 1
+    put(f"A{r}", f"Annulus from surface to {sand['name']}", bold=True)
+    for col, text in zip("CDE", ("outer [in]", "inner [in]", "length [ft]"), strict=True):
+        put(f"{col}{r}", text, bold=True)
+    r += 1
+    sand_ivs = _cut([iv for iv in lay.intervals if iv.path == "annulus"], sand["md"])
+    s_top = r
+    for iv in sand_ivs:
+        put(f"A{r}", iv.name)
+        put(f"C{r}", iv.d_outer, fill=_INPUT)
+        put(f"D{r}", iv.d_inner, fill=_INPUT)
+        put(f"E{r}", round(iv.length, 2), fill=_INPUT)
+        r += 1
+    s_bot = r - 1
+    sv["sand_rows"] = (s_top, s_bot)
+    sv["sand_intervals"] = sand_ivs
+    sand_geo = f"$C${s_top}:$C${s_bot},$D${s_top}:$D${s_bot},$E${s_top}:$E${s_bot}"
+    shoe_last = max(
+        first_ann + i for i in range(n_ann) if lay.intervals[first_ann - 35 + i].above_shoe
+    )
+    shoe_geo = (
+        f"$C${first_ann}:$C${shoe_last},$D${first_ann}:$D${shoe_last},$E${first_ann}:$E${shoe_last}"
+    )
+    sv["shoe_rows"] = (first_ann, shoe_last)
+    r += 1
+    limits = [
+        ("run_sand", f"Max running speed, {sand['name']} [ft/min]",
+         f'=BF_TRIP_SPEED({rho},{readings},{sand_geo},{ref["surge_lim_sand"]},{ref["sand_tvd"]},"running",,,,,,,{u})'),
+        ("run_shoe", f"Max running speed, {shoe_wp['name']} [ft/min]",
+         f'=BF_TRIP_SPEED({rho},{readings},{shoe_geo},{ref["surge_lim_shoe"]},{ref["tvd_shoe"]},"running",,,,,,,{u})'),
+        ("pull_bit", "Max pulling speed, bit [ft/min]",
+         f'=BF_TRIP_SPEED({rho},{readings},{geo},{ref["swab_lim"]},{ref["tvd_bit"]},"pulling",,,,,,,{u})'),
+        ("gel_emw", "Bottom EMW while breaking circulation [ppg]",
+         f"=BF_SURGE_EMW({rho},{ref['tvd_bit']},$G${first_ann}:$G${last},,{u})"),
+    ]  # fmt: skip
+    for name, label, formula in limits:
+        put(f"A{r}", label)
+        put(f"F{r}", formula, name=name, fmt="0.0" if name != "gel_emw" else "0.000")
+        r += 1
+    return r + 1
+
+
 def build(out: Path = OUT, check_label: str = "D1") -> Layout:
     case = tomllib.loads(CASE.read_text(encoding="utf-8"))
     check = next(c for c in case["check"] if c["label"].startswith(check_label))
     st = case["survey"]["stations"]
-    survey = Survey([s[0] for s in st], [s[1] for s in st], [s[2] for s in st])
     ft = 0.3048
+    # stations are in ft (the case's oilfield units); the survey works in metres
+    survey = Survey([s[0] * ft for s in st], [s[1] for s in st], [s[2] for s in st])
     shoe = max(c["shoe"] for c in case["casing"])
     tvd_bit = float(survey.tvd_at(check["bit_depth"] * ft)) / ft
     tvd_shoe = float(survey.tvd_at(shoe * ft)) / ft
@@ -169,6 +301,7 @@ def build(out: Path = OUT, check_label: str = "D1") -> Layout:
         ("tool_dp", "MWD/RSS pressure drop (supplier sheet)", 320.0, "psi"),
         ("pwd", "PWD ECD (measured)", check["pwd"]["ecd"], "ppg"),
         ("spp_measured", "Standpipe pressure (measured)", check["measured_spp"], "psi"),
+        ("gel10", "10-minute gel", check["gels"]["10min"], "lbf/100ft²"),
     ]
     r = 7
     for name, label, value, unit in rows:
@@ -220,6 +353,7 @@ def build(out: Path = OUT, check_label: str = "D1") -> Layout:
         strict=True,
     ):
         put(f"{col}34", text, bold=True)
+    put("G34", "gel break [psi]", bold=True)
     r = 35
     rho, q = ref["density"], ref["rate"]
     for iv in lay.intervals:
@@ -239,6 +373,14 @@ def build(out: Path = OUT, check_label: str = "D1") -> Layout:
     ann_rows = [i for i, iv in enumerate(lay.intervals) if iv.path == "annulus"]
     shoe_rows = [i for i, iv in enumerate(lay.intervals) if iv.path == "annulus" and iv.above_shoe]
     first_ann = 35 + ann_rows[0]
+    first_str = 35 + next(i for i, iv in enumerate(lay.intervals) if iv.path == "string")
+    # pressure to break the gel, string and annulus rows (blank inner diameter: pipe bore)
+    ws[f"G{first_str}"] = _array(
+        f"G{first_str}:G{last}",
+        f"=BF_BREAK_CIRC({ref['gel10']},$C${first_str}:$C${last},$E${first_str}:$E${last},"
+        f"$D${first_str}:$D${last},{u})",
+    )
+    lay.surge["gel_rows"] = (first_str, last)
     r += 1
     totals = [
         ("surface", "Surface lines", f'=SUMIF($B$35:$B${last},"surface",$F$35:$F${last})'),
@@ -247,6 +389,7 @@ def build(out: Path = OUT, check_label: str = "D1") -> Layout:
         ("annulus_shoe", "Annulus above the shoe", f"=SUM($F${first_ann}:$F${35 + shoe_rows[-1]})"),
         ("bit_dp", "Bit nozzles", f"=BF_BIT_DP({rho},{ref['nozzles']},{q},,{u})"),
         ("tools", "MWD/RSS (typed in)", f"={ref['tool_dp']}"),
+        ("gel_break", "Pressure to break circulation (gel)", f"=SUM(G{first_str}:G{last})"),
     ]
     for name, label, formula in totals:
         put(f"A{r}", label)
@@ -352,6 +495,10 @@ def build(out: Path = OUT, check_label: str = "D1") -> Layout:
         put(cellmap["crit"], f"=BF_CRIT_RATE({rho},{readings},{oh},{ip},,{u})", fmt="0")
         lay.cleaning_rows.append((iv, cellmap))
         r += 1
+
+    # ------------------------------------------------------------------ band 6: surge, trips
+    r += 1
+    r = _surge_band(case, lay, put, head, r, ref, readings, u, first_ann, last, survey)
 
     # ------------------------------------------------------------------ rate sweep
     sw = wb.create_sheet("Rate sweep")

@@ -91,6 +91,8 @@ def calculate(path: str | os.PathLike) -> dict[tuple[str, str], Any]:
     out: dict[tuple[str, str], Any] = {}
     for key, ranges in solution.items():
         ref = str(key)
+        if "!" not in ref:
+            continue  # not a cell: formulas can list helper nodes (seen: "self")
         sheet_part, _, cells = ref.rpartition("!")
         sheet = sheet_part.strip("'").split("]", 1)[-1]
         values = np.atleast_2d(np.asarray(getattr(ranges, "value", ranges), dtype=object))
