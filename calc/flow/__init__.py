@@ -7,6 +7,8 @@ Public API (SI throughout):
 * :func:`list_methods` — registered methods (``method="..."``):
   ``api13d_2010_hb`` (default), ``api13d_1995_power_law``, ``newtonian``, ``bingham``,
   ``power_law``, ``exact_laminar``
+* :func:`api_wall_shear` — the API RP 13D (2006/2010) laminar wall shear rate and stress
+  (also the annular apparent viscosity of :mod:`calc.cleaning`);
 * friction factors in :mod:`calc.flow.friction`, exact laminar solutions in
   :mod:`calc.flow.laminar_exact`, the eccentricity correction in :mod:`calc.flow.eccentricity`.
 
@@ -22,6 +24,7 @@ from calc.flow.core import (
     list_methods,
     pipe_flow,
 )
+from calc.flow.methods_api import api_wall_shear
 from calc.flow.result import REGIME_LABELS, FlowResult, regime_label
 
 __all__ = [
@@ -29,6 +32,7 @@ __all__ = [
     "REGIME_LABELS",
     "FlowResult",
     "annulus_flow",
+    "api_wall_shear",
     "critical_flow_rate",
     "list_methods",
     "pipe_flow",
