@@ -18,6 +18,7 @@ from calc.circulation.checks import (
 )
 from calc.circulation.fluid import HydraulicsFluid
 from calc.circulation.hydrostatics import equivalent_circulating_density, gravity_for
+from calc.circulation.pressure_window import Margins, PressureWindow, WeakPoint
 from calc.circulation.result import (
     MARGIN_STEP,
     CirculationResult,
@@ -25,7 +26,6 @@ from calc.circulation.result import (
     _reshape_flow,
     _scalar,
 )
-from calc.circulation.window import Margins, PressureWindow, WeakPoint
 from calc.errors import InputError, Note, check_choice, check_positive, check_range
 from calc.units import from_si
 

@@ -8,7 +8,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.circulation.hydrostatics import equivalent_circulating_density, gravity_for
-from calc.circulation.window import MarginTable, PressureWindow, WeakPoint, limits_at
+from calc.circulation.pressure_window import MarginTable, PressureWindow, WeakPoint, limits_at
 from calc.errors import Note, check_positive, check_range
 
 __all__ = ["MARGIN_STEP", "CirculationResult", "Profile"]
