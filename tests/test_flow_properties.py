@@ -6,8 +6,16 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from calc.errors import InputError
-from calc.flow import annulus_flow, critical_flow_rate, list_methods, pipe_flow
+from calc.flow import (
+    annulus_flow,
+    critical_flow_rate,
+    cross_section_area,
+    list_methods,
+    mean_velocity,
+    pipe_flow,
+)
 from calc.flow.distinct import distinct_combinations
+from calc.units import from_si, to_si
 
 METHODS = [m.name for m in list_methods()]
 FAST = dict(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.too_slow])
@@ -207,3 +215,17 @@ def test_sweep_critical_velocity_equals_single_interval_call(method):
             0.02, d_hole[0, j], d_pipe[0, j], density=1300.0, tau_y=ty, k=k, n=n, method=method
         )
         np.testing.assert_allclose(r.critical_velocity[:, j], one.critical_velocity, rtol=1e-14)
+
+
+def test_mean_velocity_equals_field_annular_velocity_formula():
+    # field form AV[ft/min] = 24.51·Q[gpm]/(D2² − D1²)[in²] (METHODS §3.1; common practice;
+    # 24.51 is 77/π = 24.5099 rounded, hence rel 5e-5)
+    q_gpm, d2_in, d1_in = np.array([300.0, 522.0, 700.0]), 8.5, np.array([5.0, 5.0, 6.75])
+    av = mean_velocity(to_si(q_gpm, "gpm"), to_si(d2_in, "in"), to_si(d1_in, "in"))
+    field = 24.51 * q_gpm / (d2_in**2 - d1_in**2)
+    np.testing.assert_allclose(from_si(av, "ft/min"), field, rtol=5e-5)
+    # pipe: V = Q/(πD²/4), and the annulus area is the difference of two circles (exact)
+    assert float(mean_velocity(0.01, 0.1)) == pytest.approx(0.01 / (np.pi * 0.1**2 / 4))
+    assert float(cross_section_area(0.2, 0.1)) == pytest.approx(
+        float(cross_section_area(0.2)) - float(cross_section_area(0.1))
+    )

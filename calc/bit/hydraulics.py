@@ -22,6 +22,7 @@ import numpy as np
 
 from calc.bit.nozzles import parse_nozzles
 from calc.errors import InputError, Note, check_positive, check_range
+from calc.flow.area import cross_section_area
 from calc.units import from_si, to_si
 
 __all__ = [
@@ -106,7 +107,7 @@ def hsi(power, bit_size):
     ``power`` [W], ``bit_size`` [m].  Field: hp/in².
     """
     d = check_positive("bit size", bit_size, "m")
-    return _out(np.asarray(power, dtype=float) / (np.pi / 4.0 * d**2))
+    return _out(np.asarray(power, dtype=float) / cross_section_area(d))
 
 
 def impact_force(q, density, pressure_drop, discharge_coefficient=DEFAULT_DISCHARGE_COEFFICIENT):
@@ -183,7 +184,7 @@ class Bit:
     @property
     def area(self) -> float:
         """Bit face area π d²/4 [m²]."""
-        return np.pi / 4.0 * self.size**2
+        return float(cross_section_area(self.size))
 
 
 @dataclass(frozen=True, eq=False)

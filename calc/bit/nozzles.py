@@ -16,6 +16,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from calc.errors import InputError, Note
+from calc.flow.area import cross_section_area
 from calc.units import from_si, si_factor  # noqa: F401  (from_si: doctest)
 
 __all__ = ["NOZZLE_RANGE", "NOZZLE_UNIT", "NozzleSet", "parse_nozzles", "total_flow_area"]
@@ -156,6 +157,6 @@ def total_flow_area(nozzles_32nds, ports: int | None = None):
     """
     if not isinstance(nozzles_32nds, str) and np.ndim(nozzles_32nds) == 2:
         n = np.asarray(nozzles_32nds, dtype=float)
-        return np.pi / 4.0 * np.sum((n * NOZZLE_UNIT) ** 2, axis=-1)
+        return np.sum(cross_section_area(n * NOZZLE_UNIT), axis=-1)
     sizes = np.asarray(parse_nozzles(nozzles_32nds, ports).sizes, dtype=float)
-    return float(np.pi / 4.0 * np.sum((sizes * NOZZLE_UNIT) ** 2))
+    return float(np.sum(cross_section_area(sizes * NOZZLE_UNIT)))
