@@ -1,5 +1,5 @@
 """Demo-case inputs for the cleaning, surge and window tests (workbooks/demo-case.toml, invented
-data).  Builds on the circulation tests' loader; adds the fluid, cuttings, ROP and trip data."""
+data).  Builds on tests/demo_well.py; adds the fluid, cuttings, ROP and trip data."""
 
 from __future__ import annotations
 
@@ -7,7 +7,7 @@ from calc.circulation.fluid import HydraulicsFluid
 from calc.cleaning import Cuttings
 from calc.rheology import ViscometerReadings, fit
 from calc.units import to_si
-from tests.test_circulation_case import (  # noqa: F401  (re-exported for the tests)
+from tests.demo_well import (  # noqa: F401  (re-exported for the tests)
     case,
     check,
     demo_margins,

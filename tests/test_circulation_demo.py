@@ -10,10 +10,10 @@ sub-intervals, surface lines as pipe runs), so the annulus is compared more loos
 
 import numpy as np
 import pytest
-import test_circulation_case as demo
 
 from calc.circulation import FLUID_FITS, calibrate_friction, circulate
 from calc.units import from_si
+from tests import demo_well as demo
 
 METHODS = FLUID_FITS.names()
 

@@ -17,7 +17,7 @@ from calc.circulation.hydrostatics import (
     gravity_for,
     hydrostatic_pressure,
 )
-from calc.circulation.window import Margins, PressureWindow, WeakPoint, tabulate_margins
+from calc.circulation.pressure_window import Margins, PressureWindow, WeakPoint, tabulate_margins
 from calc.errors import InputError
 from calc.units import G_N, from_si, to_si
 

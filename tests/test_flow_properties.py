@@ -6,7 +6,16 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from calc.errors import InputError
-from calc.flow import annulus_flow, critical_flow_rate, list_methods, pipe_flow
+from calc.flow import (
+    annulus_flow,
+    critical_flow_rate,
+    cross_section_area,
+    list_methods,
+    mean_velocity,
+    pipe_flow,
+)
+from calc.flow.distinct import distinct_combinations
+from calc.units import from_si, to_si
 
 METHODS = [m.name for m in list_methods()]
 FAST = dict(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.too_slow])
@@ -170,3 +179,53 @@ def test_bad_input_always_input_error(which, data, size):
         args[which] = arr
     with pytest.raises(InputError):
         annulus_flow(args.pop("q"), args.pop("d_hole"), args.pop("d_pipe"), **args)
+
+
+@settings(**FAST)
+@given(
+    a=st.lists(st.sampled_from([0.1, 0.2, 0.3]), min_size=1, max_size=5),
+    b=st.lists(st.floats(-1e3, 1e3), min_size=1, max_size=4),
+)
+def test_distinct_combinations_rebuild_the_broadcast_inputs(a, b):
+    # exact identity: gathering the distinct columns must give back every broadcast element
+    x = np.array(a)[:, None]
+    y = np.array(b)[None, :]
+    shape = np.broadcast_shapes(x.shape, y.shape)
+    cols, inv = distinct_combinations([x, y, 7.0], shape)
+    for col, arr in zip(cols, (x, y, 7.0), strict=True):
+        np.testing.assert_array_equal(col[inv], np.broadcast_to(arr, shape).ravel())
+    pairs = {(float(p), float(q)) for p, q in zip(cols[0], cols[1], strict=True)}
+    assert len(pairs) == cols[0].size  # each combination once
+
+
+@pytest.mark.parametrize("method", METHODS)
+def test_sweep_critical_velocity_equals_single_interval_call(method):
+    # the sweep solves the critical velocity once per interval; it must equal the one-rate
+    # call's value for that interval (same solve, so to rounding)
+    fl = {"newtonian": (0.0, 0.02, 1.0), "bingham": (7.0, 0.025, 1.0)}.get(
+        method, (0.0 if method in ("power_law", "api13d_1995_power_law") else 5.0, 0.4, 0.65)
+    )
+    ty, k, n = fl
+    q = np.linspace(0.005, 0.06, 7)[:, None]
+    d_hole = np.array([0.2159, 0.2159, 0.3112])[None, :]
+    d_pipe = np.array([0.127, 0.1651, 0.127])[None, :]
+    r = annulus_flow(q, d_hole, d_pipe, density=1300.0, tau_y=ty, k=k, n=n, method=method)
+    for j in range(3):
+        one = annulus_flow(
+            0.02, d_hole[0, j], d_pipe[0, j], density=1300.0, tau_y=ty, k=k, n=n, method=method
+        )
+        np.testing.assert_allclose(r.critical_velocity[:, j], one.critical_velocity, rtol=1e-14)
+
+
+def test_mean_velocity_equals_field_annular_velocity_formula():
+    # field form AV[ft/min] = 24.51·Q[gpm]/(D2² − D1²)[in²] (METHODS §3.1; common practice;
+    # 24.51 is 77/π = 24.5099 rounded, hence rel 5e-5)
+    q_gpm, d2_in, d1_in = np.array([300.0, 522.0, 700.0]), 8.5, np.array([5.0, 5.0, 6.75])
+    av = mean_velocity(to_si(q_gpm, "gpm"), to_si(d2_in, "in"), to_si(d1_in, "in"))
+    field = 24.51 * q_gpm / (d2_in**2 - d1_in**2)
+    np.testing.assert_allclose(from_si(av, "ft/min"), field, rtol=5e-5)
+    # pipe: V = Q/(πD²/4), and the annulus area is the difference of two circles (exact)
+    assert float(mean_velocity(0.01, 0.1)) == pytest.approx(0.01 / (np.pi * 0.1**2 / 4))
+    assert float(cross_section_area(0.2, 0.1)) == pytest.approx(
+        float(cross_section_area(0.2)) - float(cross_section_area(0.1))
+    )

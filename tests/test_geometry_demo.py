@@ -4,105 +4,23 @@ Expected TVDs and lengths come from the invented demo scenario's own hand check
 (shared/demo-scenario.toml: "invented demo scenario, hand check"); they are not published data.
 """
 
-import tomllib
-from pathlib import Path
-
 import numpy as np
 import pytest
 
-from calc.bit import Bit, bit_hydraulics
+from calc.bit import bit_hydraulics
 from calc.errors import InputError
-from calc.geometry import (
-    DrillString,
-    Hole,
-    HoleSection,
-    StringComponent,
-    SurfaceLine,
-    Survey,
-    ToolPressureDrop,
-    Well,
-)
-from calc.units import from_si, to_si
+from calc.geometry import HoleSection
+from calc.units import from_si, si_factor, to_si
+from tests.demo_well import demo_well, survey_td
 
-CASE = Path(__file__).resolve().parents[1] / "workbooks" / "demo-case.toml"
-FT = 0.3048
-
-
-def _si(value, kind):
-    """A case value in oilfield units (or as "number unit" text) → SI."""
-    unit = {"depth": "ft", "diameter": "in", "density": "ppg", "pressure": "psi", "rate": "gpm"}
-    if isinstance(value, str):
-        num, _, text = value.strip().partition(" ")
-        return to_si(float(num), text)
-    return to_si(value, unit[kind])
+FT = si_factor("ft")
 
 
 def load_demo(bit_depth_ft=10950.0, extra_casing=()):
-    case = tomllib.loads(CASE.read_text())
-    st = np.array(case["survey"]["stations"], dtype=float)
-    survey = Survey(_si(st[:, 0], "depth"), st[:, 1], st[:, 2])
-    casings = [
-        HoleSection(
-            c["name"],
-            _si(c["top"], "depth"),
-            _si(c["shoe"], "depth"),
-            _si(c["id"], "diameter"),
-            "casing",
-            drift=_si(c["drift"], "diameter"),
-            shoe_test=_si(c["shoe_test"], "density") if "shoe_test" in c else None,
-            od=_si(c["od"], "diameter"),
-        )
-        for c in case["casing"]
-    ]
-    casings.extend(extra_casing)
-    oh = case["open_hole"]
-    hole = Hole.from_casing(
-        casings,
-        depth=_si(case["survey"]["stations"][-1][0], "depth"),
-        bit_size=_si(oh["bit_size"], "diameter"),
-        diameter=_si(oh["diameter"], "diameter"),
+    """The demo well with the bit at ``bit_depth_ft`` [ft], the hole drilled to the survey TD."""
+    return demo_well(
+        0, bit_depth=bit_depth_ft * FT, hole_depth=survey_td(), extra_casing=extra_casing
     )
-    comps = []
-    for c in case["string"]:
-        opt = {}
-        for key in ("tool_joint_od", "tool_joint_id"):
-            if key in c:
-                opt[key] = _si(c[key], "diameter")
-        for key in ("joint_length", "tool_joint_length"):
-            if key in c:
-                opt[key] = _si(c[key], "depth")
-        length = c["length"] if c["length"] == "fill" else _si(c["length"], "depth")
-        comps.append(
-            StringComponent(
-                c["name"],
-                _si(c["od"], "diameter"),
-                _si(c["id"], "diameter"),
-                length,
-                float_valve=c.get("float_valve", False),
-                **opt,
-            )
-        )
-    b = case["bit"]
-    bit = Bit(
-        _si(b["size"], "diameter"),
-        nozzles=b["nozzles"],
-        ports=b["ports"],
-        discharge_coefficient=b["discharge_coefficient"],
-        name=b["name"],
-    )
-    lines = [
-        SurfaceLine(s["name"], _si(s["length"], "depth"), _si(s["id"], "diameter"))
-        for s in case["surface_line"]
-    ]
-    tp = case["tool_pressure"]
-    tools = ToolPressureDrop(
-        _si(tp["reference_drop"], "pressure"),
-        _si(tp["reference_density"], "density"),
-        _si(tp["reference_rate"], "rate"),
-        tuple(_si(x, "rate") for x in tp["flow_window"]),
-        name="RSS + MWD/LWD",
-    )
-    return Well(survey, hole, DrillString(comps), bit, lines, [tools], bit_depth=bit_depth_ft * FT)
 
 
 # invented demo scenario, hand check (shared/demo-scenario.toml [survey] tvd column)

@@ -22,7 +22,7 @@ from calc.circulation.hydrostatics import (
     hydrostatic_pressure,
 )
 from calc.circulation.loop import CirculationResult, Profile, circulate
-from calc.circulation.window import (
+from calc.circulation.pressure_window import (
     Margins,
     MarginTable,
     PressureWindow,

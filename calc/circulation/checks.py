@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from calc.circulation.window import Margins, MarginTable, limits_at, tabulate_margins
+from calc.circulation.pressure_window import Margins, MarginTable, limits_at, tabulate_margins
 from calc.errors import Note
 
 __all__: list[str] = []

@@ -17,7 +17,8 @@ from calc.circulation.checks import (
     _sweep_text,
 )
 from calc.circulation.fluid import HydraulicsFluid
-from calc.circulation.hydrostatics import equivalent_circulating_density, gravity_for
+from calc.circulation.hydrostatics import equivalent_circulating_density, hydrostatic_pressure
+from calc.circulation.pressure_window import Margins, PressureWindow, WeakPoint
 from calc.circulation.result import (
     MARGIN_STEP,
     CirculationResult,
@@ -25,7 +26,6 @@ from calc.circulation.result import (
     _reshape_flow,
     _scalar,
 )
-from calc.circulation.window import Margins, PressureWindow, WeakPoint
 from calc.errors import InputError, Note, check_choice, check_positive, check_range
 from calc.units import from_si
 
@@ -226,10 +226,9 @@ def circulate(
     notes.extend(bit.notes)
 
     # ---------------------------------------------------------------- hydrostatics and ECD
-    g = gravity_for(hydrostatic)
     bit_md = parts.bit_md
     bit_tvd = float(well.survey.tvd_at(bit_md))
-    static_bhp = rf * g * bit_tvd
+    static_bhp = np.asarray(hydrostatic_pressure(rf, bit_tvd, hydrostatic=hydrostatic))
     circ_bhp = static_bhp + a_loss + pb
     ecd_bit = equivalent_circulating_density(
         rf, a_loss, bit_tvd, back_pressure=pb, hydrostatic=hydrostatic

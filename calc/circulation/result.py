@@ -7,8 +7,8 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.circulation.hydrostatics import equivalent_circulating_density, gravity_for
-from calc.circulation.window import MarginTable, PressureWindow, WeakPoint, limits_at
+from calc.circulation.hydrostatics import equivalent_circulating_density, hydrostatic_pressure
+from calc.circulation.pressure_window import MarginTable, PressureWindow, WeakPoint, limits_at
 from calc.errors import Note, check_positive, check_range
 
 __all__ = ["MARGIN_STEP", "CirculationResult", "Profile"]
@@ -192,14 +192,13 @@ class CirculationResult:
         keep = grid.md > 0
         md = np.asarray(grid.md[keep], dtype=float)
         tvd = np.asarray(grid.tvd[keep], dtype=float)
-        g = gravity_for(self.hydrostatic)
         ecd = np.asarray(self.ecd_at(md))
         names = [""] * md.size
         pore, frac = limits_at(md, tvd, names, self._window, ())
         return Profile(
             md=md,
             tvd=tvd,
-            pressure=ecd * g * tvd,
+            pressure=np.asarray(hydrostatic_pressure(ecd, tvd, hydrostatic=self.hydrostatic)),
             esd=np.asarray(self.esd_at(md)),
             ecd=ecd,
             pore=pore,

@@ -11,6 +11,7 @@ import numpy as np
 from calc.cleaning._numeric import bisect_increasing, scalar_or_array
 from calc.cleaning.slip import annular_apparent_viscosity
 from calc.errors import InputError, Note, check_nonnegative, check_positive, check_range
+from calc.flow.area import cross_section_area
 from calc.units import si_factor
 
 __all__ = [
@@ -252,7 +253,7 @@ def larsen_critical_velocity(
     upper = floor + v_slip(floor)[0] + 1.0
     v = bisect_increasing(lambda x: x - v_cut - v_slip(x)[0], floor, upper, iterations=70)
     vs, mu = v_slip(v)
-    area = np.pi / 4.0 * (d2**2 - d1**2)
+    area = cross_section_area(d2, d1)
     return LarsenResult(
         critical_velocity=scalar_or_array(v),
         critical_rate=scalar_or_array(v * area),

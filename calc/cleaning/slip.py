@@ -30,6 +30,7 @@ import numpy as np
 
 from calc.cleaning._numeric import bisect_increasing, scalar_or_array
 from calc.errors import InputError, Note, check_nonnegative, check_positive
+from calc.flow import api_wall_shear
 from calc.registry import MethodRegistry
 from calc.units import G_N, si_factor
 
@@ -141,7 +142,8 @@ def annular_apparent_viscosity(annular_velocity, d_hole, d_pipe, tau_y, k, n):
 
     .. math:: \\tau_w = (3/2)^n\\tau_y + K\\left(\\frac{2n+1}{3n}\\frac{12V_a}{D_2-D_1}\\right)^n
 
-    The wall stress is the API RP 13D (2006+) annular laminar form (METHODS §3.5, α = 1).  For a
+    The wall stress is the API RP 13D (2006+) annular laminar form (METHODS §3.5, α = 1),
+    computed by :func:`calc.flow.api_wall_shear`.  For a
     power-law fluid this is exactly Moore's μ_a = (K/144)[(D2-D1)/V_a]^(1-n)[(2+1/n)/0.0208]ⁿ
     (Bourgoyne et al. 1986; field units, K eq. cP, ft/s, in; 0.0208 ≈ 1/48) and for a Bingham
     fluid exactly the Bingham annular μ_a = PV + 5·YP·(D2-D1)/V_a (cP, lbf/100 ft², in, ft/s).
@@ -158,9 +160,10 @@ def annular_apparent_viscosity(annular_velocity, d_hole, d_pipe, tau_y, k, n):
     >>> round(annular_apparent_viscosity(1.0, 0.2, 0.1, 0.0, 0.03, 1.0), 6)
     0.03
     """
-    nominal = 12.0 * np.asarray(annular_velocity, dtype=float) / (np.asarray(d_hole) - d_pipe)
-    wall = 1.5**n * tau_y + k * ((2.0 * n + 1.0) / (3.0 * n) * nominal) ** n
-    return scalar_or_array(wall / nominal)
+    gap = np.asarray(d_hole, dtype=float) - d_pipe
+    v = np.asarray(annular_velocity, dtype=float)
+    _, wall = api_wall_shear(v, gap, tau_y, k, n, 1.0)
+    return scalar_or_array(wall / (12.0 * v / gap))
 
 
 def haider_levenspiel_drag(reynolds, sphericity=1.0):

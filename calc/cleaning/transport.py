@@ -19,6 +19,7 @@ import numpy as np
 from calc.cleaning._numeric import scalar_or_array
 from calc.cleaning.slip import SlipResult, slip_velocity
 from calc.errors import InputError, Note, check_nonnegative, check_positive
+from calc.flow.area import cross_section_area, mean_velocity
 from calc.units import si_factor
 
 __all__ = [
@@ -90,15 +91,13 @@ def annular_velocity(q, d_hole, d_pipe):
 
     Notes
     -----
-    Field form AV[ft/min] = 24.51·Q[gpm]/(D2² - D1²)[in²] (METHODS §3.1; 24.51 = 77/π exactly).
+    Field form AV[ft/min] = 24.51·Q[gpm]/(D2² - D1²)[in²] (METHODS §3.1; 24.51 = 77/π exactly);
+    computed by :func:`calc.flow.mean_velocity`.
 
     >>> round(annular_velocity(0.01, 0.2, 0.1), 6)
     0.424413
     """
-    d2 = np.asarray(d_hole, dtype=float)
-    return scalar_or_array(
-        4.0 * np.asarray(q, dtype=float) / (np.pi * (d2**2 - np.asarray(d_pipe) ** 2))
-    )
+    return scalar_or_array(mean_velocity(q, d_hole, d_pipe))
 
 
 def cuttings_volume_rate(rop, bit_diameter):
@@ -121,7 +120,7 @@ def cuttings_volume_rate(rop, bit_diameter):
     """
     r = check_nonnegative("rate of penetration", rop, "m/s")
     db = check_positive("bit diameter", bit_diameter, "m")
-    return scalar_or_array(np.pi / 4.0 * db**2 * r)
+    return scalar_or_array(cross_section_area(db) * r)
 
 
 def in_situ_concentration(cuttings_rate, q, transport_ratio):

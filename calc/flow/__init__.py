@@ -7,6 +7,9 @@ Public API (SI throughout):
 * :func:`list_methods` — registered methods (``method="..."``):
   ``api13d_2010_hb`` (default), ``api13d_1995_power_law``, ``newtonian``, ``bingham``,
   ``power_law``, ``exact_laminar``
+* :func:`cross_section_area`, :func:`mean_velocity` — A = (π/4)(D2² − D1²), V = Q/A;
+* :func:`api_wall_shear` — the API RP 13D (2006/2010) laminar wall shear rate and stress
+  (also the annular apparent viscosity of :mod:`calc.cleaning`);
 * friction factors in :mod:`calc.flow.friction`, exact laminar solutions in
   :mod:`calc.flow.laminar_exact`, the eccentricity correction in :mod:`calc.flow.eccentricity`.
 
@@ -15,6 +18,7 @@ Newtonian fluid: ``tau_y=0, k=mu, n=1``; Bingham: ``tau_y=YP, k=PV, n=1``; power
 """
 
 from calc.flow import methods_api, methods_classic, methods_exact  # noqa: F401  (registration)
+from calc.flow.area import cross_section_area, mean_velocity
 from calc.flow.core import (
     DEFAULT_METHOD,
     annulus_flow,
@@ -22,6 +26,7 @@ from calc.flow.core import (
     list_methods,
     pipe_flow,
 )
+from calc.flow.methods_api import api_wall_shear
 from calc.flow.result import REGIME_LABELS, FlowResult, regime_label
 
 __all__ = [
@@ -29,8 +34,11 @@ __all__ = [
     "REGIME_LABELS",
     "FlowResult",
     "annulus_flow",
+    "api_wall_shear",
     "critical_flow_rate",
+    "cross_section_area",
     "list_methods",
+    "mean_velocity",
     "pipe_flow",
     "regime_label",
 ]

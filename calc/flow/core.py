@@ -16,6 +16,7 @@ from calc.errors import (
     check_positive,
     check_range,
 )
+from calc.flow.distinct import distinct_combinations
 from calc.flow.eccentricity import VALIDITY, eccentricity_factor
 from calc.flow.result import (
     FLOW_METHODS,
@@ -33,6 +34,12 @@ from calc.registry import MethodInfo
 __all__ = ["DEFAULT_METHOD", "annulus_flow", "critical_flow_rate", "list_methods", "pipe_flow"]
 
 DEFAULT_METHOD = "api13d_2010_hb"
+
+#: Flow rate [m³/s] that seeds the critical-velocity solve (its start guess only: the critical
+#: velocity depends on the geometry and the fluid, not on q).
+NOMINAL_RATE = 1e-3
+#: The inputs the critical velocity depends on.
+_CRITICAL_INPUTS = ("d_outer", "d_inner", "density", "tau_y", "k", "n")
 
 
 def list_methods() -> list[MethodInfo]:
@@ -85,7 +92,27 @@ def _build_case(geometry, q, d_outer, d_inner, density, tau_y, k, n, roughness, 
             f"< half the hydraulic diameter ({0.5 * d_h[i]:.6g} m)",
         )
     case = FlowCase(geometry=geometry, **flat)
-    return case, shape
+    return case, shape, _critical_case(geometry, vals, shape)
+
+
+def _critical_case(geometry, vals, shape):
+    """The distinct (geometry, fluid) combinations of a call and the map back to its elements.
+
+    Returns ``(case, inverse)``: ``case`` holds each distinct combination once (at
+    :data:`NOMINAL_RATE`, no roughness or eccentricity: the critical velocity uses neither),
+    ``inverse`` the index of each element's combination.
+    """
+    columns, inverse = distinct_combinations([vals[key] for key in _CRITICAL_INPUTS], shape)
+    fields = dict(zip(_CRITICAL_INPUTS, columns, strict=True))
+    zeros = np.zeros(columns[0].shape)
+    case = FlowCase(
+        geometry=geometry,
+        q=np.full(columns[0].shape, NOMINAL_RATE),
+        roughness=zeros,
+        eccentricity=zeros,
+        **fields,
+    )
+    return case, inverse
 
 
 def _generic_critical_velocity(spec: FlowMethod, case: FlowCase) -> np.ndarray:
@@ -98,10 +125,11 @@ def _generic_critical_velocity(spec: FlowMethod, case: FlowCase) -> np.ndarray:
     return solve_positive(resid, guess, rtol=1e-12)
 
 
-def _critical_velocity(spec: FlowMethod, case: FlowCase) -> np.ndarray:
-    if spec.critical_velocity is not None:
-        return spec.critical_velocity(case)
-    return _generic_critical_velocity(spec, case)
+def _critical_velocity(spec: FlowMethod, critical) -> np.ndarray:
+    """Critical velocity [m/s] per element, solved once per distinct (geometry, fluid)."""
+    case, inverse = critical
+    solve = spec.critical_velocity or (lambda c: _generic_critical_velocity(spec, c))
+    return solve(case)[inverse]
 
 
 def _turbulent_weight(st: MethodState) -> np.ndarray:
@@ -118,7 +146,7 @@ def _shape_out(x, shape, as_int=False):
     return arr.astype(int) if as_int else arr
 
 
-def _evaluate(method: str, case: FlowCase, shape) -> FlowResult:
+def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
     info = FLOW_METHODS.get(method)
     spec: FlowMethod = info.func
     spec.check(case)
@@ -171,7 +199,7 @@ def _evaluate(method: str, case: FlowCase, shape) -> FlowResult:
     else:
         ecc = np.ones_like(v)
     gradient = 2.0 * st.friction_factor * case.density * v**2 / case.d_h * ecc
-    v_c = _critical_velocity(spec, case)
+    v_c = _critical_velocity(spec, critical)
     notes.append(
         count_note(
             st.regime == TRANSITIONAL,
@@ -276,8 +304,8 @@ def pipe_flow(q, d, *, density, tau_y, k, n, method=DEFAULT_METHOD, roughness=0.
     >>> r.regime_label, round(r.reynolds)
     ('turbulent', 127324)
     """
-    case, shape = _build_case("pipe", q, d, 0.0, density, tau_y, k, n, roughness, 0.0)
-    return _evaluate(method, case, shape)
+    case, shape, critical = _build_case("pipe", q, d, 0.0, density, tau_y, k, n, roughness, 0.0)
+    return _evaluate(method, case, shape, critical)
 
 
 def annulus_flow(
@@ -333,10 +361,10 @@ def annulus_flow(
     >>> r.geometry, r.regime_label
     ('annulus', 'laminar')
     """
-    case, shape = _build_case(
+    case, shape, critical = _build_case(
         "annulus", q, d_hole, d_pipe, density, tau_y, k, n, roughness, eccentricity
     )
-    return _evaluate(method, case, shape)
+    return _evaluate(method, case, shape, critical)
 
 
 def critical_flow_rate(d, d_pipe=None, *, density, tau_y, k, n, method=DEFAULT_METHOD):
@@ -367,10 +395,10 @@ def critical_flow_rate(d, d_pipe=None, *, density, tau_y, k, n, method=DEFAULT_M
     2100
     """
     geometry = "pipe" if d_pipe is None else "annulus"
-    # evaluate at a nominal rate of 1e-3 m³/s: the critical velocity does not depend on q
-    case, shape = _build_case(
-        geometry, 1e-3, d, 0.0 if d_pipe is None else d_pipe, density, tau_y, k, n, 0.0, 0.0
+    # the critical velocity does not depend on q: any valid rate will do
+    case, shape, critical = _build_case(
+        geometry, NOMINAL_RATE, d, 0.0 if d_pipe is None else d_pipe, density, tau_y, k, n, 0.0, 0.0
     )
     spec: FlowMethod = FLOW_METHODS.get(method).func
     spec.check(case)
-    return _shape_out(_critical_velocity(spec, case) * case.area, shape)
+    return _shape_out(_critical_velocity(spec, critical) * case.area, shape)

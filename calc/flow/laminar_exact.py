@@ -28,6 +28,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from calc.flow.area import mean_velocity
 from calc.flow.solvers import expand_bracket, itp_solve
 
 __all__ = [
@@ -115,7 +116,7 @@ def hb_pipe_wall_stress(q, d, tau_y, k, n):
     q, d, tau_y, k, n = np.broadcast_arrays(
         *(np.asarray(x, dtype=float) for x in (q, d, tau_y, k, n))
     )
-    v = q / (np.pi * d**2 / 4.0)
+    v = mean_velocity(q, d)
     lo = tau_y + power_law_pipe_wall_stress(v, d, k, n)
     ln_q = np.log(q)
 
@@ -333,7 +334,7 @@ def hb_annulus_gradient(q, d_hole, d_pipe, tau_y, k, n):
     shape = arrs[0].shape
     qq, d2, d1, ty, kk, nn = (np.atleast_1d(a).ravel() for a in arrs)
     gap = 0.5 * (d2 - d1)
-    v = qq / (np.pi * (d2**2 - d1**2) / 4.0)
+    v = mean_velocity(qq, d2, d1)
     g_est = 2.0 * hb_slot_wall_stress(v, gap, ty, kk, nn) / gap
 
     def resid(g):

@@ -29,7 +29,7 @@ from calc.flow.result import (
     count_note,
 )
 
-__all__ = ["api13d_1995_state", "api13d_2010_state", "api_geometry_factor"]
+__all__ = ["api13d_1995_state", "api13d_2010_state", "api_geometry_factor", "api_wall_shear"]
 
 #: Laminar/turbulent boundary of the 1995 method (API RP 13D 1995; METHODS §3.2).
 API95_RE_LIMIT = 2100.0
@@ -47,12 +47,53 @@ def api_geometry_factor(n, alpha):
     return ((3.0 - alpha) * n + 1.0) / ((4.0 - alpha) * n) * (1.0 + alpha / 2.0)
 
 
+def api_wall_shear(velocity, d_h, tau_y, k, n, alpha):
+    """API RP 13D (2006/2010) laminar wall shear rate [1/s] and wall shear stress [Pa].
+
+    .. math::
+        \\dot γ_w = G\\,\\frac{8V}{D_h}, \\qquad
+        τ_w = \\left(\\frac{4-α}{3-α}\\right)^n τ_y + K\\dot γ_w^n
+
+    Parameters
+    ----------
+    velocity : array_like
+        Mean velocity V [m/s].
+    d_h : array_like
+        Hydraulic diameter D (pipe) or D2 - D1 (annulus) [m].
+    tau_y, k, n : array_like
+        Herschel-Bulkley yield stress [Pa], consistency [Pa·sⁿ], flow index [-].
+    alpha : float
+        0 for a pipe, 1 for an annulus (slot).
+
+    Returns
+    -------
+    tuple of numpy.ndarray
+        ``(γ̇_w, τ_w)``.
+
+    Notes
+    -----
+    The geometry factor G is :func:`api_geometry_factor`; for the annulus γ̇_w is
+    (2n+1)/(3n)·12V/(D2 - D1) and τ_w = (3/2)ⁿτ_y + Kγ̇_wⁿ (METHODS §3.5, from memory, pending
+    verification against the standard).
+
+    References
+    ----------
+    API RP 13D, Rheology and Hydraulics of Oil-well Drilling Fluids, 5th ed. (2006) / 6th ed.
+    (2010), American Petroleum Institute.
+
+    >>> gw, tw = api_wall_shear(1.0, 0.1, 0.0, 0.02, 1.0, 0.0)  # Newtonian pipe: 8V/D, μ·8V/D
+    >>> float(gw), round(float(tw), 12)
+    (80.0, 1.6)
+    """
+    v = np.asarray(velocity, dtype=float)
+    gw = api_geometry_factor(n, alpha) * 8.0 * v / d_h
+    tw = ((4.0 - alpha) / (3.0 - alpha)) ** n * tau_y + k * gw**n
+    return gw, tw
+
+
 def _api10_wall(case: FlowCase, v):
     alpha = 1.0 if case.is_annulus else 0.0
-    n = case.n
-    gw = api_geometry_factor(n, alpha) * 8.0 * v / case.d_h
-    tw = ((4.0 - alpha) / (3.0 - alpha)) ** n * case.tau_y + case.k * gw**n
-    return gw, tw
+    return api_wall_shear(v, case.d_h, case.tau_y, case.k, case.n, alpha)
 
 
 def _api10_re(case: FlowCase, v):

@@ -15,6 +15,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.errors import Note
+from calc.flow.area import cross_section_area
 from calc.registry import MethodRegistry
 
 __all__ = [
@@ -81,7 +82,7 @@ class FlowCase:
 
     @property
     def area(self) -> np.ndarray:
-        return np.pi / 4.0 * (self.d_outer**2 - self.d_inner**2)
+        return cross_section_area(self.d_outer, self.d_inner)
 
     @property
     def d_h(self) -> np.ndarray:

@@ -20,6 +20,7 @@ import numpy as np
 
 from calc.bit import Bit
 from calc.errors import InputError, Note, check_positive
+from calc.flow.area import cross_section_area
 from calc.geometry._fmt import show
 from calc.geometry.hole import Hole
 from calc.geometry.string import DrillString
@@ -116,7 +117,7 @@ class FlowIntervals:
     @property
     def flow_area(self) -> np.ndarray:
         """π/4·(D_o² - D_i²) [m²]."""
-        return np.pi / 4.0 * (self.outer_diameter**2 - self.inner_diameter**2)
+        return cross_section_area(self.outer_diameter, self.inner_diameter)
 
     @property
     def volume(self) -> np.ndarray:

@@ -22,10 +22,10 @@ import numpy as np
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 sys.path.insert(0, str(Path(__file__).resolve().parents[2]))
 
-import test_circulation_case as demo
 
 from calc.circulation import circulate
 from calc.units import to_si
+from tests import demo_well as demo
 
 
 def best_of(fn, repeat):

@@ -1,6 +1,8 @@
-"""A small local loader of the demo case (workbooks/demo-case.toml, invented data) for the
-circulation tests and benchmark.  The project's full case loader lives elsewhere; this one
-reads only what the circulating-system calculation needs, in oilfield units."""
+"""The demo case (workbooks/demo-case.toml, invented data) as calc objects, for the tests and
+benchmarks: the well, pressure window, weak points, margins, fluid and circulate() options.
+The project's full case loader lives in addin/case.py; this one reads only what the
+calculation tests need, in oilfield units.  Shared by the circulation, geometry, cleaning,
+surge and window tests (through tests/_cleaning_demo.py) and tests/benchmarks/."""
 
 from __future__ import annotations
 
@@ -49,7 +51,23 @@ def check(index: int = 0) -> dict:
     return case()["check"][index]
 
 
-def demo_well(index: int = 0) -> Well:
+def survey_td() -> float:
+    """Measured depth of the last survey station [m] (the planned TD)."""
+    return ft(case()["survey"]["stations"][-1][0])
+
+
+def demo_well(
+    index: int = 0,
+    *,
+    bit_depth: float | None = None,
+    hole_depth: float | None = None,
+    extra_casing=(),
+) -> Well:
+    """The demo well of check ``index``.
+
+    ``bit_depth`` [m] overrides the check's bit depth; ``hole_depth`` [m] the depth the hole is
+    drilled to (default: the bit depth); ``extra_casing`` adds :class:`HoleSection` casings.
+    """
     c = case()
     st = np.array(c["survey"]["stations"], dtype=float)
     survey = Survey(ft(st[:, 0]), st[:, 1], st[:, 2])
@@ -66,10 +84,14 @@ def demo_well(index: int = 0) -> Well:
         )
         for k in c["casing"]
     ]
-    bit_md = ft(check(index)["bit_depth"])
+    casings.extend(extra_casing)
+    bit_md = ft(check(index)["bit_depth"]) if bit_depth is None else bit_depth
     oh = c["open_hole"]
     hole = Hole.from_casing(
-        casings, depth=bit_md, bit_size=inch(oh["bit_size"]), diameter=inch(oh["diameter"])
+        casings,
+        depth=bit_md if hole_depth is None else hole_depth,
+        bit_size=inch(oh["bit_size"]),
+        diameter=inch(oh["diameter"]),
     )
     comps = []
     for k in c["string"]:

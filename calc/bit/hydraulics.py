@@ -1,0 +1,276 @@
+"""Bit hydraulics: nozzle velocity, bit pressure drop, hydraulic power, HSI, jet impact force,
+the :class:`Bit` and the per-rate :func:`bit_hydraulics` summary.
+
+* nozzle (jet) velocity  v_n = Q/A
+* bit pressure drop  ΔP_b = ρQ²/(2C_d²A²)
+* bit hydraulic power  P_b = ΔP_b·Q;  HSI = P_b/(π d_bit²/4)
+* jet impact force  F_j = C_d·Q·√(2ρΔP_b)
+
+References
+----------
+Bourgoyne, A.T., Millheim, K.K., Chenevert, M.E., Young, F.S. (1986). *Applied Drilling
+Engineering*, SPE Textbook Series 2, ch. 4.
+Lyons, W.C. (ed.) (1996). *Standard Handbook of Petroleum & Natural Gas Engineering*, vol. 1,
+eqs. 4-77, 4-78, 4-81.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from calc.bit.nozzles import parse_nozzles
+from calc.errors import InputError, Note, check_positive, check_range
+from calc.flow.area import cross_section_area
+from calc.units import from_si, to_si
+
+__all__ = [
+    "DEFAULT_DISCHARGE_COEFFICIENT",
+    "HSI_WARN",
+    "JET_VELOCITY_WARN",
+    "Bit",
+    "BitHydraulics",
+    "bit_hydraulic_power",
+    "bit_hydraulics",
+    "bit_pressure_drop",
+    "hsi",
+    "impact_force",
+    "nozzle_velocity",
+]
+
+#: Default nozzle discharge coefficient (METHODS §5; field data suggest up to ≈ 1.03,
+#: Robinson 2010, AADE-10-DF-HO-26).
+DEFAULT_DISCHARGE_COEFFICIENT = 0.95
+#: Nozzle velocity above which a note warns: ~450 ft/s (PRACTICE §3.4, from memory).
+JET_VELOCITY_WARN = to_si(450.0, "ft/s")
+#: HSI below which a note warns: ~1 hp/in² (PRACTICE §2.3/§3.4, from memory).
+HSI_WARN = to_si(1.0, "hp/in**2")
+
+
+def _out(x):
+    x = np.asarray(x, dtype=float)
+    return float(x) if x.ndim == 0 else x
+
+
+def nozzle_velocity(q, tfa):
+    """Mean nozzle (jet) velocity v_n = Q/A [m/s]; ``q`` [m³/s], ``tfa`` [m²].
+
+    Field form v_n[ft/s] = Q[gpm]/(3.117·A[in²]) (Lyons 1996, eq. 4-81).
+    """
+    return _out(np.asarray(q, dtype=float) / check_positive("TFA", tfa, "m2"))
+
+
+def bit_pressure_drop(q, density, tfa, discharge_coefficient=DEFAULT_DISCHARGE_COEFFICIENT):
+    """Pressure drop across the nozzles ΔP_b = ρQ²/(2C_d²A²) [Pa].
+
+    Parameters
+    ----------
+    q : array_like
+        Flow rate [m³/s].
+    density : array_like
+        Fluid density [kg/m³].
+    tfa : array_like
+        Total flow area [m²].
+    discharge_coefficient : float
+        Nozzle discharge coefficient C_d [-], default 0.95.
+
+    Notes
+    -----
+    Bernoulli across the nozzle with the jet velocity v = C_d·√(2ΔP/ρ) and continuity
+    v = Q/A.  The field form 8.311e-5·ρQ²/(C_d²A²) (psi, ppg, gpm, in²) is this equation in
+    field units (Bourgoyne et al. 1986, ch. 4; METHODS §0.1, §5).
+
+    Examples
+    --------
+    >>> round(bit_pressure_drop(0.03, 1000.0, 2e-4, 1.0) / 1e6, 4)
+    11.25
+    """
+    cd = check_range("discharge coefficient", discharge_coefficient, 0.5, 1.2)
+    a = check_positive("TFA", tfa, "m2")
+    q = np.asarray(q, dtype=float)
+    rho = np.asarray(density, dtype=float)
+    return _out(rho * q**2 / (2.0 * cd**2 * a**2))
+
+
+def bit_hydraulic_power(q, pressure_drop):
+    """Hydraulic power spent at the bit P_b = ΔP_b·Q [W] (field: HHP = ΔP·Q/1714, Lyons eq. 4-77).
+
+    ``q`` [m³/s], ``pressure_drop`` [Pa].
+    """
+    return _out(np.asarray(pressure_drop, dtype=float) * np.asarray(q, dtype=float))
+
+
+def hsi(power, bit_size):
+    """Hydraulic power per bit area HSI = P_b/(π d_bit²/4) [W/m²].
+
+    ``power`` [W], ``bit_size`` [m].  Field: hp/in².
+    """
+    d = check_positive("bit size", bit_size, "m")
+    return _out(np.asarray(power, dtype=float) / cross_section_area(d))
+
+
+def impact_force(q, density, pressure_drop, discharge_coefficient=DEFAULT_DISCHARGE_COEFFICIENT):
+    """Jet impact force F_j = C_d·Q·√(2ρΔP_b) [N] (the jet's momentum flux ρ·Q·v_jet).
+
+    ``q`` [m³/s], ``density`` [kg/m³], ``pressure_drop`` [Pa].  Field form
+    0.01823·C_d·Q·√(ρΔP_b) lbf (Lyons 1996, eq. 4-78; Guo & Liu 2011, eq. 2.89).
+    """
+    cd = np.asarray(discharge_coefficient, dtype=float)
+    q = np.asarray(q, dtype=float)
+    dp = np.asarray(pressure_drop, dtype=float)
+    rho = np.asarray(density, dtype=float)
+    return _out(cd * q * np.sqrt(2.0 * rho * np.maximum(dp, 0.0)))
+
+
+@dataclass(frozen=True)
+class Bit:
+    """A bit with its nozzles.
+
+    Parameters
+    ----------
+    size : float
+        Bit diameter [m].
+    nozzles : str or sequence of int, optional
+        Nozzle sizes in 32nds of an inch (see :func:`parse_nozzles`).
+    tfa : float, optional
+        Total flow area [m²], when nozzles are not listed (or to cross-check them: a given TFA
+        more than 2 % from the nozzles' gives a warning, PRACTICE §3.4).
+    discharge_coefficient : float
+        Nozzle discharge coefficient [-], default 0.95.
+    ports : int, optional
+        Number of nozzle ports.
+    name : str
+    """
+
+    size: float
+    nozzles: tuple[int, ...] | str | None = None
+    tfa: float | None = None
+    discharge_coefficient: float = DEFAULT_DISCHARGE_COEFFICIENT
+    ports: int | None = None
+    name: str = "bit"
+    notes: tuple[Note, ...] = field(init=False, repr=False)
+
+    def __post_init__(self):
+        object.__setattr__(self, "size", float(check_positive("bit size", self.size, "m")))
+        check_range("discharge coefficient", self.discharge_coefficient, 0.5, 1.2)
+        object.__setattr__(self, "discharge_coefficient", float(self.discharge_coefficient))
+        notes: list[Note] = []
+        if self.nozzles is None and self.tfa is None:
+            raise InputError("bit nozzles", None, "nozzle sizes in 32nds, or a TFA")
+        if self.nozzles is not None:
+            ns = parse_nozzles(self.nozzles, self.ports)
+            notes.extend(ns.notes)
+            object.__setattr__(self, "nozzles", ns.sizes)
+            area = ns.tfa
+            if self.tfa is not None:
+                given = float(check_positive("TFA", self.tfa, "m2"))
+                if abs(given - area) > 0.02 * area:
+                    notes.append(
+                        Note(
+                            "warning",
+                            "tfa_mismatch",
+                            f"given TFA {from_si(given, 'in**2'):.3f} in² differs from the "
+                            f"nozzles' {from_si(area, 'in**2'):.3f} in² by more than 2 %: "
+                            "the nozzles are used",
+                            self.name,
+                        )
+                    )
+            object.__setattr__(self, "tfa", area)
+        else:
+            object.__setattr__(self, "tfa", float(check_positive("TFA", self.tfa, "m2")))
+        object.__setattr__(self, "notes", tuple(notes))
+
+    @property
+    def area(self) -> float:
+        """Bit face area π d²/4 [m²]."""
+        return float(cross_section_area(self.size))
+
+
+@dataclass(frozen=True, eq=False)
+class BitHydraulics:
+    """Bit hydraulics at one or many flow rates (arrays broadcast over the rates given)."""
+
+    flow_rate: np.ndarray | float  # [m³/s]
+    density: np.ndarray | float  # [kg/m³]
+    tfa: float  # [m²]
+    discharge_coefficient: float
+    bit_size: float  # [m]
+    nozzle_velocity: np.ndarray | float  # [m/s]
+    pressure_drop: np.ndarray | float  # [Pa]
+    hydraulic_power: np.ndarray | float  # [W]
+    hsi: np.ndarray | float  # [W/m²]
+    impact_force: np.ndarray | float  # [N]
+    standpipe_pressure: np.ndarray | float | None  # [Pa]
+    share_of_standpipe: np.ndarray | float | None  # [-]
+    method: str = "nozzle Bernoulli with discharge coefficient (Bourgoyne et al. 1986, ch. 4)"
+    notes: tuple[Note, ...] = ()
+
+
+def bit_hydraulics(q, density, bit: Bit, standpipe_pressure=None) -> BitHydraulics:
+    """All bit-hydraulics quantities for ``bit`` at flow rate(s) ``q`` [m³/s], ``density`` [kg/m³].
+
+    ``standpipe_pressure`` [Pa], if given, yields the bit's share ΔP_b/p_sp.  Notes warn of a
+    nozzle velocity above ~450 ft/s or an HSI below ~1 hp/in² (PRACTICE §3.4, from memory).
+    """
+    qv = check_positive("flow rate", q, "m3/s")
+    rho = check_positive("density", density, "kg/m3")
+    cd = bit.discharge_coefficient
+    vn = nozzle_velocity(qv, bit.tfa)
+    dp = bit_pressure_drop(qv, rho, bit.tfa, cd)
+    pw = bit_hydraulic_power(qv, dp)
+    h = hsi(pw, bit.size)
+    fj = impact_force(qv, rho, dp, cd)
+    notes = list(bit.notes)
+    share = None
+    if standpipe_pressure is not None:
+        spp = check_positive("standpipe pressure", standpipe_pressure, "Pa")
+        share = _out(np.asarray(dp) / spp)
+        if np.any(np.asarray(share) > 1.0):
+            notes.append(
+                Note(
+                    "warning",
+                    "bit_above_standpipe",
+                    "the bit pressure drop exceeds the standpipe pressure given: check the "
+                    "nozzles, the rate and the pressure",
+                    bit.name,
+                )
+            )
+        spp = _out(spp)
+    else:
+        spp = None
+    if np.any(np.asarray(vn) > JET_VELOCITY_WARN):
+        notes.append(
+            Note(
+                "warning",
+                "high_jet_velocity",
+                f"nozzle velocity up to {from_si(np.max(vn), 'ft/s'):.0f} ft/s, above ~450 ft/s: "
+                "erosion risk",
+                bit.name,
+            )
+        )
+    if np.any(np.asarray(h) < HSI_WARN):
+        notes.append(
+            Note(
+                "warning",
+                "low_hsi",
+                f"HSI down to {from_si(np.min(h), 'hp/in**2'):.2f} hp/in², below ~1: poor bit "
+                "cleaning or balling risk",
+                bit.name,
+            )
+        )
+    return BitHydraulics(
+        flow_rate=_out(qv),
+        density=_out(rho),
+        tfa=bit.tfa,
+        discharge_coefficient=cd,
+        bit_size=bit.size,
+        nozzle_velocity=vn,
+        pressure_drop=dp,
+        hydraulic_power=pw,
+        hsi=h,
+        impact_force=fj,
+        standpipe_pressure=spp,
+        share_of_standpipe=share,
+        notes=tuple(notes),
+    )

@@ -1,0 +1,285 @@
+"""The pressure window (pore and fracture EMW versus TVD), weak points and user margins.
+
+Pore and fracture pressures are given as equivalent mud weights (EMW, kg/m³) at stations of
+true vertical depth and interpolated linearly in TVD between the stations; above the first and
+below the last station the end value is held (and :func:`calc.circulation.circulate` puts a
+note on the result when it had to do that).  A :class:`WeakPoint` is a named depth (measured
+depth) with its own fracture EMW (a shoe test, a depleted sand) and optionally a pore EMW; at
+that depth it takes precedence over the window.
+
+Not to be confused with :mod:`calc.window`, the operating window of *flow rates*.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from calc.errors import InputError, check_nonnegative, check_positive
+
+__all__ = [
+    "MarginTable",
+    "Margins",
+    "PressureWindow",
+    "TightestPoint",
+    "WeakPoint",
+    "limits_at",
+    "tabulate_margins",
+]
+
+
+def _out(x):
+    x = np.asarray(x, dtype=float)
+    return float(x) if x.ndim == 0 else x
+
+
+@dataclass(frozen=True, eq=False)
+class PressureWindow:
+    """Pore and fracture pressure as EMW versus TVD.
+
+    .. math:: \\rho_{pore}(h) = \\mathrm{interp}(h;\\ h_i, \\rho_{pore,i}),\\quad
+              \\rho_{frac}(h) = \\mathrm{interp}(h;\\ h_i, \\rho_{frac,i})
+
+    Parameters
+    ----------
+    tvd : array_like
+        Station true vertical depths [m], ≥ 0 and strictly increasing.
+    pore : array_like
+        Pore-pressure EMW at each station [kg/m³], > 0.
+    fracture : array_like
+        Fracture-pressure EMW at each station [kg/m³], > pore at every station.
+
+    Notes
+    -----
+    Linear interpolation in TVD; constant extrapolation outside the stations (see
+    :meth:`covers`).  A single station gives a constant window.
+
+    Examples
+    --------
+    >>> w = PressureWindow([1000.0, 2000.0], [1050.0, 1250.0], [1600.0, 1800.0])
+    >>> w.pore_at(1500.0), w.fracture_at(2500.0)
+    (1150.0, 1800.0)
+    """
+
+    tvd: np.ndarray
+    pore: np.ndarray
+    fracture: np.ndarray
+
+    def __post_init__(self):
+        tvd = np.atleast_1d(check_nonnegative("pressure window TVD", self.tvd, "m"))
+        pore = np.atleast_1d(check_positive("pore EMW", self.pore, "kg/m³"))
+        frac = np.atleast_1d(check_positive("fracture EMW", self.fracture, "kg/m³"))
+        if tvd.ndim != 1 or pore.shape != tvd.shape or frac.shape != tvd.shape:
+            raise InputError(
+                "pressure window",
+                f"{tvd.size} TVD, {pore.size} pore, {frac.size} fracture values",
+                "one pore and one fracture EMW per TVD station",
+            )
+        if tvd.size > 1 and np.any(np.diff(tvd) <= 0):
+            bad = int(np.flatnonzero(np.diff(tvd) <= 0)[0]) + 1
+            raise InputError("pressure window TVD", float(tvd[bad]), "strictly increasing depths")
+        if np.any(pore >= frac):
+            i = int(np.flatnonzero(pore >= frac)[0])
+            raise InputError(
+                f"pore EMW at TVD {tvd[i]:g} m",
+                float(pore[i]),
+                f"< fracture EMW there ({frac[i]:g} kg/m³)",
+            )
+        for name, arr in (("tvd", tvd), ("pore", pore), ("fracture", frac)):
+            arr.setflags(write=False)
+            object.__setattr__(self, name, arr)
+
+    def pore_at(self, tvd):
+        """Pore EMW [kg/m³] at TVD [m] (linear between stations, end values held)."""
+        return _out(np.interp(np.asarray(tvd, dtype=float), self.tvd, self.pore))
+
+    def fracture_at(self, tvd):
+        """Fracture EMW [kg/m³] at TVD [m] (linear between stations, end values held)."""
+        return _out(np.interp(np.asarray(tvd, dtype=float), self.tvd, self.fracture))
+
+    def covers(self, tvd):
+        """True where ``tvd`` [m] lies within the first and last stations (no extrapolation)."""
+        t = np.asarray(tvd, dtype=float)
+        res = (t >= self.tvd[0]) & (t <= self.tvd[-1])
+        return bool(res) if res.ndim == 0 else res
+
+
+@dataclass(frozen=True)
+class WeakPoint:
+    """A named depth with its own limits (shoe test, depleted sand …).
+
+    Parameters
+    ----------
+    name : str
+        Label shown in results ("9-5/8 in shoe").
+    md : float
+        Measured depth [m], ≥ 0.
+    fracture : float
+        Fracture (or shoe-test) EMW [kg/m³], > 0.
+    pore : float or None
+        Pore EMW [kg/m³] if known (< fracture); None → taken from the window.
+    """
+
+    name: str
+    md: float
+    fracture: float
+    pore: float | None = None
+
+    def __post_init__(self):
+        if not isinstance(self.name, str) or not self.name.strip():
+            raise InputError("weak point name", self.name, "a non-empty text")
+        object.__setattr__(self, "md", float(check_nonnegative(f"{self.name}: md", self.md, "m")))
+        frac = float(check_positive(f"{self.name}: fracture EMW", self.fracture, "kg/m³"))
+        object.__setattr__(self, "fracture", frac)
+        if self.pore is not None:
+            pore = float(check_positive(f"{self.name}: pore EMW", self.pore, "kg/m³"))
+            if pore >= frac:
+                raise InputError(f"{self.name}: pore EMW", pore, f"< fracture EMW ({frac:g} kg/m³)")
+            object.__setattr__(self, "pore", pore)
+
+
+@dataclass(frozen=True)
+class Margins:
+    """The user's required margins [kg/m³] (programme values; all user-settable).
+
+    Parameters
+    ----------
+    fracture : float
+        ECD must stay at least this far below the fracture EMW (0.5 ppg ≈ 59.9 kg/m³ is a
+        customary value, PRACTICE §2.3 citing 30 CFR 250; default 0: only crossing is flagged).
+    pore : float
+        ECD must stay at least this far above the pore EMW (default 0).
+    """
+
+    fracture: float = 0.0
+    pore: float = 0.0
+
+    def __post_init__(self):
+        object.__setattr__(
+            self, "fracture", float(check_nonnegative("fracture margin", self.fracture, "kg/m³"))
+        )
+        object.__setattr__(
+            self, "pore", float(check_nonnegative("pore margin", self.pore, "kg/m³"))
+        )
+
+
+@dataclass(frozen=True)
+class TightestPoint:
+    """Where the ECD comes closest to a limit.
+
+    ``name`` the depth's label (a weak point's name, "shoe", "bit" or "MD 1234.5 m"); ``md``,
+    ``tvd`` [m]; ``margin`` [kg/m³] (limit distance, fracture − ECD or ECD − pore); ``limit``
+    ``"fracture"`` or ``"pore"``; ``required`` the user's margin for that limit [kg/m³].
+    For a sweep every field is an array over the sweep.
+    """
+
+    name: object
+    md: object
+    tvd: object
+    margin: object
+    limit: object
+    required: object
+
+
+@dataclass(frozen=True, eq=False)
+class MarginTable:
+    """Margins at the check points (exposed formation: last shoe to the bit, weak points).
+
+    ``names``, ``md``, ``tvd``: the check points; ``pore``, ``fracture``: limits there [kg/m³];
+    ``ecd``, ``esd`` [kg/m³]; ``fracture_margin`` = fracture − ECD; ``pore_margin`` = ECD − pore;
+    ``static_pore_margin`` = ESD − pore (all [kg/m³], leading sweep axes, last axis the points).
+    """
+
+    names: tuple[str, ...]
+    md: np.ndarray
+    tvd: np.ndarray
+    pore: np.ndarray
+    fracture: np.ndarray
+    ecd: np.ndarray
+    esd: np.ndarray
+    fracture_margin: np.ndarray
+    pore_margin: np.ndarray
+    static_pore_margin: np.ndarray
+    tightest: TightestPoint
+    margins: Margins = field(default_factory=Margins)
+
+
+def _plain(v):
+    """numpy scalars → Python scalars; arrays unchanged."""
+    if isinstance(v, np.ndarray):
+        return v.item() if v.ndim == 0 else v
+    return v.item() if isinstance(v, np.generic) else v
+
+
+def limits_at(md, tvd, names, window: PressureWindow | None, weak_points=()):
+    """Pore and fracture EMW at check points; weak points override the window at their MD.
+
+    Returns ``(pore, fracture)`` arrays [kg/m³]; where neither a window nor a weak point gives a
+    value the entry is ``inf`` (fracture) / ``0`` (pore): no limit.
+    """
+    md = np.asarray(md, dtype=float)
+    tvd = np.asarray(tvd, dtype=float)
+    if window is not None:
+        pore = np.asarray(window.pore_at(tvd), dtype=float).copy()
+        frac = np.asarray(window.fracture_at(tvd), dtype=float).copy()
+    else:
+        pore = np.zeros_like(tvd)
+        frac = np.full_like(tvd, np.inf)
+    for wp in weak_points:
+        at = np.array([n == wp.name for n in names])
+        frac[at] = wp.fracture
+        if wp.pore is not None:
+            pore[at] = wp.pore
+    return pore, frac
+
+
+def tabulate_margins(names, md, tvd, pore, fracture, ecd, esd, margins: Margins) -> MarginTable:
+    """Margins at every check point and the tightest one.
+
+    .. math:: m_{frac} = \\rho_{frac} - \\mathrm{ECD},\\quad m_{pore} = \\mathrm{ECD} - \\rho_{pore}
+
+    The tightest point is the smallest of the two margins over all points (plain distance to the
+    limit, not reduced by the required margin; ``required`` is reported beside it).  ``ecd`` and
+    ``esd`` carry leading sweep axes; the last axis runs over the points.
+    """
+    ecd = np.asarray(ecd, dtype=float)
+    esd = np.asarray(esd, dtype=float)
+    fm = fracture - ecd
+    pm = ecd - pore
+    spm = esd - pore
+    both = np.stack([fm, pm], axis=-2)  # (..., 2, P)
+    flat = both.reshape((*both.shape[:-2], -1))
+    idx = np.argmin(flat, axis=-1)
+    which, point = np.divmod(idx, fm.shape[-1])
+    margin = np.take_along_axis(flat, idx[..., None], axis=-1)[..., 0]
+    names_arr = np.array(names, dtype=object)
+    limit_arr = np.array(["fracture", "pore"], dtype=object)
+    req = np.array([margins.fracture, margins.pore])
+
+    def pick(a, i):
+        v = np.asarray(a)[i]
+        return v.item() if isinstance(v, np.ndarray) and v.ndim == 0 else _plain(v)
+
+    tight = TightestPoint(
+        name=pick(names_arr, point),
+        md=pick(md, point),
+        tvd=pick(tvd, point),
+        margin=_plain(margin),
+        limit=pick(limit_arr, which),
+        required=pick(req, which),
+    )
+    return MarginTable(
+        names=tuple(names),
+        md=md,
+        tvd=tvd,
+        pore=pore,
+        fracture=fracture,
+        ecd=ecd,
+        esd=esd,
+        fracture_margin=fm,
+        pore_margin=pm,
+        static_pore_margin=spm,
+        tightest=tight,
+        margins=margins,
+    )
