@@ -590,7 +590,7 @@ def trip_speed_limits(
     METHODS §8 (from memory) — the tightest point is often the last shoe for surge, the
     deepest permeable zone for swab.
     """
-    from calc.circulation.window import limits_at
+    from calc.circulation.pressure_window import limits_at
 
     mf = float(check_nonnegative("fracture margin", fracture_margin, "kg/m³"))
     mp = float(check_nonnegative("pore margin", pore_margin, "kg/m³"))
