@@ -1,0 +1,79 @@
+"""Burkhardt clinging constants: the chart fits and the exact Newtonian laminar value.
+
+Fits to Burkhardt's chart (Guo & Liu 2011, eqs. 2.81-2.82): laminar K_c = 0.275(D1/D2) + 0.25,
+turbulent K_c = 0.1(D1/D2) + 0.41.  For Newtonian laminar flow in a concentric annulus the exact
+value is :func:`clinging_constant_exact_newtonian`.
+
+References
+----------
+Burkhardt, J.A. (1961) Wellbore pressure surges produced by pipe movement. JPT 13(6), 595-605,
+SPE-1546-G.  Guo, B. & Liu, G. (2011) Applied Drilling Circulation Systems, ch. 2.
+Bird, R.B., Stewart, W.E. & Lightfoot, E.N. (2002) Transport Phenomena, 2nd ed., Wiley.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from calc.cleaning._numeric import scalar_or_array
+from calc.errors import InputError, check_choice, check_nonnegative
+
+__all__ = ["clinging_constant", "clinging_constant_exact_newtonian"]
+
+
+def clinging_constant(d_pipe, d_hole, regime="laminar"):
+    """Burkhardt clinging constant K_c from the fits to his chart [-].
+
+    .. math:: K_c = 0.275\\,\\frac{D_1}{D_2} + 0.25\\ \\text{(laminar)},\\qquad
+              K_c = 0.1\\,\\frac{D_1}{D_2} + 0.41\\ \\text{(turbulent)}
+
+    Parameters
+    ----------
+    d_pipe, d_hole : array_like
+        Pipe OD D1 and hole ID D2 [m].
+    regime : {"laminar", "turbulent"} or array of bool
+        ``True`` entries of a boolean array mean turbulent.
+
+    References
+    ----------
+    Guo & Liu (2011), eqs. 2.81-2.82 (placement of D1/D2 inferred; METHODS §8, §11 item 10).
+
+    >>> round(clinging_constant(0.5, 1.0), 4)
+    0.3875
+    """
+    k = np.asarray(d_pipe, dtype=float) / np.asarray(d_hole, dtype=float)
+    if isinstance(regime, str):
+        turb = check_choice("regime", regime, ("laminar", "turbulent")) == "turbulent"
+    else:
+        turb = np.asarray(regime, dtype=bool)
+    return scalar_or_array(np.where(turb, 0.1 * k + 0.41, 0.275 * k + 0.25))
+
+
+def clinging_constant_exact_newtonian(d_pipe, d_hole):
+    """Exact clinging constant for laminar Newtonian flow in a concentric annulus [-].
+
+    .. math:: K_c = \\frac{1}{2\\ln(1/\\kappa)} - \\frac{\\kappa^2}{1 - \\kappa^2},\\quad
+              \\kappa = D_1/D_2
+
+    Derivation: the axial drag (Couette) flow of an inner cylinder moving at V_p in a fixed outer
+    cylinder, u = V_p ln(R2/r)/ln(R2/R1), carries Q_d = πV_p[(R2² - R1²)/(2 ln(R2/R1)) - R1²];
+    by linearity of Stokes flow the moving-wall problem equals a stationary-wall flow of
+    Q_a + Q_d, so K_c = Q_d/(V_p·π(R2² - R1²)) (Bird, Stewart & Lightfoot 2002, problem 2B.7
+    type axial annular flow with a moving rod).
+
+    >>> round(clinging_constant_exact_newtonian(0.5, 1.0), 4)
+    0.388
+    """
+    k = np.asarray(d_pipe, dtype=float) / np.asarray(d_hole, dtype=float)
+    return scalar_or_array(1.0 / (2.0 * np.log(1.0 / k)) - k**2 / (1.0 - k**2))
+
+
+def _check_clinging(clinging):
+    """ "burkhardt" (the fits) or given K_c values in [0, 1)."""
+    if isinstance(clinging, str):
+        check_choice("clinging", clinging, ("burkhardt",))
+        return clinging
+    kc = check_nonnegative("clinging constant", clinging)
+    if np.any(kc >= 1.0):
+        raise InputError("clinging constant", float(np.max(kc)), "in [0, 1)")
+    return kc
