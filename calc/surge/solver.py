@@ -29,9 +29,9 @@ import numpy as np
 
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT, bit_pressure_drop
 from calc.circulation._well_link import _row_names
-from calc.cleaning._numeric import bisect_increasing
 from calc.errors import InputError, Note, check_choice, check_nonnegative, check_positive
 from calc.flow import annulus_flow, cross_section_area, pipe_flow
+from calc.flow.solvers import itp_solve
 from calc.surge.clinging import _check_clinging, clinging_constant
 
 __all__ = ["PEAK_FACTOR"]
@@ -161,7 +161,13 @@ def _annulus_state(p: _Paths, vp, q_rel, clinging):
 
 
 def _solve(p: _Paths, vp, end, clinging, iterations=50):
-    """Annulus state for pipe speeds ``vp`` (any shape), closed or open end."""
+    """Annulus state for pipe speeds ``vp`` (any shape), closed or open end.
+
+    Open end: q_rel in [0, V_p·min(πD1²/4)] from bore(q_rel) = annulus(q_rel), an increasing
+    residual, by the bracketed ITP search of :func:`calc.flow.solvers.itp_solve` to the
+    precision of ``iterations`` bisection steps (bracket ≤ 2⁻ⁱᵗᵉʳᵃᵗⁱᵒⁿˢ of the start);
+    bisection's worst case, usually far fewer residual evaluations."""
+    vp = np.asarray(vp, dtype=float)
     if end == "closed":
         q_rel = np.zeros_like(vp)
     else:
@@ -171,7 +177,7 @@ def _solve(p: _Paths, vp, end, clinging, iterations=50):
             _, _, grad, _, _ = _annulus_state(p, vp, qr, clinging)
             return _bore_pressure(p, qr) - np.sum(grad * p.length, axis=-1)
 
-        q_rel = bisect_increasing(f, np.zeros_like(vp), q_max, iterations=iterations)
+        q_rel = itp_solve(f, np.zeros_like(vp), q_max, rtol=2.0 ** -(iterations + 1))
     return q_rel, *_annulus_state(p, vp, q_rel, clinging)
 
 
