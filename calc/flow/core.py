@@ -115,8 +115,8 @@ def _critical_case(geometry, vals, shape):
     return case, inverse
 
 
-def _generic_critical_velocity(spec: FlowMethod, case: FlowCase) -> np.ndarray:
-    target = np.log(spec.laminar_limit(case))
+def _generic_critical_velocity(spec: FlowMethod, case: FlowCase, limit=None) -> np.ndarray:
+    target = np.log(spec.laminar_limit(case) if limit is None else limit)
     guess = np.maximum(case.velocity, 1e-3)
 
     def resid(v):
@@ -125,10 +125,12 @@ def _generic_critical_velocity(spec: FlowMethod, case: FlowCase) -> np.ndarray:
     return solve_positive(resid, guess, rtol=1e-12)
 
 
-def _critical_velocity(spec: FlowMethod, critical) -> np.ndarray:
-    """Critical velocity [m/s] per element, solved once per distinct (geometry, fluid)."""
+def _critical_velocity(spec: FlowMethod, critical, limit=None) -> np.ndarray:
+    """Critical velocity [m/s] per element, solved once per distinct (geometry, fluid).
+
+    ``limit``: the laminar limit of the distinct combinations when already computed."""
     case, inverse = critical
-    solve = spec.critical_velocity or (lambda c: _generic_critical_velocity(spec, c))
+    solve = spec.critical_velocity or (lambda c: _generic_critical_velocity(spec, c, limit))
     return solve(case)[inverse]
 
 
@@ -150,7 +152,13 @@ def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
     info = FLOW_METHODS.get(method)
     spec: FlowMethod = info.func
     spec.check(case)
-    st = spec.evaluate(case)
+    if spec.limit_from_distinct:
+        # rate-independent laminar limit: once per distinct (geometry, fluid), gathered back
+        limit = spec.laminar_limit(critical[0])
+        st = spec.evaluate(case, laminar_limit=limit[critical[1]])
+    else:
+        limit = None
+        st = spec.evaluate(case)
     v = case.velocity
     notes: list[Note | None] = list(st.notes)
     if case.is_annulus:
@@ -199,7 +207,7 @@ def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
     else:
         ecc = np.ones_like(v)
     gradient = 2.0 * st.friction_factor * case.density * v**2 / case.d_h * ecc
-    v_c = _critical_velocity(spec, critical)
+    v_c = _critical_velocity(spec, critical, limit)
     notes.append(
         count_note(
             st.regime == TRANSITIONAL,

@@ -141,12 +141,14 @@ def _bingham_laminar_tw(case: FlowCase, v):
     return hb_pipe_wall_stress(v * case.area, case.d_h, case.tau_y, case.k, ones)
 
 
-def bingham_state(case: FlowCase) -> MethodState:
+def bingham_state(case: FlowCase, laminar_limit=None) -> MethodState:
     """Bingham plastic after Darby, Mun & Boger (1992), regimes by Hanks (1963).
 
     f_L: Buckingham-Reiner exact in pipes; the exact plane-slot Bingham solution in annuli
     (slot of gap (D2 - D1)/2, width π(D1 + D2)/2).  f = (f_L^m + f_T^m)^(1/m) over all Re.
-    Laminar below Hanks' Re_Bc (He on D_h); turbulent from Re_Bc + 1900.
+    Laminar below Hanks' Re_Bc (He on D_h); turbulent from Re_Bc + 1900.  ``laminar_limit``:
+    Hanks' Re_Bc per element when already known (the flow functions solve it once per
+    distinct geometry and fluid; it does not depend on the rate).
     """
     v = case.velocity
     re = _bingham_re(case, v)
@@ -154,7 +156,7 @@ def bingham_state(case: FlowCase) -> MethodState:
     tw_lam = _bingham_laminar_tw(case, v)
     f_l = 2.0 * tw_lam / (case.density * v**2)
     f = darby_bingham_fanning(re, he, f_l)
-    lam = hanks_critical_reynolds(he)
+    lam = hanks_critical_reynolds(he) if laminar_limit is None else laminar_limit
     turb = lam + BINGHAM_BAND
     tw = 0.5 * f * case.density * v**2
     gw = np.maximum(tw - case.tau_y, 0.0) / case.k
@@ -178,6 +180,7 @@ FLOW_METHODS.register(
         reynolds=_bingham_re,
         laminar_limit=lambda case: hanks_critical_reynolds(_bingham_he(case)),
         check=_check_bingham,
+        limit_from_distinct=True,
     )
 )
 

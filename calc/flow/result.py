@@ -116,6 +116,9 @@ class FlowMethod:
     velocity ``v``; ``laminar_limit(case)`` → the Re where laminar flow ends;
     ``check(case)`` raises :class:`calc.errors.InputError` for inputs the method cannot take;
     ``critical_velocity(case)``, if given, replaces the generic Re(v) = limit solve.
+    ``limit_from_distinct``: the laminar limit depends on the (geometry, fluid) combination
+    only, not on the rate, and costs a solve; it is then computed once per distinct
+    combination and passed as ``evaluate(case, laminar_limit=...)``.
     """
 
     label: str
@@ -125,6 +128,7 @@ class FlowMethod:
     check: Callable[[FlowCase], None]
     uses_roughness: bool = False
     critical_velocity: Callable[[FlowCase], np.ndarray] | None = None
+    limit_from_distinct: bool = False
 
 
 @dataclass(frozen=True)
