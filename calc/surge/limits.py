@@ -31,6 +31,7 @@ from calc.errors import (
     check_nonnegative,
     check_positive,
 )
+from calc.flow.solvers import itp_solve
 from calc.surge.clinging import _check_clinging
 from calc.surge.emw import trip_allowance
 from calc.surge.solver import (
@@ -80,14 +81,15 @@ def _open_speed_limit(p: _Paths, allow, clinging, pf, speed_bracket):
     """:func:`_speed_limit` for an open string when the allowance applies at the bit.
 
     At the limit both paths carry the allowed pressure change: the bore gives q_rel from
-    bore(q_rel) = allow, then the annulus gives V from annulus(V, q_rel) = allow — two
-    sequential bisections on the same equations instead of one nested in the other."""
+    bore(q_rel) = allow (ITP search to double precision), then the annulus gives V from
+    annulus(V, q_rel) = allow (log-bisection, safe side) — two sequential searches on the
+    same equations instead of one nested in the other."""
     allow = np.asarray(allow, dtype=float)
     lo = np.full(allow.shape, float(speed_bracket[0]))
     hi = np.full(allow.shape, float(speed_bracket[1]))
     q_hi = hi * pf * float(np.min(p.area_o))
-    q_rel = bisect_increasing(
-        lambda q: _bore_pressure(p, q) - allow, np.zeros_like(allow), q_hi, iterations=60
+    q_rel = itp_solve(
+        lambda q: _bore_pressure(p, q) - allow, np.zeros_like(allow), q_hi, rtol=2e-16
     )
 
     def excess(v_avg):
