@@ -151,10 +151,15 @@ def test_cleaning_improves_with_rate(method, q1, factor, tau_y, n):
               rop=0.01, bit_diameter=0.216, method=method)  # fmt: skip
     a = annular_transport(q1, 0.2245, 0.127, **kw)
     b = annular_transport(q1 * factor, 0.2245, 0.127, **kw)
-    # Moore's drag law jumps at Re = 3 and 300 (allow the jump: 1 % of V_s/V_a)
-    tol = 0.01 if method == "moore" else 1e-9
+    tol = 1e-9
+    if method == "moore" and np.any(a.slip.regime != b.slip.regime):
+        # Moore's published drag law is discontinuous at Re = 3 (40/Re = 13.3 above
+        # 22/√Re = 12.7): where the intermediate branch first becomes self-consistent its slip
+        # is 40√3/(3·22) = 1.0497 times the viscous one (exact, from the two branch laws), so
+        # across that boundary V_s/V_a may rise by at most 4.97 % of its value.
+        tol = (40 * np.sqrt(3) / 66 - 1) * float(np.max(a.slip.velocity / a.annular_velocity))
     assert b.transport_ratio >= a.transport_ratio - tol
-    assert b.concentration <= a.concentration * (1 + tol) + 1e-12
+    assert b.concentration <= a.concentration * (1 + 2 * tol) + 1e-12
     assert b.net_rise_velocity > a.net_rise_velocity
 
 

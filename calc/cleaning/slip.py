@@ -232,6 +232,39 @@ def _solve_drag_balance(c, mu_of_v, drag_of_re, f_min):
     return np.where(held, 0.0, v), held
 
 
+def _moore_branches(c, mu):
+    """Moore's slip velocity in closed form, branch by branch (μ_a does not depend on V_s).
+
+    The drag balance 3f(Re)ρV² = 4g·dΔρ is solved on each branch of Moore's drag law:
+    viscous f = 40/Re → V = 4g·d²Δρ/(120μ); intermediate f = 22/√Re →
+    V = [4g·dΔρ/(66√(ρμ/d))]^(2/3); turbulent f = 1.5 → V = √(4g·dΔρ/(4.5ρ)).  The published
+    law is discontinuous (f falls from 13.3 to 12.7 at Re = 3 and rises from 1.27 to 1.5 at
+    Re = 300), so near Re = 3 two branches can both be self-consistent and near Re = 300
+    neither.  Where two are, the larger slip velocity is taken (the conservative choice for
+    hole cleaning); where none is, V is held at the Re = 300 boundary, where the balance changes
+    sign.  The choice is the same for every input, so slip varies monotonically within a branch
+    and jumps only where the published law does (by at most 5 % at Re = 3).
+    """
+    weight = 4.0 * G_N * c.d * c.drho
+    v_visc = weight * c.d / (3.0 * _MOORE_F_VISCOUS * mu)
+    v_inter = (weight / (3.0 * _MOORE_F_INTER * np.sqrt(c.rho * mu / c.d))) ** (2.0 / 3.0)
+    v_turb = np.sqrt(weight / (3.0 * _MOORE_F_TURB * c.rho))
+
+    def re_of(v):
+        return c.rho * v * c.d / mu
+
+    ok_visc = re_of(v_visc) < _MOORE_RE_LOW
+    ok_inter = (re_of(v_inter) >= _MOORE_RE_LOW) & (re_of(v_inter) < _MOORE_RE_HIGH)
+    ok_turb = re_of(v_turb) >= _MOORE_RE_HIGH
+    v = np.where(ok_turb, v_turb, 0.0)
+    v = np.maximum(v, np.where(ok_inter, v_inter, 0.0))
+    v = np.maximum(v, np.where(ok_visc, v_visc, 0.0))
+    gap = ~(ok_visc | ok_inter | ok_turb)
+    v = np.where(gap, _MOORE_RE_HIGH * mu / (c.rho * c.d), v)
+    held = np.zeros(np.shape(v), dtype=bool)  # Moore's laws have no yield term: never held
+    return v, held
+
+
 def _held_note(held, method):
     if np.any(held):
         return (
@@ -255,7 +288,7 @@ def _held_note(held, method):
 def _moore(c):
     mu = annular_apparent_viscosity(c.v_a, c.d_hole, c.d_pipe, c.tau_y, c.k, c.n)
     mu = np.broadcast_to(mu, c.shape)
-    v, held = _solve_drag_balance(c, lambda v: mu, _moore_drag, 1.0)
+    v, held = _moore_branches(c, mu)
     re = c.rho * v * c.d / mu
     regime = np.where(
         re < _MOORE_RE_LOW, "viscous", np.where(re < _MOORE_RE_HIGH, "intermediate", "turbulent")
