@@ -352,6 +352,7 @@ TOOL_PRESSURE_SCHEMA = {
     "reference_density": Field("density", required=True),
     "reference_rate": Field("flow_rate", required=True),
     "flow_window": Field("range", of="flow_rate"),
+    "covers": Field("list", of="text"),
 }
 TRIP_SCHEMA = {
     "stand_length": Field("length"),
@@ -579,6 +580,7 @@ class Case:
                 t["reference_rate"],
                 flow_window=win,
                 name=t.get("name", "downhole tools"),
+                components=tuple(t.get("covers", ())),
             ),
         )
 

@@ -28,6 +28,8 @@ Exit codes
 4  the output could not be written (missing folder, permissions, disk full); any previous
    file is left intact
 5  batch: at least one case failed (the others were written; see the summary table)
+141  the reader of the output went away (``boreflow rheology CASE | head``): the rest of the
+   output is dropped quietly, as other command-line tools do (128 + SIGPIPE)
 """
 
 from __future__ import annotations
@@ -48,6 +50,7 @@ from calc.units import UNIT_SYSTEMS, from_si, label, unit_for
 __all__ = [
     "EXIT_BAD_INPUT",
     "EXIT_BATCH_FAILED",
+    "EXIT_BROKEN_PIPE",
     "EXIT_EXISTS",
     "EXIT_INTERNAL",
     "EXIT_OK",
@@ -62,6 +65,7 @@ EXIT_BAD_INPUT = 2
 EXIT_EXISTS = 3
 EXIT_WRITE = 4
 EXIT_BATCH_FAILED = 5
+EXIT_BROKEN_PIPE = 141  # 128 + SIGPIPE (13), the shell's code for a closed output pipe
 
 _PARAM_LABELS = {
     "n": "n",
@@ -358,6 +362,7 @@ exit codes:
   3  output exists (use --force to replace it)
   4  cannot write the output (the previous file is left intact)
   5  batch: some cases failed (the others were written)
+  141  output pipe closed by its reader (e.g. | head): rest of the output dropped
 """
 
 
@@ -375,6 +380,20 @@ def build_parser() -> argparse.ArgumentParser:
     return parser
 
 
+def _broken_pipe() -> int:
+    """The output pipe was closed by its reader: drop the rest of the output quietly.
+
+    stdout is pointed at the null device so the interpreter's final flush cannot raise again
+    (the approach of the Python documentation, "Note on SIGPIPE", module :mod:`signal`).
+    """
+    try:
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+    except (OSError, ValueError, AttributeError):  # stdout without a file descriptor (tests)
+        pass
+    return EXIT_BROKEN_PIPE
+
+
 def main(argv=None) -> int:
     """Run the command line; returns the exit code (0 ok, 2 bad input)."""
     parser = build_parser()
@@ -383,7 +402,17 @@ def main(argv=None) -> int:
         if not getattr(args, "func", None):
             parser.print_help()
             return EXIT_BAD_INPUT
-        return args.func(args)
+        code = args.func(args)
+        sys.stdout.flush()  # a closed pipe shows up here, inside the handler, not at exit
+        return code
+    except BrokenPipeError:
+        return _broken_pipe()
+    except SystemExit:  # --help printed: flush here so a closed pipe is handled quietly too
+        try:
+            sys.stdout.flush()
+        except BrokenPipeError:
+            return _broken_pipe()
+        raise
     except _ArgError as exc:
         print(f"boreflow: error: {exc}", file=sys.stderr)
         return EXIT_BAD_INPUT

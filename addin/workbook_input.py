@@ -741,10 +741,12 @@ LAYOUT: tuple[Block, ...] = (
         "Fixed downhole tool pressure drop",
         "values",
         (
+            F("name", "tools (description)", _TEXT),
             F("reference_drop", "drop at the reference conditions", "pressure"),
             F("reference_density", "reference density", "density"),
             F("reference_rate", "reference flow rate", "flow_rate"),
             F("flow_window", "allowed flow range (min, max)", "flow_rate", many=True),
+            F("covers", "components whose bore loss the drop includes", _TEXT, many=True),
         ),
     ),
     Block(

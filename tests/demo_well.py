@@ -131,6 +131,7 @@ def demo_well(
             to_si(t["reference_rate"], "gpm"),
             flow_window=tuple(to_si(np.array(t["flow_window"]), "gpm")),
             name="RSS + MWD/LWD",
+            components=tuple(t.get("covers", ())),
         )
     ]
     return Well(survey, hole, DrillString(comps), bit, lines, tools, bit_md)
@@ -184,13 +185,11 @@ def demo_fluid(method: str = "api13d_2010_hb", index: int = 0):
 
 
 def demo_options(index: int = 0) -> dict:
-    """The circulate() keywords of the demo case: window, weak points, margins, rating, and the
-    tools whose bore the fixed drop covers (the case's [tool_pressure] is "fixed drop of the
-    RSS + MWD/LWD, from the supplier's sheet")."""
+    """The circulate() keywords of the demo case: window, weak points, margins, rating.  (The
+    tools whose bore the fixed drop covers travel on the well: [tool_pressure].covers.)"""
     return dict(
         window=demo_window(),
         weak_points=demo_weak_points(),
         margins=demo_margins(),
         surface_rating=demo_surface_rating(),
-        covered_by_tool_drops=("6-3/4 in rotary steerable", "6-3/4 in MWD/LWD (with PWD)"),
     )

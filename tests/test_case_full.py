@@ -76,3 +76,21 @@ def test_errors_name_file_and_key(mutate, needle):
     msg = str(err.value)
     assert "demo.toml" in msg and needle in msg, msg
     assert "\n" not in msg
+
+
+def test_tool_pressure_covers_reaches_the_well_and_typos_are_named():
+    case = parse_case(_doc(), "demo.toml")
+    # demo case [tool_pressure].covers: the RSS and the MWD/LWD
+    assert case.tool_drops[0].components == (
+        "6-3/4 in rotary steerable",
+        "6-3/4 in MWD/LWD (with PWD)",
+    )
+    assert case.well().tool_covered == case.tool_drops[0].components
+    doc = _doc()
+    doc["tool_pressure"]["covers"] = ["6-3/4 in rotary steerabel"]
+    with pytest.raises(InputError, match="did you mean '6-3/4 in rotary steerable'") as exc:
+        parse_case(doc, "demo.toml").well()
+    assert exc.value.name.startswith("demo.toml")
+    doc["tool_pressure"]["covers"] = "6-3/4 in rotary steerable"
+    with pytest.raises(InputError, match=r"tool_pressure\.covers"):
+        parse_case(doc, "demo.toml")

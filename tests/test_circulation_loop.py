@@ -360,3 +360,65 @@ def test_bad_fluid_and_ecd_depth():
         r.ecd_at(3500.0)
     with pytest.raises(InputError, match="MD"):
         r.ecd_at(0.0)
+
+
+# ------------------------------------------------------------------ tool drops covering bores
+def _covered_well(components=("collars",)):
+    w = simple_well()
+    t = w.tool_drops[0]
+    tool = ToolPressureDrop(
+        t.reference_drop, t.reference_density, t.reference_rate, name="MWD",
+        flow_window=t.flow_window, components=components,
+    )  # fmt: skip
+    return Well(w.survey, w.hole, w.string, w.bit, w.surface_lines, [tool], w.bit_depth)
+
+
+def test_tool_drop_covering_a_bore_removes_exactly_that_bore_friction():
+    # Newtonian water-like fluid, turbulent in the 0.0714 m collar bore.  The bore friction the
+    # covered run must no longer carry is the Darcy-Weisbach loss f·(L/D)·ρV²/2 with f from
+    # fluids.friction.friction_factor(Method="Colebrook", smooth pipe) (fluids, PyPI; within 1 %).
+    import fluids.friction
+
+    rho, mu = 1000.0, 0.001
+    fl = HydraulicsFluid(rho, Newtonian(mu), Newtonian(mu), "water")
+    plain = circulate(simple_well(), fl, Q, method="newtonian")
+    cov = circulate(_covered_well(), fl, Q, method="newtonian")
+    d, length = 0.0714, 150.0
+    v = Q / (np.pi / 4 * d**2)
+    f = fluids.friction.friction_factor(Re=rho * v * d / mu, eD=0.0, Method="Colebrook")
+    darcy = f * length / d * rho * v**2 / 2
+    assert plain.standpipe_pressure - cov.standpipe_pressure == pytest.approx(darcy, rel=0.01)
+    # bookkeeping: only the collar rows are zeroed; tool, bit and annulus are unchanged
+    names = np.array([n.startswith("collars") for n in cov.string_names])
+    assert np.all(np.asarray(cov.string_losses)[names] == 0.0)
+    np.testing.assert_array_equal(
+        np.asarray(cov.string_losses)[~names], np.asarray(plain.string_losses)[~names]
+    )
+    assert cov.tool_loss == plain.tool_loss and cov.annulus_loss == plain.annulus_loss
+    assert cov.ecd_bit == plain.ecd_bit  # the annulus is untouched
+    assert cov.tool_covered == ("collars",) and plain.tool_covered == ()
+    assert "bore_covered_by_tool_drop" in {n.code for n in cov.notes}
+
+
+def test_calibration_with_covered_bores_keeps_the_tool_drop_fixed():
+    # m = (p_meas − fixed)/friction (calibration module docstring): the covered bore is in
+    # neither part, so the calibrated SPP still reproduces the measurement exactly.
+    well = _covered_well()
+    pred = circulate(well, hb_fluid(), Q).standpipe_pressure
+    cal = calibrate_friction(well, hb_fluid(), Q, 1.05 * pred)
+    assert cal.calibrated.standpipe_pressure == pytest.approx(1.05 * pred, rel=1e-12)
+    assert cal.calibrated.tool_loss == pytest.approx(cal.predicted.tool_loss, rel=1e-14)
+
+
+def test_interval_names_and_sweep_notes_in_the_message_units():
+    # 1 ft = 0.3048 m exactly (NIST SP 811): oilfield names in ft, metric in m
+    well = simple_well()
+    oil = circulate(well, hb_fluid(), Q, message_units="oilfield")
+    met = circulate(well, hb_fluid(), Q, message_units="metric")
+    assert all(n.endswith(" ft") for n in oil.string_names + oil.annulus_names)
+    assert all(n.endswith(" m") for n in met.string_names + met.annulus_names)
+    top, bot = 0.0, 500.0  # the first string interval: surface to the kick-off station
+    assert f"MD {top / 0.3048:,.0f}-{bot / 0.3048:,.0f} ft" in oil.string_names[0]
+    sweep = circulate(well, hb_fluid(), np.linspace(0.3, 1.6, 5) * Q, message_units="oilfield")
+    texts = " ".join(n.message for n in sweep.notes)
+    assert "m³/s" not in texts and "gpm" in texts

@@ -12,7 +12,15 @@ from hypothesis import strategies as st
 
 from calc.bit import Bit
 from calc.errors import InputError
-from calc.geometry import DrillString, Hole, HoleSection, StringComponent, Survey, Well
+from calc.geometry import (
+    DrillString,
+    Hole,
+    HoleSection,
+    StringComponent,
+    Survey,
+    ToolPressureDrop,
+    Well,
+)
 
 IN = 0.0254
 FT = 0.3048
@@ -288,3 +296,29 @@ def test_property_intervals_cover_each_path_exactly_once(well):
     # each annulus row sits in the innermost section at its midpoint
     mid = 0.5 * (ann.top_md + ann.bottom_md)
     np.testing.assert_allclose(ann.outer_diameter, well.hole.diameter_at(mid))
+
+
+# ------------------------------------------------------------------ tool drops covering bores
+def _tool(components, name="MWD"):
+    return ToolPressureDrop(2.0e6, 1300.0, 0.03, name=name, components=components)
+
+
+def test_tool_drop_components_checked_against_the_string():
+    w = _well(tool_drops=[_tool(("collars",))])
+    assert w.tool_covered == ("collars",)
+    assert _well().tool_covered == ()
+    with pytest.raises(InputError, match="did you mean 'collars'") as exc:
+        _well(tool_drops=[_tool(("colars",))])
+    assert exc.value.name == "component covered by 'MWD'" and exc.value.value == "colars"
+    with pytest.raises(InputError, match="already by 'MWD'"):
+        _well(tool_drops=[_tool(("collars",)), _tool(("collars",), name="motor")])
+
+
+@pytest.mark.parametrize("bad", [(3.0,), ("collars", "collars"), ("",), 5])
+def test_tool_drop_components_bad_input(bad):
+    with pytest.raises(InputError, match="components of 'MWD'"):
+        _tool(bad)
+
+
+def test_tool_drop_single_name_is_one_component():
+    assert _tool("collars").components == ("collars",)

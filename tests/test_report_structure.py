@@ -9,6 +9,8 @@ METHODS §0.1 from lbf = lb·gₙ and gal = 231 in³); TFA = Σ N²/1303.8 in² 
 from __future__ import annotations
 
 import math
+import re
+from pathlib import Path
 
 import openpyxl
 import pytest
@@ -77,7 +79,8 @@ def test_charts_present_with_the_right_axes(wb):
     assert {"ESD", "ECD", "pore pressure", "fracture pressure"} <= set(titles)
     # depth on the vertical axis: y values from the profile's TVD column, x from the densities
     ws = wb["ECD"]
-    head = {ws.cell(row=4, column=c).value: c for c in range(13, 19)}
+    top = _find_row(ws, "Profile along the annulus")[0].row + 1
+    head = {ws.cell(row=top, column=c).value: c for c in range(1, 7)}
     from openpyxl.utils import get_column_letter as col
 
     for s in ecd.series:
@@ -170,3 +173,131 @@ def test_every_audited_value_has_an_agreement_cell(wb):
                     assert str(right).startswith("=IF(ABS("), (ws.title, c.coordinate)
                     n += 1
     assert n >= 20
+
+
+def _print_rows(ws):
+    """Last row of the print range (``A1:J40`` → 40)."""
+    import re
+
+    area = ws.print_area
+    area = area[0] if isinstance(area, list | tuple) else area
+    return int(re.findall(r"\$?[A-Z]+\$?(\d+)", str(area))[-1])
+
+
+def test_chart_data_sits_below_the_print_range_not_beside_it(wb):
+    # the lead's review: the rheogram table at column N shrank the printed Rheology page
+    for name, head in (("Rheology", "Rheogram data"), ("ECD", "Profile along the annulus")):
+        ws = wb[name]
+        cell = _find_row(ws, head)[0]
+        assert cell.column == 1 and cell.row > _print_rows(ws), name
+        assert ws.max_column <= 10, (name, ws.max_column)  # nothing to the right of the page
+        for ch in ws._charts:
+            assert ch.anchor._from.row < _print_rows(ws), name
+
+
+def test_every_sheet_prints_landscape_and_long_tables_repeat_their_header(wb):
+    for ws in wb.worksheets:
+        assert ws.page_setup.orientation == "landscape", ws.title
+    for name, head in (("Hydraulics", "interval"), ("Cleaning", "interval")):
+        ws = wb[name]
+        first = int(str(ws.print_title_rows).split(":")[0].lstrip("$"))
+        assert ws.cell(row=first, column=1).value == head, name
+
+
+def test_hydraulics_shows_the_tool_coverage_and_the_calibration(wb):
+    res = demo_results()
+    ws = wb["Hydraulics"]
+    texts = _texts(ws)
+    # demo case [tool_pressure].covers: the RSS and the MWD/LWD bores
+    assert any(
+        "includes the bore loss of 6-3/4 in rotary steerable, 6-3/4 in MWD/LWD (with PWD)" in t
+        for t in texts
+    )
+    assert _find_row(ws, "fixed tool drops (incl. their bores)")
+    rss = _find_row(ws, "string: 6-3/4 in rotary steerable (bore loss in the fixed tool drop)")
+    assert rss[14].value == 0.0
+    assert any(t.startswith("CALIBRATION, not a measurement") for t in texts)
+    m = _find_row(ws, "friction multiplier m (calibration)")
+    cal = res.calibration
+    # m = (measured − fixed)/frictional (calc.circulation.calibration docstring)
+    assert m[1].value == pytest.approx(
+        (cal.measured_spp - cal.fixed_loss) / cal.frictional_loss, rel=1e-12
+    )
+    assert m[2].value.startswith("=(") and "agrees" not in str(m[2].value)
+
+
+def test_summary_trend_has_one_row_per_check_at_its_own_depth(wb):
+    res = demo_results()
+    ws = wb["Summary"]
+    head = _find_row(ws, "Trend: every mud check")[0].row
+    rows = [_find_row(ws, t.label) for t in res.trend]
+    assert all(r[0].row > head for r in rows)
+    # demo case: D1 at 10,950 ft and 11.0 ppg, D2 at 11,880 ft and 11.2 ppg
+    assert [r[1].value for r in rows] == pytest.approx([10950.0, 11880.0])
+    assert [r[2].value for r in rows] == pytest.approx([11.0, 11.2])
+    # PV = θ600 − θ300 (API RP 13B-1): D1 56 − 37, D2 68 − 44
+    assert [r[3].value for r in rows] == pytest.approx([19.0, 24.0])
+    for r, t in zip(rows, res.trend, strict=True):
+        assert r[5].value == pytest.approx(from_si(t.spp, "psi"), rel=1e-12)
+        assert r[7].value == pytest.approx(100 * (t.spp - t.measured_spp) / t.measured_spp)
+    # the latest row is the key-results computation itself
+    assert rows[-1][5].value == _find_row(ws, "standpipe pressure, predicted")[1].value
+
+
+def test_every_label_in_the_case_units_for_a_metric_case(tmp_path):
+    # A metric case must read in metres: no interval label or note carries feet.
+    import tomllib
+
+    from addin.case import parse_case
+    from addin.report import compute, write_report
+
+    doc = tomllib.loads(
+        (Path(__file__).resolve().parents[1] / "workbooks" / "demo-case.toml").read_text("utf-8")
+    )
+    doc["case"]["units"] = "metric"
+    _metric(doc)
+    res = compute(parse_case(doc, "metric.toml"), run_time="2026-01-01 06:00:00 UTC")
+    out = write_report(res, tmp_path / "m.xlsx")
+    book = openpyxl.load_workbook(out)
+    for ws in book.worksheets:
+        if ws.title in ("Inputs", "Audit"):
+            continue
+        for t in _texts(ws):
+            assert not re.search(r"\d ft\b|ppg|psi|gpm", t), (ws.title, t)
+    for n in res.notes:
+        assert not re.search(r"\d ft\b|ppg|psi|gpm", n.message), n.message
+    assert any(" m" in n for n in res.circulation.string_names)
+
+
+def _metric(doc):
+    """Give every quantity of the (oilfield) demo case its oilfield unit as text, so the same
+    well reads under units = "metric" (a case file allows "<number> <unit>" for any value)."""
+    from addin.case import SECTIONS
+    from calc.units import KINDS, unit_for
+
+    def tag(v, kind):
+        if kind in ("length_or_fill",):
+            kind = "length"
+        if isinstance(v, bool) or not isinstance(v, int | float) or kind not in KINDS:
+            return v
+        return f"{float(v)!r} {unit_for(kind, 'oilfield')}"
+
+    def walk(table, schema):
+        for k, v in list(table.items()):
+            f = schema.get(k)
+            if f is None:
+                continue
+            if f.kind == "table" and f.sub:
+                walk(v, f.sub)
+            elif f.kind in ("range", "list"):
+                table[k] = [tag(x, f.of) for x in v]
+            elif f.kind == "stations":
+                table[k] = [[tag(r[0], "depth"), r[1], r[2]] for r in v]
+            else:
+                table[k] = tag(v, f.kind)
+
+    for name, (is_list, schema) in SECTIONS.items():
+        if name not in doc or schema is None or name == "case":
+            continue
+        for t in doc[name] if is_list else [doc[name]]:
+            walk(t, schema)

@@ -14,7 +14,7 @@ import numpy as np
 import calc
 from calc.errors import Note
 
-__all__ = ["CheckResults", "Results", "compute"]
+__all__ = ["CheckHydraulics", "CheckResults", "Results", "compute"]
 
 #: Hydraulics method used for the report (API RP 13D 2010 Herschel-Bulkley, as in calc.flow).
 DEFAULT_METHOD = "api13d_2010_hb"
@@ -41,6 +41,46 @@ class CheckResults:
 
 
 @dataclass(frozen=True)
+class CheckHydraulics:
+    """Hydraulics of one mud check at its own bit depth, rate and density (SI), for the trend.
+
+    ``circulation`` is None (and ``missing`` names the keys) when the check lacks a bit depth,
+    density or flow rate.  ``calibration`` is :func:`calc.circulation.calibrate_friction` when
+    the check has a measured standpipe pressure the model can reproduce.
+    """
+
+    label: str
+    bit_md: float | None
+    density: float | None
+    q: float | None
+    pv: float | None
+    yp: float | None
+    circulation: object | None
+    measured_spp: float | None = None
+    calibration: object | None = None
+    pwd_md: float | None = None
+    pwd_ecd: float | None = None
+    model_ecd_at_pwd: float | None = None
+    missing: tuple[str, ...] = ()
+
+    @property
+    def spp(self) -> float | None:
+        return None if self.circulation is None else scalar(self.circulation.standpipe_pressure)
+
+    @property
+    def spp_deviation_percent(self) -> float | None:
+        """100·(predicted − measured)/measured [%] (None without a measurement)."""
+        if self.spp is None or not self.measured_spp:
+            return None
+        return 100.0 * (self.spp - self.measured_spp) / self.measured_spp
+
+    @property
+    def tightest(self):
+        res = self.circulation
+        return None if res is None or res.margins is None else res.margins.tightest
+
+
+@dataclass(frozen=True)
 class Results:
     """All results of one report run (the latest check drives hydraulics)."""
 
@@ -57,6 +97,13 @@ class Results:
     surge: object | None
     window: dict | None = None
     notes: tuple[Note, ...] = field(default=())
+    trend: tuple[CheckHydraulics, ...] = field(default=())
+    profile_step: float = 30.48
+
+    @property
+    def calibration(self):
+        """Friction calibration of the latest check (None without a usable measured SPP)."""
+        return self.trend[-1].calibration if self.trend else None
 
     @property
     def latest(self) -> CheckResults:
@@ -77,7 +124,6 @@ def fluid_for(readings, density: float, method: str, label: str):
 
 def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) -> Results:
     """Run rheology, circulation, ECD profile (and cleaning/surge where available) for a case."""
-    from calc.circulation import Margins
     from calc.circulation.loop import circulate
     from calc.rheology import compare_checks, fit_all
 
@@ -94,24 +140,19 @@ def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) 
     density = case.check_value(-1, "density")
     q = case.check_value(-1, "flow_rate")
     fluid = fluid_for(checks[-1].readings, density, method, case.checks[-1].label)
-    lim = case.limits
-    res = circulate(
-        well,
-        fluid,
-        q,
-        method=method,
-        window=case.window,
-        weak_points=case.weak_points,
-        margins=Margins(fracture=lim["fracture_margin"], pore=lim["pore_margin"]),
-        surface_rating=lim["surface_rating"],
-        message_units=case.system,
-    )
+    res = circulate(well, fluid, q, method=method, **_circulate_options(case))
     step = 30.48 if case.system == "oilfield" else 25.0  # profile grid: 100 ft or 25 m
     prof = res.profile(step)
     notes = list(well.notes) + list(res.notes)
     for c in checks:
         notes.extend(c.readings.notes)
         notes.extend(c.fits.notes)
+    trend = tuple(
+        _check_hydraulics(case, i, checks[i], method, res if i == len(checks) - 1 else None)
+        for i in range(len(checks))
+    )
+    if trend[-1].calibration is not None:
+        notes.extend(trend[-1].calibration.notes)
     cleaning = _cleaning(case, well, fluid, q)
     surge = _trips(case, well, fluid, method)
     window = flow_window(case, well, fluid, method, cleaning)
@@ -132,7 +173,78 @@ def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) 
         surge=surge,
         window=window,
         notes=_dedupe(notes),
+        trend=trend,
+        profile_step=step,
     )
+
+
+def _circulate_options(case) -> dict:
+    from calc.circulation import Margins
+
+    lim = case.limits
+    return dict(
+        window=case.window,
+        weak_points=case.weak_points,
+        margins=Margins(fracture=lim["fracture_margin"], pore=lim["pore_margin"]),
+        surface_rating=lim["surface_rating"],
+        message_units=case.system,
+    )
+
+
+def _check_hydraulics(case, index, chk, method, latest=None) -> CheckHydraulics:
+    """One check's hydraulics at its own bit depth, rate and density (``latest``: reuse)."""
+    from calc.circulation import calibrate_friction
+    from calc.circulation.loop import circulate
+
+    values = case.checks[index].values
+    r = chk.readings
+    pv = _try(lambda: r.pv)
+    yp = _try(lambda: r.yp)
+    missing = tuple(k for k in ("bit_depth", "density", "flow_rate") if k not in values)
+    if missing:
+        return CheckHydraulics(chk.label, values.get("bit_depth"), values.get("density"),
+                               values.get("flow_rate"), pv, yp, None, missing=missing)  # fmt: skip
+    depth, rho, q = values["bit_depth"], values["density"], values["flow_rate"]
+    opts = _circulate_options(case)
+    if latest is None:
+        well = case.well(index)
+        fluid = fluid_for(r, rho, method, chk.label)
+        res = circulate(well, fluid, q, method=method, **opts)
+    else:
+        res = latest
+        well, fluid = res._well, None
+    meas = values.get("measured_spp")
+    cal = None
+    if meas is not None and fluid is None:
+        fluid = fluid_for(r, rho, method, chk.label)
+    if meas is not None and meas > scalar(res.standpipe_pressure) - scalar(res.frictional_loss):
+        cal = calibrate_friction(well, fluid, q, meas, method=method, **opts)
+    pwd = values.get("pwd", {})
+    pwd_md, pwd_ecd = pwd.get("md"), pwd.get("ecd")
+    model = None
+    if pwd_md is not None and 0 < pwd_md <= res.bit_md:
+        model = scalar(res.ecd_at(pwd_md))
+    return CheckHydraulics(
+        label=chk.label,
+        bit_md=depth,
+        density=rho,
+        q=q,
+        pv=pv,
+        yp=yp,
+        circulation=res,
+        measured_spp=meas,
+        calibration=cal,
+        pwd_md=pwd_md,
+        pwd_ecd=pwd_ecd,
+        model_ecd_at_pwd=model,
+    )
+
+
+def _try(get):
+    try:
+        return float(get())
+    except Exception:  # the readings lack the speeds this property needs
+        return None
 
 
 def _cleaning(case, well, fluid, q):

@@ -180,6 +180,41 @@ def results_data(results) -> dict:
             "high_rate": _c(w["high"], "flow_rate", s),
             "high_limited_by": w["high_limited_by"],
         }
+    out["circulation"]["tool_covered"] = list(getattr(res, "tool_covered", ()))
+    cal = results.calibration
+    if cal is not None:
+        out["calibration"] = {
+            "label": cal.label,
+            "friction_multiplier": scalar(cal.multiplier),
+            "measured_spp": _c(cal.measured_spp, "pressure", s),
+            "fixed_loss": _c(cal.fixed_loss, "pressure", s),
+            "frictional_loss": _c(cal.frictional_loss, "pressure", s),
+            "calibrated_ecd_bit": _c(scalar(cal.calibrated.ecd_bit), "density", s),
+        }
+    out["trend"] = [
+        {
+            "check": t.label,
+            "bit_md": _c(t.bit_md, "depth", s),
+            "density": _c(t.density, "density", s),
+            "flow_rate": _c(t.q, "flow_rate", s),
+            "pv": _c(t.pv, "viscosity", s),
+            "yp": _c(t.yp, "stress", s),
+            "spp_predicted": _c(t.spp, "pressure", s),
+            "spp_measured": _c(t.measured_spp, "pressure", s),
+            "spp_deviation_percent": t.spp_deviation_percent,
+            "ecd_model_at_pwd": _c(t.model_ecd_at_pwd, "density", s),
+            "ecd_pwd": _c(t.pwd_ecd, "density", s),
+            "tightest": None
+            if t.tightest is None
+            else {
+                "name": str(t.tightest.name),
+                "limit": str(t.tightest.limit),
+                "margin": _c(float(t.tightest.margin), "density", s),
+            },
+            "missing": list(t.missing),
+        }
+        for t in results.trend
+    ]
     out["notes"] = [
         {"level": n.level, "code": n.code, "subject": n.subject, "message": n.message}
         for n in results.notes

@@ -58,6 +58,7 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
     ws.row_dimensions[row + 1].height = 24
     row += 3
     du, vu, qu = U("depth", system), U("velocity", system), U("flow_rate", system)
+    ws.print_title_rows = f"{row}:{row + 1}"
     row = table_header(
         ws,
         row,
@@ -119,6 +120,7 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
         "critical rate of Larsen, Pilehvari & Azar (1997).",
         "bf_note",
     )
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=14)
     row += 2
     worst = (
         "poor" if "poor" in hc.verdict else "marginal" if "marginal" in hc.verdict else ("adequate")
@@ -142,7 +144,7 @@ def write_trips(wb, results, factors: Factors, title: str):
     system = results.case.system
     part = results.surge
     ws = wb.create_sheet("Trips")
-    set_widths(ws, [34, 14, 14, 14, 14, 30])
+    set_widths(ws, [34, 16, 16, 14, 14, 14])
     row = heading(ws, 1, "Trips: surge and swab", span=6, title=True)
     if part is None:
         put(
@@ -162,11 +164,17 @@ def write_trips(wb, results, factors: Factors, title: str):
         f"{lim.peak_factor:g} × average stand speed.",
         "bf_note",
     )
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=6)
+    ws.row_dimensions[row].height = 24
     row += 2
     tu, pu, du = U("trip_speed", system), U("pressure", system), U("depth", system)
     row = heading(ws, row, "Speed limits (margins from [limits])", span=6)
     row = table_header(
-        ws, row, 1, ["", "max. average speed", "governing depth", "MD", "TVD"], ["", tu, "", du, du]
+        ws,
+        row,
+        1,
+        ["trip direction", "max. average speed", "governing point", "MD", "TVD"],
+        ["", tu, "", du, du],
     )
     for name, v, pt in (
         ("running in (surge)", lim.max_running_speed, lim.running_point),
@@ -177,7 +185,7 @@ def write_trips(wb, results, factors: Factors, title: str):
         label = (
             "bit"
             if pt[0] == "bit"
-            else (pt[0] if not str(pt[0]).startswith("MD ") else "open hole")
+            else (pt[0] if not str(pt[0]).startswith("MD ") else "open hole (below the shoe)")
         )
         put(ws, row, 3, label)
         put_number(ws, row, 4, _o(pt[1], "depth", system), number_format("depth", system))
@@ -209,8 +217,16 @@ def write_trips(wb, results, factors: Factors, title: str):
             )
             put_number(ws, row, col, _o(emw, "density", system), number_format("density", system))
         row += 1
-    put(ws, row, 1, "EMW at the bit = mud density ± pressure change / (g·TVD).", "bf_note")
-    setup_print(ws, title, landscape=False)
+    put(
+        ws,
+        row,
+        1,
+        "EMW at the bit = mud density ± pressure change / (g·TVD); swab is a pressure drop "
+        "(negative).",
+        "bf_note",
+    )
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=6)
+    setup_print(ws, title)
     return {
         "running": lim.max_running_speed,
         "pulling": lim.max_pulling_speed,

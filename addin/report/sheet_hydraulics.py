@@ -3,12 +3,14 @@
 from __future__ import annotations
 
 import numpy as np
+from openpyxl.worksheet.pagebreak import Break
 
 from addin.report.audit import Factors, cell_ref, write_checked
 from addin.report.charts import depth_profile, pressure_breakdown
 from addin.report.compute import scalar
 from addin.report.style import (
     heading,
+    note_row,
     number_format,
     put,
     put_number,
@@ -40,13 +42,13 @@ def _input_row(ws, row, name, value, kind, system, fmt=None):
     return cell_ref(ws, row, 2, absolute=True)
 
 
-def _checked_row(ws, row, name, value, formula, kind, system, note=""):
+def _checked_row(ws, row, name, value, formula, kind, system, note="", note_end=11):
     put(ws, row, 1, name)
     v, f = write_checked(ws, row, 2, value, formula, kind=kind, system=system)
     put(ws, row, 5, U(kind, system), "bf_unit")
     if note:
         put(ws, row, 6, note, "bf_note")
-        ws.merge_cells(start_row=row, start_column=6, end_row=row, end_column=11)
+        ws.merge_cells(start_row=row, start_column=6, end_row=row, end_column=note_end)
     return v, f
 
 
@@ -56,22 +58,25 @@ def _checked_row(ws, row, name, value, formula, kind, system, note=""):
 def write_hydraulics(wb, results, factors: Factors, title: str):
     case, res, system = results.case, results.circulation, results.case.system
     ws = wb.create_sheet("Hydraulics")
-    set_widths(ws, [44, 24, 11, 10, 10, 9, 9, 9, 10, 10, 8, 12, 10, 9, 10, 10])
-    row = heading(ws, 1, "Hydraulics: where the pump pressure goes", span=16, title=True)
+    set_widths(ws, [40, 22, 10, 10, 9, 8, 8, 9, 9, 8, 10, 9, 9, 9, 9])
+    row = heading(ws, 1, "Hydraulics: where the pump pressure goes", span=15, title=True)
     put(
         ws,
         row,
         1,
-        f"Method: {res.method}; fluid: {res.fluid_label} ({results.fluid.fits}); "
-        f"hydrostatic convention: {res.hydrostatic}; eccentricity {res.eccentricity:g}; "
-        f"friction multiplier {float(np.asarray(res.friction_multiplier)):g}.",
+        f"Check {case.checks[-1].label}. Method: {res.method}; fluid: {res.fluid_label} "
+        f"({results.fluid.fits}); hydrostatic convention: {res.hydrostatic}; eccentricity "
+        f"{res.eccentricity:g}; friction multiplier "
+        f"{float(np.asarray(res.friction_multiplier)):g} (uncalibrated).",
         "bf_note",
     )
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=15)
+    ws.row_dimensions[row].height = 24
     row += 2
     q_ref = _input_row(ws, row, "flow rate", _o(res.q, "flow_rate", system), "flow_rate", system)
     row += 2
     # ---- breakdown
-    row = heading(ws, row, "Standpipe pressure breakdown", span=8)
+    row = heading(ws, row, "Standpipe pressure breakdown", span=3)
     row = table_header(
         ws,
         row,
@@ -81,12 +86,15 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
     )
     first = row
     spp = scalar(res.standpipe_pressure)
+    covered = tuple(getattr(res, "tool_covered", ()))
     parts = [
         (k, scalar(v))
         for k, v in res.breakdown().items()
         if not (k == "back pressure" and scalar(v) == 0.0)
     ]
     for name, v in parts:
+        if name == "fixed tool drops" and covered:
+            name = "fixed tool drops (incl. their bores)"
         put(ws, row, 1, name)
         put_number(ws, row, 2, _o(v, "pressure", system), number_format("pressure", system))
         put_number(ws, row, 3, 100.0 * v / spp, "0.0")
@@ -110,20 +118,53 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
         put_number(
             ws, row, 2, _o(meas, "pressure", system), number_format("pressure", system), "bf_input"
         )
-        put(ws, row, 3, f"predicted − measured: {100 * (spp - meas) / meas:+.1f} %", "bf_note")
         refs["spp_measured"] = meas
+        row += 1
+        put(ws, row, 1, "predicted − measured")
+        put_number(ws, row, 2, 100 * (spp - meas) / meas, "+0.0;-0.0;0.0")
+        put(ws, row, 3, "% of measured", "bf_unit")
+        row += 1
+    row += 1
+    tools = list(results.well.tool_drops)
+    for t in tools:
+        what = (
+            "includes the bore loss of " + ", ".join(t.components) + " (their bore friction is "
+            "not added again: listed as 0 below)"
+            if t.components
+            else "is added on top of the bore friction of every string component"
+        )
+        ref = (
+            f"{_o(t.reference_drop, 'pressure', system):,.0f} {U('pressure', system)} at "
+            f"{_o(t.reference_rate, 'flow_rate', system):,.0f} {U('flow_rate', system)} and "
+            f"{_o(t.reference_density, 'density', system):.2f} {U('density', system)}"
+        )
+        put(
+            ws,
+            row,
+            1,
+            f"Fixed tool drop '{t.name}' (supplier's figure {ref}, scaled ∝ density × rate²) "
+            f"{what}.",
+            "bf_note",
+        )
+        ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=3)
+        ws.row_dimensions[row].height = 36
         row += 1
     chart = pressure_breakdown(
         (ws, 1, first, last), (ws, 2, first, last), pressure_unit=U("pressure", system)
     )
     ws.add_chart(chart, f"E{first - 2}")
-    row = max(row + 2, first + 16)
+    row = max(row + 1, first + 15)
+    cal = getattr(results, "calibration", None)
+    if cal is not None:
+        row = _calibration_block(ws, row, cal, results, factors, system)
+    ws.row_breaks.append(Break(id=row))
+    row += 1
     # ---- per-interval table
     row = heading(
         ws,
         row,
         "Per-interval hydraulics (string from surface down, annulus from the bit up)",
-        span=16,
+        span=15,
     )
     heads = [
         "interval",
@@ -160,7 +201,9 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
         U("pressure_gradient", system),
         U("pressure", system),
     ]
+    head_row = row
     row = table_header(ws, row, 1, heads, units)
+    ws.print_title_rows = f"{head_row}:{head_row + 1}"
     iv = results.well.flow_intervals()
     fq, fd, fv = factors.unit("flow_rate"), factors.unit("diameter"), factors.unit("velocity")
     groups = [
@@ -172,7 +215,12 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
     for path, rows, names, losses, flow in groups:
         losses = np.atleast_1d(np.asarray(losses, dtype=float))
         for i, name in enumerate(names):
-            put(ws, row, 1, f"{path}: {name.split(', MD')[0]}")
+            label = f"{path}: {name.split(', MD')[0]}"
+            if path == "annulus":
+                label = label.rsplit(f" in {rows.section[i]}", 1)[0]
+            if path == "string" and str(rows.component[i]) in covered:
+                label += " (bore loss in the fixed tool drop)"
+            put(ws, row, 1, label)
             if rows is not None:
                 put(ws, row, 2, str(rows.section[i]) if path == "annulus" else "", "bf_cell")
                 put_number(
@@ -228,12 +276,71 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
         1,
         "Velocity live check: Q / (π/4·(OD² − ID²)) with the conversion factors "
         "on 'Audit'. Flow OD/ID: pipe ID in the string; hole or casing ID and pipe OD in the "
-        "annulus.",
+        "annulus. Tool joints are separate rows over the same depths (their share of the "
+        "joint length).",
         "bf_note",
     )
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=15)
+    ws.row_dimensions[row].height = 24
     ws.freeze_panes = None
     setup_print(ws, title)
     return refs
+
+
+def _calibration_block(ws, row, cal, results, factors, system):
+    """The friction calibration of the latest check, labelled as such, with a live check."""
+    row = heading(ws, row, "Calibration against the measured standpipe pressure", span=8)
+    put(
+        ws,
+        row,
+        1,
+        "CALIBRATION, not a measurement: the friction multiplier m makes the model reproduce "
+        "the measured standpipe pressure at this check's rate. It applies to surface-line, "
+        "drill-string and annular friction only (not to the bit or the fixed tool drops) and "
+        "holds for this rate, mud and well state. Every other number in this report is "
+        "uncalibrated (m = 1).",
+        "bf_text",
+    )
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=11)
+    ws.row_dimensions[row].height = 38
+    row += 1
+    row = table_header(
+        ws, row, 1, ["quantity", "boreflow", "live check", "agree?", "unit", "formula in words"]
+    )
+    pu = U("pressure", system)
+    cells = {}
+    for key, name, v in (
+        ("meas", "measured standpipe pressure", cal.measured_spp),
+        ("fixed", "fixed part: bit + fixed tool drops + back-pressure", cal.fixed_loss),
+        ("fric", "frictional part: surface lines + string + annulus", cal.frictional_loss),
+    ):
+        put(ws, row, 1, name)
+        put_number(ws, row, 2, _o(v, "pressure", system), number_format("pressure", system))
+        put(ws, row, 5, pu, "bf_unit")
+        cells[key] = cell_ref(ws, row, 2)
+        row += 1
+    m = scalar(cal.multiplier)
+    _checked_row(
+        ws,
+        row,
+        "friction multiplier m (calibration)",
+        m,
+        f"({cells['meas']}-{cells['fixed']})/{cells['fric']}",
+        "dimensionless",
+        system,
+        "m = (measured − fixed) / frictional",
+    )
+    row += 1
+    c = cal.calibrated
+    for name, v, kind in (
+        ("standpipe pressure with m", scalar(c.standpipe_pressure), "pressure"),
+        ("ECD at the bit with m", scalar(c.ecd_bit), "density"),
+    ):
+        put(ws, row, 1, name)
+        put_number(ws, row, 2, _o(v, kind, system), number_format(kind, system))
+        put(ws, row, 5, U(kind, system), "bf_unit")
+        row += 1
+    return row + 1
 
 
 # ------------------------------------------------------------------------------ ECD
@@ -242,8 +349,8 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
 def write_ecd(wb, results, factors: Factors, title: str):
     case, res, system = results.case, results.circulation, results.case.system
     ws = wb.create_sheet("ECD")
-    set_widths(ws, [34, 12, 12, 9, 10, 11, 11, 11, 11, 11, 11, 3, 10, 10, 10, 10, 10, 10])
-    row = heading(ws, 1, "Equivalent densities and margins", span=11, title=True)
+    set_widths(ws, [34, 12, 12, 10, 11, 11, 11, 11, 11, 11])
+    row = heading(ws, 1, "Equivalent densities and margins", span=10, title=True)
     row += 1
     rho = _input_row(
         ws, row, "mud density (static)", _o(res.density, "density", system), "density", system
@@ -285,6 +392,7 @@ def write_ecd(wb, results, factors: Factors, title: str):
         "pressure",
         system,
         f"ρ·g·TVD ({g_note})",
+        note_end=10,
     )
     row += 1
     bhp_v, _ = _checked_row(
@@ -296,6 +404,7 @@ def write_ecd(wb, results, factors: Factors, title: str):
         "pressure",
         system,
         "hydrostatic + annular friction + back-pressure",
+        note_end=10,
     )
     row += 1
     ecd_v, ecd_f = _checked_row(
@@ -307,6 +416,7 @@ def write_ecd(wb, results, factors: Factors, title: str):
         "density",
         system,
         "ρ + (Δp_ann + p_back)/(g·TVD)",
+        note_end=10,
     )
     row += 1
     refs = {"ecd_bit": (ecd_v, ecd_f), "hydrostatic": (hyd_v, hyd_f), "bhp": bhp_v}
@@ -314,7 +424,13 @@ def write_ecd(wb, results, factors: Factors, title: str):
     pwd_ecd = case.checks[-1].values.get("pwd", {}).get("ecd")
     if pwd_md is not None and pwd_ecd is not None and 0 < pwd_md <= res.bit_md:
         pred = float(res.ecd_at(pwd_md))
-        put(ws, row, 1, f"ECD at the downhole gauge (MD {_o(pwd_md, 'depth', system):,.0f})")
+        put(
+            ws,
+            row,
+            1,
+            f"ECD at the downhole gauge (MD {_o(pwd_md, 'depth', system):,.0f} "
+            f"{U('depth', system)})",
+        )
         put_number(ws, row, 2, _o(pred, "density", system), number_format("density", system))
         put(ws, row, 5, U("density", system), "bf_unit")
         put(
@@ -325,13 +441,14 @@ def write_ecd(wb, results, factors: Factors, title: str):
             f"{_o(pred, 'density', system) - _o(pwd_ecd, 'density', system):+.2f}",
             "bf_note",
         )
+        ws.merge_cells(start_row=row, start_column=6, end_row=row, end_column=10)
         refs["pwd"] = (pred, pwd_ecd, pwd_md)
         row += 1
     row += 1
     # ---- margins
     mt = res.margins
     if mt is not None:
-        row = heading(ws, row, "Margins at the exposed formation and weak points", span=11)
+        row = heading(ws, row, "Margins at the exposed formation and weak points", span=10)
         du, dn = U("depth", system), U("density", system)
         row = table_header(
             ws,
@@ -341,7 +458,6 @@ def write_ecd(wb, results, factors: Factors, title: str):
                 "check point",
                 "MD",
                 "TVD",
-                "",
                 "pore",
                 "fracture",
                 "ESD",
@@ -350,7 +466,7 @@ def write_ecd(wb, results, factors: Factors, title: str):
                 "ECD − pore",
                 "status",
             ],
-            ["", du, du, "", dn, dn, dn, dn, dn, dn, ""],
+            ["", du, du, dn, dn, dn, dn, dn, dn, ""],
         )
         req_f, req_p = mt.margins.fracture, mt.margins.pore
         named = [i for i, nm in enumerate(mt.names) if not str(nm).startswith("MD ")]
@@ -360,7 +476,7 @@ def write_ecd(wb, results, factors: Factors, title: str):
             put(ws, row, 1, str(name))
             put_number(ws, row, 2, _o(vals[0], "depth", system), number_format("depth", system))
             put_number(ws, row, 3, _o(vals[1], "depth", system), number_format("depth", system))
-            for col, arr in ((5, mt.pore), (6, mt.fracture), (7, mt.esd), (8, mt.ecd)):
+            for col, arr in ((4, mt.pore), (5, mt.fracture), (6, mt.esd), (7, mt.ecd)):
                 put_number(
                     ws,
                     row,
@@ -370,7 +486,7 @@ def write_ecd(wb, results, factors: Factors, title: str):
                 )
             fm = float(np.asarray(mt.fracture_margin).reshape(-1)[i])
             pm = float(np.asarray(mt.pore_margin).reshape(-1)[i])
-            for col, v in ((9, fm), (10, pm)):
+            for col, v in ((8, fm), (9, pm)):
                 put_number(
                     ws, row, col, _o(v, "density", system) if np.isfinite(v) else None, "0.00"
                 )
@@ -379,27 +495,43 @@ def write_ecd(wb, results, factors: Factors, title: str):
                 status = "EXCEEDED"
             elif fm < req_f or pm < req_p:
                 status = "NEAR LIMIT"
-            put(ws, row, 11, status)
+            put(ws, row, 10, status)
             row += 1
         t = mt.tightest
-        put(
+        row = note_row(
             ws,
             row,
-            1,
             f"Tightest point: {t.name} (MD {_o(t.md, 'depth', system):,.0f} "
             f"{du}), {t.limit} margin {_o(t.margin, 'density', system):.2f} {dn} against "
-            f"{_o(t.required, 'density', system):.2f} {dn} required.",
-            "bf_note",
+            f"{_o(t.required, 'density', system):.2f} {dn} required. Margins: fracture − ECD "
+            "and ECD − pore; status NEAR LIMIT below the required margin.",
+            span=10,
         )
         refs["tightest"] = t
-        row += 2
-    # ---- profile and chart
+        row += 1
+    # ---- chart (printed) and its data (below, outside the print range)
     prof = results.profile
-    col0 = 13
-    put(ws, 3, col0, "Profile along the annulus", "bf_section")
     du, dn = U("depth", system), U("density", system)
+    chart_row = row + 1
+    chart_rows = 28  # the 14-cm chart
+    data_row = chart_row + chart_rows + 2
+    put(
+        ws,
+        data_row - 1,
+        1,
+        f"Chart data: the profile along the annulus every "
+        f"{_o(results.profile_step, 'depth', system):,.0f} {du} (rows below; not printed).",
+        "bf_note",
+    )
+    ws.merge_cells(start_row=data_row - 1, start_column=1, end_row=data_row - 1, end_column=10)
+    put(ws, data_row, 1, "Profile along the annulus", "bf_section")
+    col0 = 1
     r0 = table_header(
-        ws, 4, col0, ["MD", "TVD", "ESD", "ECD", "pore", "fracture"], [du, du, dn, dn, dn, dn]
+        ws,
+        data_row + 1,
+        col0,
+        ["MD", "TVD", "ESD", "ECD", "pore", "fracture"],
+        [du, du, dn, dn, dn, dn],
     )
     n = len(prof.md)
     for i in range(n):
@@ -435,20 +567,36 @@ def write_ecd(wb, results, factors: Factors, title: str):
         )
         if 0 < x < 1e9
     ]
-    lo, hi = min(allv), max(allv)
-    pad = 0.05 * (hi - lo)
+    lo, hi, step = _nice_axis(min(allv), max(allv))
     ch = depth_profile(
         (ws, col0 + 1, r0, r1),
         curves,
         density_unit=dn,
         depth_unit=du,
-        x_limits=(round(lo - pad, 1), round(hi + pad, 1)),
+        x_limits=(lo, hi),
         title="ESD, ECD, pore and fracture EMW",
     )
-    ws.add_chart(ch, f"A{row + 1}")
+    ch.x_axis.majorUnit = step
+    ch.width = 24.0
+    ws.add_chart(ch, f"A{chart_row}")
+    ws.row_breaks.append(Break(id=chart_row - 1))
     refs["profile_rows"] = (r0, r1)
+    refs["profile_head"] = data_row + 1
     setup_print(ws, title)
+    ws.print_area = f"A1:J{data_row - 2}"
     return refs
+
+
+def _nice_axis(lo: float, hi: float, ticks: int = 8) -> tuple[float, float, float]:
+    """Axis limits on round steps (1, 2, 2.5 or 5 × 10^k) around [lo, hi].
+
+    >>> _nice_axis(8.6, 15.2)
+    (8.0, 16.0, 1.0)
+    """
+    raw = max(hi - lo, 1e-9) / ticks
+    mag = 10.0 ** np.floor(np.log10(raw))
+    step = float(next(m * mag for m in (1.0, 2.0, 2.5, 5.0, 10.0) if m * mag >= raw))
+    return float(np.floor(lo / step) * step), float(np.ceil(hi / step) * step), step
 
 
 # ------------------------------------------------------------------------------ bit
@@ -458,7 +606,7 @@ def write_bit(wb, results, factors: Factors, title: str):
     case, res, system = results.case, results.circulation, results.case.system
     bit, bh = case.bit, res.bit
     ws = wb.create_sheet("Bit")
-    set_widths(ws, [36, 13, 13, 9, 12, 50])
+    set_widths(ws, [36, 13, 13, 9, 12, 9, 9, 9, 9, 9, 9])
     row = heading(ws, 1, f"Bit hydraulics: {bit.name}", span=6, title=True)
     row += 1
     q = _input_row(ws, row, "flow rate", _o(res.q, "flow_rate", system), "flow_rate", system)
@@ -476,7 +624,7 @@ def write_bit(wb, results, factors: Factors, title: str):
         "0.00",
     )
     row += 4
-    put(ws, row, 1, "nozzles")
+    put(ws, row, 1, "nozzle sizes (one cell each)")
     nozzles = bit.nozzles or ()
     for j, nz in enumerate(nozzles):
         put_number(ws, row, 2 + j, nz, "0", "bf_input")
@@ -493,8 +641,9 @@ def write_bit(wb, results, factors: Factors, title: str):
     fd, fv = factors.unit("diameter"), factors.unit("jet_velocity")
     fw, fpd, ff = factors.unit("power"), factors.unit("power_density"), factors.unit("force")
     row = table_header(
-        ws, row, 1, ["quantity", "boreflow", "live check", "agree?", "unit", "formula"]
+        ws, row, 1, ["quantity", "boreflow", "live check", "agree?", "unit", "formula in words"]
     )
+    ws.merge_cells(start_row=row - 1, start_column=6, end_row=row - 1, end_column=11)
     refs = {}
     if nozzles:
         tfa_v, _ = _checked_row(
@@ -572,7 +721,7 @@ def write_bit(wb, results, factors: Factors, title: str):
     put_number(ws, row, 2, 100 * sv(res.bit_share), "0.0")
     put(ws, row, 5, "%", "bf_unit")
     row += 2
-    put(ws, row, 1, f"Method: {bh.method}.", "bf_note")
+    note_row(ws, row, f"Method: {bh.method}.", span=11)
     refs.update(dp=(dp_v, dp_f), hsi=(hsi_v, hsi_f))
-    setup_print(ws, title, landscape=False)
+    setup_print(ws, title)
     return refs

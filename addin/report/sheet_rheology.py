@@ -3,11 +3,13 @@
 from __future__ import annotations
 
 import numpy as np
+from openpyxl.utils import get_column_letter
 
 from addin.report.audit import Factors, cell_ref, write_checked
 from addin.report.charts import rheogram
 from addin.report.style import (
     heading,
+    note_row,
     number_format,
     put,
     put_number,
@@ -28,6 +30,14 @@ _MODEL_CURVES = (
     "api13d_1995_pipe",
 )
 _CURVE_RATES = np.geomspace(1.0, 1100.0, 45)
+#: Legend names of the model curves (the registry name stays on the fits table).
+_CURVE_LABELS = {
+    "api13d_2010_hb": "Herschel-Bulkley (API RP 13D 2010)",
+    "hb_least_squares": "Herschel-Bulkley (least squares)",
+    "bingham_least_squares": "Bingham (least squares)",
+    "power_law_least_squares": "power law (least squares)",
+    "api13d_1995_pipe": "power law (API RP 13D 1995, pipe)",
+}
 
 
 def _out(v, kind, system):
@@ -44,17 +54,17 @@ def write_rheology(wb, results, factors: Factors, title: str):
     """Add the sheet; return {"refs": {...}} with cells other sheets may cite."""
     system = results.case.system
     ws = wb.create_sheet("Rheology")
-    set_widths(ws, [26, 12, 11, 11, 9, 11, 11, 9, 11, 48, 9, 16, 3, 11, 15, 15, 15, 15, 15, 15])
+    set_widths(ws, [28, 14, 11, 11, 9, 11, 11, 9, 11, 44])
     row = heading(
         ws,
         1,
         "Rheology: viscometer readings, field properties and fitted models",
-        span=12,
+        span=10,
         title=True,
     )
     checks = results.checks
     # ---------------------------------------------------------------- readings
-    row = heading(ws, row + 1, "Viscometer readings (standard rotor–bob–spring)", span=12)
+    row = heading(ws, row + 1, "Viscometer readings (standard rotor–bob–spring)", span=10)
     speeds = sorted({float(s) for c in checks for s in c.readings.speeds}, reverse=True)
     su = U("stress", system)
     heads = ["speed", "shear rate"]
@@ -85,17 +95,16 @@ def write_rheology(wb, results, factors: Factors, title: str):
                 dial_cells[j][s] = cell_ref(ws, row, col, absolute=True)
         row += 1
     read_rows = (first, row - 1)
-    put(
+    row = note_row(
         ws,
         row,
-        1,
         "Stress = dial × instrument constant (k₁k₂, standard spring), shear rate = "
         "rpm × Couette factor of the standard geometry (calc.rheology.viscometer).",
-        "bf_note",
+        span=2 + 2 * len(checks),
     )
-    row += 2
+    row += 1
     # ---------------------------------------------------------------- properties with checks
-    row = heading(ws, row, "Field properties (API RP 13B-1 definitions) with live checks", span=12)
+    row = heading(ws, row, "Field properties (API RP 13B-1 definitions) with live checks", span=10)
     heads = ["property", "unit"]
     units = ["", ""]
     for c in checks:
@@ -164,7 +173,7 @@ def write_rheology(wb, results, factors: Factors, title: str):
         row += 1
     row += 1
     # ---------------------------------------------------------------- fits
-    row = heading(ws, row, "Fitted models (every method; quality over all readings)", span=12)
+    row = heading(ws, row, "Fitted models (every method; quality over all readings)", span=10)
     heads = [
         "check / method",
         "model",
@@ -195,16 +204,17 @@ def write_rheology(wb, results, factors: Factors, title: str):
             lo, hi = fr.shear_rate_range
             put(ws, row, 9, f"{lo:,.0f} – {hi:,.0f}")
             put(ws, row, 10, fr.source, "bf_note")
+            if len(fr.source) > 60:
+                ws.row_dimensions[row].height = 22
             row += 1
-    put(
+    row = note_row(
         ws,
         row,
-        1,
         "τy, K, n: Herschel-Bulkley form τ = τy + K·γ̇ⁿ (Bingham: n = 1, K = μp; "
         "power law: τy = 0). RMSE in stress over all readings; rank by standard error.",
-        "bf_note",
+        span=10,
     )
-    row += 2
+    row += 1
     # ---------------------------------------------------------------- change
     last = checks[-1]
     if last.comparison is not None:
@@ -213,7 +223,7 @@ def write_rheology(wb, results, factors: Factors, title: str):
             ws,
             row,
             f"Change since the previous check ({cmp_.label_a} → {cmp_.label_b}, {cmp_.method})",
-            span=12,
+            span=10,
         )
         row = table_header(
             ws,
@@ -230,21 +240,38 @@ def write_rheology(wb, results, factors: Factors, title: str):
             put_number(ws, row, 5, 100 * ch.relative, "0.0")
             put(ws, row, 6, "YES" if ch.flagged else "no")
             row += 1
-        put(
+        row = note_row(
             ws,
             row,
-            1,
             f"Largest difference between the fitted curves: "
             f"{_out(cmp_.max_curve_difference, 'stress', system):.2f} {su} at "
             f"{cmp_.max_difference_at:,.0f} 1/s.",
-            "bf_note",
+            span=6,
         )
-        row += 2
-    # ---------------------------------------------------------------- rheogram data and chart
-    col0 = 14
-    put(ws, 27, col0, "Rheogram data (latest check's models)", "bf_section")
-    heads = ["shear rate"] + [m for m in _MODEL_CURVES if _has(last.fits, m)]
-    row_d = table_header(ws, 28, col0, heads, ["1/s"] + [su] * (len(heads) - 1))
+        row += 1
+    # ---------------------------------------------------------------- chart, then its data
+    chart_row = row
+    chart_rows = 20  # the 9.5-cm chart
+    data_row = chart_row + chart_rows + 2
+    put(
+        ws,
+        data_row - 1,
+        1,
+        "Chart data: the fitted curves of the latest check (rows below; not printed).",
+        "bf_note",
+    )
+    ws.merge_cells(start_row=data_row - 1, start_column=1, end_row=data_row - 1, end_column=10)
+    col0 = 1
+    put(ws, data_row, col0, "Rheogram data (latest check's models)", "bf_section")
+    shown = [m for m in _MODEL_CURVES if _has(last.fits, m)]
+    heads = ["shear rate", *shown]
+    row_d = table_header(
+        ws,
+        data_row + 1,
+        col0,
+        ["shear rate"] + [_CURVE_LABELS.get(m, m) for m in shown],
+        ["1/s"] + [su] * len(shown),
+    )
     for i, g in enumerate(_CURVE_RATES):
         put_number(ws, row_d + i, col0, g, "#,##0.0")
         for j, m in enumerate(heads[1:]):
@@ -253,7 +280,7 @@ def write_rheology(wb, results, factors: Factors, title: str):
                 ws, row_d + i, col0 + 1 + j, _out(float(model.stress(g)), "stress", system), "0.00"
             )
     r1 = row_d + len(_CURVE_RATES) - 1
-    models = [(m, (ws, col0 + 1 + j, row_d, r1)) for j, m in enumerate(heads[1:])]
+    models = [(_CURVE_LABELS.get(m, m), (ws, col0 + 1 + j, row_d, r1)) for j, m in enumerate(shown)]
     readings = [
         (f"{c.label} readings", (ws, 4 + 2 * j, read_rows[0], read_rows[1]))
         for j, c in enumerate(checks)
@@ -265,8 +292,11 @@ def write_rheology(wb, results, factors: Factors, title: str):
         stress_unit=su,
         title=f"Rheogram, {last.label} (log–log)",
     )
-    ws.add_chart(ch, "N3")
+    ch.width = 22.0
+    ws.add_chart(ch, f"A{chart_row}")
     setup_print(ws, title)
+    last_col = max(10, 3 + 3 * len(checks))
+    ws.print_area = f"A1:{get_column_letter(last_col)}{data_row - 2}"
     return {"refs": refs, "next_row": row}
 
 

@@ -8,6 +8,7 @@ from addin.report.audit import AGREE_TOL
 from addin.report.style import (
     PALETTE,
     heading,
+    note_row,
     number_format,
     put,
     put_number,
@@ -64,20 +65,16 @@ def write_cautions(wb, results, title):
     ws.row_dimensions[row].height = 28
     row += 2
     row = heading(ws, row, "Engineering caution", span=4)
-    put(ws, row, 1, cautions.SHORT, "bf_text")
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=4)
-    ws.row_dimensions[row].height = 118
-    row += 2
+    row = note_row(ws, row, cautions.SHORT, span=4, style="bf_text", font_pt=9)
+    row += 1
     for line in cautions.LINES:
         put(ws, row, 1, "•", "bf_text")
-        put(ws, row, 2, line, "bf_text")
-        ws.merge_cells(start_row=row, start_column=2, end_row=row, end_column=4)
-        ws.row_dimensions[row].height = 15 * (1 + len(line) // 120)
-        row += 1
+        row = note_row(ws, row, line, col=2, span=3, style="bf_text", font_pt=9)
     row += 1
     row = heading(
         ws, row, "Notes from this run (inputs interpreted, doubtful values, cautions)", span=4
     )
+    ws.print_title_rows = f"{row}:{row}"
     row = table_header(ws, row, 1, ["level", "code", "about", "message"])
     order = {"caution": 0, "warning": 1, "info": 2}
     for n in sorted(results.notes, key=lambda n: order.get(n.level, 3)):
@@ -85,13 +82,14 @@ def write_cautions(wb, results, title):
         if n.level == "caution":
             ws.cell(row=row, column=1).font = Font(bold=True, color=PALETTE["bad"], size=9)
         put(ws, row, 2, n.code, "bf_cell")
-        put(ws, row, 3, n.subject, "bf_cell")
+        put(ws, row, 3, n.subject, "bf_text")
         put(ws, row, 4, n.message, "bf_text")
-        ws.row_dimensions[row].height = 13 * (1 + len(n.message) // 110)
+        lines = max(1 + len(n.message) // 110, 1 + len(n.subject) // 44)
+        ws.row_dimensions[row].height = 12.0 * lines
         row += 1
     if not results.notes:
         put(ws, row, 1, "(none)", "bf_note")
-    setup_print(ws, title, landscape=False)
+    setup_print(ws, title)
     return ws
 
 
@@ -128,7 +126,7 @@ def write_audit(ws, results, factors, title):
     ws.merge_cells(start_row=9, start_column=1, end_row=9, end_column=4)
     ws.row_dimensions[9].height = 40
     table_header(ws, 11, 1, ["factor", "value", "meaning", "source"])
-    setup_print(ws, title, landscape=False)
+    setup_print(ws, title)
     return ws
 
 
@@ -156,11 +154,11 @@ def write_summary(ws, results, refs, title):
     system = case.system
     res = results.circulation
     chk = case.checks[-1]
-    set_widths(ws, [42, 13, 13, 9, 11, 13, 13, 13, 14])
-    row = heading(ws, 1, f"Daily hydraulics report: {title}", span=9, title=True)
+    set_widths(ws, [42, 12, 12, 9, 11, 12, 12, 12, 12, 10, 10, 11])
+    row = heading(ws, 1, f"Daily hydraulics report: {title}", span=12, title=True)
     c = put(ws, row, 1, cautions.CELL, "bf_note")
     c.font = Font(name="Arial", size=8, italic=True, color=PALETTE["bad"])
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=9)
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=12)
     row += 2
     # ---- header block (two label/value column pairs)
     m = case.meta
@@ -205,10 +203,10 @@ def write_summary(ws, results, refs, title):
         ws.merge_cells(start_row=row + i, start_column=2, end_row=row + i, end_column=5)
         put(ws, row + i, 6, rk, "bf_note")
         put(ws, row + i, 7, str(rv), "bf_cell")
-        ws.merge_cells(start_row=row + i, start_column=7, end_row=row + i, end_column=9)
+        ws.merge_cells(start_row=row + i, start_column=7, end_row=row + i, end_column=12)
     row += len(left) + 1
     # ---- key results
-    row = heading(ws, row, "Key results against limits", span=9)
+    row = heading(ws, row, "Key results against limits", span=12)
     row = table_header(
         ws,
         row,
@@ -258,7 +256,9 @@ def write_summary(ws, results, refs, title):
         _status(ws, row, 9, item.get("status", ""))
         row += 1
     row += 1
-    row = heading(ws, row, "Run", span=9)
+    if len(results.trend) > 1:
+        row = _trend_table(ws, row, results, system) + 1
+    row = heading(ws, row, "Run", span=12)
     for k, v in (
         ("boreflow version", results.version),
         ("run time", results.run_time),
@@ -267,7 +267,7 @@ def write_summary(ws, results, refs, title):
     ):
         put(ws, row, 1, k, "bf_note")
         put(ws, row, 2, str(v), "bf_cell")
-        ws.merge_cells(start_row=row, start_column=2, end_row=row, end_column=9)
+        ws.merge_cells(start_row=row, start_column=2, end_row=row, end_column=12)
         row += 1
     put(
         ws,
@@ -277,10 +277,70 @@ def write_summary(ws, results, refs, title):
         "units follow the case (" + system + ").",
         "bf_note",
     )
-    ws.merge_cells(start_row=row + 1, start_column=1, end_row=row + 1, end_column=9)
+    ws.merge_cells(start_row=row + 1, start_column=1, end_row=row + 1, end_column=12)
     setup_print(ws, title, fit_height=1)
     ws.freeze_panes = None
     return ws
+
+
+def _trend_table(ws, row, results, system) -> int:
+    """One row per mud check (oldest first): its own bit depth, rate and density."""
+    row = heading(ws, row, "Trend: every mud check at its own bit depth, rate and density", span=12)
+    pu, du, dn = U("pressure", system), U("depth", system), U("density", system)
+    row = table_header(
+        ws,
+        row,
+        1,
+        ["check", "bit MD", "density", "PV", "YP", "SPP model", "SPP measured", "deviation",
+         "ECD model at PWD", "ECD PWD", "gap", "tightest margin"],
+        ["", du, dn, U("viscosity", system), U("stress", system), pu, pu,
+         "% of measured", dn, dn, "model − PWD", dn],
+    )  # fmt: skip
+    for t in results.trend:
+        put(ws, row, 1, t.label, "bf_cell")
+        if t.circulation is None:
+            put(ws, row, 2, "not computed: missing " + ", ".join(t.missing), "bf_note")
+            ws.merge_cells(start_row=row, start_column=2, end_row=row, end_column=12)
+            row += 1
+            continue
+        vals = [
+            (2, out(t.bit_md, "depth", system), number_format("depth", system)),
+            (3, out(t.density, "density", system), number_format("density", system)),
+            (4, out(t.pv, "viscosity", system), number_format("viscosity", system)),
+            (5, out(t.yp, "stress", system), number_format("stress", system)),
+            (6, out(t.spp, "pressure", system), number_format("pressure", system)),
+            (7, out(t.measured_spp, "pressure", system), number_format("pressure", system)),
+            (8, t.spp_deviation_percent, "+0.0;-0.0;0.0"),
+            (9, out(t.model_ecd_at_pwd, "density", system), number_format("density", system)),
+            (10, out(t.pwd_ecd, "density", system), number_format("density", system)),
+        ]
+        if t.model_ecd_at_pwd is not None and t.pwd_ecd is not None:
+            gap = out(t.model_ecd_at_pwd, "density", system) - out(t.pwd_ecd, "density", system)
+            vals.append((11, gap, "+0.00;-0.00;0.00"))
+        tight = t.tightest
+        if tight is not None:
+            m = out(float(tight.margin), "density", system) - out(0.0, "density", system)
+            vals.append((12, m, number_format("density", system)))
+        for col, v, fmt in vals:
+            if v is None:
+                put(ws, row, col, "–", "bf_cell")
+            else:
+                put_number(ws, row, col, v, fmt)
+        row += 1
+    where = [
+        f"{t.label}: {t.tightest.name} ({t.tightest.limit})"
+        for t in results.trend
+        if t.tightest is not None
+    ]
+    text = (
+        "Each check is computed at its own bit depth, flow rate, density and rheology with the "
+        "same method; deviation = (model − measured)/measured. Tightest margin to the "
+        "fracture/pore limit at: " + "; ".join(where) + "."
+    )
+    put(ws, row, 1, text, "bf_note")
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=12)
+    ws.row_dimensions[row].height = 24
+    return row + 1
 
 
 def results_rows(results, refs):

@@ -19,6 +19,7 @@ __all__ = [
     "PALETTE",
     "add_styles",
     "heading",
+    "note_row",
     "number_format",
     "put",
     "put_number",
@@ -262,3 +263,22 @@ def setup_print(ws, title: str, *, landscape=True, fit_height: int = 0) -> None:
     ws.oddFooter.left.size = 7
     ws.oddFooter.right.text = "page &P of &N"
     ws.oddFooter.right.size = 7
+
+
+def note_row(
+    ws, row: int, text: str, *, col: int = 1, span: int = 8, style="bf_note", font_pt=8
+) -> int:
+    """A note merged across ``span`` columns, its row tall enough for the wrapped text;
+    returns the next row."""
+    from math import ceil
+
+    put(ws, row, col, text, style)
+    if span > 1:
+        ws.merge_cells(start_row=row, start_column=col, end_row=row, end_column=col + span - 1)
+    width = sum(
+        (ws.column_dimensions[get_column_letter(c)].width or 9.0) for c in range(col, col + span)
+    )
+    per_line = max(20.0, 1.35 * width * 8 / font_pt)  # characters per line at this font size
+    lines = max(1, ceil(len(text) / per_line))
+    ws.row_dimensions[row].height = max(12.0, 1.35 * font_pt * lines + 2)
+    return row + 1

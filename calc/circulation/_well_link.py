@@ -9,8 +9,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from calc.circulation.fluid import FLUID_FITS
+from calc.units import from_si, unit_for
 from calc.units import label as unit_label
-from calc.units import unit_for
 
 __all__ = ["WellParts", "parts"]
 
@@ -41,19 +41,35 @@ class WellParts:
     shoe_test: float | None
 
 
-def _row_names(iv, path: str) -> tuple[str, ...]:
+def depth_span(top: float, bottom: float, system: str = "oilfield") -> str:
+    """'MD 6,000-8,200 ft' (oilfield) / 'MD 1828.8-2499.4 m' (metric, si): an MD range [m]
+    in the unit system's depth unit.
+
+    >>> depth_span(1828.8, 2499.36)
+    'MD 6,000-8,200 ft'
+    >>> depth_span(1828.8, 2499.36, "metric")
+    'MD 1,828.8-2,499.4 m'
+    """
+    u = unit_for("depth", system)
+    a, b = (float(from_si(float(x), u)) for x in (top, bottom))
+    digits = 0 if u == "ft" else 1
+    return f"MD {a:,.{digits}f}-{b:,.{digits}f} {unit_label(u)}"
+
+
+def _row_names(iv, path: str, system: str = "oilfield") -> tuple[str, ...]:
     out = []
     for comp, sec, tj, top, bot in zip(
         iv.component, iv.section, iv.is_tool_joint, iv.top_md, iv.bottom_md, strict=True
     ):
         part = f"{comp} tool joints" if tj else str(comp)
         where = f"{part} in {sec}" if path == "annulus" else part
-        out.append(f"{where}, MD {top:.1f}-{bot:.1f} m")
+        out.append(f"{where}, {depth_span(top, bot, system)}")
     return tuple(out)
 
 
-def parts(well) -> WellParts:
-    """Surface lines, string and annulus rows, tools, bit depth and the exposed-hole top."""
+def parts(well, system: str = "oilfield") -> WellParts:
+    """Surface lines, string and annulus rows, tools, bit depth and the exposed-hole top;
+    interval names carry their MD range in ``system``'s depth unit."""
     iv = well.flow_intervals()
     s = iv.select("string")
     a = iv.select("annulus")
@@ -70,13 +86,13 @@ def parts(well) -> WellParts:
         line_names=tuple(x.name for x in lines),
         line_d=np.array([x.id for x in lines], dtype=float),
         line_len=np.array([x.length for x in lines], dtype=float),
-        string_names=_row_names(s, "string"),
+        string_names=_row_names(s, "string", system),
         string_components=tuple(str(x) for x in s.component),
         string_d=np.asarray(s.outer_diameter, dtype=float),
         string_len=np.asarray(s.length, dtype=float),
         tools=tools,
         tool_names=tuple(t.name for t in tools),
-        ann_names=_row_names(a, "annulus"),
+        ann_names=_row_names(a, "annulus", system),
         ann_components=tuple(f"{c} in {h}" for c, h in zip(a.component, a.section, strict=True)),
         ann_hole=np.asarray(a.outer_diameter, dtype=float),
         ann_pipe=np.asarray(a.inner_diameter, dtype=float),

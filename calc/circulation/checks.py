@@ -10,18 +10,25 @@ from calc.errors import Note
 __all__: list[str] = []
 
 
-def _sweep_text(mask, q_flat):
-    """'at all rates' / 'at 12 of 10000 sweep points (q 0.020-0.025 m³/s)'."""
+def _sweep_text(mask, q_flat, fmt=None):
+    """'at all rates' / 'at 12 of 10000 sweep points (q 0.020-0.025 m³/s)'.
+
+    ``fmt(value_si, kind)`` formats the rates in the user's units (SI m³/s without it).
+    """
     n = int(mask.sum())
     if mask.size == 1:
         return ""
     if n == mask.size:
         return " at every sweep point"
     qs = q_flat[mask]
-    return f" at {n} of {mask.size} sweep points (q {qs.min():.4g}-{qs.max():.4g} m³/s)"
+    if fmt is None:
+        span = f"{qs.min():.4g}-{qs.max():.4g} m³/s"
+    else:
+        span = f"{fmt(qs.min(), 'flow_rate')} to {fmt(qs.max(), 'flow_rate')}"
+    return f" at {n} of {mask.size} sweep points (q {span})"
 
 
-def _interval_note(level, code, what, consequence, mask, names, q_flat):
+def _interval_note(level, code, what, consequence, mask, names, q_flat, fmt=None):
     """One note for all intervals flagged by ``mask`` (N sweep points × I intervals)."""
     hit = mask.any(axis=0)
     if not np.any(hit):
@@ -33,7 +40,7 @@ def _interval_note(level, code, what, consequence, mask, names, q_flat):
     return Note(
         level,
         code,
-        f"{what}{count}{_sweep_text(mask.any(axis=1), q_flat)}: {consequence}",
+        f"{what}{count}{_sweep_text(mask.any(axis=1), q_flat, fmt)}: {consequence}",
         where,
     )
 
@@ -128,7 +135,7 @@ def _margin_notes(table: MarginTable, margins: Margins, qf, notes, fmt):
                     "caution",
                     "ecd_near_fracture",
                     f"ECD within {fmt(margins.fracture, 'density')} of the fracture EMW "
-                    f"({fmt(table.fracture[j], 'density')}){_sweep_text(near_f, qf)}",
+                    f"({fmt(table.fracture[j], 'density')}){_sweep_text(near_f, qf, fmt)}",
                     name,
                 )
             )
@@ -139,7 +146,7 @@ def _margin_notes(table: MarginTable, margins: Margins, qf, notes, fmt):
                     "caution",
                     "ecd_near_pore",
                     f"ECD below the pore EMW ({fmt(table.pore[j], 'density')}) plus the margin "
-                    f"{fmt(margins.pore, 'density')}{_sweep_text(low_p, qf)}",
+                    f"{fmt(margins.pore, 'density')}{_sweep_text(low_p, qf, fmt)}",
                     name,
                 )
             )
@@ -150,7 +157,7 @@ def _margin_notes(table: MarginTable, margins: Margins, qf, notes, fmt):
                     "warning",
                     "static_below_pore",
                     f"static mud weight below the pore EMW ({fmt(table.pore[j], 'density')})"
-                    f"{_sweep_text(static_low, qf)}. This tool does not assess well control; "
+                    f"{_sweep_text(static_low, qf, fmt)}. This tool does not assess well control; "
                     "follow your procedures.",
                     name,
                 )

@@ -48,7 +48,6 @@ def circulate(
     surface_rating: float | None = None,
     margin_step: float = MARGIN_STEP,
     message_units: str = "oilfield",
-    covered_by_tool_drops=(),
 ) -> CirculationResult:
     """Pressure losses around the circulating system, ECD and margins, for one rate or a sweep.
 
@@ -92,14 +91,11 @@ def circulate(
         Required margins to fracture and pore (default 0 and 0).
     surface_rating : float, optional
         Surface-system pressure rating [Pa]; a note is given where the SPP exceeds it.
-    covered_by_tool_drops : sequence of str
-        Names of string components whose bore friction the fixed tool drops already include
-        (a supplier's figure for an MWD or motor usually covers the tool's whole internal
-        loss); their string-interval friction is then not added (a note says so).
     margin_step : float
         Spacing of the margin check points from the last shoe to the bit [m].
     message_units : str
-        Unit system used in note messages ("oilfield", "metric", "si").
+        Unit system of the depths in interval names and of the values in note messages
+        ("oilfield", "metric", "si").
 
     Returns
     -------
@@ -111,8 +107,11 @@ def circulate(
     whole system.  Pore and fracture limits are checked over the exposed formation only: from
     the deepest casing/liner shoe to the bit, on the well's depth grid (every ``margin_step``
     plus all interval boundaries), at the pressure-window stations, the shoe, the bit and the
-    weak points above the bit.  The fixed tool drops are added to the bore friction of the tool
-    intervals unless those components are listed in ``covered_by_tool_drops``.
+    weak points above the bit.  A fixed tool drop whose ``components`` name string components
+    (:class:`calc.geometry.ToolPressureDrop`: the supplier's figure includes their bore loss)
+    replaces their bore friction: those string intervals carry zero loss in ``string_losses``
+    (listed in ``CirculationResult.tool_covered``, with an info note); otherwise the drop is
+    added on top of the bore friction.
 
     References
     ----------
@@ -164,7 +163,7 @@ def circulate(
         return f"{txt} {wl.label(u)}"
 
     # ---------------------------------------------------------------- the well
-    parts = wl.parts(well)
+    parts = wl.parts(well, message_units)
     pipe_args = fluid.pipe_parameters
     ann_args = fluid.annulus_parameters
 
@@ -180,28 +179,16 @@ def circulate(
     # drill string
     pflow = wl.pipe(Q, parts.string_d[None, :], R, pipe_args, method)
     p_losses = pflow.gradient * parts.string_len[None, :] * M
-    covered = tuple(covered_by_tool_drops)
+    covered = tuple(getattr(well, "tool_covered", ()))
     if covered:
-        known = set(parts.string_components)
-        for name in covered:
-            if name not in known:
-                raise InputError(
-                    "component covered by the tool drops",
-                    name,
-                    "a string component name: " + ", ".join(dict.fromkeys(parts.string_components)),
-                )
-        if not parts.tools:
-            raise InputError(
-                "covered_by_tool_drops", covered, "empty when the well has no fixed tool drops"
-            )
         skip = np.array([c in covered for c in parts.string_components])
         p_losses = np.where(skip[None, :], 0.0, p_losses)
         notes.append(
             Note(
                 "info",
                 "bore_covered_by_tool_drop",
-                "bore friction not added for " + ", ".join(covered) + ": the fixed tool drop "
-                "includes it",
+                "bore friction not added for " + ", ".join(covered) + ": the supplier's fixed "
+                "tool drop includes it",
                 "; ".join(parts.tool_names),
             )
         )
@@ -252,6 +239,7 @@ def circulate(
             trans,
             names,
             qf,
+            fmt,
         )
         if note is not None:
             notes.append(note)
@@ -264,6 +252,7 @@ def circulate(
         below,
         parts.ann_components,
         qf,
+        fmt,
     )
     if note is not None:
         notes.append(note)
@@ -275,8 +264,8 @@ def circulate(
                     "warning",
                     "spp_above_rating",
                     "standpipe pressure above the surface rating "
-                    f"({fmt(surface_rating, 'pressure')}){_sweep_text(over, qf)}: this rate is "
-                    "not achievable",
+                    f"({fmt(surface_rating, 'pressure')}){_sweep_text(over, qf, fmt)}: "
+                    "this rate is not achievable",
                     "standpipe",
                 )
             )
@@ -302,6 +291,7 @@ def circulate(
         string_loss=shaped(p_loss),
         string_flow=_reshape_flow(pflow, shape),
         tool_names=parts.tool_names,
+        tool_covered=covered,
         tool_losses=shaped(t_losses),
         tool_loss=shaped(t_loss),
         bit=wl.reshape_bit(bit, shape),

@@ -62,6 +62,9 @@ class CirculationResult:
         Each string interval (bit up), the sum and the per-interval ``FlowResult``.
     tool_names, tool_losses, tool_loss
         Fixed tool drops ∝ ρQ² and their sum.
+    tool_covered : tuple of str
+        String components whose bore loss the fixed tool drops include
+        (:attr:`calc.geometry.Well.tool_covered`); their rows of ``string_losses`` are zero.
     bit : BitHydraulics
         Bit result of :mod:`calc.bit`; ``bit_loss`` its pressure drop.
     annulus_names, annulus_losses, annulus_loss, annulus_flow
@@ -95,6 +98,7 @@ class CirculationResult:
     string_loss: object
     string_flow: object
     tool_names: tuple[str, ...]
+    tool_covered: tuple[str, ...]
     tool_losses: object
     tool_loss: object
     bit: object

@@ -57,12 +57,26 @@ class ToolPressureDrop:
     flow_window : (float, float), optional
         Supplier's allowed flow-rate range [m³/s]; rates outside it get a warning note.
     name : str
+    components : sequence of str
+        Names of the drill-string components whose bore loss the supplier's figure already
+        includes (a supplier's drop for an MWD, RSS or motor usually covers the tool's whole
+        internal loss).  :func:`calc.circulation.circulate` then adds no bore friction for
+        them; :class:`calc.geometry.Well` checks the names against its string.  Empty (the
+        default): the figure is taken as an extra loss on top of the bore friction.
+
+    Notes
+    -----
+    Which bore losses a supplier's figure covers is the user's statement from the supplier's
+    sheet; getting it wrong double-counts (or omits) the tools' bore friction in the standpipe
+    pressure.  It does not change the annulus, so ECD is unaffected.
 
     Examples
     --------
     >>> t = ToolPressureDrop(2.0e6, 1300.0, 0.03)
     >>> round(t.pressure_drop(0.06, 1300.0) / 1e6, 6)
     8.0
+    >>> ToolPressureDrop(2.0e6, 1300.0, 0.03, components=["MWD"]).components
+    ('MWD',)
     """
 
     reference_drop: float
@@ -70,6 +84,7 @@ class ToolPressureDrop:
     reference_rate: float
     flow_window: tuple[float, float] | None = None
     name: str = "downhole tools"
+    components: tuple[str, ...] = ()
     method: str = field(default="supplier sheet scaled ∝ ρQ² (common practice)", init=False)
 
     def __post_init__(self):
@@ -86,6 +101,19 @@ class ToolPressureDrop:
             if not lo < hi:
                 raise InputError(f"flow window of '{w}'", (lo, hi), "(low, high) with low < high")
             object.__setattr__(self, "flow_window", (lo, hi))
+        comps = (self.components,) if isinstance(self.components, str) else self.components
+        try:
+            comps = tuple(comps)
+        except TypeError as exc:
+            raise InputError(
+                f"components of '{w}'", comps, "a list of string-component names"
+            ) from exc
+        for c in comps:
+            if not isinstance(c, str) or not c.strip():
+                raise InputError(f"components of '{w}'", c, "string-component names (text)")
+        if len(set(comps)) != len(comps):
+            raise InputError(f"components of '{w}'", comps, "each component named once")
+        object.__setattr__(self, "components", comps)
 
     def pressure_drop(self, q, density):
         """Pressure drop [Pa] at flow rate(s) ``q`` [m³/s] and density ``density`` [kg/m³]."""

@@ -13,6 +13,7 @@ share f of its length, f = tool-joint length / joint length.  Summing ``length``
 
 from __future__ import annotations
 
+import difflib
 from collections.abc import Sequence
 from dataclasses import dataclass, field, fields
 
@@ -161,6 +162,8 @@ class Well:
     bit : Bit
     surface_lines : sequence of SurfaceLine
     tool_drops : sequence of ToolPressureDrop
+        Fixed drops from suppliers' sheets; the string components each one's ``components``
+        names must be in ``string`` (see :attr:`tool_covered`).
     bit_depth : float
         Bit MD [m]; ≤ the hole depth.
     message_units : str
@@ -171,8 +174,10 @@ class Well:
     Raises
     ------
     InputError
-        bit below the hole depth; string longer than the bit depth (or not reaching surface);
-        a pipe body or tool-joint OD at or above the hole/casing ID over its interval.
+        a tool drop covering a component that is not in the string (with the nearest name) or
+        one already covered by another drop; bit below the hole depth; string longer than the
+        bit depth (or not reaching surface); a pipe body or tool-joint OD at or above the
+        hole/casing ID over its interval.
 
     Notes
     -----
@@ -213,6 +218,7 @@ class Well:
                 raise InputError("tool drop", x, "ToolPressureDrop objects")
         object.__setattr__(self, "surface_lines", lines)
         object.__setattr__(self, "tool_drops", drops)
+        self._check_tool_components(drops)
         u = self.message_units
         depth = float(check_positive("bit depth", self.bit_depth, "m"))
         object.__setattr__(self, "bit_depth", depth)
@@ -249,6 +255,35 @@ class Well:
         object.__setattr__(self, "notes", tuple(notes))
 
     # ------------------------------------------------------------------------- checks
+    def _check_tool_components(self, drops) -> None:
+        """Each name a tool drop covers must be a string component, covered by one drop only."""
+        known = list(dict.fromkeys(self.string.component_names()))
+        seen: dict[str, str] = {}
+        for t in drops:
+            for name in t.components:
+                if name not in known:
+                    near = difflib.get_close_matches(name, known, n=1, cutoff=0.4)
+                    hint = f" (did you mean '{near[0]}'?)" if near else ""
+                    raise InputError(
+                        f"component covered by '{t.name}'",
+                        name,
+                        "a drill-string component name: " + "; ".join(known) + hint,
+                        problem="not in the string",
+                    )
+                if name in seen:
+                    raise InputError(
+                        f"component covered by '{t.name}'",
+                        name,
+                        f"covered by one tool drop only (already by '{seen[name]}')",
+                    )
+                seen[name] = t.name
+
+    @property
+    def tool_covered(self) -> tuple[str, ...]:
+        """String components whose bore loss a fixed tool drop includes (bit end first)."""
+        covered = {c for t in self.tool_drops for c in t.components}
+        return tuple(c for c in dict.fromkeys(self.string.component_names()) if c in covered)
+
     def _bit_notes(self) -> list[Note]:
         u = self.message_units
         out = []
