@@ -56,6 +56,17 @@ def depth_span(top: float, bottom: float, system: str = "oilfield") -> str:
     return f"MD {a:,.{digits}f}-{b:,.{digits}f} {unit_label(u)}"
 
 
+def depth_point(md: float, system: str = "oilfield") -> str:
+    """'MD 10,680 ft' (oilfield) / 'MD 3,255.3 m' (metric, si): one MD [m] in the system's unit.
+
+    >>> depth_point(3255.264)
+    'MD 10,680 ft'
+    """
+    u = unit_for("depth", system)
+    digits = 0 if u == "ft" else 1
+    return f"MD {float(from_si(float(md), u)):,.{digits}f} {unit_label(u)}"
+
+
 def _row_names(iv, path: str, system: str = "oilfield") -> tuple[str, ...]:
     out = []
     for comp, sec, tj, top, bot in zip(

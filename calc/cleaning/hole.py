@@ -6,6 +6,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from calc.circulation._well_link import _row_names
 from calc.cleaning._numeric import bisect_increasing, scalar_or_array
 from calc.cleaning.indicators import (
     LARSEN_RANGE,
@@ -35,13 +36,7 @@ RATE_BRACKET = (1e-4, 0.2)
 
 def _annulus_rows(well):
     a = well.flow_intervals().annulus
-    names = []
-    for comp, sec, tj, top, bot in zip(
-        a.component, a.section, a.is_tool_joint, a.top_md, a.bottom_md, strict=True
-    ):
-        part = f"{comp} tool joints" if tj else str(comp)
-        names.append(f"{part} in {sec}, MD {top:.1f}-{bot:.1f} m")
-    return a, tuple(names)
+    return a, _row_names(a, "annulus", getattr(well, "message_units", "oilfield"))
 
 
 @dataclass(frozen=True, eq=False)

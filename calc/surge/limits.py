@@ -19,7 +19,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT
-from calc.circulation._well_link import parts
+from calc.circulation._well_link import depth_point, parts
 from calc.circulation.pressure_window import limits_at
 from calc.circulation.result import _depth_weights
 from calc.cleaning._numeric import bisect_increasing, scalar_or_array
@@ -46,6 +46,7 @@ from calc.surge.solver import (
     _solve,
     _string_end,
 )
+from calc.units import from_si
 
 __all__ = ["IntervalTripLimit", "TripLimits", "trip_speed_limit", "trip_speed_limits"]
 
@@ -114,11 +115,16 @@ def _allowance_notes(what: str, allow, stuck, slowest: float) -> list[Note]:
     return notes
 
 
+def _speed_text(v: float) -> str:
+    """A trip speed [m/s] for a note, in SI and in the oilfield unit (notes have no unit system)."""
+    return f"{v:g} m/s = {from_si(v, 'ft/min'):.3g} ft/min"
+
+
 def _yield_note(what: str, count: int, slowest: float) -> Note:
     return Note(
         "caution",
         f"{what}_exceeded_at_slowest_speed",
-        f"at {count} point(s) the {what} at the slowest speed searched ({slowest:g} m/s) "
+        f"at {count} point(s) the {what} at the slowest speed searched ({_speed_text(slowest)}) "
         f"already exceeds the allowance (the yield stress alone): no safe {what} speed.",
         "trip speed",
     )
@@ -164,12 +170,13 @@ class TripLimits:
 
 def _check_points(well, weak_points, step):
     """Check depths: every ``step`` from the last shoe (the top of the exposed hole) to the bit,
-    plus the weak points; named "<casing> shoe", "MD … m", "bit" and by weak point."""
+    plus the weak points; named "<casing> shoe", "MD …" (in the well's message units), "bit" and
+    by weak point."""
     exposed = parts(well)
     bit, top, shoe = exposed.bit_md, exposed.exposed_top, exposed.shoe_name
     md = np.unique(np.append(np.arange(top, bit, step), bit))
     md = md[md > 0]
-    names = [f"MD {m:.1f} m" for m in md]
+    names = [depth_point(m, getattr(well, "message_units", "oilfield")) for m in md]
     names[-1] = "bit"
     if shoe and md[0] == top:
         names[0] = shoe
@@ -297,7 +304,7 @@ def _not_limiting_note(what: str, top: float) -> Note:
     return Note(
         "info",
         f"{what}_not_limiting",
-        f"{what} speed not limited within {top:g} m/s.",
+        f"{what} speed not limited within {_speed_text(top)}.",
         "trip speed",
     )
 
