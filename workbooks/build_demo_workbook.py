@@ -5,7 +5,7 @@
 The inputs come from the invented demo case (workbooks/demo-case.toml): one mud check, the
 string, the hole, the bit.  Every result cell is a ``BF_…`` formula (or a SUM of them), so the
 sheet recomputes when an input changes once the functions are enabled (see
-docs/worksheet-functions.md); ``addin.sheets.engine.calculate`` computes it headlessly.
+workbooks/worksheet-functions.md); ``addin.sheets.engine.calculate`` computes it headlessly.
 
 Layout (a design of our own): one sheet "Daily hydraulics" in six bands, inputs in blue-grey
 cells on the left of each band, results to the right — 1 mud check and readings,

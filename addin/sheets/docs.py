@@ -1,4 +1,4 @@
-"""Generate ``docs/worksheet-functions.md`` from the worksheet functions themselves.
+"""Generate ``workbooks/worksheet-functions.md`` from the worksheet functions themselves.
 
 The reference is built from each function's signature, its argument hints (the ``doc`` text
 xlwings shows in the function wizard) and its docstring, so it cannot drift from the code.
@@ -21,7 +21,7 @@ from calc import units as cu
 
 __all__ = ["DOC_PATH", "main", "render"]
 
-DOC_PATH = Path(__file__).resolve().parents[2] / "docs" / "worksheet-functions.md"
+DOC_PATH = Path(__file__).resolve().parents[2] / "workbooks" / "worksheet-functions.md"
 
 _FAMILY_TITLES = {
     "units": "Units and housekeeping",

@@ -1,7 +1,7 @@
 """The module xlwings imports: every boreflow worksheet function, by family.
 
 Point xlwings at it with ``UDF Modules = addin.sheets.functions`` (see
-``docs/worksheet-functions.md``).  Each family lives in its own ``fn_*`` module; importing
+``workbooks/worksheet-functions.md``).  Each family lives in its own ``fn_*`` module; importing
 them here puts every decorated function in this module's namespace, where xlwings finds it.
 """
 
