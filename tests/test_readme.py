@@ -44,7 +44,9 @@ def test_cli_examples_parse():
             if not line.startswith("boreflow "):
                 continue
             text = line.split("  #")[0]
-            text = text.replace("CASE.toml|CASE.xlsx", "CASE.toml").replace("[--force] [--json]", "")
+            text = text.replace("CASE.toml|CASE.xlsx", "CASE.toml").replace(
+                "[--force] [--json]", ""
+            )
             text = re.sub(r"\[(--\S+)( [^\]\s]+)?\]", r"\1\2", text)  # "[--units metric]" → option
             args = shlex.split(text)[1:]
             parser.parse_args(args)  # argparse raises SystemExit(2) on an unknown option
