@@ -19,6 +19,8 @@ Methods (``method=``, resolved through :data:`SLIP_METHODS`):
                    μ_a at γ̇ = 12V_s/d_s; iterated.
 ``drag_balance``   Sphere-equivalent drag balance with the Haider & Levenspiel (1989) drag law for
                    non-spherical particles (sphericity ψ); μ_a at γ̇ = V_s/d_s.
+``fang_2008``      The same drag balance with the Fang et al. (2008) drag correlation for
+                   cuttings (sphericity ψ), as printed in Guo & Liu (2011) eqs. 2.90-2.96.
 """
 
 from __future__ import annotations
@@ -40,6 +42,7 @@ __all__ = [
     "SLIP_METHODS",
     "SlipResult",
     "annular_apparent_viscosity",
+    "fang_drag",
     "haider_levenspiel_drag",
     "hb_apparent_viscosity",
     "slip_velocity",
@@ -203,6 +206,51 @@ def haider_levenspiel_drag(reynolds, sphericity=1.0):
     c = np.exp(4.905 - 13.8944 * p + 18.4222 * p**2 - 10.2599 * p**3)
     d = np.exp(1.4681 + 12.2584 * p - 20.7322 * p**2 + 15.8855 * p**3)
     return scalar_or_array(24.0 / re * (1.0 + a * re**b) + c / (1.0 + d / re))
+
+
+# Fang et al. (2008) drag-correlation coefficients, cubic in sphericity ψ (Guo & Liu 2011,
+# Applied Drilling Circulation Systems, eqs. 2.93-2.95, printed).
+_FANG_A = (2.2954, -2.2626, 4.4395, -2.9825)
+_FANG_B = (-0.4193, -1.9014, 3.3416, -2.0409)
+_FANG_C = (0.1117, 0.0553, -0.1468, 0.1145)
+
+
+def _cubic(coef, p):
+    return coef[0] + coef[1] * p + coef[2] * p**2 + coef[3] * p**3
+
+
+def fang_drag(re, sphericity=1.0):
+    """Particle drag coefficient of Fang et al. (2008) for drilled cuttings.
+
+    f_p = 10^(A′ + B′·log Re + C′·(log Re)²), with A′, B′, C′ cubic in the sphericity ψ
+    (Guo & Liu 2011, eqs. 2.92-2.95).  Where the quadratic's log-log slope B′ + 2C′·log Re
+    falls below -1 (creeping flow, Re ≲ 0.2 for ψ = 0.8) it is continued with slope -1, the
+    Stokes-like form f ∝ 1/Re, joined with a continuous slope (our choice: the quadratic would
+    let drag outgrow Stokes' law, and with a yield stress no particle would ever settle).
+
+    Parameters
+    ----------
+    re : array_like
+        Particle Reynolds number ρV_s d_s/μ [-], > 0.
+    sphericity : array_like
+        ψ in (0, 1] [-].
+
+    References
+    ----------
+    Fang, Sun, Yu & Kui (2008), as printed in Guo, B. & Liu, G. (2011) Applied Drilling
+    Circulation Systems, Gulf Professional Publishing, eqs. 2.92-2.96 and Table 2.4.
+
+    Examples
+    --------
+    >>> round(float(fang_drag(240.0, 0.8)), 3)   # Guo & Liu (2011) Table 2.4 prints 2.9350
+    2.935
+    """
+    p = np.asarray(sphericity, dtype=float)
+    a, b, c = _cubic(_FANG_A, p), _cubic(_FANG_B, p), _cubic(_FANG_C, p)
+    x = np.log10(np.asarray(re, dtype=float))
+    x0 = (-1.0 - b) / (2.0 * c)  # where d log f / d log Re = -1
+    low = a + b * x0 + c * x0 * x0 - (x - x0)
+    return scalar_or_array(10.0 ** np.where(x >= x0, a + b * x + c * x * x, low))
 
 
 def _moore_drag(re):
@@ -398,6 +446,42 @@ def _drag_balance(c):
                 "warning",
                 "drag_law_range",
                 "drag_balance: particle Reynolds number above 2.6e5, beyond the drag law's range.",
+                "slip velocity",
+            ),
+        )
+    return v, re, f, mu, v / c.d, np.where(held, "held", "drag law"), notes
+
+
+@SLIP_METHODS.register(
+    "fang_2008",
+    "drag balance with the Fang et al. (2008) cuttings drag correlation; μ_a at V_s/d_s",
+    "Fang et al. (2008), as printed in Guo & Liu (2011) Applied Drilling Circulation Systems, "
+    "eqs. 2.90-2.96",
+)
+def _fang(c):
+    def mu_of_v(v):
+        return hb_apparent_viscosity(v / c.d, c.tau_y, c.k, c.n)
+
+    def drag(re):
+        return fang_drag(re, c.psi)
+
+    # smallest drag of the quadratic in log Re (its vertex; C′ > 0 for 0 < ψ ≤ 1) brackets V
+    p = np.asarray(c.psi, dtype=float)
+    a, b, cc = _cubic(_FANG_A, p), _cubic(_FANG_B, p), _cubic(_FANG_C, p)
+    f_min = float(np.min(10.0 ** (a - b * b / (4.0 * cc))))
+    v, held = _solve_drag_balance(c, mu_of_v, drag, f_min)
+    vv = np.where(held, 1e-12, v)
+    mu = np.asarray(mu_of_v(vv))
+    re = np.where(held, 0.0, c.rho * v * c.d / mu)
+    f = np.where(held, 0.0, drag(np.where(held, 1.0, re)))
+    notes = _held_note(held, "fang_2008")
+    if np.any((re > 0) & ((re < 0.1) | (re > 1e5))):
+        notes += (
+            Note(
+                "warning",
+                "drag_law_range",
+                "fang_2008: particle Reynolds number outside 0.1-1e5; the correlation is "
+                "extrapolated (its fitted range is not verified here).",
                 "slip velocity",
             ),
         )
