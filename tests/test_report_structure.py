@@ -28,6 +28,7 @@ SHEETS = [
     "Bit",
     "Cleaning",
     "Trips",
+    "Rate window",
     "Cautions",
     "Audit",
 ]

@@ -2,9 +2,9 @@
 
 Sheets, in order: ``Summary`` · ``Inputs`` (the case echoed in the input-workbook block layout,
 so the report parses back to the same case) · ``Rheology`` · ``Hydraulics`` · ``ECD`` · ``Bit``
-· ``Cleaning`` · ``Trips`` · ``Cautions`` · ``Audit`` (run information, conversion factors and an
-index of the live checks).  Which sheets appear depends on the calc modules present in this
-build (see :data:`SECTIONS`).
+· ``Cleaning`` · ``Trips`` · ``Rate window`` (the flow-rate operating window) · ``Cautions`` ·
+``Audit`` (run information, conversion factors and an index of the live checks).  Which sheets
+appear depends on the calc modules present in this build (see :data:`SECTIONS`).
 
 Usage::
 
@@ -57,6 +57,9 @@ def build_report(results: Results):
 
     refs["cleaning"] = write_cleaning(wb, results, factors, title, refs["hydraulics"]["q"])
     refs["trips"] = write_trips(wb, results, factors, title)
+    from addin.report.sheet_window import write_window
+
+    refs["window"] = write_window(wb, results, title)
     write_cautions(wb, results, title)
     write_summary(summary, results, refs, title)
     write_audit(audit, results, factors, title)

@@ -5,6 +5,8 @@
 * :func:`pressure_breakdown` — horizontal bars, one per part of the circulating system.
 * :func:`depth_profile` — equivalent densities (ESD, ECD, pore, fracture) against true vertical
   depth, depth increasing downward.
+* :func:`rate_curves` — quantities against flow rate (the operating-window sweep), with the
+  window ends as vertical marker lines.
 
 Each builder takes column ranges as ``(sheet, col, first_row, last_row)`` tuples so the chart
 always refers to what the table shows.
@@ -19,7 +21,7 @@ from openpyxl.drawing.line import LineProperties
 
 from addin.report.style import PALETTE
 
-__all__ = ["depth_profile", "pressure_breakdown", "rheogram"]
+__all__ = ["depth_profile", "pressure_breakdown", "rate_curves", "rheogram"]
 
 _SERIES_COLOURS = ("1F5FA8", "C08A2B", "2E7D4F", "8E44AD", "B03A2E", "17808A", "6B7785")
 
@@ -182,3 +184,72 @@ def depth_profile(
         ch.series.append(s)
     ch.layout = Layout(manualLayout=ManualLayout(x=0.02, y=0.08, w=0.96, h=0.72))
     return ch
+
+
+def rate_curves(
+    rate: tuple,
+    curves: list[tuple[str, tuple, str]],
+    *,
+    rate_unit: str,
+    y_title: str,
+    title: str,
+    y_limits: tuple[float, float, float] | None = None,
+    x_limits: tuple[float, float, float] | None = None,
+    markers: list[tuple[str, tuple, tuple]] = (),
+) -> ScatterChart:
+    """Curves against flow rate (x) for the operating-window sheet.
+
+    curves
+        ``[(label, (ws, col, r0, r1), role), ...]``; role ``"value"`` (solid), ``"limit"``
+        (dashed) or ``"value2"`` / ``"limit2"`` (a second colour pair).
+    markers
+        ``[(label, x_range, y_range), ...]`` — two-point vertical lines (the window ends).
+    x_limits, y_limits
+        ``(min, max, major unit)`` of the rate and value axes.
+    """
+    style = {
+        "value": dict(colour=PALETTE["check"], width=28575),
+        "limit": dict(colour=PALETTE["bad"], width=19050, dash="dash"),
+        "value2": dict(colour=PALETTE["ochre"], width=28575),
+        "limit2": dict(colour="7A4F9A", width=19050, dash="dash"),
+    }
+    ch = ScatterChart()
+    ch.title = _small_title(title)
+    ch.style = 2
+    ch.height, ch.width = 11.5, 9.2
+    _axis_common(ch.x_axis, f"flow rate [{rate_unit}]")
+    _axis_common(ch.y_axis, y_title)
+    if x_limits is not None:
+        ch.x_axis.scaling.min, ch.x_axis.scaling.max, ch.x_axis.majorUnit = x_limits
+    if y_limits is not None:
+        ch.y_axis.scaling.min, ch.y_axis.scaling.max, ch.y_axis.majorUnit = y_limits
+        ch.y_axis.number_format = "#,##0" if y_limits[2] >= 1 else "0.0#"
+    ch.x_axis.number_format = "#,##0"
+    ch.x_axis.crosses = "min"  # rate labels under the plot, also when the values go negative
+    ch.legend.position = "b"
+    for name, rng, role in curves:
+        s = Series(_ref(*rng), _ref(*rate), title=name)
+        st = style[role]
+        _line(s, st["colour"], width=st["width"], dash=st.get("dash"))
+        ch.series.append(s)
+    for name, xr, yr in markers:
+        s = Series(_ref(*yr), _ref(*xr), title=name)
+        _line(s, PALETTE["ink"], width=12700, dash="sysDash")
+        ch.series.append(s)
+    return ch
+
+
+def _small_title(text: str, size_pt: float = 10.0):
+    """A chart title in a modest bold font (the default is large for a one-third-page chart)."""
+    from openpyxl.chart.text import RichText, Text
+    from openpyxl.chart.title import Title
+    from openpyxl.drawing.text import (
+        CharacterProperties,
+        Paragraph,
+        ParagraphProperties,
+        RegularTextRun,
+    )
+
+    cp = CharacterProperties(sz=int(size_pt * 100), b=True)
+    para = Paragraph(pPr=ParagraphProperties(defRPr=cp), r=[RegularTextRun(rPr=cp, t=text)])
+    return Title(tx=Text(rich=RichText(p=[para])), overlay=False)

@@ -28,6 +28,8 @@ SHOWN_FITS = (
     "power_law_least_squares",
     "bingham_least_squares",
 )
+#: Rate sweep of the operating window: (first, last) × the latest check's rate, and the count.
+WINDOW_SWEEP = (0.3, 1.8, 200)
 
 
 @dataclass(frozen=True)
@@ -95,7 +97,7 @@ class Results:
     profile: object
     cleaning: object | None
     surge: object | None
-    window: dict | None = None
+    window: object | None = None  # calc.window.OperatingWindow over WINDOW_SWEEP
     notes: tuple[Note, ...] = field(default=())
     trend: tuple[CheckHydraulics, ...] = field(default=())
     profile_step: float = 30.48
@@ -155,10 +157,12 @@ def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) 
         notes.extend(trend[-1].calibration.notes)
     cleaning = _cleaning(case, well, fluid, q)
     surge = _trips(case, well, fluid, method)
-    window = flow_window(case, well, fluid, method, cleaning)
+    window = _operating_window(case, well, fluid, method, cleaning)
     for part in (cleaning, surge):
         if part is not None:
             notes.extend(part["notes"])
+    if window is not None:
+        notes.extend(window.notes)
     return Results(
         case=case,
         run_time=run_time,
@@ -262,6 +266,66 @@ def _cleaning(case, well, fluid, q):
     return {"result": hc, "cuttings": cuttings, "notes": tuple(hc.notes) + cuttings.notes}
 
 
+def _operating_window(case, well, fluid, method, cleaning):
+    """calc.window.operating_window over the WINDOW_SWEEP rates, in one vectorised call.
+
+    Limits of the case (pressure window, weak points, margins, surface rating) and, when the
+    latest check gives them, its ROP and cuttings (the cleaning limit and cuttings-loaded ECD).
+    None without a pressure window (no ECD limits to hold).
+    """
+    from calc.circulation import Margins
+    from calc.window import operating_window
+
+    if case.window is None:
+        return None
+    lo, hi, n = WINDOW_SWEEP
+    q0 = case.check_value(-1, "flow_rate")
+    lim = case.limits
+    cut = cleaning["cuttings"] if cleaning else None
+    ow = operating_window(
+        well,
+        fluid,
+        np.linspace(lo * q0, hi * q0, n),
+        window=case.window,
+        weak_points=case.weak_points,
+        margins=Margins(fracture=lim["fracture_margin"], pore=lim["pore_margin"]),
+        surface_rating=lim["surface_rating"],
+        method=method,
+        rop=case.checks[-1].values["rop"] if cleaning else 0.0,
+        cuttings=cut,
+    )
+    return _in_case_units(ow, case, well, fluid, method, q0)
+
+
+def _in_case_units(ow, case, well, fluid, method, q0):
+    """The window with its check-point names in the case's units.
+
+    calc.window names the points as circulate's default (oilfield) message units; the check
+    points are the same, in the same order, at every rate, so a one-rate circulate in each unit
+    system pairs the names.
+    """
+    import dataclasses
+
+    from calc.circulation.loop import circulate
+
+    if case.system == "oilfield":
+        return ow
+    opts = _circulate_options(case)
+    named = circulate(well, fluid, q0, method=method, **opts).margins.names
+    opts.pop("message_units")
+    default = circulate(well, fluid, q0, method=method, **opts).margins.names
+    rename = dict(zip((str(x) for x in default), (str(x) for x in named), strict=True))
+
+    def fix(names):
+        return np.asarray([rename.get(str(x), str(x)) for x in names], dtype=object)
+
+    return dataclasses.replace(
+        ow,
+        fracture_point_name=fix(ow.fracture_point_name),
+        pore_point_name=fix(ow.pore_point_name),
+    )
+
+
 def _trips(case, well, fluid, method):
     """Trip-speed limits and surge/swab at the planned speeds (needs [trip] and a window)."""
     from calc.surge import surge_pressure, trip_speed_limits
@@ -301,47 +365,3 @@ def _dedupe(notes) -> tuple[Note, ...]:
 def scalar(x) -> float:
     """A 0-d result as a float (the report runs one rate)."""
     return float(np.asarray(x, dtype=float).reshape(-1)[0]) if np.ndim(x) else float(x)
-
-
-def flow_window(case, well, fluid, method, cleaning, *, points: int = 61):
-    """Flow-rate operating window on a grid of rates (SI).
-
-    Low end: the hole-cleaning minimum rate (controlling interval) when cleaning was computed.
-    High end: the largest grid rate at which every check point keeps the required fracture
-    margin and the standpipe pressure stays within the surface rating (calc.circulation on the
-    whole grid in one call).  Grid: 0.4 to 1.8 × the check's rate; the answer is a grid value.
-    """
-    from calc.circulation import Margins
-    from calc.circulation.loop import circulate
-
-    q0 = case.check_value(-1, "flow_rate")
-    lim = case.limits
-    qs = np.linspace(0.4 * q0, 1.8 * q0, points)
-    res = circulate(
-        well,
-        fluid,
-        qs,
-        method=method,
-        window=case.window,
-        weak_points=case.weak_points,
-        margins=Margins(fracture=lim["fracture_margin"], pore=lim["pore_margin"]),
-        surface_rating=lim["surface_rating"],
-        message_units=case.system,
-    )
-    ok = np.ones(qs.shape, dtype=bool)
-    reasons = []
-    if res.margins is not None:
-        fm = np.min(np.asarray(res.margins.fracture_margin), axis=-1)
-        ok &= fm >= lim["fracture_margin"]
-        reasons.append("fracture margin")
-    if lim["surface_rating"] is not None:
-        ok &= np.asarray(res.standpipe_pressure) <= lim["surface_rating"]
-        reasons.append("surface rating")
-    q_hi = float(qs[ok].max()) if ok.any() else None
-    q_lo = float(cleaning["result"].controlling_rate) if cleaning else None
-    return {
-        "low": q_lo,
-        "high": q_hi,
-        "grid": (float(qs[0]), float(qs[-1]), points),
-        "high_limited_by": " and ".join(reasons),
-    }

@@ -173,13 +173,8 @@ def results_data(results) -> dict:
             "surge_at_bit": _c(results.surge["running"].pressure_bit, "pressure", s),
             "swab_at_bit": _c(results.surge["pulling"].pressure_bit, "pressure", s),
         }
-    if results.window:
-        w = results.window
-        out["operating_window"] = {
-            "low_rate": _c(w["low"], "flow_rate", s),
-            "high_rate": _c(w["high"], "flow_rate", s),
-            "high_limited_by": w["high_limited_by"],
-        }
+    if results.window is not None:
+        out["operating_window"] = _window_data(results, s)
     out["circulation"]["tool_covered"] = list(getattr(res, "tool_covered", ()))
     cal = results.calibration
     if cal is not None:
@@ -220,3 +215,62 @@ def results_data(results) -> dict:
         for n in results.notes
     ]
     return out
+
+
+def _limit_kind(name: str):
+    """Unit kind of a calc.window margin curve, by the limit's name (OperatingWindow.limits)."""
+    if name in ("fracture", "pore"):
+        return "density"
+    if name == "surface rating":
+        return "pressure"
+    if "flow window" in name:
+        return "flow_rate"
+    return "dimensionless"  # hole cleaning: relative margin
+
+
+def _window_data(results, s) -> dict:
+    """calc.window.OperatingWindow of the run: ends, binding limits (names and words), curves."""
+    from addin.report.sheet_window import allowed_ecd, binding_words
+
+    ow = results.window
+    f_lim, p_lim = allowed_ecd(ow)
+    return {
+        "method": ow.method,
+        "feasible": ow.feasible,
+        "low_rate": _c(ow.q_low, "flow_rate", s) if ow.feasible else None,
+        "high_rate": _c(ow.q_high, "flow_rate", s) if ow.feasible else None,
+        "binding_low": ow.binding_low,
+        "binding_high": ow.binding_high,
+        "binding_low_words": binding_words(ow, "low", long=True),
+        "binding_high_words": binding_words(ow, "high", long=True),
+        "check_rate": _c(results.case.check_value(-1, "flow_rate"), "flow_rate", s),
+        "min_cleaning_rate": _c(ow.min_cleaning_rate, "flow_rate", s) if results.cleaning else None,
+        "controlling_interval": short_name(ow.controlling_interval),
+        "fracture_margin": _c(ow.fracture_margin, "density", s),
+        "pore_margin": _c(ow.pore_margin, "density", s),
+        "surface_rating": _c(ow.surface_rating, "pressure", s),
+        "curves": {
+            "flow_rate": _c(ow.q, "flow_rate", s),
+            "standpipe_pressure": _c(ow.spp, "pressure", s),
+            "ecd_fracture_point": _c(ow.ecd_fracture_point, "density", s),
+            "fracture_at_point": _c(ow.fracture_at_point, "density", s),
+            "max_ecd_fracture_point": _c(f_lim, "density", s),
+            "fracture_point_name": [str(x) for x in ow.fracture_point_name],
+            "ecd_pore_point": _c(ow.ecd_pore_point, "density", s),
+            "pore_at_point": _c(ow.pore_at_point, "density", s),
+            "min_ecd_pore_point": _c(p_lim, "density", s),
+            "pore_point_name": [str(x) for x in ow.pore_point_name],
+            "cleaning_indicator": _c(ow.cleaning_indicator, None, s),
+            "min_transport_ratio": _c(ow.min_transport_ratio, None, s),
+            "max_concentration": _c(ow.max_concentration, None, s),
+        },
+        "limit_margins": {
+            name: {
+                "unit": "relative"
+                if _limit_kind(name) == "dimensionless"
+                else label(unit_for(_limit_kind(name), s)),
+                "values": _c(m, _limit_kind(name), s),
+            }
+            for name, m in ow.limits.items()
+        },
+    }

@@ -253,6 +253,10 @@ def write_summary(ws, results, refs, title):
                 elif k2:
                     v = out(v, k2, system)
                 put_number(ws, row, col, v, fmt)
+        if item.get("bound"):
+            put(ws, row, 6, item["bound"], "bf_note")
+            ws.merge_cells(start_row=row, start_column=6, end_row=row, end_column=8)
+            ws.row_dimensions[row].height = 12.0 * (1 + len(item["bound"]) // 60)
         _status(ws, row, 9, item.get("status", ""))
         row += 1
     row += 1

@@ -25,7 +25,7 @@ def _at(arr, i):
 
 def summary_rows(results, refs) -> list[dict]:
     """Rows: name, kind (calc.units kind or None), value [SI], check (formula), limit, margin,
-    required, status."""
+    required, status; ``bound`` (text over the limit…required columns) names a binding limit."""
     case, res = results.case, results.circulation
     lim = case.limits
     hyd, ecd, bit = refs["hydraulics"], refs["ecd"], refs["bit"]
@@ -152,22 +152,31 @@ def summary_rows(results, refs) -> list[dict]:
                 status=status,
             )
         )
-    w = results.window
-    if w is not None:
-        if w["low"] is not None:
-            rows.append(
-                dict(
-                    name="operating window, lowest rate (hole cleaning)",
-                    kind="flow_rate",
-                    value=w["low"],
+    wr = refs.get("window") or {}
+    if wr:
+        q0 = wr["check_rate"][0]
+        if wr["feasible"]:
+            for end, label in (("low", "lowest"), ("high", "highest")):
+                q_end, words = wr[end]
+                ok = q0 >= q_end if end == "low" else q0 <= q_end
+                rows.append(
+                    dict(
+                        name=f"operating window, {label} rate",
+                        kind="flow_rate",
+                        value=q_end,
+                        bound=f"bound by: {words}",
+                        status="OK" if ok else "EXCEEDED",
+                    )
                 )
-            )
-        if w["high"] is not None:
+        else:
             rows.append(
                 dict(
-                    name="operating window, highest rate (ECD, SPP)",
-                    kind="flow_rate",
-                    value=w["high"],
+                    name="operating window (see 'Rate window')",
+                    kind=None,
+                    text="none",
+                    unit="",
+                    bound=wr["low"][1],
+                    status="EXCEEDED",
                 )
             )
     tr = refs.get("trips") or {}
