@@ -42,6 +42,8 @@ class OperatingWindow:
     ecd_fracture_point, fracture_at_point, fracture_point_name   ECD at the depth tightest
                             against fracture (per rate) and that depth's fracture EMW and name
     ecd_pore_point, pore_at_point, pore_point_name               likewise against pore
+    ecd_max_at_point, ecd_min_at_point   the ECD limits there: fracture − margin and pore +
+                            margin [kg/m³] (the lines the window's ECD must stay between)
     cleaning_indicator      the cleaning score of the worst interval (≥ 0: cleaned)
     min_transport_ratio, max_concentration   per rate, over the intervals
     min_cleaning_rate, controlling_interval  rate needed to clean every interval and where
@@ -62,6 +64,8 @@ class OperatingWindow:
     ecd_pore_point: np.ndarray
     pore_at_point: np.ndarray
     pore_point_name: np.ndarray
+    ecd_max_at_point: np.ndarray
+    ecd_min_at_point: np.ndarray
     cleaning_indicator: np.ndarray
     min_transport_ratio: np.ndarray
     max_concentration: np.ndarray
@@ -105,6 +109,7 @@ def operating_window(
     require: str = "adequate",
     eccentricity: float = 0.0,
     hydrostatic: str = "exact",
+    message_units: str = "oilfield",
 ) -> OperatingWindow:
     """Range of flow rates meeting the ECD, pressure-rating, cleaning and tool limits together.
 
@@ -131,6 +136,10 @@ def operating_window(
         Without cuttings no cleaning limit is applied (a note says so).
     slip_method, criteria, require
         Passed to :func:`calc.cleaning.hole_cleaning`.
+    eccentricity, hydrostatic
+        Passed to :func:`calc.circulation.circulate`.
+    message_units : str
+        Unit system of the depth names of the check points ("oilfield", "metric", "si").
 
     Returns
     -------
@@ -151,7 +160,7 @@ def operating_window(
     res = circulate(
         well, fluid, qv, method=method, eccentricity=eccentricity, hydrostatic=hydrostatic,
         window=window, weak_points=tuple(weak_points), margins=margins,
-        surface_rating=surface_rating,
+        surface_rating=surface_rating, message_units=message_units,
     )  # fmt: skip
     mt = res.margins
     ecd = np.asarray(mt.ecd, dtype=float)  # (N, P)
@@ -255,6 +264,8 @@ def operating_window(
         ecd_pore_point=ecd[rows, pi],
         pore_at_point=np.asarray(mt.pore)[pi],
         pore_point_name=names[pi],
+        ecd_max_at_point=np.asarray(mt.fracture)[fi] - float(margins.fracture),
+        ecd_min_at_point=np.asarray(mt.pore)[pi] + float(margins.pore),
         cleaning_indicator=cleaning_ind,
         min_transport_ratio=min_ft,
         max_concentration=max_c,

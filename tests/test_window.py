@@ -91,3 +91,16 @@ def test_window_shrinks_as_margin_grows(m1, extra):
 def test_sweep_must_increase():
     with pytest.raises(InputError, match="sweep"):
         run(q=to_si(np.array([500.0, 400.0, 600.0]), "gpm"))
+
+
+def test_ecd_limit_curves_and_point_names_in_units():
+    m = demo_margins()
+    w = demo_well()
+    kw = dict(window=demo_window(), weak_points=demo_weak_points(), margins=m)
+    ow = operating_window(w, demo_fluid(), Q[:20], **kw)
+    # the limits returned are the tightest points' fracture − margin and pore + margin
+    assert np.allclose(ow.ecd_max_at_point, np.asarray(ow.fracture_at_point) - m.fracture)
+    assert np.allclose(ow.ecd_min_at_point, np.asarray(ow.pore_at_point) + m.pore)
+    metric = operating_window(w, demo_fluid(), Q[:20], message_units="metric", **kw)
+    assert all(" ft" not in str(n) for n in metric.fracture_point_name)
+    assert np.array_equal(metric.ecd_fracture_point, ow.ecd_fracture_point)

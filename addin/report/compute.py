@@ -293,37 +293,9 @@ def _operating_window(case, well, fluid, method, cleaning):
         method=method,
         rop=case.checks[-1].values["rop"] if cleaning else 0.0,
         cuttings=cut,
+        message_units=case.system,
     )
-    return _in_case_units(ow, case, well, fluid, method, q0)
-
-
-def _in_case_units(ow, case, well, fluid, method, q0):
-    """The window with its check-point names in the case's units.
-
-    calc.window names the points as circulate's default (oilfield) message units; the check
-    points are the same, in the same order, at every rate, so a one-rate circulate in each unit
-    system pairs the names.
-    """
-    import dataclasses
-
-    from calc.circulation.loop import circulate
-
-    if case.system == "oilfield":
-        return ow
-    opts = _circulate_options(case)
-    named = circulate(well, fluid, q0, method=method, **opts).margins.names
-    opts.pop("message_units")
-    default = circulate(well, fluid, q0, method=method, **opts).margins.names
-    rename = dict(zip((str(x) for x in default), (str(x) for x in named), strict=True))
-
-    def fix(names):
-        return np.asarray([rename.get(str(x), str(x)) for x in names], dtype=object)
-
-    return dataclasses.replace(
-        ow,
-        fracture_point_name=fix(ow.fracture_point_name),
-        pore_point_name=fix(ow.pore_point_name),
-    )
+    return ow
 
 
 def _trips(case, well, fluid, method):

@@ -46,12 +46,9 @@ def _o(v, kind, system):
 
 
 def allowed_ecd(ow):
-    """ECD limits at the tightest points over the sweep [kg/m³]: (fracture − required margin,
-    pore + required margin), the lines the window's ECD must stay between."""
-    return (
-        np.asarray(ow.fracture_at_point) - ow.fracture_margin,
-        np.asarray(ow.pore_at_point) + ow.pore_margin,
-    )
+    """ECD limits at the tightest points over the sweep [kg/m³], as calc.window returns them:
+    (fracture − required margin, pore + required margin)."""
+    return np.asarray(ow.ecd_max_at_point), np.asarray(ow.ecd_min_at_point)
 
 
 def _index_at(ow, q):
