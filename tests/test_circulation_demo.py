@@ -1,6 +1,6 @@
 """The demo well (workbooks/demo-case.toml, invented data) in every hydraulics method.
 
-The scenario's [expected_approx] figures (/work/shared/demo-scenario.toml, copied below with
+The scenario's [expected_approx] figures (the lead's shared demo-scenario.toml, copied below with
 their keys) come from a simplified hand check: API RP 13D (1995)-style power law, concentric
 annulus, no tool joints, the 8.5 in bit size as open hole, surface losses from a loss
 coefficient.  They are good to about ±10–15 % only and are NOT golden values: the checks below
