@@ -5,6 +5,7 @@ from __future__ import annotations
 import numpy as np
 
 from addin.report.audit import Factors, write_checked
+from addin.report.style import display_number as _o
 from addin.report.style import (
     heading,
     number_format,
@@ -15,18 +16,8 @@ from addin.report.style import (
     table_header,
 )
 from addin.report.style import unit_label as U
-from calc.units import from_si, unit_for
 
 __all__ = ["short_name", "write_cleaning", "write_trips"]
-
-
-def _o(v, kind, system):
-    if v is None:
-        return None
-    v = float(v)
-    if not np.isfinite(v):
-        return None
-    return float(from_si(v, unit_for(kind, system), kind))
 
 
 def short_name(name: str) -> str:

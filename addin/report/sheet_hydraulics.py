@@ -8,6 +8,7 @@ from openpyxl.worksheet.pagebreak import Break
 from addin.report.audit import Factors, cell_ref, write_checked
 from addin.report.charts import depth_profile, pressure_breakdown
 from addin.report.compute import scalar
+from addin.report.style import display_number as _o
 from addin.report.style import (
     heading,
     note_row,
@@ -19,20 +20,10 @@ from addin.report.style import (
     table_header,
 )
 from addin.report.style import unit_label as U
-from calc.units import from_si, unit_for
 
 __all__ = ["write_bit", "write_ecd", "write_hydraulics"]
 
 REGIMES = {0: "laminar", 1: "transitional", 2: "turbulent"}
-
-
-def _o(v, kind, system):
-    if v is None:
-        return None
-    v = float(np.asarray(v, dtype=float).reshape(-1)[0]) if np.ndim(v) else float(v)
-    if not np.isfinite(v):
-        return None
-    return float(from_si(v, unit_for(kind, system), kind))
 
 
 def _input_row(ws, row, name, value, kind, system, fmt=None):

@@ -16,18 +16,11 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
+from addin.report.style import display_number as out
 from addin.report.style import unit_label as U
 from calc import cautions
-from calc.units import from_si, unit_for
 
 __all__ = ["write_audit", "write_cautions", "write_inputs", "write_summary"]
-
-
-def out(v, kind, system):
-    """SI → the case's unit for ``kind`` (None stays None)."""
-    if v is None:
-        return None
-    return float(from_si(float(v), unit_for(kind, system), kind))
 
 
 # ------------------------------------------------------------------------------- inputs
