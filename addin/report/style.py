@@ -22,6 +22,7 @@ __all__ = [
     "display_number",
     "display_values",
     "heading",
+    "merged_text",
     "note_row",
     "number_format",
     "put",
@@ -245,6 +246,14 @@ def put_number(ws, row, col, value, fmt="General", style="bf_cell"):
     cell.value = None if value is None else float(value)
     cell.style = style
     cell.number_format = fmt
+    return cell
+
+
+def merged_text(ws, row: int, text: str, *, span: int, height: float, col=1, style="bf_note"):
+    """Text merged across ``span`` columns in a row of fixed ``height`` [pt]; returns the cell."""
+    cell = put(ws, row, col, text, style)
+    ws.merge_cells(start_row=row, start_column=col, end_row=row, end_column=col + span - 1)
+    ws.row_dimensions[row].height = height
     return cell
 
 
