@@ -289,6 +289,8 @@ LIMITS_SCHEMA = {
     "trip_pore_margin": Field("density"),
 }
 SURVEY_SCHEMA = {"stations": Field("stations", required=True)}
+#: The columns of a ``stations`` row and their kinds (md is converted; angles are plain degrees).
+STATION_COLUMNS: tuple[tuple[str, str], ...] = (("md", "depth"), ("inc", "angle"), ("azi", "angle"))
 CASING_SCHEMA = {
     "name": Field("text", required=True),
     "od": Field("diameter"),

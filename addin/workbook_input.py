@@ -39,6 +39,7 @@ import zipfile
 from dataclasses import dataclass, field
 from pathlib import Path
 
+from addin.case import SECTIONS, STATION_COLUMNS
 from calc.errors import InputError
 
 __all__ = [
@@ -595,235 +596,207 @@ def _put_value(ws, row, col, v, style):
 
 
 # ---------------------------------------------------------------------------- the case layout
+# Keys and quantity kinds come from the case schema (addin.case.SECTIONS); the workbook adds only
+# what is its own: block titles and kinds (values/table/columns), block order, the row labels,
+# the dial speeds given a row each, and one display unit (nozzle sizes).
 
-F = Field
 _TEXT = "text"
+
+#: case-schema kind → workbook kind (quantity kinds are kept as they are).
+_KIND = {"number": "dimensionless", "bool": "flag", "length_or_fill": "length"}
+#: rotor speeds [rpm] that get a labelled row of their own; other speeds use ``dial.*``.
+_DIAL_SPEEDS = ("600", "300", "200", "100", "60", "30", "6", "3")
+#: the two ends of a range, as label suffixes of a columns block's ``key[0]``/``key[1]`` rows.
+_ENDS = ("low", "high")
+#: nozzle sizes are plain numbers in the case file, shown with the nozzle unit (32nds of an inch).
+_DISPLAY_KIND = {("bit", "nozzles"): "nozzle"}
+
+_RHEOLOGY_LABELS = {
+    "dial": "dial reading",
+    "dial_up": "dial reading, rising ramp,",
+    "dial_down": "dial reading, falling ramp,",
+    "gels.10s": "gel strength 10 s",
+    "gels.10min": "gel strength 10 min",
+    "gels.30min": "gel strength 30 min",
+    "viscometer.name": "viscometer",
+    "viscometer.shear_rate_per_rpm": "viscometer shear rate per rpm [1/s]",
+    "viscometer.stress_per_degree": "viscometer stress per dial degree [Pa]",
+    "viscometer.spring_factor": "viscometer spring factor",
+    "viscometer.full_scale": "viscometer full scale [degree]",
+}
+
+#: Row labels by block and (dotted) case key; a range in a columns block gets ", low"/", high".
+LABELS: dict[str, dict[str, str]] = {
+    "case": {
+        "schema": "case-file format version",
+        "title": "report title",
+        "well": "well name",
+        "operator": "operator",
+        "rig": "rig",
+        "location": "location",
+        "report_period": "report period",
+        "units": "unit system (oilfield, metric or si)",
+    },
+    "limits": {
+        "fracture_margin": "ECD margin below fracture",
+        "pore_margin": "margin above pore pressure",
+        "surface_rating": "surface system pressure rating",
+        "trip_fracture_margin": "surge margin below fracture",
+        "trip_pore_margin": "swab margin above pore",
+    },
+    "survey": {"md": "measured depth", "inc": "inclination", "azi": "azimuth"},
+    "casing": {
+        "name": "name",
+        "od": "outside diameter",
+        "id": "inside diameter",
+        "drift": "drift diameter",
+        "top": "top (MD)",
+        "shoe": "shoe (MD)",
+        "shoe_test": "shoe test (LOT/FIT) EMW",
+    },
+    "open_hole": {
+        "bit_size": "bit size",
+        "diameter": "effective open-hole diameter",
+        "washout_factor": "washout factor (instead of a diameter)",
+    },
+    "pressure_window": {
+        "tvd": "true vertical depth",
+        "pore": "pore pressure EMW",
+        "fracture": "fracture pressure EMW",
+    },
+    "weak_point": {
+        "name": "name",
+        "md": "measured depth",
+        "fracture": "fracture EMW",
+        "pore": "pore EMW",
+    },
+    "pump": {
+        "name": "name",
+        "liner": "liner size",
+        "stroke": "stroke length",
+        "efficiency": "volumetric efficiency (fraction)",
+        "rated_power": "rated power",
+        "liner_rating": "liner pressure rating",
+    },
+    "surface_line": {"name": "name", "length": "length", "id": "inside diameter"},
+    "bit": {
+        "name": "description",
+        "size": "bit size",
+        "nozzles": "nozzle sizes",
+        "tfa": "total flow area (instead of nozzles)",
+        "ports": "number of ports",
+        "discharge_coefficient": "nozzle discharge coefficient",
+    },
+    "string": {
+        "name": "component",
+        "od": "outside diameter",
+        "id": "inside diameter",
+        "length": "length (or 'fill')",
+        "tool_joint_od": "tool-joint OD",
+        "tool_joint_id": "tool-joint ID",
+        "joint_length": "joint length",
+        "tool_joint_length": "tool-joint length",
+        "float_valve": "float valve (true/false)",
+    },
+    "tool_pressure": {
+        "name": "tools (description)",
+        "reference_drop": "drop at the reference conditions",
+        "reference_density": "reference density",
+        "reference_rate": "reference flow rate",
+        "flow_window": "allowed flow range (min, max)",
+        "covers": "components whose bore loss the drop includes",
+    },
+    "check": {
+        "label": "check label",
+        "date": "date",
+        "time": "time",
+        "sample": "sample point",
+        "fluid": "fluid",
+        "bit_depth": "bit depth (MD)",
+        "density": "mud density",
+        "cup_temperature": "rheology (cup) temperature",
+        **_RHEOLOGY_LABELS,
+        "program.density": "programme density",
+        "program.pv": "programme PV",
+        "program.yp": "programme YP",
+        "program.lsyp": "programme LSYP",
+        "flow_rate": "flow rate",
+        "rop": "rate of penetration",
+        "rpm": "string rotary speed [rpm]",
+        "measured_spp": "measured standpipe pressure",
+        "pwd.ecd": "downhole gauge ECD",
+        "pwd.md": "downhole gauge depth (MD)",
+        "cuttings.density": "cuttings density",
+        "cuttings.size": "cuttings size",
+        "cuttings.sphericity": "cuttings sphericity",
+        "properties": "other mud property (free name)",
+        "remark": "remark",
+    },
+    "trip": {
+        "stand_length": "stand length",
+        "string_end": "string end (closed or open)",
+        "speeds": "average stand speeds to evaluate",
+    },
+    "slurry": {
+        "name": "name",
+        "density": "density",
+        "temperature": "test temperature",
+        "volume": "volume",
+        **_RHEOLOGY_LABELS,
+        "remark": "remark",
+    },
+}
+
+
+def _fields(block: str, layout: str, schema, prefix: str = "") -> list[Field]:
+    """The workbook fields of one case section: its schema's keys, expanded to workbook rows."""
+    labels = LABELS.get(block, {})
+    out: list[Field] = []
+    for name, fld in schema.items():
+        key = prefix + name
+        label = labels.get(key, key)
+        kind = fld.kind
+        if kind == "table":
+            out += _fields(block, layout, fld.sub, key + ".")
+        elif kind == "dial":
+            out += [Field(f"{key}.{s}", f"{label} {s} rpm", "dimensionless") for s in _DIAL_SPEEDS]
+            out.append(Field(f"{key}.*", f"{label} (other speed)", "dimensionless"))
+        elif kind == "free":
+            out.append(Field(f"{key}.*", label, "dimensionless"))
+        elif kind == "stations":
+            out += [Field(c, labels.get(c, c), k) for c, k in STATION_COLUMNS]
+        elif kind in ("range", "list"):
+            item = _DISPLAY_KIND.get((block, key), _KIND.get(fld.of, fld.of))
+            if layout == "columns" and kind == "range":
+                out += [Field(f"{key}[{i}]", f"{label}, {e}", item) for i, e in enumerate(_ENDS)]
+            else:
+                out.append(Field(key, label, item, many=layout == "values"))
+        else:
+            out.append(Field(key, label, _DISPLAY_KIND.get((block, key), _KIND.get(kind, kind))))
+    return out
+
+
+def _block(key: str, title: str, kind: str, **kw) -> Block:
+    return Block(key, title, kind, tuple(_fields(key, kind, SECTIONS[key][1])), **kw)
+
 
 #: The case file's sections as workbook blocks, in the order the template and report show them.
 LAYOUT: tuple[Block, ...] = (
-    Block(
-        "case",
-        "Case",
-        "values",
-        (
-            F("schema", "case-file format version", _TEXT),
-            F("title", "report title", _TEXT),
-            F("well", "well name", _TEXT),
-            F("operator", "operator", _TEXT),
-            F("rig", "rig", _TEXT),
-            F("location", "location", _TEXT),
-            F("report_period", "report period", _TEXT),
-            F("units", "unit system (oilfield, metric or si)", _TEXT),
-        ),
-    ),
-    Block(
-        "limits",
-        "Operating limits and margins",
-        "values",
-        (
-            F("fracture_margin", "ECD margin below fracture", "density"),
-            F("pore_margin", "margin above pore pressure", "density"),
-            F("surface_rating", "surface system pressure rating", "pressure"),
-            F("trip_fracture_margin", "surge margin below fracture", "density"),
-            F("trip_pore_margin", "swab margin above pore", "density"),
-        ),
-    ),
-    Block(
-        "survey",
-        "Directional survey (TVD by minimum curvature)",
-        "table",
-        (
-            F("md", "measured depth", "depth"),
-            F("inc", "inclination", "angle"),
-            F("azi", "azimuth", "angle"),
-        ),
-        rows_key="stations",
-    ),
-    Block(
-        "casing",
-        "Casing and liners",
-        "table",
-        (
-            F("name", "name", _TEXT),
-            F("od", "outside diameter", "diameter"),
-            F("id", "inside diameter", "diameter"),
-            F("drift", "drift diameter", "diameter"),
-            F("top", "top (MD)", "depth"),
-            F("shoe", "shoe (MD)", "depth"),
-            F("shoe_test", "shoe test (LOT/FIT) EMW", "density"),
-        ),
-    ),
-    Block(
-        "open_hole",
-        "Open hole",
-        "values",
-        (
-            F("bit_size", "bit size", "diameter"),
-            F("diameter", "effective open-hole diameter", "diameter"),
-        ),
-    ),
-    Block(
-        "pressure_window",
-        "Pore and fracture pressure (EMW against TVD)",
-        "table",
-        (
-            F("tvd", "true vertical depth", "depth"),
-            F("pore", "pore pressure EMW", "density"),
-            F("fracture", "fracture pressure EMW", "density"),
-        ),
-        arrays=True,
-    ),
-    Block(
-        "weak_point",
-        "Named weak points",
-        "table",
-        (
-            F("name", "name", _TEXT),
-            F("md", "measured depth", "depth"),
-            F("fracture", "fracture EMW", "density"),
-            F("pore", "pore EMW", "density"),
-        ),
-    ),
-    Block(
-        "pump",
-        "Mud pumps",
-        "table",
-        (
-            F("name", "name", _TEXT),
-            F("liner", "liner size", "diameter"),
-            F("stroke", "stroke length", "diameter"),
-            F("efficiency", "volumetric efficiency (fraction)", "dimensionless"),
-            F("rated_power", "rated power", "power"),
-            F("liner_rating", "liner pressure rating", "pressure"),
-        ),
-    ),
-    Block(
-        "surface_line",
-        "Surface lines (as pipe runs)",
-        "table",
-        (
-            F("name", "name", _TEXT),
-            F("length", "length", "length"),
-            F("id", "inside diameter", "diameter"),
-        ),
-    ),
-    Block(
-        "bit",
-        "Bit",
-        "values",
-        (
-            F("name", "description", _TEXT),
-            F("size", "bit size", "diameter"),
-            F("nozzles", "nozzle sizes", "nozzle", many=True),
-            F("tfa", "total flow area (instead of nozzles)", "area"),
-            F("ports", "number of ports", "dimensionless"),
-            F("discharge_coefficient", "nozzle discharge coefficient", "dimensionless"),
-        ),
-    ),
-    Block(
-        "string",
-        "Drill string, bit first",
-        "table",
-        (
-            F("name", "component", _TEXT),
-            F("od", "outside diameter", "diameter"),
-            F("id", "inside diameter", "diameter"),
-            F("length", "length (or 'fill')", "length"),
-            F("tool_joint_od", "tool-joint OD", "diameter"),
-            F("tool_joint_id", "tool-joint ID", "diameter"),
-            F("joint_length", "joint length", "length"),
-            F("tool_joint_length", "tool-joint length", "length"),
-            F("float_valve", "float valve (true/false)", "flag"),
-        ),
-    ),
-    Block(
-        "tool_pressure",
-        "Fixed downhole tool pressure drop",
-        "values",
-        (
-            F("name", "tools (description)", _TEXT),
-            F("reference_drop", "drop at the reference conditions", "pressure"),
-            F("reference_density", "reference density", "density"),
-            F("reference_rate", "reference flow rate", "flow_rate"),
-            F("flow_window", "allowed flow range (min, max)", "flow_rate", many=True),
-            F("covers", "components whose bore loss the drop includes", _TEXT, many=True),
-        ),
-    ),
-    Block(
-        "check",
-        "Mud checks, oldest first (one column each)",
-        "columns",
-        (
-            F("label", "check label", _TEXT),
-            F("date", "date", _TEXT),
-            F("time", "time", _TEXT),
-            F("sample", "sample point", _TEXT),
-            F("fluid", "fluid", _TEXT),
-            F("bit_depth", "bit depth (MD)", "depth"),
-            F("density", "mud density", "density"),
-            F("cup_temperature", "rheology (cup) temperature", "temperature"),
-            F("dial.600", "dial reading 600 rpm", "dimensionless"),
-            F("dial.300", "dial reading 300 rpm", "dimensionless"),
-            F("dial.200", "dial reading 200 rpm", "dimensionless"),
-            F("dial.100", "dial reading 100 rpm", "dimensionless"),
-            F("dial.60", "dial reading 60 rpm", "dimensionless"),
-            F("dial.30", "dial reading 30 rpm", "dimensionless"),
-            F("dial.6", "dial reading 6 rpm", "dimensionless"),
-            F("dial.3", "dial reading 3 rpm", "dimensionless"),
-            F("dial.*", "dial reading (other speed)", "dimensionless"),
-            F("gels.10s", "gel strength 10 s", "stress"),
-            F("gels.10min", "gel strength 10 min", "stress"),
-            F("gels.30min", "gel strength 30 min", "stress"),
-            F("program.density[0]", "programme density, low", "density"),
-            F("program.density[1]", "programme density, high", "density"),
-            F("program.pv[0]", "programme PV, low", "viscosity"),
-            F("program.pv[1]", "programme PV, high", "viscosity"),
-            F("program.yp[0]", "programme YP, low", "stress"),
-            F("program.yp[1]", "programme YP, high", "stress"),
-            F("program.lsyp[0]", "programme LSYP, low", "stress"),
-            F("program.lsyp[1]", "programme LSYP, high", "stress"),
-            F("flow_rate", "flow rate", "flow_rate"),
-            F("rop", "rate of penetration", "rop"),
-            F("rpm", "string rotary speed [rpm]", "dimensionless"),
-            F("measured_spp", "measured standpipe pressure", "pressure"),
-            F("pwd.ecd", "downhole gauge ECD", "density"),
-            F("pwd.md", "downhole gauge depth (MD)", "depth"),
-            F("cuttings.density", "cuttings density", "density"),
-            F("cuttings.size", "cuttings size", "diameter"),
-            F("cuttings.sphericity", "cuttings sphericity", "dimensionless"),
-            F("properties.*", "other mud property (free name)", "dimensionless"),
-            F("remark", "remark", _TEXT),
-        ),
-    ),
-    Block(
-        "trip",
-        "Planned trip (surge and swab)",
-        "values",
-        (
-            F("stand_length", "stand length", "length"),
-            F("string_end", "string end (closed or open)", _TEXT),
-            F("speeds", "average stand speeds to evaluate", "trip_speed", many=True),
-        ),
-    ),
-    Block(
-        "slurry",
-        "Spacer and cement slurries (one column each)",
-        "columns",
-        (
-            F("name", "name", _TEXT),
-            F("density", "density", "density"),
-            F("temperature", "test temperature", "temperature"),
-            F("dial.600", "dial reading 600 rpm", "dimensionless"),
-            F("dial.300", "dial reading 300 rpm", "dimensionless"),
-            F("dial.200", "dial reading 200 rpm", "dimensionless"),
-            F("dial.100", "dial reading 100 rpm", "dimensionless"),
-            F("dial.60", "dial reading 60 rpm", "dimensionless"),
-            F("dial.30", "dial reading 30 rpm", "dimensionless"),
-            F("dial.6", "dial reading 6 rpm", "dimensionless"),
-            F("dial.3", "dial reading 3 rpm", "dimensionless"),
-            F("dial.*", "dial reading (other speed)", "dimensionless"),
-        ),
-    ),
+    _block("case", "Case", "values"),
+    _block("limits", "Operating limits and margins", "values"),
+    _block("survey", "Directional survey (TVD by minimum curvature)", "table", rows_key="stations"),
+    _block("casing", "Casing and liners", "table"),
+    _block("open_hole", "Open hole", "values"),
+    _block("pressure_window", "Pore and fracture pressure (EMW against TVD)", "table", arrays=True),
+    _block("weak_point", "Named weak points", "table"),
+    _block("pump", "Mud pumps", "table"),
+    _block("surface_line", "Surface lines (as pipe runs)", "table"),
+    _block("bit", "Bit", "values"),
+    _block("string", "Drill string, bit first", "table"),
+    _block("tool_pressure", "Fixed downhole tool pressure drop", "values"),
+    _block("check", "Mud checks, oldest first (one column each)", "columns"),
+    _block("trip", "Planned trip (surge and swab)", "values"),
+    _block("slurry", "Spacer and cement slurries (one column each)", "columns"),
 )
 
 BLOCKS: dict[str, Block] = {b.key: b for b in LAYOUT}

@@ -184,3 +184,37 @@ def test_spreadsheet_error_value_is_refused(tmp_path):
     wb.save(p)
     with pytest.raises(wi.WorkbookError, match="Rig and string!D"):
         wi.read_blocks(p)
+
+
+def test_every_case_key_has_a_workbook_label_and_every_label_a_case_key():
+    """The workbook layout is derived from the case schema (addin.case.SECTIONS); it adds labels.
+
+    A case key without a row label, or a label for a key the case schema no longer has, fails.
+    """
+    from addin.case import SECTIONS
+
+    assert set(wi.BLOCKS) == set(SECTIONS), "each case section is a workbook block"
+    for block in wi.LAYOUT:
+        labels = wi.LABELS[block.key]
+        for f in block.fields:
+            base = f.key.split("[")[0].removesuffix(".*")
+            stem = base.rsplit(".", 1)[0] if base.rsplit(".", 1)[-1].isdigit() else base
+            assert stem in labels, f"case key {block.key}.{f.key} has no workbook label"
+        used = {f.key.split("[")[0].removesuffix(".*") for f in block.fields}
+        used |= {k.rsplit(".", 1)[0] for k in used}
+        stale = [k for k in labels if k not in used]
+        assert not stale, f"labels for keys not in the case schema of {block.key}: {stale}"
+
+
+def test_workbook_kinds_come_from_the_case_schema():
+    """A quantity key reads and writes in the unit of the kind the case schema gives it."""
+    from addin.case import SECTIONS
+
+    assert (
+        wi.BLOCKS["limits"].by_key["surface_rating"].kind
+        == SECTIONS["limits"][1]["surface_rating"].kind
+    )
+    program = SECTIONS["check"][1]["program"].sub["pv"]
+    assert wi.BLOCKS["check"].by_key["program.pv[1]"].kind == program.of == "viscosity"
+    assert wi.BLOCKS["string"].by_key["float_valve"].kind == "flag"  # case kind "bool"
+    assert wi.BLOCKS["tool_pressure"].by_key["flow_window"].many

@@ -5,8 +5,10 @@ from __future__ import annotations
 import numpy as np
 
 from addin.report.audit import Factors, write_checked
+from addin.report.style import display_number as _o
 from addin.report.style import (
     heading,
+    merged_text,
     number_format,
     put,
     put_number,
@@ -15,18 +17,8 @@ from addin.report.style import (
     table_header,
 )
 from addin.report.style import unit_label as U
-from calc.units import from_si, unit_for
 
 __all__ = ["short_name", "write_cleaning", "write_trips"]
-
-
-def _o(v, kind, system):
-    if v is None:
-        return None
-    v = float(v)
-    if not np.isfinite(v):
-        return None
-    return float(from_si(v, unit_for(kind, system), kind))
 
 
 def short_name(name: str) -> str:
@@ -50,12 +42,8 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
         )
         return {}
     hc = part["result"]
-    put(ws, row, 1, f"Method: {hc.method}", "bf_note")
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=14)
-    ws.row_dimensions[row].height = 24
-    put(ws, row + 1, 1, f"Criteria: {hc.criteria_text}", "bf_note")
-    ws.merge_cells(start_row=row + 1, start_column=1, end_row=row + 1, end_column=14)
-    ws.row_dimensions[row + 1].height = 24
+    merged_text(ws, row, f"Method: {hc.method}", span=14, height=24)
+    merged_text(ws, row + 1, f"Criteria: {hc.criteria_text}", span=14, height=24)
     row += 3
     du, vu, qu = U("depth", system), U("velocity", system), U("flow_rate", system)
     ws.print_title_rows = f"{row}:{row + 1}"
@@ -156,16 +144,14 @@ def write_trips(wb, results, factors: Factors, title: str):
         )
         return {}
     lim, run, pull = part["limits"], part["running"], part["pulling"]
-    put(
+    merged_text(
         ws,
         row,
-        1,
         f"Method: {lim.method}; string end {lim.string_end}; peak speed = "
         f"{lim.peak_factor:g} × average stand speed.",
-        "bf_note",
+        span=6,
+        height=24,
     )
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=6)
-    ws.row_dimensions[row].height = 24
     row += 2
     tu, pu, du = U("trip_speed", system), U("pressure", system), U("depth", system)
     row = heading(ws, row, "Speed limits (margins from [limits])", span=6)

@@ -8,8 +8,10 @@ from openpyxl.worksheet.pagebreak import Break
 from addin.report.audit import Factors, cell_ref, write_checked
 from addin.report.charts import depth_profile, pressure_breakdown
 from addin.report.compute import scalar
+from addin.report.style import display_number as _o
 from addin.report.style import (
     heading,
+    merged_text,
     note_row,
     number_format,
     put,
@@ -19,20 +21,10 @@ from addin.report.style import (
     table_header,
 )
 from addin.report.style import unit_label as U
-from calc.units import from_si, unit_for
 
 __all__ = ["write_bit", "write_ecd", "write_hydraulics"]
 
 REGIMES = {0: "laminar", 1: "transitional", 2: "turbulent"}
-
-
-def _o(v, kind, system):
-    if v is None:
-        return None
-    v = float(np.asarray(v, dtype=float).reshape(-1)[0]) if np.ndim(v) else float(v)
-    if not np.isfinite(v):
-        return None
-    return float(from_si(v, unit_for(kind, system), kind))
 
 
 def _input_row(ws, row, name, value, kind, system, fmt=None):
@@ -60,18 +52,16 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
     ws = wb.create_sheet("Hydraulics")
     set_widths(ws, [40, 22, 10, 10, 9, 8, 8, 9, 9, 8, 10, 9, 9, 9, 9])
     row = heading(ws, 1, "Hydraulics: where the pump pressure goes", span=15, title=True)
-    put(
+    merged_text(
         ws,
         row,
-        1,
         f"Check {case.checks[-1].label}. Method: {res.method}; fluid: {res.fluid_label} "
         f"({results.fluid.fits}); hydrostatic convention: {res.hydrostatic}; eccentricity "
         f"{res.eccentricity:g}; friction multiplier "
         f"{float(np.asarray(res.friction_multiplier)):g} (uncalibrated).",
-        "bf_note",
+        span=15,
+        height=24,
     )
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=15)
-    ws.row_dimensions[row].height = 24
     row += 2
     q_ref = _input_row(ws, row, "flow rate", _o(res.q, "flow_rate", system), "flow_rate", system)
     row += 2
@@ -138,16 +128,14 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
             f"{_o(t.reference_rate, 'flow_rate', system):,.0f} {U('flow_rate', system)} and "
             f"{_o(t.reference_density, 'density', system):.2f} {U('density', system)}"
         )
-        put(
+        merged_text(
             ws,
             row,
-            1,
             f"Fixed tool drop '{t.name}' (supplier's figure {ref}, scaled ∝ density × rate²) "
             f"{what}.",
-            "bf_note",
+            span=3,
+            height=36,
         )
-        ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=3)
-        ws.row_dimensions[row].height = 36
         row += 1
     chart = pressure_breakdown(
         (ws, 1, first, last), (ws, 2, first, last), pressure_unit=U("pressure", system)
@@ -270,18 +258,16 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
                 min_av = (vel, name.split(", MD")[0], cell_ref(ws, row, 8), cell_ref(ws, row, 9))
             row += 1
     refs["min_av"] = min_av
-    put(
+    merged_text(
         ws,
         row,
-        1,
         "Velocity live check: Q / (π/4·(OD² − ID²)) with the conversion factors "
         "on 'Audit'. Flow OD/ID: pipe ID in the string; hole or casing ID and pipe OD in the "
         "annulus. Tool joints are separate rows over the same depths (their share of the "
         "joint length).",
-        "bf_note",
+        span=15,
+        height=24,
     )
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=15)
-    ws.row_dimensions[row].height = 24
     ws.freeze_panes = None
     setup_print(ws, title)
     return refs
@@ -290,19 +276,18 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
 def _calibration_block(ws, row, cal, results, factors, system):
     """The friction calibration of the latest check, labelled as such, with a live check."""
     row = heading(ws, row, "Calibration against the measured standpipe pressure", span=8)
-    put(
+    merged_text(
         ws,
         row,
-        1,
         "CALIBRATION, not a measurement: the friction multiplier m makes the model reproduce "
         "the measured standpipe pressure at this check's rate. It applies to surface-line, "
         "drill-string and annular friction only (not to the bit or the fixed tool drops) and "
         "holds for this rate, mud and well state. Every other number in this report is "
         "uncalibrated (m = 1).",
-        "bf_text",
+        span=11,
+        height=38,
+        style="bf_text",
     )
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=11)
-    ws.row_dimensions[row].height = 38
     row += 1
     row = table_header(
         ws, row, 1, ["quantity", "boreflow", "live check", "agree?", "unit", "formula in words"]

@@ -7,6 +7,7 @@ from openpyxl.utils import get_column_letter
 
 from addin.report.audit import Factors, cell_ref, write_checked
 from addin.report.charts import rheogram
+from addin.report.style import display_number as _out
 from addin.report.style import (
     heading,
     note_row,
@@ -18,7 +19,6 @@ from addin.report.style import (
     table_header,
 )
 from addin.report.style import unit_label as U
-from calc.units import from_si, unit_for
 
 __all__ = ["write_rheology"]
 
@@ -38,10 +38,6 @@ _CURVE_LABELS = {
     "power_law_least_squares": "power law (least squares)",
     "api13d_1995_pipe": "power law (API RP 13D 1995, pipe)",
 }
-
-
-def _out(v, kind, system):
-    return None if v is None else float(from_si(v, unit_for(kind, system), kind))
 
 
 def _params(model):

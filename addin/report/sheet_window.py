@@ -25,8 +25,8 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
+from addin.report.style import display_values as _o
 from addin.report.style import unit_label as U
-from calc.units import from_si, unit_for
 
 __all__ = ["SHEET", "allowed_ecd", "binding_words", "write_window"]
 
@@ -34,15 +34,6 @@ SHEET = "Rate window"
 #: Every PRINT_EVERY-th sweep rate is printed; the whole sweep sits below the print range.
 PRINT_EVERY = 10
 _TOOL_MIN, _TOOL_MAX = " flow window (min)", " flow window (max)"
-
-
-def _o(v, kind, system):
-    """SI → the case's unit (arrays too); non-finite → None."""
-    a = np.asarray(v, dtype=float)
-    out = np.asarray(from_si(a, unit_for(kind, system), kind), dtype=float)
-    if out.ndim == 0:
-        return float(out) if np.isfinite(out) else None
-    return [float(x) if np.isfinite(x) else None for x in out]
 
 
 def allowed_ecd(ow):

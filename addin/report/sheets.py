@@ -8,6 +8,7 @@ from addin.report.audit import AGREE_TOL
 from addin.report.style import (
     PALETTE,
     heading,
+    merged_text,
     note_row,
     number_format,
     put,
@@ -16,18 +17,11 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
+from addin.report.style import display_number as out
 from addin.report.style import unit_label as U
 from calc import cautions
-from calc.units import from_si, unit_for
 
 __all__ = ["write_audit", "write_cautions", "write_inputs", "write_summary"]
-
-
-def out(v, kind, system):
-    """SI → the case's unit for ``kind`` (None stays None)."""
-    if v is None:
-        return None
-    return float(from_si(float(v), unit_for(kind, system), kind))
 
 
 # ------------------------------------------------------------------------------- inputs
@@ -60,9 +54,7 @@ def write_cautions(wb, results, title):
     ws = wb.create_sheet("Cautions")
     set_widths(ws, [10, 22, 30, 90])
     row = heading(ws, 1, "Cautions and notes", span=4, title=True)
-    put(ws, row, 1, cautions.CELL, "bf_text")
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=4)
-    ws.row_dimensions[row].height = 28
+    merged_text(ws, row, cautions.CELL, span=4, height=28, style="bf_text")
     row += 2
     row = heading(ws, row, "Engineering caution", span=4)
     row = note_row(ws, row, cautions.SHORT, span=4, style="bf_text", font_pt=9)
@@ -341,9 +333,7 @@ def _trend_table(ws, row, results, system) -> int:
         "same method; deviation = (model − measured)/measured. Tightest margin to the "
         "fracture/pore limit at: " + "; ".join(where) + "."
     )
-    put(ws, row, 1, text, "bf_note")
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=12)
-    ws.row_dimensions[row].height = 24
+    merged_text(ws, row, text, span=12, height=24)
     return row + 1
 
 

@@ -471,3 +471,26 @@ def positive(value_si, name: str, kind: str | None = None, uset=None, *, allow_z
         unit = f" {uset.label(kind)}" if kind and uset.label(kind) else ""
         raise InputError(name, round(float(shown), 6), f"{'>=' if allow_zero else '>'} 0{unit}")
     return value_si
+
+
+def positive_number(value, name: str, kind: str | None = None, uset=None, *, allow_zero=False):
+    """One cell → SI float, required > 0 (or ≥ 0): :func:`number` then :func:`positive`.
+
+    >>> round(positive_number(10.0, "density", "density"), 4)
+    1198.2643
+    """
+    return positive(number(value, name, kind, uset), name, kind, uset, allow_zero=allow_zero)
+
+
+def positive_values(value, name: str, kind: str | None = None, uset=None, *, allow_zero=False):
+    """One cell or a range → SI, every value > 0 (or ≥ 0): :func:`values` then :func:`positive`.
+
+    >>> positive_values([[1.0, 2.0]], "flow rate").tolist()
+    [[1.0, 2.0]]
+    """
+    return positive(values(value, name, kind, uset), name, kind, uset, allow_zero=allow_zero)
+
+
+def flow_rates(q, uset=None):
+    """The flow-rate argument (one cell or a range) → SI [m³/s], every rate > 0."""
+    return positive_values(q, "flow rate", "flow_rate", uset)

@@ -32,14 +32,14 @@ def _cd(value) -> float:
     return cells.optional_number(value, "discharge coefficient", cb.DEFAULT_DISCHARGE_COEFFICIENT)
 
 
-def _rate(q, uset):
-    qv = cells.values(q, "flow rate", "flow_rate", uset)
-    return cells.positive(qv, "flow rate", "flow_rate", uset)
-
-
 def _density(density, uset) -> float:
-    rho = cells.number(density, "density", "density", uset)
-    return cells.positive(rho, "density", "density", uset)
+    return cells.positive_number(density, "density", "density", uset)
+
+
+def _bit_drop(density, nozzles, q, discharge_coefficient, uset):
+    """(flow rates [m³/s], bit pressure drop [Pa]) of the arguments every bit function shares."""
+    rho, qv = _density(density, uset), cells.flow_rates(q, uset)
+    return qv, cb.bit_pressure_drop(qv, rho, _tfa(nozzles), _cd(discharge_coefficient))
 
 
 @sheet_function(FAMILY)
@@ -65,7 +65,8 @@ def BF_JET_VEL(nozzles: Cells(_NOZZLES), q: Cells(_RATE), units: Cells(_UNITS) =
     274.7
     """
     uset = cells.unit_set(units)
-    return uset.from_si(cb.nozzle_velocity(_rate(q, uset), _tfa(nozzles)), "jet_velocity")
+    v = cb.nozzle_velocity(cells.flow_rates(q, uset), _tfa(nozzles))
+    return uset.from_si(v, "jet_velocity")
 
 
 @sheet_function(FAMILY)
@@ -82,8 +83,7 @@ def BF_BIT_DP(
     742.3
     """
     uset = cells.unit_set(units)
-    rho, qv = _density(density, uset), _rate(q, uset)
-    dp = cb.bit_pressure_drop(qv, rho, _tfa(nozzles), _cd(discharge_coefficient))
+    _, dp = _bit_drop(density, nozzles, q, discharge_coefficient, uset)
     return uset.from_si(dp, "pressure")
 
 
@@ -95,7 +95,7 @@ def _hydraulics(density, nozzles, bit_size, q, discharge_coefficient, uset):
         nozzles=sizes if isinstance(sizes, str) else tuple(sizes),
         discharge_coefficient=_cd(discharge_coefficient),
     )
-    return cb.bit_hydraulics(_rate(q, uset), _density(density, uset), bit)
+    return cb.bit_hydraulics(cells.flow_rates(q, uset), _density(density, uset), bit)
 
 
 @sheet_function(FAMILY)
@@ -112,8 +112,7 @@ def BF_BIT_HHP(
     226.0
     """
     uset = cells.unit_set(units)
-    rho, qv = _density(density, uset), _rate(q, uset)
-    dp = cb.bit_pressure_drop(qv, rho, _tfa(nozzles), _cd(discharge_coefficient))
+    qv, dp = _bit_drop(density, nozzles, q, discharge_coefficient, uset)
     return uset.from_si(cb.bit_hydraulic_power(qv, dp), "power")
 
 
@@ -150,7 +149,7 @@ def BF_IMPACT(
     817.0
     """
     uset = cells.unit_set(units)
-    rho, qv = _density(density, uset), _rate(q, uset)
+    rho, qv = _density(density, uset), cells.flow_rates(q, uset)
     cd = _cd(discharge_coefficient)
     dp = cb.bit_pressure_drop(qv, rho, _tfa(nozzles), cd)
     return uset.from_si(cb.impact_force(qv, rho, dp, cd), "force")

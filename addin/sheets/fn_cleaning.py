@@ -45,9 +45,7 @@ _HYD = "Hydraulics method whose annulus fit describes the mud (blank = 'api13d_2
 
 def annulus_fluid(density, readings, hydraulics_method, uset):
     """(density [kg/m³], τy, K, n) of the mud in the annulus for a hydraulics method."""
-    rho = cells.positive(
-        cells.number(density, "density", "density", uset), "density", "density", uset
-    )
+    rho = cells.positive_number(density, "density", "density", uset)
     r = viscometer(readings)
     if cells.blank(hydraulics_method):
         fluid = cc.hydraulics_fluid_from_readings(r, density=rho)
@@ -59,9 +57,7 @@ def annulus_fluid(density, readings, hydraulics_method, uset):
 
 def annulus(d_hole, d_pipe, uset):
     """Annulus diameters [m], checked: hole > pipe ≥ 0."""
-    d2 = cells.positive(
-        cells.number(d_hole, "hole diameter", "diameter", uset), "hole diameter", "diameter", uset
-    )
+    d2 = cells.positive_number(d_hole, "hole diameter", "diameter", uset)
     d1 = cells.number(d_pipe, "pipe diameter", "diameter", uset)
     cells.positive(d1, "pipe diameter", "diameter", uset, allow_zero=True)
     if d1 >= d2:
@@ -71,12 +67,6 @@ def annulus(d_hole, d_pipe, uset):
             f"< hole diameter ({uset.from_si(d2, 'diameter'):g} {uset.label('diameter')})",
         )
     return d2, d1
-
-
-def _rate(q, uset):
-    return cells.positive(
-        cells.values(q, "flow rate", "flow_rate", uset), "flow rate", "flow_rate", uset
-    )
 
 
 def _slip_method(value) -> str | None:
@@ -109,7 +99,7 @@ def _transport(
     rop_si = 0.0 if rop is None else cells.number(rop, "ROP", "rop", uset)
     kwargs = {"method": m} if (m := _slip_method(slip_method)) else {}
     return annular_transport(
-        _rate(q, uset),
+        cells.flow_rates(q, uset),
         d2,
         d1,
         density=rho,
@@ -134,7 +124,7 @@ def BF_ANN_VEL(
     """
     uset = cells.unit_set(units)
     d2, d1 = annulus(d_hole, d_pipe, uset)
-    return uset.from_si(annular_velocity(_rate(q, uset), d2, d1), "velocity")
+    return uset.from_si(annular_velocity(cells.flow_rates(q, uset), d2, d1), "velocity")
 
 
 @sheet_function(FAMILY)
@@ -299,5 +289,5 @@ def BF_CCI(
     uset = cells.unit_set(units)
     rho, tau_y, k, n = annulus_fluid(density, readings, hydraulics_method, uset)
     d2, d1 = annulus(d_hole, d_pipe, uset)
-    va = annular_velocity(_rate(q, uset), d2, d1)
+    va = annular_velocity(cells.flow_rates(q, uset), d2, d1)
     return carrying_capacity_index(va, density=rho, k=k, tau_y=tau_y, n=n).cci

@@ -56,8 +56,7 @@ def _method(value) -> str | None:
 
 
 def _fluid(density, readings, method, uset):
-    rho = cells.number(density, "density", "density", uset)
-    rho = cells.positive(rho, "density", "density", uset)
+    rho = cells.positive_number(density, "density", "density", uset)
     name = _method(method)
     r = viscometer(readings)
     fluid = (
@@ -68,17 +67,12 @@ def _fluid(density, readings, method, uset):
     return fluid, ({} if name is None else {"method": name})
 
 
-def _rate(q, uset):
-    qv = cells.values(q, "flow rate", "flow_rate", uset)
-    return cells.positive(qv, "flow rate", "flow_rate", uset)
-
-
 def _pipe(density, readings, d_inner, q, method, uset) -> cf.FlowResult:
     fluid, kw = _fluid(density, readings, method, uset)
-    d = cells.number(d_inner, "pipe inside diameter", "diameter", uset)
-    d = cells.positive(d, "pipe inside diameter", "diameter", uset)
+    d = cells.positive_number(d_inner, "pipe inside diameter", "diameter", uset)
     tau_y, k, n = fluid.pipe_parameters
-    return cf.pipe_flow(_rate(q, uset), d, density=fluid.density, tau_y=tau_y, k=k, n=n, **kw)
+    qv = cells.flow_rates(q, uset)
+    return cf.pipe_flow(qv, d, density=fluid.density, tau_y=tau_y, k=k, n=n, **kw)
 
 
 def _annulus(density, readings, d_hole, d_pipe, q, method, eccentricity, uset) -> cf.FlowResult:
@@ -87,14 +81,13 @@ def _annulus(density, readings, d_hole, d_pipe, q, method, eccentricity, uset) -
     e = cells.optional_number(eccentricity, "eccentricity", 0.0)
     tau_y, k, n = fluid.annulus_parameters
     return cf.annulus_flow(
-        _rate(q, uset), d2, d1, density=fluid.density, tau_y=tau_y, k=k, n=n,
+        cells.flow_rates(q, uset), d2, d1, density=fluid.density, tau_y=tau_y, k=k, n=n,
         eccentricity=e, **kw,
     )  # fmt: skip
 
 
 def _length(value, uset) -> float:
-    length = cells.number(value, "length", "length", uset)
-    return cells.positive(length, "length", "length", uset, allow_zero=True)
+    return cells.positive_number(value, "length", "length", uset, allow_zero=True)
 
 
 @sheet_function(FAMILY)
@@ -176,8 +169,7 @@ def BF_CRIT_RATE(
     uset = cells.unit_set(units)
     fluid, kw = _fluid(density, readings, method, uset)
     if cells.blank(cells.as_grid(d_pipe)[0][0]):
-        d = cells.number(d_outer, "pipe inside diameter", "diameter", uset)
-        d = cells.positive(d, "pipe inside diameter", "diameter", uset)
+        d = cells.positive_number(d_outer, "pipe inside diameter", "diameter", uset)
         tau_y, k, n = fluid.pipe_parameters
         qc = cf.critical_flow_rate(d, density=fluid.density, tau_y=tau_y, k=k, n=n, **kw)
     else:

@@ -28,8 +28,7 @@ def _hydro(value) -> str:
 
 
 def _density(value, uset) -> float:
-    rho = cells.number(value, "density", "density", uset)
-    return cells.positive(rho, "density", "density", uset)
+    return cells.positive_number(value, "density", "density", uset)
 
 
 @sheet_function(FAMILY)
@@ -45,9 +44,7 @@ def BF_HYDROSTATIC(
     5200.0
     """
     uset = cells.unit_set(units)
-    tvd_si = cells.positive(
-        cells.values(tvd, "tvd", "depth", uset), "tvd", "depth", uset, allow_zero=True
-    )
+    tvd_si = cells.positive_values(tvd, "tvd", "depth", uset, allow_zero=True)
     p = cc.hydrostatic_pressure(_density(density, uset), tvd_si, hydrostatic=_hydro(hydrostatic))
     return uset.from_si(p, "pressure")
 
@@ -69,7 +66,7 @@ def BF_EMW(
     """
     uset = cells.unit_set(units)
     p = cells.values(pressure, "pressure", "pressure", uset)
-    tvd_si = cells.positive(cells.values(tvd, "tvd", "depth", uset), "tvd", "depth", uset)
+    tvd_si = cells.positive_values(tvd, "tvd", "depth", uset)
     cells.broadcast(pressure=p, tvd=tvd_si)
     rho = cc.equivalent_density(p, tvd_si, hydrostatic=_hydro(hydrostatic))
     return uset.from_si(rho, "density")
@@ -90,7 +87,7 @@ def BF_ECD(
     11.6
     """
     uset = cells.unit_set(units)
-    tvd_si = cells.positive(cells.values(tvd, "tvd", "depth", uset), "tvd", "depth", uset)
+    tvd_si = cells.positive_values(tvd, "tvd", "depth", uset)
     loss = cells.values(annular_loss, "annular loss", "pressure", uset)
     cells.positive(loss, "annular loss", "pressure", uset, allow_zero=True)
     back = cells.optional_number(back_pressure, "back pressure", 0.0, "pressure", uset)

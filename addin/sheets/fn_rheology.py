@@ -110,7 +110,7 @@ def BF_SHEAR_RATE(rpm: Cells("Rotor speed (rpm); a range gives a range")) -> Any
     >>> round(BF_SHEAR_RATE(600), 1)
     1021.4
     """
-    speeds = cells.positive(cells.values(rpm, "rotor speed"), "rotor speed", None)
+    speeds = cells.positive_values(rpm, "rotor speed")
     return speeds * cr.STANDARD_GEOMETRY.shear_rate_per_rpm
 
 
@@ -149,6 +149,12 @@ def BF_N(readings: Cells(_READINGS), method: Text(_METHOD) = None) -> Any:
     return fitted(readings, method).model.n
 
 
+def _prediction(readings, shear_rate, method):
+    """The fitted model's prediction at the shear-rate argument (one cell or a range) [1/s]."""
+    g = cells.positive_values(shear_rate, "shear rate")
+    return fitted(readings, method).predict(g)
+
+
 @sheet_function(FAMILY)
 def BF_STRESS(
     readings: Cells(_READINGS),
@@ -158,8 +164,7 @@ def BF_STRESS(
 ) -> Any:
     """Shear stress of the fitted model at a shear rate (lbf/100ft² in oilfield units)."""
     uset = cells.unit_set(units)
-    g = cells.positive(cells.values(shear_rate, "shear rate"), "shear rate", None)
-    return uset.from_si(fitted(readings, method).predict(g).stress, "stress")
+    return uset.from_si(_prediction(readings, shear_rate, method).stress, "stress")
 
 
 @sheet_function(FAMILY)
@@ -171,8 +176,7 @@ def BF_VISC(
 ) -> Any:
     """Apparent viscosity τ/γ̇ of the fitted model at a shear rate (cP in oilfield units)."""
     uset = cells.unit_set(units)
-    g = cells.positive(cells.values(shear_rate, "shear rate"), "shear rate", None)
-    return uset.from_si(fitted(readings, method).predict(g).apparent_viscosity, "viscosity")
+    return uset.from_si(_prediction(readings, shear_rate, method).apparent_viscosity, "viscosity")
 
 
 @sheet_function(FAMILY)

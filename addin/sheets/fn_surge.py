@@ -50,20 +50,14 @@ def _direction(value) -> str:
     return _DIRECTIONS[cells.text(value, "direction", "running", choices=list(_DIRECTIONS))]
 
 
-def _column(value, name, kind, uset, *, allow_zero=False):
-    """One cell → float; a range → 2-D array (every cell a number), checked ≥/> 0."""
-    v = cells.values(value, name, kind, uset)
-    return cells.positive(v, name, kind, uset, allow_zero=allow_zero)
-
-
 def _geometry(d_hole, d_pipe, length, d_bore, uset):
     """Annular intervals → (d2, d1, length, bore or None, 2-D shape or None for one cell)."""
-    d2 = _column(d_hole, "hole diameter", "diameter", uset)
-    d1 = _column(d_pipe, "pipe diameter", "diameter", uset)
-    ln = _column(length, "length", "length", uset, allow_zero=True)
+    d2 = cells.positive_values(d_hole, "hole diameter", "diameter", uset)
+    d1 = cells.positive_values(d_pipe, "pipe diameter", "diameter", uset)
+    ln = cells.positive_values(length, "length", "length", uset, allow_zero=True)
     bore = None
     if not _all_blank(d_bore):
-        bore = _column(d_bore, "bore diameter", "diameter", uset)
+        bore = cells.positive_values(d_bore, "bore diameter", "diameter", uset)
     arrays = {"d_hole": d2, "d_pipe": d1, "length": ln}
     if bore is not None:
         arrays["d_bore"] = bore
@@ -123,7 +117,7 @@ def _surge(density, readings, d_hole, d_pipe, length, speed, direction, d_bore, 
            method, clinging, peak_factor, uset, *, one_speed=False):  # fmt: skip
     fluid, kw = _fluid(density, readings, method, uset)
     d2, d1, ln, bore, shape = _geometry(d_hole, d_pipe, length, d_bore, uset)
-    v = _column(speed, "trip speed", "trip_speed", uset, allow_zero=True)
+    v = cells.positive_values(speed, "trip speed", "trip_speed", uset, allow_zero=True)
     if one_speed:
         cells.number(speed, "trip speed", "trip_speed", uset)
     if shape is not None and np.ndim(v):
@@ -246,9 +240,8 @@ def BF_SURGE_EMW(
     11.2
     """
     uset = cells.unit_set(units)
-    rho = cells.positive(cells.number(density, "density", "density", uset), "density",
-                         "density", uset)  # fmt: skip
-    h = cells.positive(cells.number(tvd, "tvd", "depth", uset), "tvd", "depth", uset)
+    rho = cells.positive_number(density, "density", "density", uset)
+    h = cells.positive_number(tvd, "tvd", "depth", uset)
     dp = float(np.sum(cells.values(pressure, "pressure", "pressure", uset)))
     hyd = cells.text(hydrostatic, "hydrostatic", "exact", choices=list(HYDROSTATIC_OPTIONS))
     return uset.from_si(cs.trip_emw(rho, dp, h, hydrostatic=hyd), "density")
@@ -278,9 +271,8 @@ def BF_TRIP_SPEED(
     uset = cells.unit_set(units)
     fluid, kw = _fluid(density, readings, method, uset)
     d2, d1, ln, bore, _ = _geometry(d_hole, d_pipe, length, d_bore, uset)
-    lim_emw = cells.positive(cells.number(limit_emw, "limit EMW", "density", uset),
-                             "limit EMW", "density", uset)  # fmt: skip
-    h = cells.positive(cells.number(tvd, "tvd", "depth", uset), "tvd", "depth", uset)
+    lim_emw = cells.positive_number(limit_emw, "limit EMW", "density", uset)
+    h = cells.positive_number(tvd, "tvd", "depth", uset)
     hyd = cells.text(hydrostatic, "hydrostatic", "exact", choices=list(HYDROSTATIC_OPTIONS))
     d = _direction(direction)
     allow = cs.trip_allowance(lim_emw, fluid.density, h, d, hydrostatic=hyd)
@@ -318,13 +310,13 @@ def BF_BREAK_CIRC(
     uset = cells.unit_set(units)
     tg = cells.number(gel_strength, "gel strength", "stress", uset)
     cells.positive(tg, "gel strength", "stress", uset, allow_zero=True)
-    do = _column(d_outer, "outer diameter", "diameter", uset)
-    ln = _column(length, "length", "length", uset, allow_zero=True)
+    do = cells.positive_values(d_outer, "outer diameter", "diameter", uset)
+    ln = cells.positive_values(length, "length", "length", uset, allow_zero=True)
     if _all_blank(d_inner):
         di = 0.0
     else:  # blank cells in a column of pipe ODs mark pipe-bore rows
         filled = [[0.0 if cells.blank(v) else v for v in row] for row in cells.as_grid(d_inner)]
-        di = _column(filled, "inner diameter", "diameter", uset, allow_zero=True)
+        di = cells.positive_values(filled, "inner diameter", "diameter", uset, allow_zero=True)
     shape = cells.broadcast(d_outer=do, length=ln, d_inner=di)
     do_b, di_b = (np.broadcast_to(np.asarray(a, dtype=float), shape) for a in (do, di))
     bad = np.atleast_1d(di_b >= do_b)
