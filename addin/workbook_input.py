@@ -809,6 +809,8 @@ def unit_labels(system: str):
     def unit_of(kind: str):
         if kind in (_TEXT, "flag", "dimensionless"):
             return None
+        if kind == "nozzle":  # sizes are whole 32nds of an inch in every unit system (trade use)
+            return label("in32")
         return label(unit_for(kind, system))
 
     return unit_of

@@ -218,3 +218,12 @@ def test_workbook_kinds_come_from_the_case_schema():
     assert wi.BLOCKS["check"].by_key["program.pv[1]"].kind == program.of == "viscosity"
     assert wi.BLOCKS["string"].by_key["float_valve"].kind == "flag"  # case kind "bool"
     assert wi.BLOCKS["tool_pressure"].by_key["flow_window"].many
+
+
+def test_nozzle_sizes_labelled_in_32nds_in_every_unit_system():
+    # the case file reads nozzle sizes as whole 32nds of an inch (trade use, common practice),
+    # so a metric workbook must not label them mm
+    from addin.workbook_input import unit_labels
+
+    for system in ("oilfield", "metric", "si"):
+        assert unit_labels(system)("nozzle") == "1/32 in"
