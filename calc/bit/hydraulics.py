@@ -23,6 +23,7 @@ import numpy as np
 from calc.bit.nozzles import parse_nozzles
 from calc.errors import InputError, Note, check_positive, check_range
 from calc.flow.area import cross_section_area
+from calc.numeric import float_or_array
 from calc.units import from_si, to_si
 
 __all__ = [
@@ -48,17 +49,12 @@ JET_VELOCITY_WARN = to_si(450.0, "ft/s")
 HSI_WARN = to_si(1.0, "hp/in**2")
 
 
-def _out(x):
-    x = np.asarray(x, dtype=float)
-    return float(x) if x.ndim == 0 else x
-
-
 def nozzle_velocity(q, tfa):
     """Mean nozzle (jet) velocity v_n = Q/A [m/s]; ``q`` [m³/s], ``tfa`` [m²].
 
     Field form v_n[ft/s] = Q[gpm]/(3.117·A[in²]) (Lyons 1996, eq. 4-81).
     """
-    return _out(np.asarray(q, dtype=float) / check_positive("TFA", tfa, "m2"))
+    return float_or_array(np.asarray(q, dtype=float) / check_positive("TFA", tfa, "m2"))
 
 
 def bit_pressure_drop(q, density, tfa, discharge_coefficient=DEFAULT_DISCHARGE_COEFFICIENT):
@@ -90,7 +86,7 @@ def bit_pressure_drop(q, density, tfa, discharge_coefficient=DEFAULT_DISCHARGE_C
     a = check_positive("TFA", tfa, "m2")
     q = np.asarray(q, dtype=float)
     rho = np.asarray(density, dtype=float)
-    return _out(rho * q**2 / (2.0 * cd**2 * a**2))
+    return float_or_array(rho * q**2 / (2.0 * cd**2 * a**2))
 
 
 def bit_hydraulic_power(q, pressure_drop):
@@ -98,7 +94,7 @@ def bit_hydraulic_power(q, pressure_drop):
 
     ``q`` [m³/s], ``pressure_drop`` [Pa].
     """
-    return _out(np.asarray(pressure_drop, dtype=float) * np.asarray(q, dtype=float))
+    return float_or_array(np.asarray(pressure_drop, dtype=float) * np.asarray(q, dtype=float))
 
 
 def hsi(power, bit_size):
@@ -107,7 +103,7 @@ def hsi(power, bit_size):
     ``power`` [W], ``bit_size`` [m].  Field: hp/in².
     """
     d = check_positive("bit size", bit_size, "m")
-    return _out(np.asarray(power, dtype=float) / cross_section_area(d))
+    return float_or_array(np.asarray(power, dtype=float) / cross_section_area(d))
 
 
 def impact_force(q, density, pressure_drop, discharge_coefficient=DEFAULT_DISCHARGE_COEFFICIENT):
@@ -120,7 +116,7 @@ def impact_force(q, density, pressure_drop, discharge_coefficient=DEFAULT_DISCHA
     q = np.asarray(q, dtype=float)
     dp = np.asarray(pressure_drop, dtype=float)
     rho = np.asarray(density, dtype=float)
-    return _out(cd * q * np.sqrt(2.0 * rho * np.maximum(dp, 0.0)))
+    return float_or_array(cd * q * np.sqrt(2.0 * rho * np.maximum(dp, 0.0)))
 
 
 @dataclass(frozen=True)
@@ -225,7 +221,7 @@ def bit_hydraulics(q, density, bit: Bit, standpipe_pressure=None) -> BitHydrauli
     share = None
     if standpipe_pressure is not None:
         spp = check_positive("standpipe pressure", standpipe_pressure, "Pa")
-        share = _out(np.asarray(dp) / spp)
+        share = float_or_array(np.asarray(dp) / spp)
         if np.any(np.asarray(share) > 1.0):
             notes.append(
                 Note(
@@ -236,7 +232,7 @@ def bit_hydraulics(q, density, bit: Bit, standpipe_pressure=None) -> BitHydrauli
                     bit.name,
                 )
             )
-        spp = _out(spp)
+        spp = float_or_array(spp)
     else:
         spp = None
     if np.any(np.asarray(vn) > JET_VELOCITY_WARN):
@@ -260,8 +256,8 @@ def bit_hydraulics(q, density, bit: Bit, standpipe_pressure=None) -> BitHydrauli
             )
         )
     return BitHydraulics(
-        flow_rate=_out(qv),
-        density=_out(rho),
+        flow_rate=float_or_array(qv),
+        density=float_or_array(rho),
         tfa=bit.tfa,
         discharge_coefficient=cd,
         bit_size=bit.size,

@@ -19,12 +19,12 @@ import numpy as np
 
 from calc.bit.hydraulics import (
     DEFAULT_DISCHARGE_COEFFICIENT,
-    _out,
     bit_pressure_drop,
     impact_force,
 )
 from calc.bit.nozzles import parse_nozzles, total_flow_area
 from calc.errors import InputError, Note, check_positive, check_range
+from calc.numeric import float_or_array
 from calc.registry import MethodRegistry
 from calc.units import to_si  # noqa: F401  (doctest)
 
@@ -71,7 +71,7 @@ class ParasiticLoss:
 
     def loss(self, q):
         """ΔP_d = c·Q^m [Pa] at flow rate(s) ``q`` [m³/s]."""
-        return _out(self.c * np.asarray(q, dtype=float) ** self.m)
+        return float_or_array(self.c * np.asarray(q, dtype=float) ** self.m)
 
     @classmethod
     def turbulent_theory(cls, q_ref: float, loss_ref: float) -> ParasiticLoss:
@@ -279,12 +279,12 @@ def optimum_nozzles(
     lim = str(limited) if limited.ndim == 0 else limited
     return NozzleOptimum(
         criterion=criterion,
-        flow_rate=_out(q),
-        parasitic_drop=_out(dpd),
-        bit_drop=_out(dpb),
-        tfa=_out(tfa),
-        bit_share=_out(dpb / p),
-        hydraulic_power=_out(dpb * q),
+        flow_rate=float_or_array(q),
+        parasitic_drop=float_or_array(dpd),
+        bit_drop=float_or_array(dpb),
+        tfa=float_or_array(tfa),
+        bit_share=float_or_array(dpb / p),
+        hydraulic_power=float_or_array(dpb * q),
         impact_force=impact_force(q, rho, dpb, cd),
         limited_by=lim,
         method=f"{info.description} [{info.source}]",

@@ -23,6 +23,7 @@ import numpy as np
 
 from calc.circulation.loop import CirculationResult, circulate
 from calc.errors import InputError, Note, check_positive
+from calc.numeric import float_or_array
 
 __all__ = ["CALIBRATION_LABEL", "FrictionCalibration", "calibrate_friction"]
 
@@ -35,11 +36,6 @@ CALIBRATION_LABEL = (
 
 #: Relative SPP gap above which a note is given (PRACTICE §3.4: beyond ±10 %; user-settable).
 DEFAULT_TOLERANCE = 0.10
-
-
-def _plain(x):
-    x = np.asarray(x, dtype=float)
-    return float(x) if x.ndim == 0 else x
 
 
 @dataclass(frozen=True, eq=False)
@@ -147,7 +143,7 @@ def calibrate_friction(
     dev = mb - spp
     pct = 100.0 * dev / spp
     calibrated = circulate(
-        well, fluid, qb if shape else float(qb), friction_multiplier=_plain(mult),
+        well, fluid, qb if shape else float(qb), friction_multiplier=float_or_array(mult),
         **circulate_options,
     )  # fmt: skip
     notes = [Note("info", "calibration", CALIBRATION_LABEL, "friction multiplier")]
@@ -165,14 +161,14 @@ def calibrate_friction(
         )
     return FrictionCalibration(
         label=CALIBRATION_LABEL,
-        q=_plain(qb),
-        measured_spp=_plain(mb),
-        predicted_spp=_plain(spp),
-        deviation=_plain(dev),
-        deviation_percent=_plain(pct),
-        fixed_loss=_plain(fixed),
-        frictional_loss=_plain(fric),
-        multiplier=_plain(mult),
+        q=float_or_array(qb),
+        measured_spp=float_or_array(mb),
+        predicted_spp=float_or_array(spp),
+        deviation=float_or_array(dev),
+        deviation_percent=float_or_array(pct),
+        fixed_loss=float_or_array(fixed),
+        frictional_loss=float_or_array(fric),
+        multiplier=float_or_array(mult),
         predicted=base,
         calibrated=calibrated,
         notes=tuple(notes),

@@ -27,9 +27,8 @@ same pressure in either convention.
 
 from __future__ import annotations
 
-import numpy as np
-
 from calc.errors import check_choice, check_finite, check_positive
+from calc.numeric import float_or_array
 from calc.units import G_N
 
 __all__ = [
@@ -73,11 +72,6 @@ def gravity_for(hydrostatic: str = "exact") -> float:
     return HYDROSTATIC_OPTIONS[check_choice("hydrostatic", hydrostatic, HYDROSTATIC_OPTIONS)]
 
 
-def _out(x):
-    x = np.asarray(x, dtype=float)
-    return float(x) if x.ndim == 0 else x
-
-
 def hydrostatic_pressure(density, tvd, *, hydrostatic: str = "exact"):
     """Hydrostatic pressure of a fluid column, p = ρ·g·h [Pa].
 
@@ -111,7 +105,7 @@ def hydrostatic_pressure(density, tvd, *, hydrostatic: str = "exact"):
     """
     rho = check_positive("density", density, "kg/m³")
     h = check_finite("tvd", tvd, "m")
-    return _out(rho * gravity_for(hydrostatic) * h)
+    return float_or_array(rho * gravity_for(hydrostatic) * h)
 
 
 def equivalent_density(pressure, tvd, *, hydrostatic: str = "exact"):
@@ -133,7 +127,7 @@ def equivalent_density(pressure, tvd, *, hydrostatic: str = "exact"):
     """
     p = check_finite("pressure", pressure, "Pa")
     h = check_positive("tvd", tvd, "m")
-    return _out(p / (gravity_for(hydrostatic) * h))
+    return float_or_array(p / (gravity_for(hydrostatic) * h))
 
 
 def equivalent_circulating_density(
@@ -173,4 +167,4 @@ def equivalent_circulating_density(
     dp = check_finite("annular_loss", annular_loss, "Pa")
     h = check_positive("tvd", tvd, "m")
     ps = check_finite("back_pressure", back_pressure, "Pa")
-    return _out(rho + (dp + ps) / (gravity_for(hydrostatic) * h))
+    return float_or_array(rho + (dp + ps) / (gravity_for(hydrostatic) * h))

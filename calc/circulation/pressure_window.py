@@ -17,6 +17,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.errors import InputError, check_nonnegative, check_positive
+from calc.numeric import float_or_array
 
 __all__ = [
     "MarginTable",
@@ -27,11 +28,6 @@ __all__ = [
     "limits_at",
     "tabulate_margins",
 ]
-
-
-def _out(x):
-    x = np.asarray(x, dtype=float)
-    return float(x) if x.ndim == 0 else x
 
 
 @dataclass(frozen=True, eq=False)
@@ -92,11 +88,11 @@ class PressureWindow:
 
     def pore_at(self, tvd):
         """Pore EMW [kg/m³] at TVD [m] (linear between stations, end values held)."""
-        return _out(np.interp(np.asarray(tvd, dtype=float), self.tvd, self.pore))
+        return float_or_array(np.interp(np.asarray(tvd, dtype=float), self.tvd, self.pore))
 
     def fracture_at(self, tvd):
         """Fracture EMW [kg/m³] at TVD [m] (linear between stations, end values held)."""
-        return _out(np.interp(np.asarray(tvd, dtype=float), self.tvd, self.fracture))
+        return float_or_array(np.interp(np.asarray(tvd, dtype=float), self.tvd, self.fracture))
 
     def covers(self, tvd):
         """True where ``tvd`` [m] lies within the first and last stations (no extrapolation)."""

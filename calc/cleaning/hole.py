@@ -7,7 +7,6 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.circulation._well_link import _row_names
-from calc.cleaning._numeric import bisect_increasing, scalar_or_array
 from calc.cleaning.indicators import (
     LARSEN_RANGE,
     VERDICTS,
@@ -21,6 +20,7 @@ from calc.cleaning.indicators import (
 )
 from calc.cleaning.transport import Cuttings, TransportResult, annular_transport
 from calc.errors import InputError, Note, check_choice, check_nonnegative, check_positive
+from calc.numeric import bisect_increasing, scalar_or_array
 
 __all__ = [
     "HoleCleaningResult",

@@ -8,10 +8,10 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from calc.cleaning._numeric import bisect_increasing, scalar_or_array
 from calc.cleaning.slip import annular_apparent_viscosity
 from calc.errors import InputError, Note, check_nonnegative, check_positive, check_range
 from calc.flow.area import cross_section_area
+from calc.numeric import bisect_increasing, scalar_or_array
 from calc.units import si_factor
 
 __all__ = [

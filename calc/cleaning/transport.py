@@ -16,10 +16,10 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.cleaning._numeric import scalar_or_array
 from calc.cleaning.slip import SlipResult, slip_velocity
 from calc.errors import InputError, Note, check_nonnegative, check_positive
 from calc.flow.area import cross_section_area, mean_velocity
+from calc.numeric import scalar_or_array
 from calc.units import si_factor
 
 __all__ = [

@@ -15,8 +15,8 @@ from __future__ import annotations
 
 import numpy as np
 
-from calc.cleaning._numeric import scalar_or_array
 from calc.errors import InputError, check_choice, check_nonnegative
+from calc.numeric import scalar_or_array
 
 __all__ = ["clinging_constant", "clinging_constant_exact_newtonian"]
 

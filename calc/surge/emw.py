@@ -7,8 +7,8 @@ Both are thin forms of :mod:`calc.circulation.hydrostatics` (the one place of p 
 from __future__ import annotations
 
 from calc.circulation.hydrostatics import equivalent_circulating_density, hydrostatic_pressure
-from calc.cleaning._numeric import scalar_or_array
 from calc.errors import check_choice, check_positive
+from calc.numeric import scalar_or_array
 from calc.surge.solver import _SIGN
 
 __all__ = ["trip_allowance", "trip_emw"]

@@ -15,8 +15,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from calc.cleaning._numeric import scalar_or_array
 from calc.errors import InputError, Note, check_nonnegative, check_positive
+from calc.numeric import scalar_or_array
 from calc.surge.emw import trip_emw
 
 __all__ = ["BreakCirculationResult", "break_circulation_pressure", "gel_break_pressure"]

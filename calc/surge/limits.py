@@ -22,7 +22,6 @@ from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT
 from calc.circulation._well_link import depth_point, parts
 from calc.circulation.pressure_window import limits_at
 from calc.circulation.result import _depth_weights
-from calc.cleaning._numeric import bisect_increasing, scalar_or_array
 from calc.errors import (
     InputError,
     Note,
@@ -32,6 +31,7 @@ from calc.errors import (
     check_positive,
 )
 from calc.flow.solvers import itp_solve
+from calc.numeric import bisect_increasing, scalar_or_array
 from calc.surge.clinging import _check_clinging
 from calc.surge.emw import trip_allowance
 from calc.surge.solver import (

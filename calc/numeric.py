@@ -1,10 +1,10 @@
-"""Small vectorised numerical helpers shared by the cleaning, surge and window modules."""
+"""Small vectorised numerical helpers shared across calc (scalar-in/scalar-out, bisection)."""
 
 from __future__ import annotations
 
 import numpy as np
 
-__all__ = ["bisect_increasing", "scalar_or_array"]
+__all__ = ["bisect_increasing", "float_or_array", "scalar_or_array"]
 
 
 def bisect_increasing(fun, lo, hi, *, iterations: int = 64, log: bool = False):
@@ -34,4 +34,14 @@ def bisect_increasing(fun, lo, hi, *, iterations: int = 64, log: bool = False):
 def scalar_or_array(x):
     """Python float for 0-d input, the array otherwise (scalar in, scalar out)."""
     arr = np.asarray(x)
+    return float(arr) if arr.ndim == 0 else arr
+
+
+def float_or_array(x):
+    """``x`` as floats: a Python float for 0-d input, a float array otherwise.
+
+    >>> float_or_array(3), float_or_array([1, 2]).dtype.name
+    (3.0, 'float64')
+    """
+    arr = np.asarray(x, dtype=float)
     return float(arr) if arr.ndim == 0 else arr
