@@ -1,21 +1,18 @@
 """Input errors and non-fatal notes.
 
 :class:`InputError` is raised for impossible input; its message names the input, the value
-and what is allowed.  Doubtful-but-possible findings travel on results as :class:`Note`
+and what is allowed.  Doubtful-but-possible findings travel on results as :class:`calc.notes.Note`
 objects (never as printed warnings), so every face of the program can show them.
 """
 
 from __future__ import annotations
 
 import difflib
-from dataclasses import dataclass
-from typing import Literal
 
 import numpy as np
 
 __all__ = [
     "InputError",
-    "Note",
     "as_float_array",
     "check_choice",
     "check_finite",
@@ -46,27 +43,6 @@ class InputError(ValueError):
         self.allowed = allowed
         self.problem = problem
         super().__init__(f"{name} = {_fmt(value)}: {problem}; allowed: {allowed}")
-
-
-@dataclass(frozen=True)
-class Note:
-    """A non-fatal finding attached to a result.
-
-    level   ``"info"`` (an interpretation made), ``"warning"`` (doubtful input or result) or
-            ``"caution"`` (a safety-relevant finding: ECD near fracture, swab near pore …).
-    code    stable machine identifier, e.g. ``"transitional_flow"``.
-    message one plain sentence for the user.
-    subject the input, interval or depth it concerns (may be empty).
-    """
-
-    level: Literal["info", "warning", "caution"]
-    code: str
-    message: str
-    subject: str = ""
-
-    def __str__(self) -> str:
-        where = f" [{self.subject}]" if self.subject else ""
-        return f"{self.level.upper()}{where}: {self.message}"
 
 
 def as_float_array(name: str, value) -> np.ndarray:

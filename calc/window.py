@@ -23,7 +23,8 @@ import numpy as np
 
 from calc.cleaning import Cuttings, cuttings_ecd_increment, hole_cleaning
 from calc.cleaning.indicators import cleaning_score
-from calc.errors import InputError, Note, check_positive
+from calc.errors import InputError, check_positive
+from calc.notes import Note
 
 __all__ = ["OperatingWindow", "operating_window"]
 

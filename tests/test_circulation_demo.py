@@ -11,6 +11,7 @@ sub-intervals, surface lines as pipe runs), so the annulus is compared more loos
 import numpy as np
 import pytest
 
+from addin import text
 from calc.circulation import FLUID_FITS, calibrate_friction, circulate
 from calc.units import from_si
 from tests import demo_well as demo
@@ -108,7 +109,7 @@ def test_demo_calibration_against_the_measured_spp():
 
 def test_demo_exact_laminar_warns_that_the_string_is_not_laminar():
     r = run("exact_laminar", 0)
-    assert any(n.code == "above_laminar_limit" or "not laminar" in n.message for n in r.notes)
+    assert any(n.code == "above_laminar_limit" or "not laminar" in text.note(n) for n in r.notes)
     assert r.standpipe_pressure < run("api13d_2010_hb", 0).standpipe_pressure
 
 

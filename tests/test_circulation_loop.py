@@ -12,6 +12,7 @@ import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
+from addin import text
 from calc.bit import Bit
 from calc.circulation import (
     CALIBRATION_LABEL,
@@ -274,7 +275,7 @@ def test_notes_margins_pore_rating_and_tool_window():
     assert "weak_point_not_reached" in codes
     wc = next(n for n in r.notes if n.code == "static_below_pore")
     # wording required by PRACTICE §3.4
-    assert "this tool does not assess well control; follow your procedures" in wc.message.lower()
+    assert "this tool does not assess well control; follow your procedures" in text.note(wc).lower()
     slow = circulate(well, hb_fluid(), to_si(300.0, "gpm"))
     assert "tool_flow_window" in {n.code for n in slow.notes}
     lam = circulate(well, hb_fluid(), to_si(100.0, "gpm"))
@@ -420,5 +421,5 @@ def test_interval_names_and_sweep_notes_in_the_message_units():
     top, bot = 0.0, 500.0  # the first string interval: surface to the kick-off station
     assert f"MD {top / 0.3048:,.0f}-{bot / 0.3048:,.0f} ft" in oil.string_names[0]
     sweep = circulate(well, hb_fluid(), np.linspace(0.3, 1.6, 5) * Q, message_units="oilfield")
-    texts = " ".join(n.message for n in sweep.notes)
+    texts = " ".join(text.note(n) for n in sweep.notes)
     assert "m³/s" not in texts and "gpm" in texts

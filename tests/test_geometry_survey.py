@@ -10,6 +10,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from addin import text
 from calc.errors import InputError
 from calc.geometry import Survey
 from calc.units import from_si, to_si
@@ -104,7 +105,7 @@ def test_high_dogleg_gives_note_only_above_10_deg_per_100ft():
     steep = Survey(np.array([0, 1000, 1100]) * ft, [0.0, 0.0, 15.0], [0.0, 0.0, 0.0])
     mild = Survey(np.array([0, 1000, 1100]) * ft, [0.0, 0.0, 5.0], [0.0, 0.0, 0.0])
     assert [n.code for n in steep.notes] == ["high_dogleg"]
-    assert "15.0°/100 ft" in steep.notes[0].message
+    assert "15.0°/100 ft" in text.note(steep.notes[0])
     assert mild.notes == ()
 
 

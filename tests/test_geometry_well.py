@@ -10,6 +10,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from addin import text
 from calc.bit import Bit
 from calc.errors import InputError
 from calc.geometry import (
@@ -177,7 +178,7 @@ def test_bit_larger_than_drift_is_a_warning():
     casing = HoleSection("casing", 0.0, 2500.0, 8.535 * IN, drift=8.379 * IN)
     hole = Hole.from_casing([casing], depth=4000.0, bit_size=8.75 * IN)
     w = _well(hole=hole, bit=Bit(8.75 * IN, nozzles=[12] * 6))
-    msgs = [n.message for n in w.notes if n.code == "bit_above_drift"]
+    msgs = [text.note(n) for n in w.notes if n.code == "bit_above_drift"]
     assert msgs == ["8.75 in bit will not pass the 8.379 in drift of 'casing'"]
 
 

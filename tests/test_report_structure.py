@@ -16,6 +16,7 @@ import openpyxl
 import pytest
 from _report_demo import demo_report_path, demo_results
 
+from addin import text
 from calc import cautions
 from calc.units import from_si
 
@@ -266,7 +267,7 @@ def test_every_label_in_the_case_units_for_a_metric_case(tmp_path):
         for t in _texts(ws):
             assert not re.search(r"\d ft\b|ppg|psi|gpm", t), (ws.title, t)
     for n in res.notes:
-        assert not re.search(r"\d ft\b|ppg|psi|gpm", n.message), n.message
+        assert not re.search(r"\d ft\b|ppg|psi|gpm", text.note(n)), text.note(n)
     assert any(" m" in n for n in res.circulation.string_names)
 
 

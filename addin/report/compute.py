@@ -12,7 +12,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 import calc
-from calc.errors import Note
+from calc.notes import Note
 
 __all__ = ["CheckHydraulics", "CheckResults", "Results", "compute"]
 
@@ -327,9 +327,8 @@ def _trips(case, well, fluid, method):
 def _dedupe(notes) -> tuple[Note, ...]:
     seen, out = set(), []
     for n in notes:
-        key = (n.level, n.code, n.message, n.subject)
-        if key not in seen:
-            seen.add(key)
+        if n not in seen:
+            seen.add(n)
             out.append(n)
     return tuple(out)
 

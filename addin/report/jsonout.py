@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from addin import text
 from addin.report.compute import scalar
 from addin.report.sheet_cleaning import short_name
 from calc.units import from_si, label, unit_for
@@ -211,7 +212,12 @@ def results_data(results) -> dict:
         for t in results.trend
     ]
     out["notes"] = [
-        {"level": n.level, "code": n.code, "subject": n.subject, "message": n.message}
+        {
+            "level": n.level,
+            "code": n.code,
+            "subject": text.subject(n, s),
+            "message": text.note(n, s),
+        }
         for n in results.notes
     ]
     return out

@@ -5,7 +5,6 @@ from __future__ import annotations
 import numpy as np
 
 from addin.report.audit import Factors, write_checked
-from addin.report.style import display_number as _o
 from addin.report.style import (
     heading,
     merged_text,
@@ -16,7 +15,8 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
-from addin.report.style import unit_label as U
+from addin.text import display_number as _o
+from addin.text import unit_label as U
 
 __all__ = ["short_name", "write_cleaning", "write_trips"]
 

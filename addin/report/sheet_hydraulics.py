@@ -8,7 +8,6 @@ from openpyxl.worksheet.pagebreak import Break
 from addin.report.audit import Factors, cell_ref, write_checked
 from addin.report.charts import depth_profile, pressure_breakdown
 from addin.report.compute import scalar
-from addin.report.style import display_number as _o
 from addin.report.style import (
     heading,
     merged_text,
@@ -20,7 +19,8 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
-from addin.report.style import unit_label as U
+from addin.text import display_number as _o
+from addin.text import unit_label as U
 
 __all__ = ["write_bit", "write_ecd", "write_hydraulics"]
 

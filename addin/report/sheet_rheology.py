@@ -7,7 +7,6 @@ from openpyxl.utils import get_column_letter
 
 from addin.report.audit import Factors, cell_ref, write_checked
 from addin.report.charts import rheogram
-from addin.report.style import display_number as _out
 from addin.report.style import (
     heading,
     note_row,
@@ -18,7 +17,8 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
-from addin.report.style import unit_label as U
+from addin.text import display_number as _out
+from addin.text import unit_label as U
 
 __all__ = ["write_rheology"]
 

@@ -25,8 +25,8 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
-from addin.report.style import display_values as _o
-from addin.report.style import unit_label as U
+from addin.text import display_values as _o
+from addin.text import unit_label as U
 
 __all__ = ["SHEET", "allowed_ecd", "binding_words", "write_window"]
 

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from openpyxl.styles import Font, PatternFill
 
+from addin import text
 from addin.report.audit import AGREE_TOL
 from addin.report.style import (
     PALETTE,
@@ -17,8 +18,8 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
-from addin.report.style import display_number as out
-from addin.report.style import unit_label as U
+from addin.text import display_number as out
+from addin.text import unit_label as U
 from calc import cautions
 
 __all__ = ["write_audit", "write_cautions", "write_inputs", "write_summary"]
@@ -74,9 +75,10 @@ def write_cautions(wb, results, title):
         if n.level == "caution":
             ws.cell(row=row, column=1).font = Font(bold=True, color=PALETTE["bad"], size=9)
         put(ws, row, 2, n.code, "bf_cell")
-        put(ws, row, 3, n.subject, "bf_text")
-        put(ws, row, 4, n.message, "bf_text")
-        lines = max(1 + len(n.message) // 110, 1 + len(n.subject) // 44)
+        about, message = text.subject(n, results.case.system), text.note(n, results.case.system)
+        put(ws, row, 3, about, "bf_text")
+        put(ws, row, 4, message, "bf_text")
+        lines = max(1 + len(message) // 110, 1 + len(about) // 44)
         ws.row_dimensions[row].height = 12.0 * lines
         row += 1
     if not results.notes:

@@ -8,19 +8,15 @@ Liberation Sans, so column widths hold on any machine).
 
 from __future__ import annotations
 
-import numpy as np
 from openpyxl.styles import Alignment, Border, Font, NamedStyle, PatternFill, Side
 from openpyxl.utils import get_column_letter
 
 from addin.safe_io import set_text
-from calc.units import from_si, label, unit_for
 
 __all__ = [
     "FONT",
     "PALETTE",
     "add_styles",
-    "display_number",
-    "display_values",
     "heading",
     "merged_text",
     "note_row",
@@ -30,7 +26,6 @@ __all__ = [
     "set_widths",
     "setup_print",
     "table_header",
-    "unit_label",
 ]
 
 FONT = "Arial"
@@ -128,44 +123,6 @@ _FORMATS["si"] = {
 def number_format(kind: str, system: str) -> str:
     """Display format for a quantity kind in a unit system ("General" for unknown kinds)."""
     return _FORMATS.get(system, _FORMATS["oilfield"]).get(kind, "General")
-
-
-def display_number(v, kind: str, system: str) -> float | None:
-    """SI → the number shown in the case's unit for ``kind``; None and non-finite → None.
-
-    An array gives its first value (the report runs one rate).
-
-    >>> round(display_number(1318.0907, "density", "oilfield"), 4)
-    11.0
-    >>> display_number(float("nan"), "density", "oilfield") is None
-    True
-    """
-    if v is None:
-        return None
-    v = float(np.asarray(v, dtype=float).reshape(-1)[0]) if np.ndim(v) else float(v)
-    if not np.isfinite(v):
-        return None
-    return float(from_si(v, unit_for(kind, system), kind))
-
-
-def display_values(v, kind: str, system: str):
-    """SI → the case's unit, arrays too (a list); None and non-finite values → None.
-
-    >>> display_values([1318.0907, float("nan")], "density", "oilfield")[1] is None
-    True
-    """
-    a = np.asarray(v, dtype=float)
-    out = np.asarray(from_si(a, unit_for(kind, system), kind), dtype=float)
-    if out.ndim == 0:
-        return float(out) if np.isfinite(out) else None
-    return [float(x) if np.isfinite(x) else None for x in out]
-
-
-def unit_label(kind: str, system: str) -> str:
-    """Printable unit of a quantity kind in a unit system ("" for dimensionless)."""
-    if kind in ("dimensionless", "", None):
-        return "–"
-    return label(unit_for(kind, system))
 
 
 def add_styles(wb) -> None:

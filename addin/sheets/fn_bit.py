@@ -8,6 +8,7 @@ The flow rate may be a range; the result then has the same shape.
 
 from typing import Any
 
+from addin import text
 from addin.sheets import cells
 from addin.sheets.framework import Cells, Num, sheet_function
 from calc import bit as cb
@@ -183,5 +184,5 @@ def BF_BIT(
         rows.append([label, uset.from_si(value, kind), uset.label(kind)])
     rows.append(["discharge coefficient", res.discharge_coefficient, ""])
     rows.append(["method", res.method, ""])
-    rows += [["note", str(note), note.level] for note in res.notes]
+    rows += [["note", text.note_line(note, uset), note.level] for note in res.notes]
     return rows

@@ -10,6 +10,7 @@ from typing import Any
 
 import numpy as np
 
+from addin import text
 from addin.sheets import cells
 from addin.sheets.fn_rheology import viscometer
 from addin.sheets.framework import Cells, Num, Text, sheet_function
@@ -271,7 +272,7 @@ def BF_TRANSPORT(
         v = float(np.asarray(value))
         rows.append([label, uset.from_si(v, kind) if kind else v, uset.label(kind) if kind else ""])
     rows.append(["method", res.method, ""])
-    rows += [["note", str(n), n.level] for n in res.notes]
+    rows += [["note", text.note_line(n, uset), n.level] for n in res.notes]
     return rows
 
 

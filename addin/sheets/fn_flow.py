@@ -14,6 +14,7 @@ from typing import Any
 
 import numpy as np
 
+from addin import text
 from addin.sheets import cells
 from addin.sheets.fn_cleaning import annulus
 from addin.sheets.fn_rheology import viscometer
@@ -201,7 +202,7 @@ def _flow_table(res: cf.FlowResult, uset) -> list[list]:
         )
     rows.append(["regime", str(res.regime_label), ""])
     rows.append(["method", res.method_label, ""])
-    rows += [["note", str(n), n.level] for n in res.notes]
+    rows += [["note", text.note_line(n, uset), n.level] for n in res.notes]
     return rows
 
 

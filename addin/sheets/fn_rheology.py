@@ -9,6 +9,7 @@ least squares), then the units.  Fit methods: the names of
 
 from typing import Any
 
+from addin import text
 from addin.sheets import cells
 from addin.sheets.framework import Cells, Text, sheet_function
 from calc import rheology as cr
@@ -201,7 +202,7 @@ def BF_FIT(
         ["highest shear rate", res.shear_rate_range[1], "1/s"],
         ["description", res.description, ""],
     ]
-    rows += [["note", str(n), n.level] for n in res.notes]
+    rows += [["note", text.note_line(n, uset), n.level] for n in res.notes]
     return rows
 
 

@@ -21,8 +21,9 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.bit.nozzles import parse_nozzles
-from calc.errors import InputError, Note, check_positive, check_range
+from calc.errors import InputError, check_positive, check_range
 from calc.flow.area import cross_section_area
+from calc.notes import Note
 from calc.numeric import float_or_array
 from calc.units import from_si, to_si
 

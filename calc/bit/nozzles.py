@@ -15,8 +15,9 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from calc.errors import InputError, Note
+from calc.errors import InputError
 from calc.flow.area import cross_section_area
+from calc.notes import Note
 from calc.units import from_si, si_factor  # noqa: F401  (from_si: doctest)
 
 __all__ = ["NOZZLE_RANGE", "NOZZLE_UNIT", "NozzleSet", "parse_nozzles", "total_flow_area"]

@@ -23,7 +23,8 @@ from calc.bit.hydraulics import (
     impact_force,
 )
 from calc.bit.nozzles import parse_nozzles, total_flow_area
-from calc.errors import InputError, Note, check_positive, check_range
+from calc.errors import InputError, check_positive, check_range
+from calc.notes import Note
 from calc.numeric import float_or_array
 from calc.registry import MethodRegistry
 from calc.units import to_si  # noqa: F401  (doctest)

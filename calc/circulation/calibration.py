@@ -22,7 +22,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from calc.circulation.loop import CirculationResult, circulate
-from calc.errors import InputError, Note, check_positive
+from calc.errors import InputError, check_positive
+from calc.notes import Note
 from calc.numeric import float_or_array
 
 __all__ = ["CALIBRATION_LABEL", "FrictionCalibration", "calibrate_friction"]

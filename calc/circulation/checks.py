@@ -5,7 +5,7 @@ from __future__ import annotations
 import numpy as np
 
 from calc.circulation.pressure_window import Margins, MarginTable, limits_at, tabulate_margins
-from calc.errors import Note
+from calc.notes import Note
 
 __all__: list[str] = []
 
@@ -48,7 +48,7 @@ def _interval_note(level, code, what, consequence, mask, names, q_flat, fmt=None
 def _dedupe(notes):
     seen, out = set(), []
     for n in notes:
-        key = (n.code, n.subject, n.message)
+        key = (n.code, n.subject, n.text, n.values)
         if key not in seen:
             seen.add(key)
             out.append(n)

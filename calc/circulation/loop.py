@@ -26,7 +26,8 @@ from calc.circulation.result import (
     _reshape_flow,
     _scalar,
 )
-from calc.errors import InputError, Note, check_choice, check_positive, check_range
+from calc.errors import InputError, check_choice, check_positive, check_range
+from calc.notes import Note
 from calc.units import from_si
 
 __all__ = ["CirculationResult", "Profile", "circulate"]

@@ -9,7 +9,8 @@ import numpy as np
 
 from calc.circulation.hydrostatics import equivalent_circulating_density, hydrostatic_pressure
 from calc.circulation.pressure_window import MarginTable, PressureWindow, WeakPoint, limits_at
-from calc.errors import Note, check_positive, check_range
+from calc.errors import check_positive, check_range
+from calc.notes import Note
 
 __all__ = ["MARGIN_STEP", "CirculationResult", "Profile"]
 

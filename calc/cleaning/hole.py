@@ -19,7 +19,8 @@ from calc.cleaning.indicators import (
     verdict_levels,
 )
 from calc.cleaning.transport import Cuttings, TransportResult, annular_transport
-from calc.errors import InputError, Note, check_choice, check_nonnegative, check_positive
+from calc.errors import InputError, check_choice, check_nonnegative, check_positive
+from calc.notes import Note
 from calc.numeric import bisect_increasing, scalar_or_array
 
 __all__ = [

@@ -9,8 +9,9 @@ from dataclasses import dataclass
 import numpy as np
 
 from calc.cleaning.slip import annular_apparent_viscosity
-from calc.errors import InputError, Note, check_nonnegative, check_positive, check_range
+from calc.errors import InputError, check_nonnegative, check_positive, check_range
 from calc.flow.area import cross_section_area
+from calc.notes import Note
 from calc.numeric import bisect_increasing, scalar_or_array
 from calc.units import si_factor
 

@@ -30,8 +30,9 @@ from types import SimpleNamespace
 
 import numpy as np
 
-from calc.errors import InputError, Note, check_nonnegative, check_positive
+from calc.errors import InputError, check_nonnegative, check_positive
 from calc.flow import api_wall_shear
+from calc.notes import Note
 from calc.numeric import bisect_increasing, scalar_or_array
 from calc.registry import MethodRegistry
 from calc.units import G_N, si_factor

@@ -17,8 +17,9 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.cleaning.slip import SlipResult, slip_velocity
-from calc.errors import InputError, Note, check_nonnegative, check_positive
+from calc.errors import InputError, check_nonnegative, check_positive
 from calc.flow.area import cross_section_area, mean_velocity
+from calc.notes import Note
 from calc.numeric import scalar_or_array
 from calc.units import si_factor
 

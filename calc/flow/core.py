@@ -9,13 +9,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from calc.errors import (
-    InputError,
-    Note,
-    check_nonnegative,
-    check_positive,
-    check_range,
-)
+from calc.errors import InputError, check_nonnegative, check_positive, check_range
 from calc.flow.distinct import distinct_combinations
 from calc.flow.eccentricity import VALIDITY, eccentricity_factor
 from calc.flow.result import (
@@ -29,6 +23,7 @@ from calc.flow.result import (
     count_note,
 )
 from calc.flow.solvers import solve_positive
+from calc.notes import Note
 from calc.registry import MethodInfo
 
 __all__ = ["DEFAULT_METHOD", "annulus_flow", "critical_flow_rate", "list_methods", "pipe_flow"]

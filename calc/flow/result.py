@@ -14,8 +14,8 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.errors import Note
 from calc.flow.area import cross_section_area
+from calc.notes import Note
 from calc.registry import MethodRegistry
 
 __all__ = [

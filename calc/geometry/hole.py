@@ -11,8 +11,9 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.errors import InputError, Note, check_choice, check_nonnegative, check_positive
+from calc.errors import InputError, check_choice, check_nonnegative, check_positive
 from calc.geometry._fmt import show
+from calc.notes import Note
 
 __all__ = ["HOLE_KINDS", "WASHOUT_WARN", "Hole", "HoleSection"]
 

@@ -11,8 +11,9 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.errors import InputError, Note, check_nonnegative, check_positive
+from calc.errors import InputError, check_nonnegative, check_positive
 from calc.geometry._fmt import show
+from calc.notes import Note
 from calc.units import to_si
 
 __all__ = ["FILL", "DrillString", "StringComponent"]

@@ -9,8 +9,9 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.errors import InputError, Note, check_positive
+from calc.errors import InputError, check_positive
 from calc.geometry._fmt import show
+from calc.notes import Note
 
 __all__ = ["SurfaceLine", "ToolPressureDrop"]
 

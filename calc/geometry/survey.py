@@ -11,8 +11,9 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.errors import InputError, Note, check_finite, check_range
+from calc.errors import InputError, check_finite, check_range
 from calc.geometry._fmt import show
+from calc.notes import Note
 from calc.units import to_si
 
 __all__ = ["Survey"]

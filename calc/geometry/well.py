@@ -20,13 +20,14 @@ from dataclasses import dataclass, field, fields
 import numpy as np
 
 from calc.bit import Bit
-from calc.errors import InputError, Note, check_positive
+from calc.errors import InputError, check_positive
 from calc.flow.area import cross_section_area
 from calc.geometry._fmt import show
 from calc.geometry.hole import Hole
 from calc.geometry.string import DrillString
 from calc.geometry.surface import SurfaceLine, ToolPressureDrop
 from calc.geometry.survey import Survey
+from calc.notes import Note
 
 __all__ = ["DepthGrid", "FlowIntervals", "Well"]
 

@@ -35,7 +35,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from calc.errors import InputError, Note
+from calc.errors import InputError
+from calc.notes import Note
 from calc.rheology.fitting import fit
 from calc.rheology.viscometer import CENTIPOISE, FIELD_STRESS, ViscometerReadings
 

@@ -23,7 +23,8 @@ from __future__ import annotations
 import numpy as np
 from scipy.optimize import least_squares
 
-from calc.errors import InputError, Note
+from calc.errors import InputError
+from calc.notes import Note
 from calc.rheology.fit_viscometer import fit_hb_stress, n_notes
 from calc.rheology.fitresult import LOG_SPACE, TABLE_FITS, FitResult, quality_of
 from calc.rheology.models import CarreauYasuda, Cross, HerschelBulkley, Newtonian, PowerLaw

@@ -39,7 +39,8 @@ from __future__ import annotations
 import numpy as np
 from scipy.optimize import minimize_scalar
 
-from calc.errors import InputError, Note
+from calc.errors import InputError
+from calc.notes import Note
 from calc.rheology.fitresult import STRESS_SPACE, VISCOMETER_FITS, FitResult, quality_of
 from calc.rheology.models import Bingham, HerschelBulkley, Newtonian, PowerLaw
 from calc.rheology.viscometer import CENTIPOISE, FIELD_STRESS, ViscometerReadings

@@ -27,7 +27,8 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.errors import Note, check_finite
+from calc.errors import check_finite
+from calc.notes import Note
 from calc.registry import MethodRegistry
 
 __all__ = [

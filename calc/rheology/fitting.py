@@ -13,7 +13,8 @@ from __future__ import annotations
 
 import numpy as np
 
-from calc.errors import InputError, Note
+from calc.errors import InputError
+from calc.notes import Note
 
 # importing the fit modules registers their methods
 from calc.rheology import fit_table as _fit_table  # noqa: F401

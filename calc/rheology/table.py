@@ -23,7 +23,8 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.errors import InputError, Note, as_float_array
+from calc.errors import InputError, as_float_array
+from calc.notes import Note
 from calc.units import to_si
 
 __all__ = ["Plateau", "RheometerTable", "find_plateau", "shear_thinning_region"]

@@ -37,7 +37,8 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.errors import InputError, Note, as_float_array, check_finite
+from calc.errors import InputError, as_float_array, check_finite
+from calc.notes import Note
 from calc.units import si_factor
 
 __all__ = [

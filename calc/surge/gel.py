@@ -15,7 +15,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from calc.errors import InputError, Note, check_nonnegative, check_positive
+from calc.errors import InputError, check_nonnegative, check_positive
+from calc.notes import Note
 from calc.numeric import scalar_or_array
 from calc.surge.emw import trip_emw
 

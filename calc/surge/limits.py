@@ -22,15 +22,9 @@ from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT
 from calc.circulation._well_link import depth_point, parts
 from calc.circulation.pressure_window import limits_at
 from calc.circulation.result import _depth_weights
-from calc.errors import (
-    InputError,
-    Note,
-    check_choice,
-    check_finite,
-    check_nonnegative,
-    check_positive,
-)
+from calc.errors import InputError, check_choice, check_finite, check_nonnegative, check_positive
 from calc.flow.solvers import itp_solve
+from calc.notes import Note
 from calc.numeric import bisect_increasing, scalar_or_array
 from calc.surge.clinging import _check_clinging
 from calc.surge.emw import trip_allowance

@@ -19,8 +19,9 @@ import numpy as np
 
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT
 from calc.circulation.result import _depth_weights
-from calc.errors import Note, check_nonnegative, check_positive
+from calc.errors import check_nonnegative, check_positive
 from calc.flow import mean_velocity
+from calc.notes import Note
 from calc.numeric import scalar_or_array
 from calc.surge.emw import trip_emw
 from calc.surge.solver import (

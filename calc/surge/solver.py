@@ -29,9 +29,10 @@ import numpy as np
 
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT, bit_pressure_drop
 from calc.circulation._well_link import _row_names
-from calc.errors import InputError, Note, check_choice, check_nonnegative, check_positive
+from calc.errors import InputError, check_choice, check_nonnegative, check_positive
 from calc.flow import annulus_flow, cross_section_area, pipe_flow
 from calc.flow.solvers import itp_solve
+from calc.notes import Note
 from calc.surge.clinging import _check_clinging, clinging_constant
 
 __all__ = ["PEAK_FACTOR"]

@@ -1,0 +1,180 @@
+"""The one formatter of the faces: SI values, notes and places in the well → words and numbers.
+
+:mod:`calc` returns SI numbers, quantity kinds, :class:`~calc.span.Span` places and structured
+:class:`~calc.notes.Note` findings; the report, the command line, the JSON output and the
+worksheet functions all turn them into text here, in any named unit system
+(``"oilfield"``, ``"metric"``, ``"si"``; :data:`calc.units.UNIT_SYSTEMS`), or in a worksheet
+function's unit set (any object with a ``unit(kind)`` method).
+
+>>> quantity(0.03293, "flow_rate", "oilfield")
+'522 gpm'
+>>> depth_span(1828.8, 2499.36)
+'MD 6,000-8,200 ft'
+>>> depth_span(1828.8, 2499.36, "metric")
+'MD 1,828.8-2,499.4 m'
+>>> span(Span("annulus", "5 in DP", "9-5/8 in casing", top_md=1828.8, bottom_md=2499.36))
+'5 in DP in 9-5/8 in casing, MD 6,000-8,200 ft'
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from calc.notes import Note, Value, fill
+from calc.span import Span
+from calc.units import from_si, label, unit_for
+
+__all__ = [
+    "depth_point",
+    "depth_span",
+    "display_number",
+    "display_values",
+    "note",
+    "note_line",
+    "number_text",
+    "quantity",
+    "span",
+    "subject",
+    "unit_label",
+    "value",
+]
+
+
+def _unit(kind: str, system) -> str:
+    """The unit text of ``kind``: ``system`` is a unit-system name or any object with a
+    ``unit(kind)`` method (a worksheet function's unit set with per-kind overrides)."""
+    return unit_for(kind, system) if isinstance(system, str) else system.unit(kind)
+
+
+def unit_label(kind: str, system: str) -> str:
+    """Printable unit of a quantity kind in a unit system ("–" for dimensionless).
+
+    >>> unit_label("stress", "oilfield")
+    'lbf/100ft²'
+    """
+    if kind in ("dimensionless", "", None):
+        return "–"
+    return label(_unit(kind, system))
+
+
+def display_number(v, kind: str, system: str) -> float | None:
+    """SI → the number shown in the system's unit for ``kind``; None and non-finite → None.
+
+    An array gives its first value (the report runs one rate).
+
+    >>> round(display_number(1318.0907, "density", "oilfield"), 4)
+    11.0
+    >>> display_number(float("nan"), "density", "oilfield") is None
+    True
+    """
+    if v is None:
+        return None
+    v = float(np.asarray(v, dtype=float).reshape(-1)[0]) if np.ndim(v) else float(v)
+    if not np.isfinite(v):
+        return None
+    return float(from_si(v, _unit(kind, system), kind))
+
+
+def display_values(v, kind: str, system: str):
+    """SI → the system's unit, arrays too (a list); None and non-finite values → None.
+
+    >>> display_values([1318.0907, float("nan")], "density", "oilfield")[1] is None
+    True
+    """
+    a = np.asarray(v, dtype=float)
+    out = np.asarray(from_si(a, _unit(kind, system), kind), dtype=float)
+    if out.ndim == 0:
+        return float(out) if np.isfinite(out) else None
+    return [float(x) if np.isfinite(x) else None for x in out]
+
+
+def number_text(x: float, kind: str = "", spec: str = "") -> str:
+    """A display number as text: ``spec`` if given, else thousands separators from 1,000 up,
+    whole feet/metres-with-one-decimal for depths and lengths, 3–4 significant digits below.
+
+    >>> number_text(10680.2, "depth"), number_text(3255.26, "depth"), number_text(0.3048)
+    ('10,680', '3,255', '0.3048')
+    """
+    if spec:
+        return format(x, spec)
+    if not np.isfinite(x):
+        return str(x)
+    if kind in ("depth", "length"):
+        return f"{x:,.0f}" if abs(x) >= 100 else f"{x:,.1f}"
+    return f"{x:,.0f}" if abs(x) >= 1000 else f"{x:.4g}"
+
+
+def quantity(v_si: float, kind: str, system: str = "oilfield", spec: str = "") -> str:
+    """An SI value as "number unit" in the system's unit for ``kind``.
+
+    >>> quantity(1318.09, "density", "oilfield"), quantity(2.0e7, "pressure", "metric")
+    ('11 ppg', '200 bar')
+    """
+    if not kind or kind == "dimensionless":
+        return number_text(float(v_si), "", spec)
+    u = _unit(kind, system)
+    return f"{number_text(float(from_si(float(v_si), u, kind)), kind, spec)} {label(u)}"
+
+
+def _md(x: float, system: str) -> str:
+    u = _unit("depth", system)
+    digits = 0 if u == "ft" else 1
+    return f"{float(from_si(float(x), u)):,.{digits}f}"
+
+
+def depth_span(top: float, bottom: float, system: str = "oilfield") -> str:
+    """An MD range [m] as 'MD a-b unit' in the system's depth unit (feet whole, metres to 0.1)."""
+    return f"MD {_md(top, system)}-{_md(bottom, system)} {label(_unit('depth', system))}"
+
+
+def depth_point(md: float, system: str = "oilfield") -> str:
+    """One MD [m] as 'MD x unit'.
+
+    >>> depth_point(3255.264)
+    'MD 10,680 ft'
+    """
+    return f"MD {_md(md, system)} {label(_unit('depth', system))}"
+
+
+def span(s: Span, system: str = "oilfield", *, depths: bool = True) -> str:
+    """A place in the well in words: "item[ tool joints][ in section], MD a-b unit"."""
+    part = s.part
+    where = f"{part} in {s.section}" if s.section else part
+    if depths and s.has_depth:
+        where += f", {depth_span(s.top_md, s.bottom_md, system)}"
+    return where
+
+
+def value(v: Value, system: str = "oilfield", spec: str = "") -> str:
+    """One note value as text in the unit system (ranges as "a-b unit", lists joined by "; ")."""
+    x = v.value
+    if isinstance(x, Span):
+        return span(x, system)
+    if isinstance(x, str):
+        return x
+    if isinstance(x, tuple) and x and all(isinstance(e, (int, float)) for e in x):
+        if not v.kind or v.kind == "dimensionless":
+            return "-".join(number_text(float(e), "", spec) for e in x)
+        u = _unit(v.kind, system)
+        nums = [number_text(float(from_si(float(e), u, v.kind)), v.kind, spec) for e in x]
+        return "-".join(nums) + f" {label(u)}"
+    if isinstance(x, tuple):
+        return "; ".join(value(Value(v.name, e, v.kind), system, spec) for e in x)
+    return quantity(float(x), v.kind, system, spec)
+
+
+def note(n: Note, system: str = "oilfield") -> str:
+    """The note's text with its values in the unit system."""
+    return fill(n.text, n.values, lambda v, spec: value(v, system, spec))
+
+
+def subject(n: Note, system: str = "oilfield") -> str:
+    """What the note concerns, in words ("" if nothing in particular)."""
+    s = n.subject
+    return span(s, system) if isinstance(s, Span) else str(s)
+
+
+def note_line(n: Note, system: str = "oilfield") -> str:
+    """'LEVEL [subject]: text' in the unit system (the command line's form of a note)."""
+    where = subject(n, system)
+    return f"{n.level.upper()}{' [' + where + ']' if where else ''}: {note(n, system)}"
