@@ -20,15 +20,18 @@ from __future__ import annotations
 
 import numpy as np
 
-from calc.notes import Note, Value, fill
+from calc.errors import InputError
+from calc.notes import Note
 from calc.span import Span
 from calc.units import from_si, label, unit_for
+from calc.values import Value, fill
 
 __all__ = [
     "depth_point",
     "depth_span",
     "display_number",
     "display_values",
+    "error",
     "note",
     "note_line",
     "number_text",
@@ -161,6 +164,27 @@ def value(v: Value, system: str = "oilfield", spec: str = "") -> str:
     if isinstance(x, tuple):
         return "; ".join(value(Value(v.name, e, v.kind), system, spec) for e in x)
     return quantity(float(x), v.kind, system, spec)
+
+
+def error(e: InputError, system: str = "oilfield") -> str:
+    """An :class:`~calc.errors.InputError` in words, its numbers in the unit system (errors
+    that carry no kind read as raised).
+
+    >>> e = InputError("pipe OD", 0.254, "< the hole diameter {hole}", kind="diameter",
+    ...                values=(Value("hole", 0.2159, "diameter"),))
+    >>> error(e)
+    'pipe OD = 10 in: not allowed; allowed: < the hole diameter 8.5 in'
+    """
+    if not e.kind and not e.values:
+        return str(e)
+    scalar = e.kind and np.ndim(e.value) == 0 and not isinstance(e.value, str)
+    shown = (
+        quantity(float(e.value), e.kind, system)
+        if scalar
+        else str(e)[len(e.name) + 3 :].split(":")[0]
+    )
+    allowed = fill(e.allowed, e.values, lambda v, spec: value(v, system, spec))
+    return f"{e.name} = {shown}: {e.problem}; allowed: {allowed}"
 
 
 def note(n: Note, system: str = "oilfield") -> str:

@@ -11,6 +11,8 @@ import difflib
 
 import numpy as np
 
+from calc.values import Value, fill, si_text
+
 __all__ = [
     "InputError",
     "as_float_array",
@@ -33,16 +35,39 @@ def _fmt(value) -> str:
 class InputError(ValueError):
     """Impossible input.  ``name``: which input; ``value``: what was given; ``allowed``: what is.
 
+    ``kind`` (a quantity kind) says that ``value`` is an SI number of that kind, and
+    ``allowed`` may name SI numbers as ``{field}`` from ``values``
+    (:class:`~calc.values.Value`), so that a face can say both in the user's units
+    (``addin.text.error``); ``str()`` says them in SI.
+
     >>> str(InputError("flow rate", -5.0, "> 0 gpm"))
     'flow rate = -5: not allowed; allowed: > 0 gpm'
+    >>> str(InputError("pipe OD", 0.254, "< the hole diameter {hole}", kind="diameter",
+    ...                values=(Value("hole", 0.2159, "diameter"),)))
+    'pipe OD = 0.254 m: not allowed; allowed: < the hole diameter 0.2159 m'
     """
 
-    def __init__(self, name: str, value, allowed: str, problem: str = "not allowed"):
+    def __init__(
+        self,
+        name: str,
+        value,
+        allowed: str,
+        problem: str = "not allowed",
+        *,
+        kind: str = "",
+        values: tuple[Value, ...] = (),
+    ):
         self.name = name
         self.value = value
         self.allowed = allowed
         self.problem = problem
-        super().__init__(f"{name} = {_fmt(value)}: {problem}; allowed: {allowed}")
+        self.kind = kind
+        self.values = tuple(values)
+        scalar = kind and np.ndim(value) == 0 and not isinstance(value, str)
+        #: the value as ``str()`` shows it (SI)
+        self.shown = si_text(Value("value", float(value), kind)) if scalar else _fmt(value)
+        text = fill(allowed, self.values, si_text) if self.values else allowed
+        super().__init__(f"{name} = {self.shown}: {problem}; allowed: {text}")
 
 
 def as_float_array(name: str, value) -> np.ndarray:

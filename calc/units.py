@@ -42,6 +42,7 @@ import numpy as np
 import pint
 
 from calc.errors import InputError
+from calc.kinds import KINDS, LABELS, UNIT_SYSTEMS
 
 __all__ = [
     "G_N",
@@ -102,154 +103,10 @@ _ALIAS_RES = tuple(
 _POWER_RE = re.compile(r"(?<=[A-Za-z])([23])(?![0-9])")  # ft2 → ft**2, m3 → m**3
 _SUPER = {"²": "**2", "³": "**3", "·": "*", "⋅": "*", "μ": "u", "µ": "u"}
 
-#: Quantity kinds and the SI dimensionality each must have.
-KINDS: dict[str, str] = {
-    "depth": "[length]",
-    "length": "[length]",
-    "diameter": "[length]",
-    "nozzle": "[length]",
-    "density": "[mass] / [length] ** 3",
-    "pressure": "[mass] / [length] / [time] ** 2",
-    "pressure_gradient": "[mass] / [length] ** 2 / [time] ** 2",
-    "flow_rate": "[length] ** 3 / [time]",
-    "velocity": "[length] / [time]",
-    "jet_velocity": "[length] / [time]",
-    "trip_speed": "[length] / [time]",
-    "rop": "[length] / [time]",
-    "stress": "[mass] / [length] / [time] ** 2",
-    "consistency": "[mass] / [length] / [time] ** 2",  # K: stress·sⁿ, converted as stress
-    "viscosity": "[mass] / [length] / [time]",
-    "shear_rate": "1 / [time]",
-    "power": "[mass] * [length] ** 2 / [time] ** 3",
-    "power_density": "[mass] / [time] ** 3",
-    "force": "[mass] * [length] / [time] ** 2",
-    "area": "[length] ** 2",
-    "volume": "[length] ** 3",
-    "temperature": "[temperature]",
-    "angle": "",
-    "dogleg": "1 / [length]",
-    "time": "[time]",
-    "dimensionless": "",
-}
-
-#: Named unit systems: quantity kind → unit text (as accepted by :func:`parse_unit`).
-UNIT_SYSTEMS: dict[str, dict[str, str]] = {
-    "oilfield": {
-        "depth": "ft",
-        "length": "ft",
-        "diameter": "in",
-        "nozzle": "in32",
-        "density": "ppg",
-        "pressure": "psi",
-        "pressure_gradient": "psi/ft",
-        "flow_rate": "gpm",
-        "velocity": "ft/min",
-        "jet_velocity": "ft/s",
-        "trip_speed": "ft/min",
-        "rop": "ft/hour",
-        "stress": "lbf_per_100ft_sq",
-        "consistency": "lbf_per_100ft_sq",
-        "viscosity": "cP",
-        "shear_rate": "1/s",
-        "power": "hp",
-        "power_density": "hp/in**2",
-        "force": "lbf",
-        "area": "in**2",
-        "volume": "bbl_oil",
-        "temperature": "degF",
-        "angle": "degree",
-        "dogleg": "deg_per_100ft",
-        "time": "minute",
-        "dimensionless": "",
-    },
-    "si": {
-        "depth": "m",
-        "length": "m",
-        "diameter": "m",
-        "nozzle": "m",
-        "density": "kg/m**3",
-        "pressure": "Pa",
-        "pressure_gradient": "Pa/m",
-        "flow_rate": "m**3/s",
-        "velocity": "m/s",
-        "jet_velocity": "m/s",
-        "trip_speed": "m/s",
-        "rop": "m/s",
-        "stress": "Pa",
-        "consistency": "Pa",
-        "viscosity": "Pa*s",
-        "shear_rate": "1/s",
-        "power": "W",
-        "power_density": "W/m**2",
-        "force": "N",
-        "area": "m**2",
-        "volume": "m**3",
-        "temperature": "K",
-        "angle": "degree",
-        "dogleg": "deg_per_30m",
-        "time": "s",
-        "dimensionless": "",
-    },
-    "metric": {
-        "depth": "m",
-        "length": "m",
-        "diameter": "mm",
-        "nozzle": "mm",
-        "density": "kg/m**3",
-        "pressure": "bar",
-        "pressure_gradient": "kPa/m",
-        "flow_rate": "L/min",
-        "velocity": "m/min",
-        "jet_velocity": "m/s",
-        "trip_speed": "m/min",
-        "rop": "m/hour",
-        "stress": "Pa",
-        "consistency": "Pa",
-        "viscosity": "mPa*s",
-        "shear_rate": "1/s",
-        "power": "kW",
-        "power_density": "kW/cm**2",
-        "force": "kN",
-        "area": "mm**2",
-        "volume": "m**3",
-        "temperature": "degC",
-        "angle": "degree",
-        "dogleg": "deg_per_30m",
-        "time": "minute",
-        "dimensionless": "",
-    },
-}
-
-_LABELS = {
-    "lbf_per_100ft_sq": "lbf/100ft²",
-    "in32": "1/32 in",
-    "bbl_oil": "bbl",
-    "bpm_oil": "bbl/min",
-    "in**2": "in²",
-    "hp/in**2": "hp/in²",
-    "kg/m**3": "kg/m³",
-    "m**3/s": "m³/s",
-    "m**2": "m²",
-    "m**3": "m³",
-    "mm**2": "mm²",
-    "W/m**2": "W/m²",
-    "kW/cm**2": "kW/cm²",
-    "mPa*s": "mPa·s",
-    "Pa*s": "Pa·s",
-    "ft/hour": "ft/h",
-    "m/hour": "m/h",
-    "degF": "°F",
-    "degC": "°C",
-    "degree": "°",
-    "deg_per_100ft": "°/100ft",
-    "deg_per_30m": "°/30m",
-    "minute": "min",
-}
-
 
 def label(unit: str) -> str:
     """Display label for a unit text, e.g. ``label("lbf_per_100ft_sq") == "lbf/100ft²"``."""
-    return _LABELS.get(unit, unit)
+    return LABELS.get(unit, unit)
 
 
 def _normalise(text: str) -> str:
