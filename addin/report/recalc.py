@@ -20,6 +20,8 @@ import subprocess
 import tempfile
 from pathlib import Path
 
+import openpyxl
+
 __all__ = ["ERROR_VALUES", "RecalcError", "recalculate", "recalculated_values", "soffice"]
 
 #: Spreadsheet error results (Excel spellings and LibreOffice's Err:nnn form is matched apart).
@@ -98,8 +100,6 @@ def recalculate(src, outdir, *, timeout: float = 180.0) -> Path:
 
 def recalculated_values(original, recalculated) -> dict[tuple[str, str], object]:
     """``{(sheet, coordinate): value}`` after recalculation, for every formula in ``original``."""
-    import openpyxl
-
     src = openpyxl.load_workbook(original)  # formulas
     out = openpyxl.load_workbook(recalculated, data_only=True)  # cached (recalculated) values
     values = {}

@@ -33,7 +33,7 @@ from itertools import chain
 import numpy as np
 
 from calc import units as cu
-from calc.errors import InputError
+from calc.errors import InputError, check_choice
 
 __all__ = [
     "STANDARD_SPEEDS",
@@ -168,8 +168,6 @@ def text(value, name: str, default: str | None = None, choices=None) -> str:
         by_lower = {c.lower(): c for c in choices}
         if out.lower() in by_lower:
             return by_lower[out.lower()]
-        from calc.errors import check_choice
-
         return check_choice(name, out, list(choices))
     return out
 
@@ -351,8 +349,6 @@ def _override(kind_text, unit_text, overrides: dict[str, str], name: str) -> Non
     kind = text(kind_text, f"{name}: quantity kind").lower().replace(" ", "_")
     kind = _KIND_ALIASES.get(kind, kind)
     if kind not in cu.KINDS:
-        from calc.errors import check_choice
-
         check_choice(f"{name}: quantity kind", kind, sorted(cu.KINDS))
     unit = text(unit_text, f"{name}: unit for {kind}")
     cu.parse_unit(unit, kind)  # raises InputError naming the unit
@@ -406,8 +402,6 @@ def unit_set(value, name: str = "units") -> UnitSet:
 def _system(part: str, name: str) -> str:
     low = part.strip().lower()
     if low not in cu.UNIT_SYSTEMS:
-        from calc.errors import check_choice
-
         check_choice(f"{name}: unit system", low, list(cu.UNIT_SYSTEMS))
     return low
 

@@ -14,6 +14,7 @@ import textwrap
 import typing
 from pathlib import Path
 
+import addin.sheets.functions  # noqa: F401  (registers every family)
 from addin.sheets.cells import STANDARD_SPEEDS
 from addin.sheets.framework import FUNCTIONS, MARK
 from calc import cautions
@@ -221,8 +222,6 @@ def _function_section(name: str) -> str:
 
 def render() -> str:
     """The whole reference as Markdown text."""
-    import addin.sheets.functions  # noqa: F401  (registers every family)
-
     families: dict[str, list[str]] = {}
     for name, sf in FUNCTIONS.items():
         families.setdefault(sf.family, []).append(name)

@@ -19,13 +19,17 @@ from collections.abc import Callable, Iterable
 from typing import Any
 
 import numpy as np
+from openpyxl.utils.cell import column_index_from_string as col_index
+from openpyxl.utils.cell import coordinate_from_string, get_column_letter
 
+import addin.sheets.functions  # noqa: F401  (defines every family)
 from addin.sheets.framework import FUNCTIONS
 
 __all__ = ["calculate", "register"]
 
 
 def _from_engine(value):
+    # lazy: formulas and schedula are optional (test extra); importing this module needs neither
     import schedula as sh
     from formulas.tokens.operand import XlError
 
@@ -44,6 +48,7 @@ def _from_engine(value):
 
 
 def _to_engine(out):
+    # lazy: optional formula engine (test extra)
     from formulas.functions import Array
 
     if isinstance(out, list):
@@ -61,10 +66,9 @@ def _adapt(func: Callable[..., Any]) -> Callable[..., Any]:
 
 def register(names: Iterable[str] | None = None) -> list[str]:
     """Register boreflow worksheet functions with ``formulas``; return the names registered."""
+    # lazy: optional formula engine (test extra)
     import formulas
     from formulas.functions import wrap_func
-
-    import addin.sheets.functions  # noqa: F401  (defines every family)
 
     table = formulas.get_functions()
     chosen = list(FUNCTIONS) if names is None else list(names)
@@ -79,11 +83,10 @@ def calculate(path: str | os.PathLike) -> dict[tuple[str, str], Any]:
     Sheet names are upper-cased (as ``formulas`` reports them); a range result (array
     formula) is split into its cells.  Error values come back as their text (``"#VALUE!"``).
     """
+    # lazy: optional formula engine (test extra)
     import formulas
     import schedula as sh
     from formulas.tokens.operand import XlError
-    from openpyxl.utils.cell import column_index_from_string as col_index
-    from openpyxl.utils.cell import coordinate_from_string, get_column_letter
 
     register()
     model = formulas.ExcelModel().loads(str(path)).finish()
