@@ -24,7 +24,7 @@ class Import:
     names: tuple[str, ...]  # names taken from it ("" for a plain import)
     line: int
     in_function: bool
-    lazy_reason: bool  # a "# lazy:" comment on the line or the line above
+    lazy_reason: bool  # a "# lazy:" comment on the line or above its block of imports
 
 
 def module_name(path: Path) -> str:
@@ -65,9 +65,13 @@ def imports_of(name: str, path: Path, modules) -> list[Import]:
     out: list[Import] = []
 
     def lazy(lineno: int) -> bool:
-        here = lines[lineno - 1]
-        above = lines[lineno - 2] if lineno >= 2 else ""
-        return "# lazy:" in here or above.strip().startswith("# lazy:")
+        """A '# lazy:' comment on the line, or above the block of import lines it is in."""
+        if "# lazy:" in lines[lineno - 1]:
+            return True
+        k = lineno - 2
+        while k >= 0 and lines[k].strip().startswith(("import ", "from ")):
+            k -= 1
+        return k >= 0 and lines[k].strip().startswith("# lazy:")
 
     def visit(node, in_function: bool):
         for child in ast.iter_child_nodes(node):
