@@ -39,7 +39,7 @@ import zipfile
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from addin.case import SECTIONS, STATION_COLUMNS
+from addin.case_schema import SECTIONS, STATION_COLUMNS
 from calc.errors import InputError
 
 __all__ = [
@@ -596,9 +596,9 @@ def _put_value(ws, row, col, v, style):
 
 
 # ---------------------------------------------------------------------------- the case layout
-# Keys and quantity kinds come from the case schema (addin.case.SECTIONS); the workbook adds only
-# what is its own: block titles and kinds (values/table/columns), block order, the row labels,
-# the dial speeds given a row each, and one display unit (nozzle sizes).
+# Keys and quantity kinds come from the case schema (addin.case_schema.SECTIONS); the workbook adds
+# only what is its own: block titles and kinds (values/table/columns), block order, the row
+# labels, the dial speeds given a row each, and one display unit (nozzle sizes).
 
 _TEXT = "text"
 

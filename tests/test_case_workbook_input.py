@@ -187,11 +187,12 @@ def test_spreadsheet_error_value_is_refused(tmp_path):
 
 
 def test_every_case_key_has_a_workbook_label_and_every_label_a_case_key():
-    """The workbook layout is derived from the case schema (addin.case.SECTIONS); it adds labels.
+    """The workbook layout is derived from the case schema (addin.case_schema.SECTIONS); it adds
+    labels.
 
     A case key without a row label, or a label for a key the case schema no longer has, fails.
     """
-    from addin.case import SECTIONS
+    from addin.case_schema import SECTIONS
 
     assert set(wi.BLOCKS) == set(SECTIONS), "each case section is a workbook block"
     for block in wi.LAYOUT:
@@ -208,7 +209,7 @@ def test_every_case_key_has_a_workbook_label_and_every_label_a_case_key():
 
 def test_workbook_kinds_come_from_the_case_schema():
     """A quantity key reads and writes in the unit of the kind the case schema gives it."""
-    from addin.case import SECTIONS
+    from addin.case_schema import SECTIONS
 
     assert (
         wi.BLOCKS["limits"].by_key["surface_rating"].kind
