@@ -33,7 +33,7 @@ def build_report(results: Results):
         write_inputs,
         write_summary,
     )
-    from addin.report.style import add_styles
+    from addin.xlsx_cells import add_styles
 
     wb = openpyxl.Workbook()
     add_styles(wb)

@@ -10,13 +10,12 @@ from addin.report.style import (
     heading,
     merged_text,
     number_format,
-    put,
     put_number,
-    set_widths,
     setup_print,
     table_header,
 )
 from addin.report.style import unit_label as U
+from addin.xlsx_cells import put, set_widths
 
 __all__ = ["short_name", "write_cleaning", "write_trips"]
 

@@ -14,13 +14,12 @@ from addin.report.style import (
     merged_text,
     note_row,
     number_format,
-    put,
     put_number,
-    set_widths,
     setup_print,
     table_header,
 )
 from addin.report.style import unit_label as U
+from addin.xlsx_cells import put, set_widths
 
 __all__ = ["write_bit", "write_ecd", "write_hydraulics"]
 

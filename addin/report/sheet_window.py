@@ -14,19 +14,17 @@ from openpyxl.worksheet.pagebreak import Break
 
 from addin.report.charts import rate_curves
 from addin.report.sheet_cleaning import short_name
+from addin.report.style import display_values as _o
 from addin.report.style import (
-    PALETTE,
     heading,
     note_row,
     number_format,
-    put,
     put_number,
-    set_widths,
     setup_print,
     table_header,
 )
-from addin.report.style import display_values as _o
 from addin.report.style import unit_label as U
+from addin.xlsx_cells import PALETTE, put, set_widths
 
 __all__ = ["SHEET", "allowed_ecd", "binding_words", "write_window"]
 

@@ -5,20 +5,18 @@ from __future__ import annotations
 from openpyxl.styles import Font, PatternFill
 
 from addin.report.audit import AGREE_TOL
+from addin.report.style import display_number as out
 from addin.report.style import (
-    PALETTE,
     heading,
     merged_text,
     note_row,
     number_format,
-    put,
     put_number,
-    set_widths,
     setup_print,
     table_header,
 )
-from addin.report.style import display_number as out
 from addin.report.style import unit_label as U
+from addin.xlsx_cells import PALETTE, put, set_widths
 from calc import cautions
 
 __all__ = ["write_audit", "write_cautions", "write_inputs", "write_summary"]
@@ -28,7 +26,8 @@ __all__ = ["write_audit", "write_cautions", "write_inputs", "write_summary"]
 
 
 def write_inputs(wb, results, title):
-    from addin.workbook_input import LAYOUT, write_case_sheets
+    from addin.workbook_layout import LAYOUT
+    from addin.workbook_template import write_case_sheets
 
     case = results.case
     ws = wb.create_sheet("Inputs")
