@@ -6,6 +6,8 @@ import numpy as np
 
 from addin.report.compute import scalar
 from addin.report.sheet_cleaning import short_name
+from addin.report.sheet_window import allowed_ecd, binding_words
+from addin.rheology_data import rheology_data
 from calc.units import from_si, label, unit_for
 
 __all__ = ["results_data"]
@@ -28,8 +30,6 @@ def _c(v, kind, system):
 
 def results_data(results) -> dict:
     """The whole run: run info, summary rows, rheology, circulation, ECD, bit, cleaning, trips."""
-    from addin.cli import rheology_data
-
     case, res = results.case, results.circulation
     s = case.system
     kinds = (
@@ -230,8 +230,6 @@ def _limit_kind(name: str):
 
 def _window_data(results, s) -> dict:
     """calc.window.OperatingWindow of the run: ends, binding limits (names and words), curves."""
-    from addin.report.sheet_window import allowed_ecd, binding_words
-
     ow = results.window
     f_lim, p_lim = allowed_ecd(ow)
     return {
