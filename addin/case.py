@@ -234,15 +234,17 @@ class SlurryInput:
 class Case:
     """A parsed case file.
 
-    ``sections`` holds every other parsed section (SI values by key; arrays of tables as
-    tuples), ``doc`` the document as read (numbers as floats: a TOML file and the workbook
-    carrying the same content give the same ``doc`` and the same ``hash``), ``where`` the
-    workbook cell of each key (empty for TOML).  :meth:`well` and the properties below build the
-    :mod:`calc` inputs.
+    ``unit_system`` is the name of the case's unit system (``[case].units``: ``"oilfield"``,
+    ``"metric"`` or ``"si"``): its plain numbers were read in it and its messages are worded in
+    it; the parsed values themselves are SI.  ``sections`` holds every other parsed section (SI
+    values by key; arrays of tables as tuples), ``doc`` the document as read (numbers as floats:
+    a TOML file and the workbook carrying the same content give the same ``doc`` and the same
+    ``hash``), ``where`` the workbook cell of each key (empty for TOML).  :meth:`well` and the
+    properties below build the :mod:`calc` inputs.
     """
 
     source: str
-    units: str
+    unit_system: str
     header: Mapping[str, Any]
     checks: tuple[CheckInput, ...]
     slurries: tuple[SlurryInput, ...]
@@ -253,10 +255,6 @@ class Case:
     hash: str = ""
 
     # -------------------------------------------------------------- calc inputs
-    @property
-    def system(self) -> str:
-        return self.units
-
     @property
     def meta(self) -> Mapping[str, Any]:
         return self.header
@@ -297,7 +295,7 @@ class Case:
             [r[0] for r in st],
             [r[1] for r in st],
             [r[2] for r in st],
-            message_units=self.units,
+            message_units=self.unit_system,
         )
 
     @property
@@ -332,7 +330,7 @@ class Case:
             bit_size=oh["bit_size"],
             diameter=oh.get("diameter"),
             washout_factor=oh.get("washout_factor"),
-            message_units=self.units,
+            message_units=self.unit_system,
         )
 
     @property
@@ -456,7 +454,7 @@ class Case:
             self.surface_lines,
             self.tool_drops,
             bit_depth=depth,
-            message_units=self.units,
+            message_units=self.unit_system,
         )
 
 
@@ -524,8 +522,8 @@ def parse_case(data: Mapping, source: str = "<case>") -> Case:
         if key not in SECTIONS:
             _unknown(source, key, key, SECTIONS)
     header = parse_table(data.get("case", {}), CASE_SCHEMA, "si", source, "case")
-    units = header.get("units", "oilfield").strip().lower()
-    if units not in UNIT_SYSTEMS:
+    unit_system = header.get("units", "oilfield").strip().lower()
+    if unit_system not in UNIT_SYSTEMS:
         _unknown(source, "case.units", header.get("units"), UNIT_SYSTEMS)
     checks, slurries = [], []
     for name, schema, mode in (("check", CHECK_SCHEMA, "mud"), ("slurry", SLURRY_SCHEMA, "cement")):
@@ -534,7 +532,7 @@ def parse_case(data: Mapping, source: str = "<case>") -> Case:
             raise InputError(_where(source, name), items, f"an array of tables [[{name}]]")
         for i, item in enumerate(items, start=1):
             path = f"{name}[{i}]"
-            values = parse_table(item, schema, units, source, path)
+            values = parse_table(item, schema, unit_system, source, path)
             label = values.get("label") or values.get("name")
             temp = values.get("cup_temperature", values.get("temperature"))
             where = _where(source, f"{path} ({label})")
@@ -554,14 +552,14 @@ def parse_case(data: Mapping, source: str = "<case>") -> Case:
             if not isinstance(item, list):
                 raise InputError(_where(source, name), item, f"an array of tables [[{name}]]")
             sections[name] = tuple(
-                parse_table(x, schema, units, source, f"{name}[{i}]")
+                parse_table(x, schema, unit_system, source, f"{name}[{i}]")
                 for i, x in enumerate(item, start=1)
             )
         else:
-            sections[name] = parse_table(item, schema, units, source, name)
+            sections[name] = parse_table(item, schema, unit_system, source, name)
     return Case(
         source,
-        units,
+        unit_system,
         header,
         tuple(checks),
         tuple(slurries),

@@ -63,7 +63,7 @@ def _display(value, kind: str, system: str) -> float:
 
 def _summary(results) -> dict[str, str]:
     """The summary-table cells of one run, from its computed results, in the case's units."""
-    s = results.case.units
+    s = results.case.unit_system
     circ = results.circulation
     tight = None if circ.margins is None else circ.margins.tightest
     return {

@@ -95,9 +95,9 @@ def run(args) -> int:
         )
     elif args.quantity == "circulate":
         case = load_case(args.case)
-        s = args.units_given or case.units
+        s = args.units_given or case.unit_system
         q = (
-            _q(args.rate, "flow_rate", case.units, "--rate")
+            _q(args.rate, "flow_rate", case.unit_system, "--rate")
             if args.rate
             else case.check_value(-1, "flow_rate")
         )
@@ -115,7 +115,7 @@ def run(args) -> int:
             weak_points=case.weak_points,
             margins=Margins(lim["fracture_margin"], lim["pore_margin"]),
             surface_rating=lim["surface_rating"],
-            message_units=case.units,
+            message_units=case.unit_system,
         )
         d = {"flow rate": (scalar(res.q), "flow_rate")}
         d.update({f"loss: {k}": (scalar(v), "pressure") for k, v in res.breakdown().items()})

@@ -111,7 +111,7 @@ def rheology_text(data: dict) -> str:
 def run(args) -> int:
     """Print the rheology of ``args.case`` in ``args.units`` (default the case's), text or JSON."""
     case = load_case(args.case)
-    system = args.units or case.units
+    system = args.units or case.unit_system
     data = rheology_data(case, system)
     print(json_text(data) if args.json else rheology_text(data))
     return EXIT_OK

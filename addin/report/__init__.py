@@ -43,7 +43,7 @@ def build_report(results: Results):
     summary.title = "Summary"
     write_inputs(wb, results, title)
     audit = wb.create_sheet("Audit")
-    factors = Factors(audit, row=12, system=case.system)
+    factors = Factors(audit, row=12, system=case.unit_system)
     refs = {}
     from addin.report.sheet_rheology import write_rheology
 

@@ -31,7 +31,7 @@ def _c(v, kind, system):
 def results_data(results) -> dict:
     """The whole run: run info, summary rows, rheology, circulation, ECD, bit, cleaning, trips."""
     case, res = results.case, results.circulation
-    s = case.system
+    s = case.unit_system
     kinds = (
         "depth",
         "length",

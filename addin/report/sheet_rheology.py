@@ -47,7 +47,7 @@ def _params(model):
 
 def write_rheology(wb, results, factors: Factors, title: str):
     """Add the sheet; return {"refs": {...}} with cells other sheets may cite."""
-    system = results.case.system
+    system = results.case.unit_system
     ws = wb.create_sheet("Rheology")
     set_widths(ws, [28, 14, 11, 11, 9, 11, 11, 9, 11, 44])
     row = heading(

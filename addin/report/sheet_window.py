@@ -133,7 +133,7 @@ def _nice(values, ticks=6):
 def write_window(wb, results, title: str):
     """The sheet; returns refs for the summary (empty without a window)."""
     case, ow = results.case, results.window
-    system = case.system
+    system = case.unit_system
     ws = wb.create_sheet(SHEET)
     # 3 × 48 characters: the three charts sit one per third of the page
     set_widths(ws, [9, 9, 9, 10, 11, 24, 12, 12, 16, 9, 9, 8, 6])

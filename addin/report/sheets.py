@@ -16,6 +16,8 @@ from addin.report.style import (
     table_header,
 )
 from addin.report.style import unit_label as U
+from addin.workbook_layout import LAYOUT
+from addin.workbook_template import write_case_sheets
 from addin.xlsx_cells import PALETTE, put, set_widths
 from calc import cautions
 
@@ -26,9 +28,6 @@ __all__ = ["write_audit", "write_cautions", "write_inputs", "write_summary"]
 
 
 def write_inputs(wb, results, title):
-    from addin.workbook_layout import LAYOUT
-    from addin.workbook_template import write_case_sheets
-
     case = results.case
     ws = wb.create_sheet("Inputs")
     put(
@@ -96,7 +95,7 @@ def write_audit(ws, results, factors, title):
         ("run time", results.run_time),
         ("inputs hash (SHA-256 of the canonical case)", case.hash),
         ("case source", case.source),
-        ("unit system", case.system),
+        ("unit system", case.unit_system),
         ("hydraulics method", results.method),
         ("hydraulics fluid fits", results.fluid.fits),
     ]
@@ -142,7 +141,7 @@ def _status(ws, row, col, status):
 def write_summary(ws, results, refs, title):
     """The summary page: header, key results against limits, run information."""
     case = results.case
-    system = case.system
+    system = case.unit_system
     res = results.circulation
     chk = case.checks[-1]
     set_widths(ws, [42, 12, 12, 9, 11, 12, 12, 12, 12, 10, 10, 11])
