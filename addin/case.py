@@ -1,11 +1,12 @@
 """Read a boreflow case: a TOML case file or the input workbook (.xlsx), the whole case.
 
-The parser is declarative: each table has a *schema* (key → :class:`Field`) and
-:func:`parse_table` walks any table against its schema (see ``SECTIONS``).  ``[case]``,
-``[[check]]`` and ``[[slurry]]`` become :class:`CheckInput`/:class:`SlurryInput` with their
-readings; every other section is parsed into :attr:`Case.sections` (SI), and :class:`Case`
-builds the :mod:`calc` inputs from it (:meth:`Case.well`, ``survey``, ``casings``, ``string``,
-``bit``, ``surface_lines``, ``tool_drops``, ``window``, ``weak_points``, ``limits``, ``trip``).
+The parser is declarative: each table has a *schema* (key → :class:`~addin.case_schema.Field`,
+all in :mod:`addin.case_schema`, which the input workbook shares) and :func:`parse_table` walks
+any table against its schema.  ``[case]``, ``[[check]]`` and ``[[slurry]]`` become
+:class:`CheckInput`/:class:`SlurryInput` with their readings; every other section is parsed
+into :attr:`Case.sections` (SI), and :class:`Case` builds the :mod:`calc` inputs from it
+(:meth:`Case.well`, ``survey``, ``casings``, ``string``, ``bit``, ``surface_lines``,
+``tool_drops``, ``window``, ``weak_points``, ``limits``, ``trip``).
 The field-by-field documentation is ``workbooks/CASE-FORMAT.md``.
 
 Values
@@ -35,19 +36,37 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
 
+from addin.case_schema import (
+    CASE_SCHEMA,
+    CHECK_SCHEMA,
+    HYDRAULICS_SECTIONS,
+    SECTIONS,
+    SLURRY_SCHEMA,
+    Field,
+)
+from addin.workbook_input import read_blocks
+from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT, Bit
+from calc.circulation import PressureWindow, WeakPoint
 from calc.errors import InputError
+from calc.geometry import (
+    DrillString,
+    Hole,
+    HoleSection,
+    StringComponent,
+    SurfaceLine,
+    Survey,
+    ToolPressureDrop,
+    Well,
+)
 from calc.rheology import STANDARD_GEOMETRY, ViscometerGeometry, ViscometerReadings
 from calc.rheology.viscometer import FIELD_STRESS
 from calc.units import UNIT_SYSTEMS, to_si, unit_for
 
 __all__ = [
-    "CHECK_SCHEMA",
-    "SECTIONS",
-    "SLURRY_SCHEMA",
     "Case",
     "CheckInput",
-    "Field",
     "SlurryInput",
+    "input_hash",
     "load_case",
     "parse_case",
     "parse_quantity",
@@ -55,25 +74,6 @@ __all__ = [
 ]
 
 _NUMBER_UNIT = re.compile(r"^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*$")
-
-
-@dataclass(frozen=True)
-class Field:
-    """One key of a schema.
-
-    kind      a quantity kind of :data:`calc.units.KINDS` (converted to SI), or one of
-              ``"text"``, ``"number"`` (plain, no unit), ``"bool"``, ``"dial"`` (rpm → degree
-              mapping), ``"table"`` (nested, with ``sub``), ``"free"`` (table of plain numbers
-              with any keys), ``"range"`` (two values of ``of``), ``"list"`` (a list of ``of``)
-    required  the key must be present
-    sub       schema of a nested table
-    of        kind of the items of a range or list
-    """
-
-    kind: str
-    required: bool = False
-    sub: Mapping[str, Field] | None = None
-    of: str | None = None
 
 
 def _where(source: str, path: str) -> str:
@@ -209,179 +209,6 @@ def _value(val, fld: Field, system, source, path):
 
 
 # ------------------------------------------------------------------ schemas
-CASE_SCHEMA = {
-    "schema": Field("text"),
-    "title": Field("text"),
-    "well": Field("text"),
-    "operator": Field("text"),
-    "rig": Field("text"),
-    "location": Field("text"),
-    "report_period": Field("text"),
-    "units": Field("text"),
-}
-
-VISCOMETER_SCHEMA = {
-    "name": Field("text"),
-    "shear_rate_per_rpm": Field("number"),
-    "stress_per_degree": Field("number"),
-    "spring_factor": Field("number"),
-    "full_scale": Field("number"),
-}
-
-_RHEOLOGY_KEYS = {
-    "dial": Field("dial"),
-    "dial_up": Field("dial"),
-    "dial_down": Field("dial"),
-    "gels": Field("table", sub={k: Field("stress") for k in ("10s", "10min", "30min")}),
-    "viscometer": Field("table", sub=VISCOMETER_SCHEMA),
-}
-
-CHECK_SCHEMA: dict[str, Field] = {
-    "label": Field("text", required=True),
-    "date": Field("text"),
-    "time": Field("text"),
-    "sample": Field("text"),
-    "fluid": Field("text"),
-    "bit_depth": Field("depth"),
-    "density": Field("density"),
-    "cup_temperature": Field("temperature"),
-    **_RHEOLOGY_KEYS,
-    "program": Field(
-        "table",
-        sub={
-            "density": Field("range", of="density"),
-            "pv": Field("range", of="viscosity"),
-            "yp": Field("range", of="stress"),
-            "lsyp": Field("range", of="stress"),
-        },
-    ),
-    "flow_rate": Field("flow_rate"),
-    "rop": Field("rop"),
-    "rpm": Field("number"),
-    "measured_spp": Field("pressure"),
-    "pwd": Field("table", sub={"ecd": Field("density"), "md": Field("depth")}),
-    "cuttings": Field(
-        "table",
-        sub={
-            "density": Field("density"),
-            "size": Field("diameter"),
-            "sphericity": Field("number"),
-        },
-    ),
-    "properties": Field("free"),
-    "remark": Field("text"),
-}
-
-SLURRY_SCHEMA: dict[str, Field] = {
-    "name": Field("text", required=True),
-    "density": Field("density"),
-    "temperature": Field("temperature"),
-    "volume": Field("volume"),
-    **_RHEOLOGY_KEYS,
-    "remark": Field("text"),
-}
-
-LIMITS_SCHEMA = {
-    "fracture_margin": Field("density"),
-    "pore_margin": Field("density"),
-    "surface_rating": Field("pressure"),
-    "trip_fracture_margin": Field("density"),
-    "trip_pore_margin": Field("density"),
-}
-SURVEY_SCHEMA = {"stations": Field("stations", required=True)}
-#: The columns of a ``stations`` row and their kinds (md is converted; angles are plain degrees).
-STATION_COLUMNS: tuple[tuple[str, str], ...] = (("md", "depth"), ("inc", "angle"), ("azi", "angle"))
-CASING_SCHEMA = {
-    "name": Field("text", required=True),
-    "od": Field("diameter"),
-    "id": Field("diameter", required=True),
-    "drift": Field("diameter"),
-    "top": Field("depth"),
-    "shoe": Field("depth", required=True),
-    "shoe_test": Field("density"),
-}
-OPEN_HOLE_SCHEMA = {
-    "bit_size": Field("diameter", required=True),
-    "diameter": Field("diameter"),
-    "washout_factor": Field("number"),
-}
-PRESSURE_WINDOW_SCHEMA = {
-    "tvd": Field("list", required=True, of="depth"),
-    "pore": Field("list", required=True, of="density"),
-    "fracture": Field("list", required=True, of="density"),
-}
-WEAK_POINT_SCHEMA = {
-    "name": Field("text", required=True),
-    "md": Field("depth", required=True),
-    "fracture": Field("density", required=True),
-    "pore": Field("density"),
-}
-PUMP_SCHEMA = {
-    "name": Field("text", required=True),
-    "liner": Field("diameter"),
-    "stroke": Field("diameter"),
-    "efficiency": Field("number"),
-    "rated_power": Field("power"),
-    "liner_rating": Field("pressure"),
-}
-SURFACE_LINE_SCHEMA = {
-    "name": Field("text", required=True),
-    "length": Field("length", required=True),
-    "id": Field("diameter", required=True),
-}
-BIT_SCHEMA = {
-    "name": Field("text"),
-    "size": Field("diameter", required=True),
-    "nozzles": Field("list", of="number"),
-    "tfa": Field("area"),
-    "ports": Field("number"),
-    "discharge_coefficient": Field("number"),
-}
-STRING_SCHEMA = {
-    "name": Field("text", required=True),
-    "od": Field("diameter", required=True),
-    "id": Field("diameter", required=True),
-    "length": Field("length_or_fill", required=True),
-    "tool_joint_od": Field("diameter"),
-    "tool_joint_id": Field("diameter"),
-    "joint_length": Field("length"),
-    "tool_joint_length": Field("length"),
-    "float_valve": Field("bool"),
-}
-TOOL_PRESSURE_SCHEMA = {
-    "name": Field("text"),
-    "reference_drop": Field("pressure", required=True),
-    "reference_density": Field("density", required=True),
-    "reference_rate": Field("flow_rate", required=True),
-    "flow_window": Field("range", of="flow_rate"),
-    "covers": Field("list", of="text"),
-}
-TRIP_SCHEMA = {
-    "stand_length": Field("length"),
-    "string_end": Field("text"),
-    "speeds": Field("list", required=True, of="trip_speed"),
-}
-
-#: Top-level sections: name → (is an array of tables, schema or None if not parsed here yet).
-SECTIONS: dict[str, tuple[bool, Mapping[str, Field] | None]] = {
-    "case": (False, CASE_SCHEMA),
-    "check": (True, CHECK_SCHEMA),
-    "slurry": (True, SLURRY_SCHEMA),
-    "limits": (False, LIMITS_SCHEMA),
-    "survey": (False, SURVEY_SCHEMA),
-    "casing": (True, CASING_SCHEMA),
-    "open_hole": (False, OPEN_HOLE_SCHEMA),
-    "pressure_window": (False, PRESSURE_WINDOW_SCHEMA),
-    "weak_point": (True, WEAK_POINT_SCHEMA),
-    "pump": (True, PUMP_SCHEMA),
-    "surface_line": (True, SURFACE_LINE_SCHEMA),
-    "bit": (False, BIT_SCHEMA),
-    "string": (True, STRING_SCHEMA),
-    "tool_pressure": (False, TOOL_PRESSURE_SCHEMA),
-    "trip": (False, TRIP_SCHEMA),
-}
-#: Sections a hydraulics report needs (the rheology subcommand needs only checks).
-HYDRAULICS_SECTIONS = ("survey", "open_hole", "bit", "string")
 
 
 # ------------------------------------------------------------------ results
@@ -407,15 +234,17 @@ class SlurryInput:
 class Case:
     """A parsed case file.
 
-    ``sections`` holds every other parsed section (SI values by key; arrays of tables as
-    tuples), ``doc`` the document as read (numbers as floats: a TOML file and the workbook
-    carrying the same content give the same ``doc`` and the same ``hash``), ``where`` the
-    workbook cell of each key (empty for TOML).  :meth:`well` and the properties below build the
-    :mod:`calc` inputs.
+    ``unit_system`` is the name of the case's unit system (``[case].units``: ``"oilfield"``,
+    ``"metric"`` or ``"si"``): its plain numbers were read in it and its messages are worded in
+    it; the parsed values themselves are SI.  ``sections`` holds every other parsed section (SI
+    values by key; arrays of tables as tuples), ``doc`` the document as read (numbers as floats:
+    a TOML file and the workbook carrying the same content give the same ``doc`` and the same
+    ``hash``), ``where`` the workbook cell of each key (empty for TOML).  :meth:`well` and the
+    properties below build the :mod:`calc` inputs.
     """
 
     source: str
-    units: str
+    unit_system: str
     header: Mapping[str, Any]
     checks: tuple[CheckInput, ...]
     slurries: tuple[SlurryInput, ...]
@@ -426,10 +255,6 @@ class Case:
     hash: str = ""
 
     # -------------------------------------------------------------- calc inputs
-    @property
-    def system(self) -> str:
-        return self.units
-
     @property
     def meta(self) -> Mapping[str, Any]:
         return self.header
@@ -463,8 +288,6 @@ class Case:
 
     @property
     def survey(self):
-        from calc.geometry import Survey
-
         st = self._need("survey")["stations"]
         return self._build(
             "survey",
@@ -472,13 +295,11 @@ class Case:
             [r[0] for r in st],
             [r[1] for r in st],
             [r[2] for r in st],
-            message_units=self.units,
+            message_units=self.unit_system,
         )
 
     @property
     def casings(self) -> tuple:
-        from calc.geometry import HoleSection
-
         return tuple(
             self._build(
                 f"casing[{i}]",
@@ -500,8 +321,6 @@ class Case:
         return self._need("open_hole")
 
     def hole(self, depth: float):
-        from calc.geometry import Hole
-
         oh = self.open_hole
         return self._build(
             "open_hole",
@@ -511,13 +330,11 @@ class Case:
             bit_size=oh["bit_size"],
             diameter=oh.get("diameter"),
             washout_factor=oh.get("washout_factor"),
-            message_units=self.units,
+            message_units=self.unit_system,
         )
 
     @property
     def string(self):
-        from calc.geometry import DrillString, StringComponent
-
         comps = []
         for i, c in enumerate(self._need("string"), start=1):
             comps.append(
@@ -539,8 +356,6 @@ class Case:
 
     @property
     def bit(self):
-        from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT, Bit
-
         b = self._need("bit")
         nozzles = b.get("nozzles")
         return self._build(
@@ -558,8 +373,6 @@ class Case:
 
     @property
     def surface_lines(self) -> tuple:
-        from calc.geometry import SurfaceLine
-
         return tuple(
             self._build(f"surface_line[{i}]", SurfaceLine, s["name"], s["length"], s["id"])
             for i, s in enumerate(self.sections.get("surface_line", ()), start=1)
@@ -567,8 +380,6 @@ class Case:
 
     @property
     def tool_drops(self) -> tuple:
-        from calc.geometry import ToolPressureDrop
-
         t = self.sections.get("tool_pressure")
         if not t:
             return ()
@@ -588,8 +399,6 @@ class Case:
 
     @property
     def window(self):
-        from calc.circulation import PressureWindow
-
         w = self.sections.get("pressure_window")
         if not w:
             return None
@@ -597,8 +406,6 @@ class Case:
 
     @property
     def weak_points(self) -> tuple:
-        from calc.circulation import WeakPoint
-
         return tuple(
             self._build(
                 f"weak_point[{i}]", WeakPoint, w["name"], w["md"], w["fracture"], w.get("pore")
@@ -630,8 +437,6 @@ class Case:
 
     def well(self, check_index: int = -1):
         """The :class:`calc.geometry.Well` at a check's bit depth (default the latest check)."""
-        from calc.geometry import Well
-
         for name in HYDRAULICS_SECTIONS:
             self._need(name)
         if not self.checks:
@@ -649,7 +454,7 @@ class Case:
             self.surface_lines,
             self.tool_drops,
             bit_depth=depth,
-            message_units=self.units,
+            message_units=self.unit_system,
         )
 
 
@@ -717,8 +522,8 @@ def parse_case(data: Mapping, source: str = "<case>") -> Case:
         if key not in SECTIONS:
             _unknown(source, key, key, SECTIONS)
     header = parse_table(data.get("case", {}), CASE_SCHEMA, "si", source, "case")
-    units = header.get("units", "oilfield").strip().lower()
-    if units not in UNIT_SYSTEMS:
+    unit_system = header.get("units", "oilfield").strip().lower()
+    if unit_system not in UNIT_SYSTEMS:
         _unknown(source, "case.units", header.get("units"), UNIT_SYSTEMS)
     checks, slurries = [], []
     for name, schema, mode in (("check", CHECK_SCHEMA, "mud"), ("slurry", SLURRY_SCHEMA, "cement")):
@@ -727,7 +532,7 @@ def parse_case(data: Mapping, source: str = "<case>") -> Case:
             raise InputError(_where(source, name), items, f"an array of tables [[{name}]]")
         for i, item in enumerate(items, start=1):
             path = f"{name}[{i}]"
-            values = parse_table(item, schema, units, source, path)
+            values = parse_table(item, schema, unit_system, source, path)
             label = values.get("label") or values.get("name")
             temp = values.get("cup_temperature", values.get("temperature"))
             where = _where(source, f"{path} ({label})")
@@ -747,14 +552,14 @@ def parse_case(data: Mapping, source: str = "<case>") -> Case:
             if not isinstance(item, list):
                 raise InputError(_where(source, name), item, f"an array of tables [[{name}]]")
             sections[name] = tuple(
-                parse_table(x, schema, units, source, f"{name}[{i}]")
+                parse_table(x, schema, unit_system, source, f"{name}[{i}]")
                 for i, x in enumerate(item, start=1)
             )
         else:
-            sections[name] = parse_table(item, schema, units, source, name)
+            sections[name] = parse_table(item, schema, unit_system, source, name)
     return Case(
         source,
-        units,
+        unit_system,
         header,
         tuple(checks),
         tuple(slurries),
@@ -811,8 +616,6 @@ def load_case(path) -> Case:
     """
     p = Path(path)
     if p.suffix.lower() in (".xlsx", ".xlsm"):
-        from addin.workbook_input import read_blocks
-
         doc, where = read_blocks(p)
         try:
             case = parse_case(doc, p.name)

@@ -1,6 +1,10 @@
 """The ``boreflow`` command line.
 
-Subcommands (each adds itself through a ``_register_*`` function, so later faces add theirs):
+Every subcommand and its options are declared here, in :func:`build_parser`; each one's work is
+done by ``run(args)`` of its module in :mod:`addin.commands` (``rheology``, ``report``,
+``calc``, ``batch``), which returns the exit code (:mod:`addin.commands.exit_codes`).
+
+Subcommands:
 
 ``boreflow rheology CASE [--units oilfield|metric|si] [--json]``
     For every ``[[check]]`` and ``[[slurry]]`` in the case: the readings, PV/YP/LSYP/gels, every
@@ -35,49 +39,25 @@ Exit codes
 from __future__ import annotations
 
 import argparse
-import json
 import os
 import sys
-from collections.abc import Callable
 
-import numpy as np
-
-from calc import cautions
+from addin.commands import batch as batch_cmd
+from addin.commands import calc as calc_cmd
+from addin.commands import report as report_cmd
+from addin.commands import rheology as rheology_cmd
+from addin.commands.exit_codes import (
+    EXIT_BAD_INPUT,
+    EXIT_BROKEN_PIPE,
+    EXIT_EXISTS,
+    EXIT_INTERNAL,
+    EXIT_INTERRUPTED,
+    EXIT_WRITE,
+)
 from calc.errors import InputError
-from calc.rheology import compare_series, fit_all
-from calc.units import UNIT_SYSTEMS, from_si, label, unit_for
+from calc.units import UNIT_SYSTEMS
 
-__all__ = [
-    "EXIT_BAD_INPUT",
-    "EXIT_BATCH_FAILED",
-    "EXIT_BROKEN_PIPE",
-    "EXIT_EXISTS",
-    "EXIT_INTERNAL",
-    "EXIT_OK",
-    "EXIT_WRITE",
-    "build_parser",
-    "main",
-]
-
-EXIT_OK = 0
-EXIT_INTERNAL = 1
-EXIT_BAD_INPUT = 2
-EXIT_EXISTS = 3
-EXIT_WRITE = 4
-EXIT_BATCH_FAILED = 5
-EXIT_BROKEN_PIPE = 141  # 128 + SIGPIPE (13), the shell's code for a closed output pipe
-
-_PARAM_LABELS = {
-    "n": "n",
-    "K": "K",
-    "tau_y": "τy",
-    "PV": "PV",
-    "YP": "YP",
-    "LSYP": "LSYP",
-    "gel_10s": "gel 10 s",
-    "gel_10min": "gel 10 min",
-    "gel_30min": "gel 30 min",
-}
+__all__ = ["build_parser", "main"]
 
 
 class _ArgError(Exception):
@@ -89,245 +69,8 @@ class _Parser(argparse.ArgumentParser):
         raise _ArgError(message)
 
 
-def _unit(kind: str, system: str) -> tuple[str, str]:
-    unit = unit_for(kind, system)
-    text = label(unit)
-    if kind == "consistency":
-        text = text.replace("/", "·sⁿ/", 1) if "/" in text else text + "·sⁿ"
-    return unit, text
-
-
-def _conv(value, kind, system):
-    if kind == "dimensionless":
-        return value
-    return from_si(value, unit_for(kind, system), kind)
-
-
-# ------------------------------------------------------------------ rheology data
-def _fit_dict(f, system):
-    _, su = _unit("stress", system)
-    q = f.quality
-    lo, hi = f.shear_rate_range
-    return {
-        "method": f.method,
-        "model": f.model.name,
-        "description": f.description,
-        "parameters": {
-            k: {"value": v, "unit": u} for k, (v, u) in f.model.parameters(system).items()
-        },
-        "quality": {
-            "space": q.space,
-            "rmse": _conv(q.rmse, "stress", system),
-            "rmse_unit": su,
-            "r2": q.r2,
-            "n_points": q.n_points,
-            "residuals": [_conv(x, "stress", system) for x in q.residuals.tolist()],
-        },
-        "shear_rate_range": [lo, hi],
-        "notes": [str(n) for n in f.notes],
-        "source": f.source,
-    }
-
-
-def _field(r, attr):
-    try:
-        return getattr(r, attr)
-    except InputError:
-        return None
-
-
-def _fluid_dict(name, r, system):
-    fits = fit_all(r)
-    _, su = _unit("stress", system)
-    _, vu = _unit("viscosity", system)
-    out = {
-        "label": name,
-        "mode": r.mode,
-        "instrument": r.geometry.name,
-        "temperature": None
-        if r.temperature is None
-        else _conv(r.temperature, "temperature", system),
-        "temperature_unit": label(unit_for("temperature", system)),
-        "speeds_rpm": r.speeds.tolist(),
-        "dial_deg": r.dial.tolist(),
-        "shear_rate_1_s": r.shear_rate.tolist(),
-        "shear_stress": [_conv(x, "stress", system) for x in r.shear_stress.tolist()],
-        "stress_unit": su,
-        "viscosity_unit": vu,
-        "pv": None if (v := _field(r, "pv")) is None else _conv(v, "viscosity", system),
-        "pv_definition": r.pv_definition,
-        "yp": None if (v := _field(r, "yp")) is None else _conv(v, "stress", system),
-        "lsyp": None if (v := _field(r, "lsyp")) is None else _conv(v, "stress", system),
-        "gels": {k: _conv(v, "stress", system) for k, v in r.gels_si.items()},
-        "fits": [_fit_dict(f, system) for f in fits.results],
-        "ranking": [
-            {
-                "rank": e.rank,
-                "method": e.method,
-                "model": e.model_name,
-                "std_error": None if e.std_error is None else _conv(e.std_error, "stress", system),
-                "r2": e.r2,
-            }
-            for e in fits.ranking
-        ],
-        "notes": [str(n) for n in (*r.notes, *fits.notes)],
-    }
-    if r.ramp_up is not None:
-        out["up_down_ratio"] = r.up_down_ratio.tolist()
-    return out
-
-
-def _comparison_dict(c, system):
-    rows = []
-    for ch in c.changes:
-        rows.append(
-            {
-                "parameter": ch.name,
-                "a": _conv(ch.a, ch.kind, system),
-                "b": _conv(ch.b, ch.kind, system),
-                "change": _conv(ch.change, ch.kind, system)
-                if ch.kind == "dimensionless"
-                else _conv(ch.change, ch.kind, system) - _conv(0.0, ch.kind, system),
-                "relative": ch.relative,
-                "unit": "" if ch.kind == "dimensionless" else _unit(ch.kind, system)[1],
-                "flagged": ch.flagged,
-            }
-        )
-    return {
-        "a": c.label_a,
-        "b": c.label_b,
-        "method": c.method,
-        "changes": rows,
-        "curves_differ": c.curves_differ,
-        "max_curve_difference_deg": c.max_curve_difference,
-        "at_shear_rate_1_s": c.max_difference_at,
-        "threshold_deg": c.threshold,
-        "reading_differences_deg": {f"{k:g}": v for k, v in c.reading_differences.items()},
-        "notes": [str(n) for n in c.notes],
-    }
-
-
-def rheology_data(case, system: str) -> dict:
-    """Everything ``boreflow rheology`` prints, as plain data (JSON-ready)."""
-    return {
-        "case": case.source,
-        "title": case.header.get("title", ""),
-        "units": system,
-        "checks": [_fluid_dict(c.label, c.readings, system) for c in case.checks],
-        "slurries": [_fluid_dict(s.name, s.readings, system) for s in case.slurries],
-        "comparisons": [
-            _comparison_dict(c, system) for c in compare_series([c.readings for c in case.checks])
-        ],
-        "caution": cautions.CELL,
-    }
-
-
-# ------------------------------------------------------------------ text output
-def _g(x, digits=4):
-    return "—" if x is None else f"{x:.{digits}g}"
-
-
-def _fluid_text(d) -> list[str]:
-    su, vu = d["stress_unit"], d["viscosity_unit"]
-    temp = "" if d["temperature"] is None else f", {d['temperature']:.4g} {d['temperature_unit']}"
-    lines = [f"{d['label']}  ({d['mode']}, {d['instrument']}{temp})"]
-    lines.append("  rpm        " + "".join(f"{s:>9g}" for s in d["speeds_rpm"]))
-    lines.append("  dial [°]   " + "".join(f"{s:>9g}" for s in d["dial_deg"]))
-    lines.append("  γ̇ [1/s]    " + "".join(f"{s:>9.4g}" for s in d["shear_rate_1_s"]))
-    lines.append(f"  τ [{su}]".ljust(13) + "".join(f"{s:>9.4g}" for s in d["shear_stress"]))
-    if "up_down_ratio" in d:
-        lines.append("  up/down    " + "".join(f"{s:>9.3g}" for s in d["up_down_ratio"]))
-    gels = " / ".join(f"{k} {_g(v, 3)}" for k, v in d["gels"].items()) or "—"
-    lines.append(
-        f"  PV {_g(d['pv'])} {vu}   YP {_g(d['yp'])} {su}   LSYP {_g(d['lsyp'])} {su}   "
-        f"gels {gels} {su if d['gels'] else ''}".rstrip()
-    )
-    lines.append(f"  ({d['pv_definition']}; YP, LSYP, gels by the field convention)")
-    lines.append("  fits (quality over all readings used, RMSE in stress):")
-    for f in d["fits"]:
-        params = ", ".join(
-            f"{k} = {p['value']:.4g}{' ' + p['unit'] if p['unit'] else ''}"
-            for k, p in f["parameters"].items()
-        )
-        lo, hi = f["shear_rate_range"]
-        q = f["quality"]
-        lines.append(f"    {f['method']:<24} {f['model']:<17} {params}")
-        lines.append(
-            f"    {'':<24} RMSE {q['rmse']:.3g} {q['rmse_unit']}, R² {q['r2']:.5f}, "
-            f"fitted over {lo:.4g}–{hi:.4g} 1/s"
-        )
-        lines.extend(f"    {'':<24} {n}" for n in f["notes"])
-    lines.append("  ranking (residual standard error on all readings):")
-    for e in d["ranking"]:
-        lines.append(f"    {e['rank']:>2}. {e['method']:<24} s = {_g(e['std_error'], 3)} {su}")
-    if d["notes"]:
-        lines.append("  notes:")
-        lines.extend(f"    {n}" for n in d["notes"])
-    return lines
-
-
-def _comparison_text(c) -> list[str]:
-    lines = [f"{c['a']} → {c['b']}  (n, K, τy from {c['method']})"]
-    lines.append(f"    {'parameter':<12}{'a':>10}{'b':>10}{'change':>10}{'rel.':>9}  unit")
-    for r in c["changes"]:
-        rel = "—" if r["relative"] is None else f"{100 * r['relative']:+.1f}%"
-        flag = "  ← beyond tolerance" if r["flagged"] else ""
-        lines.append(
-            f"    {_PARAM_LABELS[r['parameter']]:<12}{r['a']:>10.4g}{r['b']:>10.4g}"
-            f"{r['change']:>+10.3g}{rel:>9}  {r['unit']}{flag}"
-        )
-    verdict = "differ" if c["curves_differ"] else "do not differ"
-    lines.append(
-        f"    flow curves {verdict} by more than the reading resolution: largest "
-        f"difference {c['max_curve_difference_deg']:+.2f}° at {c['at_shear_rate_1_s']:.4g}"
-        f" 1/s (threshold {c['threshold_deg']:g}°)"
-    )
-    lines.extend(f"    {n}" for n in c["notes"])
-    return lines
-
-
-def rheology_text(data: dict) -> str:
-    out = [
-        f"boreflow rheology — {data['case']}  {data['title']}".rstrip(),
-        f"units: {data['units']}",
-        "",
-    ]
-    if data["checks"]:
-        out.append("MUD CHECKS")
-        for d in data["checks"]:
-            out += [*_fluid_text(d), ""]
-    if data["slurries"]:
-        out.append("CEMENT SLURRIES AND SPACERS")
-        for d in data["slurries"]:
-            out += [*_fluid_text(d), ""]
-    if data["comparisons"]:
-        out.append("CHANGES BETWEEN CONSECUTIVE CHECKS")
-        for c in data["comparisons"]:
-            out += [*_comparison_text(c), ""]
-    out.append(data["caution"])
-    return "\n".join(out)
-
-
-def _cmd_rheology(args) -> int:
-    from addin.case import load_case
-
-    case = load_case(args.case)
-    system = args.units or case.units
-    data = rheology_data(case, system)
-    if args.json:
-        print(json.dumps(data, ensure_ascii=False, indent=2, default=_json_default))
-    else:
-        print(rheology_text(data))
-    return EXIT_OK
-
-
-def _json_default(obj):
-    if isinstance(obj, np.generic):
-        return obj.item()
-    raise TypeError(type(obj).__name__)
-
-
-def _register_rheology(sub) -> None:
+# ------------------------------------------------------------------ the subcommands
+def _add_rheology(sub) -> None:
     p = sub.add_parser("rheology", help="rheology of the mud checks and slurries of a case")
     p.add_argument("case", help="case file (TOML), e.g. workbooks/demo-case.toml")
     p.add_argument(
@@ -337,17 +80,97 @@ def _register_rheology(sub) -> None:
         help="unit system for output (default: the case's [case].units)",
     )
     p.add_argument("--json", action="store_true", help="machine-readable JSON output")
-    p.set_defaults(func=_cmd_rheology)
+    p.set_defaults(func=rheology_cmd.run)
 
 
-def _register_report(sub) -> None:
-    from addin.report import commands
+def _add_report(sub) -> None:
+    p = sub.add_parser(
+        "report",
+        help="write the daily hydraulics report workbook for a case",
+        description="Build the report workbook (.xlsx) from a case file (TOML) or an input "
+        "workbook (.xlsx). The file is written atomically and never overwrites an existing "
+        "one unless --force is given.",
+    )
+    p.add_argument(
+        "case", help="case file (.toml) or input workbook (.xlsx), e.g. workbooks/demo-case.toml"
+    )
+    p.add_argument("-o", "--output", help="report file (default: CASE-report.xlsx here)")
+    p.add_argument("--force", action="store_true", help="replace an existing report")
+    p.add_argument("--json", action="store_true", help="also print every result as JSON")
+    p.add_argument("--method", default=None, help="hydraulics method (default api13d_2010_hb)")
+    p.set_defaults(func=report_cmd.run)
 
-    commands.register(sub)
+
+def _add_calc(sub) -> None:
+    c = sub.add_parser(
+        "calc",
+        help="one-off numbers (hydrostatic, annular velocity, bit, circulate)",
+        description="Quick calculations. Values are numbers in the unit system of --units "
+        "(default oilfield) or text with a unit, e.g. --density '1.32 sg'.",
+    )
+    csub = c.add_subparsers(
+        dest="quantity", metavar="QUANTITY", required=True, parser_class=_Parser
+    )
+
+    def common(q):
+        q.add_argument(
+            "--units",
+            choices=list(UNIT_SYSTEMS),
+            default="oilfield",
+            help="unit system of inputs and output (default oilfield)",
+        )
+        q.add_argument("--json", action="store_true", help="JSON output")
+        q.set_defaults(func=calc_cmd.run)
+        return q
+
+    h = common(csub.add_parser("hydrostatic", help="pressure of a static column ρ·g·TVD"))
+    h.add_argument("--density", required=True)
+    h.add_argument("--tvd", required=True)
+    h.add_argument(
+        "--hydrostatic",
+        choices=["exact", "0.052"],
+        default="exact",
+        help="g convention (default exact gₙ)",
+    )
+    a = common(csub.add_parser("annular-velocity", help="mean velocity Q / annulus area"))
+    a.add_argument("--rate", required=True)
+    a.add_argument("--hole", required=True, help="hole or casing inside diameter")
+    a.add_argument("--pipe", required=True, help="pipe outside diameter")
+    b = common(csub.add_parser("bit", help="TFA, nozzle velocity, bit ΔP, power, HSI, impact"))
+    b.add_argument("--rate", required=True)
+    b.add_argument("--density", required=True)
+    b.add_argument("--size", required=True, help="bit diameter")
+    b.add_argument("--nozzles", required=True, help="sizes in 1/32 in, e.g. 12,12,12,11,11,11")
+    b.add_argument("--cd", type=float, default=0.95, help="discharge coefficient (0.95)")
+    k = csub.add_parser("circulate", help="SPP breakdown and ECD for a case at a rate")
+    k.add_argument("case")
+    k.add_argument("--rate", help="flow rate (default: the latest check's)")
+    k.add_argument("--method", default=None)
+    k.add_argument(
+        "--units",
+        dest="units_given",
+        choices=list(UNIT_SYSTEMS),
+        default=None,
+        help="output units (default the case's)",
+    )
+    k.add_argument("--json", action="store_true")
+    k.set_defaults(func=calc_cmd.run, units="oilfield")
 
 
-#: Subcommand registrations; later faces append theirs (report, calc, batch).
-REGISTRATIONS: list[Callable] = [_register_rheology, _register_report]
+def _add_batch(sub) -> None:
+    bt = sub.add_parser(
+        "batch",
+        help="reports for many cases, with a progress bar and a summary table",
+        description="Write CASE-report.xlsx into FOLDER for every case. PATH may be a case "
+        "file, a folder (its *.toml and *.xlsx) or @list.txt (one path per line). Failed "
+        "cases are listed, the others still written; exit status 5 if any failed.",
+    )
+    bt.add_argument("paths", nargs="+", metavar="PATH")
+    bt.add_argument("-o", "--output", required=True, metavar="FOLDER")
+    bt.add_argument("--force", action="store_true", help="replace existing reports")
+    bt.add_argument("--summary", metavar="FILE.csv", help="also write the summary as CSV")
+    bt.add_argument("-q", "--quiet", action="store_true", help="no progress bar")
+    bt.set_defaults(func=batch_cmd.run)
 
 
 _EPILOG = """first run (the invented demo case):
@@ -367,6 +190,7 @@ exit codes:
 
 
 def build_parser() -> argparse.ArgumentParser:
+    """The ``boreflow`` parser with every subcommand (rheology, report, calc, batch)."""
     parser = _Parser(
         prog="boreflow",
         description="Drilling-fluid and slurry hydraulics: rheology, circulating pressures, "
@@ -375,8 +199,10 @@ def build_parser() -> argparse.ArgumentParser:
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
-    for register in REGISTRATIONS:
-        register(sub)
+    _add_rheology(sub)
+    _add_report(sub)
+    _add_calc(sub)
+    _add_batch(sub)
     return parser
 
 
@@ -427,7 +253,7 @@ def main(argv=None) -> int:
         return EXIT_WRITE
     except KeyboardInterrupt:
         print("boreflow: interrupted; nothing half-written was left behind", file=sys.stderr)
-        return 130
+        return EXIT_INTERRUPTED
     except Exception as exc:  # a bug: one line, not a traceback, unless asked
         if os.environ.get("BOREFLOW_DEBUG"):
             raise

@@ -9,11 +9,11 @@ Atomic write
     removed and the previous target, if any, is untouched.  A process killed mid-write leaves at
     most a hidden ``.~boreflow-*.tmp`` file beside the target, never a half-written target.
 
-Cell text
+Formula-like text
     A spreadsheet treats text that starts with ``=``, ``+``, ``-`` or ``@`` as a formula when a
-    user edits or imports it (and openpyxl stores ``"=..."`` as a formula outright).  Text that
-    came from an input file is written through :func:`set_text`, which stores it as a string cell
-    with the quote-prefix flag, so it shows literally and stays text when edited.
+    user edits or imports it.  :func:`is_formula_like` recognises such text and :func:`csv_safe`
+    defuses it for a CSV field; workbook cells get it as literal text through
+    :func:`addin.xlsx_cells.set_text`.
 """
 
 from __future__ import annotations
@@ -31,7 +31,6 @@ __all__ = [
     "atomic_write_bytes",
     "csv_safe",
     "is_formula_like",
-    "set_text",
 ]
 
 #: First characters that make a spreadsheet read text as a formula (OWASP "CSV injection" list,
@@ -146,19 +145,6 @@ def is_formula_like(text) -> bool:
     (True, True, False)
     """
     return isinstance(text, str) and text.startswith(FORMULA_TRIGGERS)
-
-
-def set_text(cell, text) -> None:
-    """Store ``text`` in an openpyxl cell as literal text, never as a formula.
-
-    The value is stored as a string cell; text that a spreadsheet would take for a formula also
-    gets the quote-prefix flag, so editing the cell keeps it text.
-    """
-    value = "" if text is None else str(text)
-    cell.value = value
-    cell.data_type = "s"  # openpyxl guesses "f" for text starting with "="
-    if is_formula_like(value):
-        cell.quotePrefix = True
 
 
 def csv_safe(text) -> str:

@@ -1,4 +1,6 @@
-"""The input workbook: safe opening, and the block layout shared by the template and the report.
+"""The input workbook's reader: safe opening, and the ``§`` blocks read into a case document.
+
+The block layout is :mod:`addin.workbook_layout`; the writer is :mod:`addin.workbook_template`.
 
 Safety (a workbook from e-mail is untrusted input)
     * the file must be a zip archive of modest size; the summed uncompressed size, the number of
@@ -11,24 +13,6 @@ Safety (a workbook from e-mail is untrusted input)
     * cells are read as stored values (``data_only=True``); formulas are not evaluated, and a
       formula cell without a stored value is reported, not guessed;
     * the number of sheets and of cells read is limited.
-
-Layout
-    Content is organised in *blocks*.  A block starts with a title cell in column A whose text is
-    ``"§ <key>"`` followed by a human title (e.g. ``"§ limits  Operating limits"``); the block's
-    rows follow until the first empty row.  Three kinds:
-
-    ``values`` (one record)
-        rows: description | key | unit | value [| more values …]
-    ``table`` (list of records, one per row; or columns of arrays)
-        a header row of keys, a units row, then one row per record
-    ``columns`` (list of records, one per column — mud checks, slurries)
-        rows: description | key | unit | record 1 | record 2 | …
-
-    Sheets are free: a reader finds blocks wherever they are, so the template spreads them over
-    several sheets and the report's ``Inputs`` sheet stacks them on one.  A unit cell that differs
-    from the case's unit system makes the value ``"<value> <unit>"`` (a per-value unit, exactly
-    as a case file allows).  A key written ``name[0]``/``name[1]`` builds a list; a dotted key
-    ``dial.600`` builds a nested table.
 """
 
 from __future__ import annotations
@@ -36,23 +20,17 @@ from __future__ import annotations
 import difflib
 import math
 import zipfile
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from pathlib import Path
 
-from addin.case import SECTIONS, STATION_COLUMNS
-from calc.errors import InputError
+import openpyxl
+import openpyxl.xml
+from openpyxl.utils import get_column_letter
 
-__all__ = [
-    "Block",
-    "Field",
-    "Limits",
-    "WorkbookError",
-    "open_workbook_safely",
-    "read_blocks",
-    "write_block",
-]
+from addin.workbook_layout import BLOCKS, MARK, Block, WorkbookError, unit_labels
+from calc.units import UNIT_SYSTEMS
 
-MARK = "§"
+__all__ = ["Limits", "open_workbook_safely", "read_blocks"]
 
 
 @dataclass(frozen=True)
@@ -67,42 +45,6 @@ class Limits:
     max_cells: int = 200_000
     max_rows: int = 5000
     max_cols: int = 60
-
-
-class WorkbookError(InputError):
-    """A problem with an input workbook; the message names the file (and sheet and cell)."""
-
-    def __init__(self, where: str, value, allowed: str, problem: str = "not allowed"):
-        super().__init__(where, value, allowed, problem)
-
-
-@dataclass(frozen=True)
-class Field:
-    """One key of a block: ``key`` (dotted, ``[i]`` for list items), description, unit kind."""
-
-    key: str
-    label: str
-    kind: str = "dimensionless"  # calc.units quantity kind; "text" for words; "flag" for true/false
-    many: bool = False  # a list of values (several cells in a values block)
-
-
-@dataclass(frozen=True)
-class Block:
-    """A block of the layout: case key, title, kind (values/table/columns) and its fields."""
-
-    key: str
-    title: str
-    kind: str
-    fields: tuple[Field, ...]
-    #: for kind "table": True if the TOML is a dict of arrays (e.g. pressure_window), False if a
-    #: list of records (e.g. [[casing]]); "survey.stations"-style keys hold a list of rows
-    arrays: bool = False
-    rows_key: str | None = None
-    note: str = ""
-    by_key: dict = field(default_factory=dict, compare=False, repr=False)
-
-    def __post_init__(self):
-        self.by_key.update({f.key: f for f in self.fields})
 
 
 # ---------------------------------------------------------------------------- safe opening
@@ -153,9 +95,6 @@ def open_workbook_safely(path, limits: Limits | None = None):
 
     Returns an openpyxl workbook in read-only, values-only mode.
     """
-    import openpyxl
-    import openpyxl.xml
-
     lim = limits or Limits()
     p = Path(path)
     if not p.is_file():
@@ -170,6 +109,8 @@ def open_workbook_safely(path, limits: Limits | None = None):
             p, read_only=True, data_only=True, keep_vba=False, keep_links=False
         )
     except Exception as exc:  # openpyxl raises many types on damaged or hostile content
+        # lazy: defusedxml may be absent (then refused above with a clear error), and importing
+        # the reader (so addin.case, for TOML cases) must not need it
         from defusedxml import DefusedXmlException
 
         chain, e = [], exc
@@ -223,8 +164,6 @@ def _empty(v) -> bool:
 
 
 def _where(name, sheet, r, c) -> str:
-    from openpyxl.utils import get_column_letter
-
     return f"{name}: {sheet}!{get_column_letter(c + 1)}{r + 1}"
 
 
@@ -343,8 +282,6 @@ def read_blocks(
                 tmp: dict = {}
                 _read_block(grid, r + 1, blocks[key], title, name, lambda k: None, tmp, {})
                 system = str(tmp["case"].get("units", "oilfield")).strip().lower()
-        from calc.units import UNIT_SYSTEMS
-
         if system not in UNIT_SYSTEMS:
             raise WorkbookError(
                 where.get("case.units", f"{name}: case.units"), system, ", ".join(UNIT_SYSTEMS)
@@ -361,20 +298,6 @@ def _end(grid, r) -> int:
     return r
 
 
-def _field(block: Block, key, loc):
-    base = key.split("[")[0]
-    f = block.by_key.get(key) or block.by_key.get(base)
-    if f is None:
-        # dotted keys with free sub-keys (dial.<rpm>, properties.<name>): match by prefix
-        pre = base.split(".")[0]
-        f = block.by_key.get(pre + ".*")
-    if f is None:
-        near = difflib.get_close_matches(key, [k for k in block.by_key if "*" not in k], n=1)
-        hint = f" (did you mean '{near[0]}'?)" if near else ""
-        raise WorkbookError(loc, key, f"a key of block '{block.key}'{hint}", "unknown key")
-    return f
-
-
 def _read_block(grid, r0, block: Block, sheet, name, unit_of, doc, where) -> int:
     r1 = _end(grid, r0)
     if block.kind == "values":
@@ -386,7 +309,7 @@ def _read_block(grid, r0, block: Block, sheet, name, unit_of, doc, where) -> int
                 continue
             key = str(key).strip()
             loc = _where(name, sheet, r, 1)
-            f = _field(block, key, loc)
+            f = block.lookup(key, loc)
             vals = [(c, _clean(v, _where(name, sheet, r, c))) for c, v in enumerate(row) if c >= 3]
             vals = [(c, v) for c, v in vals if not _empty(v)]
             if not vals:
@@ -404,7 +327,7 @@ def _read_block(grid, r0, block: Block, sheet, name, unit_of, doc, where) -> int
         fields = {}
         for c, k in enumerate(keys):
             if k is not None:
-                fields[c] = _field(block, k, _where(name, sheet, r0, c))
+                fields[c] = block.lookup(k, _where(name, sheet, r0, c))
         records = []
         for r in range(r0 + 2, r1):
             rec = {}
@@ -441,7 +364,7 @@ def _read_block(grid, r0, block: Block, sheet, name, unit_of, doc, where) -> int
             if _empty(key):
                 continue
             key = str(key).strip()
-            f = _field(block, key, _where(name, sheet, r, 1))
+            f = block.lookup(key, _where(name, sheet, r, 1))
             for c in range(3, ncol):
                 v = _clean(row[c], _where(name, sheet, r, c))
                 if _empty(v):
@@ -453,389 +376,3 @@ def _read_block(grid, r0, block: Block, sheet, name, unit_of, doc, where) -> int
     else:  # pragma: no cover - layout definition error
         raise ValueError(block.kind)
     return r1
-
-
-# ---------------------------------------------------------------------------- writing
-
-
-def _flatten(value, prefix: str = "") -> list[tuple[str, object]]:
-    """Nested dict → [(dotted key, leaf)], lists of scalars kept whole."""
-    out = []
-    if isinstance(value, dict):
-        for k, v in value.items():
-            out.extend(_flatten(v, f"{prefix}.{k}" if prefix else str(k)))
-    else:
-        out.append((prefix, value))
-    return out
-
-
-def _split_unit(v):
-    """``"2.6 sg"`` → (2.6, "sg"); numbers and plain text unchanged (unit None)."""
-    if isinstance(v, str):
-        head, _, tail = v.strip().partition(" ")
-        try:
-            return float(head), tail.strip() or None
-        except ValueError:
-            return v, None
-    return v, None
-
-
-def write_block(ws, row: int, block: Block, data, unit_of, *, styles=True) -> int:
-    """Write one block at ``row`` (title, rows); returns the row after the block's blank line.
-
-    ``data`` is the block's part of a case document (dict, list of dicts, or dict of arrays).
-    Text is written as text (never a formula).
-    """
-    from addin.report.style import put
-
-    s_head, s_unit, s_cell, s_in, s_note = (
-        ("bf_head", "bf_unit", "bf_cell", "bf_input", "bf_note") if styles else ("Normal",) * 5
-    )
-    put(ws, row, 1, f"{MARK} {block.key}  {block.title}", "bf_section" if styles else "Normal")
-    row += 1
-    if block.kind == "values":
-        data = data or {}
-        items = _flatten(data)
-        known = [f.key for f in block.fields if "*" not in f.key]
-        order = [k for k in known if any(i[0] == k for i in items)]
-        order += [k for k, _ in items if k not in order]
-        flat = dict(items)
-        for key in order:
-            f = _field(block, key, f"{block.key}.{key}")
-            val = flat[key]
-            vals = val if isinstance(val, list) else [val]
-            unit = unit_of(f.kind) or ""
-            split = [_split_unit(v) for v in vals]
-            own = {u for _, u in split if u}
-            if len(own) == 1:
-                unit = own.pop()
-                vals = [v for v, _ in split]
-            put(ws, row, 1, f.label, s_cell)
-            put(ws, row, 2, key, s_note)
-            put(ws, row, 3, unit, s_unit)
-            for j, v in enumerate(vals):
-                _put_value(ws, row, 4 + j, v, s_in)
-            row += 1
-    elif block.kind == "table":
-        if block.arrays:
-            keys = [f.key for f in block.fields if f.key in (data or {})]
-            n = max((len(data[k]) for k in keys), default=0)
-            records = [
-                {k: data[k][i] if i < len(data[k]) else None for k in keys} for i in range(n)
-            ]
-        elif block.rows_key:
-            keys = [f.key for f in block.fields]
-            records = [
-                dict(zip(keys, r, strict=False)) for r in (data or {}).get(block.rows_key, [])
-            ]
-        else:
-            records = [dict(_flatten(r)) for r in (data or [])]
-            keys = [f.key for f in block.fields if any(f.key in r for r in records)]
-            keys += [k for r in records for k in r if k not in keys]
-        for j, k in enumerate(keys):
-            f = _field(block, k, f"{block.key}.{k}")
-            put(ws, row, 1 + j, k, s_head)
-            put(ws, row + 1, 1 + j, unit_of(f.kind) or "", s_unit)
-        row += 2
-        for rec in records:
-            for j, k in enumerate(keys):
-                v, u = _split_unit(rec.get(k))
-                if u:  # a per-value unit that differs from the column's: keep it as text
-                    v = rec.get(k)
-                _put_value(ws, row, 1 + j, v, s_in)
-            row += 1
-    elif block.kind == "columns":
-        records = [dict(_flatten(r)) for r in (data or [])]
-        known = [f.key for f in block.fields if "*" not in f.key]
-        order = []
-        for k in known:
-            if any(k in r for r in records):
-                order.append(k)
-            elif k.endswith("]") and any(isinstance(r.get(k.split("[")[0]), list) for r in records):
-                order.append(k)
-        extra = [
-            k
-            for r in records
-            for k in r
-            if k not in order and k.split("[")[0] not in {o.split("[")[0] for o in order}
-        ]
-        for k in extra:
-            if k not in order:
-                order.append(k)
-        for key in order:
-            f = _field(block, key, f"{block.key}.{key}")
-            base, idx = key[:-1].split("[", 1) if key.endswith("]") else (key, None)
-            put(ws, row, 1, f.label, s_cell)
-            put(ws, row, 2, key, s_note)
-            put(ws, row, 3, unit_of(f.kind) or "", s_unit)
-            for j, rec in enumerate(records):
-                v = rec.get(base)
-                if idx is not None:
-                    v = v[int(idx)] if isinstance(v, list) and int(idx) < len(v) else None
-                _put_value(ws, row, 4 + j, v, s_in)
-            row += 1
-    if block.note:
-        put(ws, row, 1, block.note, s_note)
-        row += 1
-    return row + 1
-
-
-def _put_value(ws, row, col, v, style):
-    from addin.report.style import put
-
-    if isinstance(v, bool):
-        cell = ws.cell(row=row, column=col, value=v)
-        cell.style = style
-    elif isinstance(v, int | float):
-        cell = ws.cell(row=row, column=col, value=v)
-        cell.style = style
-    elif v is None:
-        ws.cell(row=row, column=col).style = style
-    else:
-        put(ws, row, col, str(v), style)
-
-
-# ---------------------------------------------------------------------------- the case layout
-# Keys and quantity kinds come from the case schema (addin.case.SECTIONS); the workbook adds only
-# what is its own: block titles and kinds (values/table/columns), block order, the row labels,
-# the dial speeds given a row each, and one display unit (nozzle sizes).
-
-_TEXT = "text"
-
-#: case-schema kind → workbook kind (quantity kinds are kept as they are).
-_KIND = {"number": "dimensionless", "bool": "flag", "length_or_fill": "length"}
-#: rotor speeds [rpm] that get a labelled row of their own; other speeds use ``dial.*``.
-_DIAL_SPEEDS = ("600", "300", "200", "100", "60", "30", "6", "3")
-#: the two ends of a range, as label suffixes of a columns block's ``key[0]``/``key[1]`` rows.
-_ENDS = ("low", "high")
-#: nozzle sizes are plain numbers in the case file, shown with the nozzle unit (32nds of an inch).
-_DISPLAY_KIND = {("bit", "nozzles"): "nozzle"}
-
-_RHEOLOGY_LABELS = {
-    "dial": "dial reading",
-    "dial_up": "dial reading, rising ramp,",
-    "dial_down": "dial reading, falling ramp,",
-    "gels.10s": "gel strength 10 s",
-    "gels.10min": "gel strength 10 min",
-    "gels.30min": "gel strength 30 min",
-    "viscometer.name": "viscometer",
-    "viscometer.shear_rate_per_rpm": "viscometer shear rate per rpm [1/s]",
-    "viscometer.stress_per_degree": "viscometer stress per dial degree [Pa]",
-    "viscometer.spring_factor": "viscometer spring factor",
-    "viscometer.full_scale": "viscometer full scale [degree]",
-}
-
-#: Row labels by block and (dotted) case key; a range in a columns block gets ", low"/", high".
-LABELS: dict[str, dict[str, str]] = {
-    "case": {
-        "schema": "case-file format version",
-        "title": "report title",
-        "well": "well name",
-        "operator": "operator",
-        "rig": "rig",
-        "location": "location",
-        "report_period": "report period",
-        "units": "unit system (oilfield, metric or si)",
-    },
-    "limits": {
-        "fracture_margin": "ECD margin below fracture",
-        "pore_margin": "margin above pore pressure",
-        "surface_rating": "surface system pressure rating",
-        "trip_fracture_margin": "surge margin below fracture",
-        "trip_pore_margin": "swab margin above pore",
-    },
-    "survey": {"md": "measured depth", "inc": "inclination", "azi": "azimuth"},
-    "casing": {
-        "name": "name",
-        "od": "outside diameter",
-        "id": "inside diameter",
-        "drift": "drift diameter",
-        "top": "top (MD)",
-        "shoe": "shoe (MD)",
-        "shoe_test": "shoe test (LOT/FIT) EMW",
-    },
-    "open_hole": {
-        "bit_size": "bit size",
-        "diameter": "effective open-hole diameter",
-        "washout_factor": "washout factor (instead of a diameter)",
-    },
-    "pressure_window": {
-        "tvd": "true vertical depth",
-        "pore": "pore pressure EMW",
-        "fracture": "fracture pressure EMW",
-    },
-    "weak_point": {
-        "name": "name",
-        "md": "measured depth",
-        "fracture": "fracture EMW",
-        "pore": "pore EMW",
-    },
-    "pump": {
-        "name": "name",
-        "liner": "liner size",
-        "stroke": "stroke length",
-        "efficiency": "volumetric efficiency (fraction)",
-        "rated_power": "rated power",
-        "liner_rating": "liner pressure rating",
-    },
-    "surface_line": {"name": "name", "length": "length", "id": "inside diameter"},
-    "bit": {
-        "name": "description",
-        "size": "bit size",
-        "nozzles": "nozzle sizes",
-        "tfa": "total flow area (instead of nozzles)",
-        "ports": "number of ports",
-        "discharge_coefficient": "nozzle discharge coefficient",
-    },
-    "string": {
-        "name": "component",
-        "od": "outside diameter",
-        "id": "inside diameter",
-        "length": "length (or 'fill')",
-        "tool_joint_od": "tool-joint OD",
-        "tool_joint_id": "tool-joint ID",
-        "joint_length": "joint length",
-        "tool_joint_length": "tool-joint length",
-        "float_valve": "float valve (true/false)",
-    },
-    "tool_pressure": {
-        "name": "tools (description)",
-        "reference_drop": "drop at the reference conditions",
-        "reference_density": "reference density",
-        "reference_rate": "reference flow rate",
-        "flow_window": "allowed flow range (min, max)",
-        "covers": "components whose bore loss the drop includes",
-    },
-    "check": {
-        "label": "check label",
-        "date": "date",
-        "time": "time",
-        "sample": "sample point",
-        "fluid": "fluid",
-        "bit_depth": "bit depth (MD)",
-        "density": "mud density",
-        "cup_temperature": "rheology (cup) temperature",
-        **_RHEOLOGY_LABELS,
-        "program.density": "programme density",
-        "program.pv": "programme PV",
-        "program.yp": "programme YP",
-        "program.lsyp": "programme LSYP",
-        "flow_rate": "flow rate",
-        "rop": "rate of penetration",
-        "rpm": "string rotary speed [rpm]",
-        "measured_spp": "measured standpipe pressure",
-        "pwd.ecd": "downhole gauge ECD",
-        "pwd.md": "downhole gauge depth (MD)",
-        "cuttings.density": "cuttings density",
-        "cuttings.size": "cuttings size",
-        "cuttings.sphericity": "cuttings sphericity",
-        "properties": "other mud property (free name)",
-        "remark": "remark",
-    },
-    "trip": {
-        "stand_length": "stand length",
-        "string_end": "string end (closed or open)",
-        "speeds": "average stand speeds to evaluate",
-    },
-    "slurry": {
-        "name": "name",
-        "density": "density",
-        "temperature": "test temperature",
-        "volume": "volume",
-        **_RHEOLOGY_LABELS,
-        "remark": "remark",
-    },
-}
-
-
-def _fields(block: str, layout: str, schema, prefix: str = "") -> list[Field]:
-    """The workbook fields of one case section: its schema's keys, expanded to workbook rows."""
-    labels = LABELS.get(block, {})
-    out: list[Field] = []
-    for name, fld in schema.items():
-        key = prefix + name
-        label = labels.get(key, key)
-        kind = fld.kind
-        if kind == "table":
-            out += _fields(block, layout, fld.sub, key + ".")
-        elif kind == "dial":
-            out += [Field(f"{key}.{s}", f"{label} {s} rpm", "dimensionless") for s in _DIAL_SPEEDS]
-            out.append(Field(f"{key}.*", f"{label} (other speed)", "dimensionless"))
-        elif kind == "free":
-            out.append(Field(f"{key}.*", label, "dimensionless"))
-        elif kind == "stations":
-            out += [Field(c, labels.get(c, c), k) for c, k in STATION_COLUMNS]
-        elif kind in ("range", "list"):
-            item = _DISPLAY_KIND.get((block, key), _KIND.get(fld.of, fld.of))
-            if layout == "columns" and kind == "range":
-                out += [Field(f"{key}[{i}]", f"{label}, {e}", item) for i, e in enumerate(_ENDS)]
-            else:
-                out.append(Field(key, label, item, many=layout == "values"))
-        else:
-            out.append(Field(key, label, _DISPLAY_KIND.get((block, key), _KIND.get(kind, kind))))
-    return out
-
-
-def _block(key: str, title: str, kind: str, **kw) -> Block:
-    return Block(key, title, kind, tuple(_fields(key, kind, SECTIONS[key][1])), **kw)
-
-
-#: The case file's sections as workbook blocks, in the order the template and report show them.
-LAYOUT: tuple[Block, ...] = (
-    _block("case", "Case", "values"),
-    _block("limits", "Operating limits and margins", "values"),
-    _block("survey", "Directional survey (TVD by minimum curvature)", "table", rows_key="stations"),
-    _block("casing", "Casing and liners", "table"),
-    _block("open_hole", "Open hole", "values"),
-    _block("pressure_window", "Pore and fracture pressure (EMW against TVD)", "table", arrays=True),
-    _block("weak_point", "Named weak points", "table"),
-    _block("pump", "Mud pumps", "table"),
-    _block("surface_line", "Surface lines (as pipe runs)", "table"),
-    _block("bit", "Bit", "values"),
-    _block("string", "Drill string, bit first", "table"),
-    _block("tool_pressure", "Fixed downhole tool pressure drop", "values"),
-    _block("check", "Mud checks, oldest first (one column each)", "columns"),
-    _block("trip", "Planned trip (surge and swab)", "values"),
-    _block("slurry", "Spacer and cement slurries (one column each)", "columns"),
-)
-
-BLOCKS: dict[str, Block] = {b.key: b for b in LAYOUT}
-
-
-def unit_labels(system: str):
-    """``unit_of`` for :func:`read_blocks`/:func:`write_block`: the display unit of a kind."""
-    from calc.units import label, unit_for
-
-    def unit_of(kind: str):
-        if kind in (_TEXT, "flag", "dimensionless"):
-            return None
-        if kind == "nozzle":  # sizes are whole 32nds of an inch in every unit system (trade use)
-            return label("in32")
-        return label(unit_for(kind, system))
-
-    return unit_of
-
-
-#: How the template spreads the blocks over sheets.
-TEMPLATE_SHEETS: dict[str, tuple[str, ...]] = {
-    "Well": ("case", "limits", "open_hole", "casing", "survey", "pressure_window", "weak_point"),
-    "Rig and string": ("pump", "surface_line", "bit", "string", "tool_pressure"),
-    "Mud checks": ("check",),
-    "Plans": ("trip", "slurry"),
-}
-
-
-def write_case_sheets(wb, doc: dict, sheets: dict[str, tuple[str, ...]] | None = None) -> None:
-    """Write a case document's blocks onto sheets of ``wb`` (created as needed)."""
-    from addin.report.style import add_styles, set_widths
-
-    add_styles(wb)
-    system = str(doc.get("case", {}).get("units", "oilfield")).strip().lower()
-    unit_of = unit_labels(system)
-    for title, keys in (sheets or TEMPLATE_SHEETS).items():
-        ws = wb[title] if title in wb.sheetnames else wb.create_sheet(title)
-        row = ws.max_row + 2 if ws.max_row > 1 else 1
-        for key in keys:
-            if key in doc:
-                row = write_block(ws, row, BLOCKS[key], doc[key], unit_of)
-        set_widths(ws, [30, 22, 12] + [14] * 10)

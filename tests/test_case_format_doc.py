@@ -8,7 +8,8 @@ import tomllib
 import pytest
 from _report_demo import ROOT
 
-from addin.case import SECTIONS, parse_case
+from addin.case import parse_case
+from addin.case_schema import SECTIONS
 
 
 def _keys(schema, prefix=""):

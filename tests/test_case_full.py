@@ -21,7 +21,7 @@ def _doc():
 
 def test_demo_case_converts_to_si():
     case = load_case(DEMO)
-    assert case.units == "oilfield"
+    assert case.unit_system == "oilfield"
     assert case.sections["open_hole"]["diameter"] == pytest.approx(8.6 * 0.0254)  # NIST
     c9 = case.casings[2]
     assert c9.bottom == pytest.approx(8200 * 0.3048) and c9.diameter == pytest.approx(

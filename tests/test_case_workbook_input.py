@@ -15,6 +15,8 @@ import openpyxl
 import pytest
 
 from addin import workbook_input as wi
+from addin import workbook_layout as wl
+from addin.workbook_template import write_case_sheets
 
 ROOT = Path(__file__).resolve().parents[1]
 DEMO = ROOT / "workbooks" / "demo-case.toml"
@@ -34,7 +36,7 @@ def _demo_workbook(path: Path) -> dict:
     doc = tomllib.loads(DEMO.read_text(encoding="utf-8"))
     wb = openpyxl.Workbook()
     wb.remove(wb.active)
-    wi.write_case_sheets(wb, doc)
+    write_case_sheets(wb, doc)
     wb.save(path)
     return doc
 
@@ -69,7 +71,7 @@ def test_changed_unit_cell_becomes_a_per_value_unit(tmp_path):
 def test_not_a_workbook(tmp_path):
     p = tmp_path / "x.xlsx"
     p.write_text("name,value\nwell,1\n")
-    with pytest.raises(wi.WorkbookError, match="not a workbook"):
+    with pytest.raises(wl.WorkbookError, match="not a workbook"):
         wi.read_blocks(p)
 
 
@@ -77,7 +79,7 @@ def test_zip_that_is_not_xlsx(tmp_path):
     p = tmp_path / "x.xlsx"
     with zipfile.ZipFile(p, "w") as z:
         z.writestr("hello.txt", "hi")
-    with pytest.raises(wi.WorkbookError, match=r"xl/workbook\.xml"):
+    with pytest.raises(wl.WorkbookError, match=r"xl/workbook\.xml"):
         wi.read_blocks(p)
 
 
@@ -86,14 +88,14 @@ def test_zip_bomb_member_is_refused_before_parsing(tmp_path):
     with zipfile.ZipFile(p, "w", compression=zipfile.ZIP_DEFLATED) as z:
         z.writestr("xl/workbook.xml", "<workbook/>")
         z.writestr("xl/worksheets/sheet1.xml", b"\0" * 50_000_000)  # ratio ~1000:1
-    with pytest.raises(wi.WorkbookError, match="zip-bomb guard"):
+    with pytest.raises(wl.WorkbookError, match="zip-bomb guard"):
         wi.read_blocks(p)
 
 
 def test_oversized_file_is_refused(tmp_path):
     p = tmp_path / "c.xlsx"
     _demo_workbook(p)
-    with pytest.raises(wi.WorkbookError, match="at most 1000 bytes"):
+    with pytest.raises(wl.WorkbookError, match="at most 1000 bytes"):
         wi.read_blocks(p, limits=wi.Limits(max_file_bytes=1000))
 
 
@@ -104,7 +106,7 @@ def test_too_many_cells_is_refused(tmp_path):
     for _ in range(300):
         ws.append(list(range(50)))
     wb.save(p)
-    with pytest.raises(wi.WorkbookError, match="cells"):
+    with pytest.raises(wl.WorkbookError, match="cells"):
         wi.read_blocks(p, limits=wi.Limits(max_cells=10_000))
 
 
@@ -125,7 +127,7 @@ def test_entity_expansion_is_refused(tmp_path):
     with zipfile.ZipFile(p, "w") as z:
         for n, d in items.items():
             z.writestr(n, d)
-    with pytest.raises(wi.WorkbookError, match="unreadable") as err:
+    with pytest.raises(wl.WorkbookError, match="unreadable") as err:
         wi.read_blocks(p)
     assert "Entities" in str(err.value) or "DTD" in str(err.value)  # defusedxml refused it
 
@@ -163,14 +165,14 @@ def test_unknown_block_and_key_suggest_the_nearest(tmp_path):
     wb = openpyxl.load_workbook(p)
     wb["Well"]["A1"].value = "§ caes  Case"
     wb.save(p)
-    with pytest.raises(wi.WorkbookError, match=r"Well!A1.*did you mean 'case'"):
+    with pytest.raises(wl.WorkbookError, match=r"Well!A1.*did you mean 'case'"):
         wi.read_blocks(p)
     wb["Well"]["A1"].value = "§ case  Case"
     for row in wb["Rig and string"].iter_rows():
         if row[1].value == "discharge_coefficient":
             row[1].value = "discharge_coeficient"
     wb.save(p)
-    with pytest.raises(wi.WorkbookError, match=r"did you mean 'discharge_coefficient'"):
+    with pytest.raises(wl.WorkbookError, match=r"did you mean 'discharge_coefficient'"):
         wi.read_blocks(p)
 
 
@@ -182,20 +184,21 @@ def test_spreadsheet_error_value_is_refused(tmp_path):
         if row[1].value == "size":
             row[3].value = "#DIV/0!"
     wb.save(p)
-    with pytest.raises(wi.WorkbookError, match="Rig and string!D"):
+    with pytest.raises(wl.WorkbookError, match="Rig and string!D"):
         wi.read_blocks(p)
 
 
 def test_every_case_key_has_a_workbook_label_and_every_label_a_case_key():
-    """The workbook layout is derived from the case schema (addin.case.SECTIONS); it adds labels.
+    """The workbook layout is derived from the case schema (addin.case_schema.SECTIONS); it adds
+    labels.
 
     A case key without a row label, or a label for a key the case schema no longer has, fails.
     """
-    from addin.case import SECTIONS
+    from addin.case_schema import SECTIONS
 
-    assert set(wi.BLOCKS) == set(SECTIONS), "each case section is a workbook block"
-    for block in wi.LAYOUT:
-        labels = wi.LABELS[block.key]
+    assert set(wl.BLOCKS) == set(SECTIONS), "each case section is a workbook block"
+    for block in wl.LAYOUT:
+        labels = wl.LABELS[block.key]
         for f in block.fields:
             base = f.key.split("[")[0].removesuffix(".*")
             stem = base.rsplit(".", 1)[0] if base.rsplit(".", 1)[-1].isdigit() else base
@@ -208,22 +211,22 @@ def test_every_case_key_has_a_workbook_label_and_every_label_a_case_key():
 
 def test_workbook_kinds_come_from_the_case_schema():
     """A quantity key reads and writes in the unit of the kind the case schema gives it."""
-    from addin.case import SECTIONS
+    from addin.case_schema import SECTIONS
 
     assert (
-        wi.BLOCKS["limits"].by_key["surface_rating"].kind
+        wl.BLOCKS["limits"].by_key["surface_rating"].kind
         == SECTIONS["limits"][1]["surface_rating"].kind
     )
     program = SECTIONS["check"][1]["program"].sub["pv"]
-    assert wi.BLOCKS["check"].by_key["program.pv[1]"].kind == program.of == "viscosity"
-    assert wi.BLOCKS["string"].by_key["float_valve"].kind == "flag"  # case kind "bool"
-    assert wi.BLOCKS["tool_pressure"].by_key["flow_window"].many
+    assert wl.BLOCKS["check"].by_key["program.pv[1]"].kind == program.of == "viscosity"
+    assert wl.BLOCKS["string"].by_key["float_valve"].kind == "flag"  # case kind "bool"
+    assert wl.BLOCKS["tool_pressure"].by_key["flow_window"].many
 
 
 def test_nozzle_sizes_labelled_in_32nds_in_every_unit_system():
     # the case file reads nozzle sizes as whole 32nds of an inch (trade use, common practice),
     # so a metric workbook must not label them mm
-    from addin.workbook_input import unit_labels
+    from addin.workbook_layout import unit_labels
 
     for system in ("oilfield", "metric", "si"):
         assert unit_labels(system)("nozzle") == "1/32 in"

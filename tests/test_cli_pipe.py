@@ -15,7 +15,8 @@ import sys
 import pytest
 from _report_demo import DEMO, ROOT
 
-from addin.cli import EXIT_BROKEN_PIPE, main
+from addin.cli import main
+from addin.commands.exit_codes import EXIT_BROKEN_PIPE
 
 
 def test_exit_code_is_128_plus_sigpipe():

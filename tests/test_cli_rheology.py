@@ -5,7 +5,8 @@ from pathlib import Path
 
 import pytest
 
-from addin.cli import EXIT_BAD_INPUT, EXIT_OK, main
+from addin.cli import main
+from addin.commands.exit_codes import EXIT_BAD_INPUT, EXIT_OK
 from calc import cautions
 
 DEMO = str(Path(__file__).resolve().parents[1] / "workbooks" / "demo-case.toml")

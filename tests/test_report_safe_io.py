@@ -19,7 +19,8 @@ import openpyxl
 import pytest
 
 from addin import safe_io
-from addin.safe_io import OutputExistsError, atomic_write, atomic_write_bytes, set_text
+from addin.safe_io import OutputExistsError, atomic_write, atomic_write_bytes
+from addin.xlsx_cells import set_text
 
 ROOT = Path(__file__).resolve().parents[1]
 

@@ -274,7 +274,7 @@ def test_every_label_in_the_case_units_for_a_metric_case(tmp_path):
 def _metric(doc):
     """Give every quantity of the (oilfield) demo case its oilfield unit as text, so the same
     well reads under units = "metric" (a case file allows "<number> <unit>" for any value)."""
-    from addin.case import SECTIONS
+    from addin.case_schema import SECTIONS
     from calc.units import KINDS, unit_for
 
     def tag(v, kind):

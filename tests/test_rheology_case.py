@@ -18,7 +18,7 @@ def demo_data():
 
 def test_demo_case_loads():
     case = load_case(DEMO)
-    assert case.units == "oilfield"
+    assert case.unit_system == "oilfield"
     assert [c.label for c in case.checks] == ["D1 05:30", "D2 05:30"]
     r = case.checks[0].readings
     assert r.reading(600) == 56 and r.gels["10min"] == pytest.approx(12.0)

@@ -5,7 +5,7 @@ Run from the repository root::
     python3 workbooks/build_input_template.py [--force]
 
 The workbook carries exactly the content of ``workbooks/demo-case.toml`` in the block layout of
-``addin/workbook_input.py``; ``boreflow report workbooks/input-template.xlsx`` reads it like the
+``addin/workbook_layout.py``; ``boreflow report workbooks/input-template.xlsx`` reads it like the
 case file.  Overwrite the demo values with your own; add rows inside a block, or columns for
 more mud checks; keep one empty row between blocks.
 """
@@ -17,12 +17,15 @@ import sys
 import tomllib
 from pathlib import Path
 
+import openpyxl
+
 ROOT = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(ROOT))
 
-from addin.report.style import add_styles, put, set_widths  # noqa: E402
 from addin.safe_io import atomic_write  # noqa: E402
-from addin.workbook_input import MARK, write_case_sheets  # noqa: E402
+from addin.workbook_layout import MARK  # noqa: E402
+from addin.workbook_template import write_case_sheets  # noqa: E402
+from addin.xlsx_cells import add_styles, put, set_widths  # noqa: E402
 
 HELP = (
     "boreflow input workbook (DEMO DATA, ENTIRELY FICTITIOUS: replace with your own)",
@@ -41,8 +44,6 @@ HELP = (
 
 
 def build(out: Path, force: bool) -> Path:
-    import openpyxl
-
     doc = tomllib.loads((ROOT / "workbooks" / "demo-case.toml").read_text(encoding="utf-8"))
     wb = openpyxl.Workbook()
     add_styles(wb)

@@ -33,7 +33,7 @@ def build_report(results: Results):
         write_inputs,
         write_summary,
     )
-    from addin.report.style import add_styles
+    from addin.xlsx_cells import add_styles
 
     wb = openpyxl.Workbook()
     add_styles(wb)
@@ -43,7 +43,7 @@ def build_report(results: Results):
     summary.title = "Summary"
     write_inputs(wb, results, title)
     audit = wb.create_sheet("Audit")
-    factors = Factors(audit, row=12, system=case.system)
+    factors = Factors(audit, row=12, system=case.unit_system)
     refs = {}
     from addin.report.sheet_rheology import write_rheology
 

@@ -19,7 +19,8 @@ from dataclasses import dataclass, field
 
 from openpyxl.utils import get_column_letter, quote_sheetname
 
-from addin.report.style import number_format, put, put_number
+from addin.report.style import number_format, put_number
+from addin.xlsx_cells import put
 from calc.units import G_N, label, si_factor, unit_for
 
 __all__ = ["AGREE_TOL", "Factors", "cell_ref", "write_checked"]

@@ -19,7 +19,7 @@ from openpyxl.chart.layout import Layout, ManualLayout
 from openpyxl.chart.shapes import GraphicalProperties
 from openpyxl.drawing.line import LineProperties
 
-from addin.report.style import PALETTE
+from addin.xlsx_cells import PALETTE
 
 __all__ = ["depth_profile", "pressure_breakdown", "rate_curves", "rheogram"]
 

@@ -143,7 +143,7 @@ def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) 
     q = case.check_value(-1, "flow_rate")
     fluid = fluid_for(checks[-1].readings, density, method, case.checks[-1].label)
     res = circulate(well, fluid, q, method=method, **_circulate_options(case))
-    step = 30.48 if case.system == "oilfield" else 25.0  # profile grid: 100 ft or 25 m
+    step = 30.48 if case.unit_system == "oilfield" else 25.0  # profile grid: 100 ft or 25 m
     prof = res.profile(step)
     notes = list(well.notes) + list(res.notes)
     for c in checks:
@@ -191,7 +191,7 @@ def _circulate_options(case) -> dict:
         weak_points=case.weak_points,
         margins=Margins(fracture=lim["fracture_margin"], pore=lim["pore_margin"]),
         surface_rating=lim["surface_rating"],
-        message_units=case.system,
+        message_units=case.unit_system,
     )
 
 
@@ -293,7 +293,7 @@ def _operating_window(case, well, fluid, method, cleaning):
         method=method,
         rop=case.checks[-1].values["rop"] if cleaning else 0.0,
         cuttings=cut,
-        message_units=case.system,
+        message_units=case.unit_system,
     )
     return ow
 

@@ -9,14 +9,13 @@ from addin.report.style import (
     heading,
     merged_text,
     number_format,
-    put,
     put_number,
-    set_widths,
     setup_print,
     table_header,
 )
 from addin.text import display_number as _o
 from addin.text import unit_label as U
+from addin.xlsx_cells import put, set_widths
 
 __all__ = ["short_name", "write_cleaning", "write_trips"]
 
@@ -27,7 +26,7 @@ def short_name(name: str) -> str:
 
 
 def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
-    system = results.case.system
+    system = results.case.unit_system
     part = results.cleaning
     ws = wb.create_sheet("Cleaning")
     set_widths(ws, [46, 9, 9, 7, 10, 10, 9, 8, 9, 9, 8, 10, 11, 11])
@@ -129,7 +128,7 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
 
 
 def write_trips(wb, results, factors: Factors, title: str):
-    system = results.case.system
+    system = results.case.unit_system
     part = results.surge
     ws = wb.create_sheet("Trips")
     set_widths(ws, [34, 16, 16, 14, 14, 14])

@@ -13,14 +13,13 @@ from addin.report.style import (
     merged_text,
     note_row,
     number_format,
-    put,
     put_number,
-    set_widths,
     setup_print,
     table_header,
 )
 from addin.text import display_number as _o
 from addin.text import unit_label as U
+from addin.xlsx_cells import put, set_widths
 
 __all__ = ["write_bit", "write_ecd", "write_hydraulics"]
 
@@ -48,7 +47,7 @@ def _checked_row(ws, row, name, value, formula, kind, system, note="", note_end=
 
 
 def write_hydraulics(wb, results, factors: Factors, title: str):
-    case, res, system = results.case, results.circulation, results.case.system
+    case, res, system = results.case, results.circulation, results.case.unit_system
     ws = wb.create_sheet("Hydraulics")
     set_widths(ws, [40, 22, 10, 10, 9, 8, 8, 9, 9, 8, 10, 9, 9, 9, 9])
     row = heading(ws, 1, "Hydraulics: where the pump pressure goes", span=15, title=True)
@@ -332,7 +331,7 @@ def _calibration_block(ws, row, cal, results, factors, system):
 
 
 def write_ecd(wb, results, factors: Factors, title: str):
-    case, res, system = results.case, results.circulation, results.case.system
+    case, res, system = results.case, results.circulation, results.case.unit_system
     ws = wb.create_sheet("ECD")
     set_widths(ws, [34, 12, 12, 10, 11, 11, 11, 11, 11, 11])
     row = heading(ws, 1, "Equivalent densities and margins", span=10, title=True)
@@ -588,7 +587,7 @@ def _nice_axis(lo: float, hi: float, ticks: int = 8) -> tuple[float, float, floa
 
 
 def write_bit(wb, results, factors: Factors, title: str):
-    case, res, system = results.case, results.circulation, results.case.system
+    case, res, system = results.case, results.circulation, results.case.unit_system
     bit, bh = case.bit, res.bit
     ws = wb.create_sheet("Bit")
     set_widths(ws, [36, 13, 13, 9, 12, 9, 9, 9, 9, 9, 9])

@@ -11,14 +11,13 @@ from addin.report.style import (
     heading,
     note_row,
     number_format,
-    put,
     put_number,
-    set_widths,
     setup_print,
     table_header,
 )
 from addin.text import display_number as _out
 from addin.text import unit_label as U
+from addin.xlsx_cells import put, set_widths
 
 __all__ = ["write_rheology"]
 
@@ -48,7 +47,7 @@ def _params(model):
 
 def write_rheology(wb, results, factors: Factors, title: str):
     """Add the sheet; return {"refs": {...}} with cells other sheets may cite."""
-    system = results.case.system
+    system = results.case.unit_system
     ws = wb.create_sheet("Rheology")
     set_widths(ws, [28, 14, 11, 11, 9, 11, 11, 9, 11, 44])
     row = heading(

@@ -15,18 +15,16 @@ from openpyxl.worksheet.pagebreak import Break
 from addin.report.charts import rate_curves
 from addin.report.sheet_cleaning import short_name
 from addin.report.style import (
-    PALETTE,
     heading,
     note_row,
     number_format,
-    put,
     put_number,
-    set_widths,
     setup_print,
     table_header,
 )
 from addin.text import display_values as _o
 from addin.text import unit_label as U
+from addin.xlsx_cells import PALETTE, put, set_widths
 
 __all__ = ["SHEET", "allowed_ecd", "binding_words", "write_window"]
 
@@ -135,7 +133,7 @@ def _nice(values, ticks=6):
 def write_window(wb, results, title: str):
     """The sheet; returns refs for the summary (empty without a window)."""
     case, ow = results.case, results.window
-    system = case.system
+    system = case.unit_system
     ws = wb.create_sheet(SHEET)
     # 3 × 48 characters: the three charts sit one per third of the page
     set_widths(ws, [9, 9, 9, 10, 11, 24, 12, 12, 16, 9, 9, 8, 6])

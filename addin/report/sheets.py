@@ -7,19 +7,19 @@ from openpyxl.styles import Font, PatternFill
 from addin import text
 from addin.report.audit import AGREE_TOL
 from addin.report.style import (
-    PALETTE,
     heading,
     merged_text,
     note_row,
     number_format,
-    put,
     put_number,
-    set_widths,
     setup_print,
     table_header,
 )
 from addin.text import display_number as out
 from addin.text import unit_label as U
+from addin.workbook_layout import LAYOUT
+from addin.workbook_template import write_case_sheets
+from addin.xlsx_cells import PALETTE, put, set_widths
 from calc import cautions
 
 __all__ = ["write_audit", "write_cautions", "write_inputs", "write_summary"]
@@ -29,8 +29,6 @@ __all__ = ["write_audit", "write_cautions", "write_inputs", "write_summary"]
 
 
 def write_inputs(wb, results, title):
-    from addin.workbook_input import LAYOUT, write_case_sheets
-
     case = results.case
     ws = wb.create_sheet("Inputs")
     put(
@@ -75,7 +73,10 @@ def write_cautions(wb, results, title):
         if n.level == "caution":
             ws.cell(row=row, column=1).font = Font(bold=True, color=PALETTE["bad"], size=9)
         put(ws, row, 2, n.code, "bf_cell")
-        about, message = text.subject(n, results.case.system), text.note(n, results.case.system)
+        about, message = (
+            text.subject(n, results.case.unit_system),
+            text.note(n, results.case.unit_system),
+        )
         put(ws, row, 3, about, "bf_text")
         put(ws, row, 4, message, "bf_text")
         lines = max(1 + len(message) // 110, 1 + len(about) // 44)
@@ -99,7 +100,7 @@ def write_audit(ws, results, factors, title):
         ("run time", results.run_time),
         ("inputs hash (SHA-256 of the canonical case)", case.hash),
         ("case source", case.source),
-        ("unit system", case.system),
+        ("unit system", case.unit_system),
         ("hydraulics method", results.method),
         ("hydraulics fluid fits", results.fluid.fits),
     ]
@@ -145,7 +146,7 @@ def _status(ws, row, col, status):
 def write_summary(ws, results, refs, title):
     """The summary page: header, key results against limits, run information."""
     case = results.case
-    system = case.system
+    system = case.unit_system
     res = results.circulation
     chk = case.checks[-1]
     set_widths(ws, [42, 12, 12, 9, 11, 12, 12, 12, 12, 10, 10, 11])

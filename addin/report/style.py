@@ -1,50 +1,26 @@
-"""The report's look: one palette, named cell styles, number formats by quantity kind, print setup.
+"""The report's own look: number formats by quantity kind, headings, tables, notes, print setup.
 
-The style is boreflow's own: slate headings, a thin ochre rule under each section title, units
-in a grey italic row under every table header, computed values in black, live check formulas in
-blue, inputs on a pale background.  Fonts are Arial (LibreOffice substitutes the metric-compatible
-Liberation Sans, so column widths hold on any machine).
+The palette, the named cell styles and the cell writers shared with the input workbook are in
+:mod:`addin.xlsx_cells`; this module builds the report's sheet furniture on them.
 """
 
 from __future__ import annotations
 
-from openpyxl.styles import Alignment, Border, Font, NamedStyle, PatternFill, Side
+from math import ceil
+
 from openpyxl.utils import get_column_letter
 
-from addin.safe_io import set_text
+from addin.xlsx_cells import put
 
 __all__ = [
-    "FONT",
-    "PALETTE",
-    "add_styles",
     "heading",
     "merged_text",
     "note_row",
     "number_format",
-    "put",
     "put_number",
-    "set_widths",
     "setup_print",
     "table_header",
 ]
-
-FONT = "Arial"
-
-PALETTE = {
-    "ink": "1F2A36",  # headings
-    "slate": "3E5469",  # header band
-    "ochre": "C08A2B",  # rule under section titles
-    "paper": "F4F6F8",  # input cells
-    "grid": "C9D1D9",
-    "muted": "6B7785",  # units, notes
-    "check": "1F5FA8",  # live formulas
-    "ok": "2E7D4F",
-    "warn": "B7791F",
-    "bad": "B03A2E",
-    "band": "E3E8EE",
-}
-
-_THIN = Side(style="thin", color=PALETTE["grid"])
 
 #: Number formats by quantity kind and unit system (display only; values keep full precision).
 _FORMATS = {
@@ -125,78 +101,6 @@ def number_format(kind: str, system: str) -> str:
     return _FORMATS.get(system, _FORMATS["oilfield"]).get(kind, "General")
 
 
-def add_styles(wb) -> None:
-    """Register the report's named styles on a workbook (idempotent)."""
-    have = {s if isinstance(s, str) else s.name for s in wb.named_styles}
-    styles = [
-        NamedStyle(
-            name="bf_title",
-            font=Font(name=FONT, size=15, bold=True, color=PALETTE["ink"]),
-            alignment=Alignment(vertical="center"),
-        ),
-        NamedStyle(
-            name="bf_section",
-            font=Font(name=FONT, size=11, bold=True, color=PALETTE["ink"]),
-            border=Border(bottom=Side(style="medium", color=PALETTE["ochre"])),
-        ),
-        NamedStyle(
-            name="bf_head",
-            font=Font(name=FONT, size=9, bold=True, color="FFFFFF"),
-            fill=PatternFill("solid", fgColor=PALETTE["slate"]),
-            alignment=Alignment(horizontal="center", vertical="center", wrap_text=True),
-            border=Border(left=_THIN, right=_THIN, top=_THIN, bottom=_THIN),
-        ),
-        NamedStyle(
-            name="bf_unit",
-            font=Font(name=FONT, size=8, italic=True, color=PALETTE["muted"]),
-            fill=PatternFill("solid", fgColor=PALETTE["band"]),
-            alignment=Alignment(horizontal="center"),
-            border=Border(left=_THIN, right=_THIN, bottom=_THIN),
-        ),
-        NamedStyle(
-            name="bf_cell",
-            font=Font(name=FONT, size=9, color="000000"),
-            border=Border(left=_THIN, right=_THIN, top=_THIN, bottom=_THIN),
-            alignment=Alignment(vertical="center"),
-        ),
-        NamedStyle(
-            name="bf_input",
-            font=Font(name=FONT, size=9, color="000000"),
-            fill=PatternFill("solid", fgColor=PALETTE["paper"]),
-            border=Border(left=_THIN, right=_THIN, top=_THIN, bottom=_THIN),
-        ),
-        NamedStyle(
-            name="bf_check",
-            font=Font(name=FONT, size=9, color=PALETTE["check"]),
-            border=Border(left=_THIN, right=_THIN, top=_THIN, bottom=_THIN),
-        ),
-        NamedStyle(
-            name="bf_note",
-            font=Font(name=FONT, size=8, color=PALETTE["muted"]),
-            alignment=Alignment(wrap_text=True, vertical="top"),
-        ),
-        NamedStyle(
-            name="bf_text",
-            font=Font(name=FONT, size=9),
-            alignment=Alignment(wrap_text=True, vertical="top"),
-        ),
-    ]
-    for st in styles:
-        if st.name not in have:
-            wb.add_named_style(st)
-
-
-def put(ws, row: int, col: int, value, style: str = "bf_cell"):
-    """Write a value; text always goes in as text (never as a formula)."""
-    cell = ws.cell(row=row, column=col)
-    if isinstance(value, str):
-        set_text(cell, value)
-    else:
-        cell.value = value
-    cell.style = style
-    return cell
-
-
 def put_number(ws, row, col, value, fmt="General", style="bf_cell"):
     """Write a plain number (None stays empty) with a display format."""
     cell = ws.cell(row=row, column=col)
@@ -237,12 +141,6 @@ def table_header(ws, row: int, col: int, headers, units=None) -> int:
     return row + 2
 
 
-def set_widths(ws, widths) -> None:
-    """Column widths in characters, from column A."""
-    for j, w in enumerate(widths, start=1):
-        ws.column_dimensions[get_column_letter(j)].width = w
-
-
 def setup_print(ws, title: str, *, landscape=True, fit_height: int = 0) -> None:
     """A4, fit to one page wide, a header with the report title and a page footer."""
     ws.page_setup.paperSize = ws.PAPERSIZE_A4
@@ -270,8 +168,6 @@ def note_row(
 ) -> int:
     """A note merged across ``span`` columns, its row tall enough for the wrapped text;
     returns the next row."""
-    from math import ceil
-
     put(ws, row, col, text, style)
     if span > 1:
         ws.merge_cells(start_row=row, start_column=col, end_row=row, end_column=col + span - 1)

@@ -1,0 +1,218 @@
+"""The case-file schema: every section, key and quantity kind a case may hold.
+
+One table serves both readers: :mod:`addin.case` parses a TOML case file against it, and the
+input workbook (:mod:`addin.workbook_layout`) derives its blocks and rows from it, so a key is
+declared once.  :data:`SECTIONS` maps each top-level section to its schema (key → :class:`Field`);
+the field-by-field documentation is ``workbooks/CASE-FORMAT.md``.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass
+
+__all__ = [
+    "CASE_SCHEMA",
+    "CHECK_SCHEMA",
+    "HYDRAULICS_SECTIONS",
+    "SECTIONS",
+    "SLURRY_SCHEMA",
+    "STATION_COLUMNS",
+    "Field",
+]
+
+
+@dataclass(frozen=True)
+class Field:
+    """One key of a schema.
+
+    kind      a quantity kind of :data:`calc.units.KINDS` (converted to SI), or one of
+              ``"text"``, ``"number"`` (plain, no unit), ``"bool"``, ``"dial"`` (rpm → degree
+              mapping), ``"table"`` (nested, with ``sub``), ``"free"`` (table of plain numbers
+              with any keys), ``"range"`` (two values of ``of``), ``"list"`` (a list of ``of``),
+              ``"stations"`` (survey rows, see :data:`STATION_COLUMNS`), ``"length_or_fill"`` (a
+              length or the word ``"fill"``)
+    required  the key must be present
+    sub       schema of a nested table
+    of        kind of the items of a range or list
+    """
+
+    kind: str
+    required: bool = False
+    sub: Mapping[str, Field] | None = None
+    of: str | None = None
+
+
+CASE_SCHEMA = {
+    "schema": Field("text"),
+    "title": Field("text"),
+    "well": Field("text"),
+    "operator": Field("text"),
+    "rig": Field("text"),
+    "location": Field("text"),
+    "report_period": Field("text"),
+    "units": Field("text"),
+}
+
+VISCOMETER_SCHEMA = {
+    "name": Field("text"),
+    "shear_rate_per_rpm": Field("number"),
+    "stress_per_degree": Field("number"),
+    "spring_factor": Field("number"),
+    "full_scale": Field("number"),
+}
+
+_RHEOLOGY_KEYS = {
+    "dial": Field("dial"),
+    "dial_up": Field("dial"),
+    "dial_down": Field("dial"),
+    "gels": Field("table", sub={k: Field("stress") for k in ("10s", "10min", "30min")}),
+    "viscometer": Field("table", sub=VISCOMETER_SCHEMA),
+}
+
+CHECK_SCHEMA: dict[str, Field] = {
+    "label": Field("text", required=True),
+    "date": Field("text"),
+    "time": Field("text"),
+    "sample": Field("text"),
+    "fluid": Field("text"),
+    "bit_depth": Field("depth"),
+    "density": Field("density"),
+    "cup_temperature": Field("temperature"),
+    **_RHEOLOGY_KEYS,
+    "program": Field(
+        "table",
+        sub={
+            "density": Field("range", of="density"),
+            "pv": Field("range", of="viscosity"),
+            "yp": Field("range", of="stress"),
+            "lsyp": Field("range", of="stress"),
+        },
+    ),
+    "flow_rate": Field("flow_rate"),
+    "rop": Field("rop"),
+    "rpm": Field("number"),
+    "measured_spp": Field("pressure"),
+    "pwd": Field("table", sub={"ecd": Field("density"), "md": Field("depth")}),
+    "cuttings": Field(
+        "table",
+        sub={
+            "density": Field("density"),
+            "size": Field("diameter"),
+            "sphericity": Field("number"),
+        },
+    ),
+    "properties": Field("free"),
+    "remark": Field("text"),
+}
+
+SLURRY_SCHEMA: dict[str, Field] = {
+    "name": Field("text", required=True),
+    "density": Field("density"),
+    "temperature": Field("temperature"),
+    "volume": Field("volume"),
+    **_RHEOLOGY_KEYS,
+    "remark": Field("text"),
+}
+
+LIMITS_SCHEMA = {
+    "fracture_margin": Field("density"),
+    "pore_margin": Field("density"),
+    "surface_rating": Field("pressure"),
+    "trip_fracture_margin": Field("density"),
+    "trip_pore_margin": Field("density"),
+}
+SURVEY_SCHEMA = {"stations": Field("stations", required=True)}
+#: The columns of a ``stations`` row and their kinds (md is converted; angles are plain degrees).
+STATION_COLUMNS: tuple[tuple[str, str], ...] = (("md", "depth"), ("inc", "angle"), ("azi", "angle"))
+CASING_SCHEMA = {
+    "name": Field("text", required=True),
+    "od": Field("diameter"),
+    "id": Field("diameter", required=True),
+    "drift": Field("diameter"),
+    "top": Field("depth"),
+    "shoe": Field("depth", required=True),
+    "shoe_test": Field("density"),
+}
+OPEN_HOLE_SCHEMA = {
+    "bit_size": Field("diameter", required=True),
+    "diameter": Field("diameter"),
+    "washout_factor": Field("number"),
+}
+PRESSURE_WINDOW_SCHEMA = {
+    "tvd": Field("list", required=True, of="depth"),
+    "pore": Field("list", required=True, of="density"),
+    "fracture": Field("list", required=True, of="density"),
+}
+WEAK_POINT_SCHEMA = {
+    "name": Field("text", required=True),
+    "md": Field("depth", required=True),
+    "fracture": Field("density", required=True),
+    "pore": Field("density"),
+}
+PUMP_SCHEMA = {
+    "name": Field("text", required=True),
+    "liner": Field("diameter"),
+    "stroke": Field("diameter"),
+    "efficiency": Field("number"),
+    "rated_power": Field("power"),
+    "liner_rating": Field("pressure"),
+}
+SURFACE_LINE_SCHEMA = {
+    "name": Field("text", required=True),
+    "length": Field("length", required=True),
+    "id": Field("diameter", required=True),
+}
+BIT_SCHEMA = {
+    "name": Field("text"),
+    "size": Field("diameter", required=True),
+    "nozzles": Field("list", of="number"),
+    "tfa": Field("area"),
+    "ports": Field("number"),
+    "discharge_coefficient": Field("number"),
+}
+STRING_SCHEMA = {
+    "name": Field("text", required=True),
+    "od": Field("diameter", required=True),
+    "id": Field("diameter", required=True),
+    "length": Field("length_or_fill", required=True),
+    "tool_joint_od": Field("diameter"),
+    "tool_joint_id": Field("diameter"),
+    "joint_length": Field("length"),
+    "tool_joint_length": Field("length"),
+    "float_valve": Field("bool"),
+}
+TOOL_PRESSURE_SCHEMA = {
+    "name": Field("text"),
+    "reference_drop": Field("pressure", required=True),
+    "reference_density": Field("density", required=True),
+    "reference_rate": Field("flow_rate", required=True),
+    "flow_window": Field("range", of="flow_rate"),
+    "covers": Field("list", of="text"),
+}
+TRIP_SCHEMA = {
+    "stand_length": Field("length"),
+    "string_end": Field("text"),
+    "speeds": Field("list", required=True, of="trip_speed"),
+}
+
+#: Top-level sections: name → (is an array of tables, schema or None if not parsed here yet).
+SECTIONS: dict[str, tuple[bool, Mapping[str, Field] | None]] = {
+    "case": (False, CASE_SCHEMA),
+    "check": (True, CHECK_SCHEMA),
+    "slurry": (True, SLURRY_SCHEMA),
+    "limits": (False, LIMITS_SCHEMA),
+    "survey": (False, SURVEY_SCHEMA),
+    "casing": (True, CASING_SCHEMA),
+    "open_hole": (False, OPEN_HOLE_SCHEMA),
+    "pressure_window": (False, PRESSURE_WINDOW_SCHEMA),
+    "weak_point": (True, WEAK_POINT_SCHEMA),
+    "pump": (True, PUMP_SCHEMA),
+    "surface_line": (True, SURFACE_LINE_SCHEMA),
+    "bit": (False, BIT_SCHEMA),
+    "string": (True, STRING_SCHEMA),
+    "tool_pressure": (False, TOOL_PRESSURE_SCHEMA),
+    "trip": (False, TRIP_SCHEMA),
+}
+#: Sections a hydraulics report needs (the rheology subcommand needs only checks).
+HYDRAULICS_SECTIONS = ("survey", "open_hole", "bit", "string")

@@ -1,0 +1,43 @@
+"""``boreflow report CASE``: the daily report workbook of one case (and its results as JSON)."""
+
+from __future__ import annotations
+
+import time
+from pathlib import Path
+
+from addin.case import load_case
+from addin.commands.exit_codes import EXIT_OK
+from addin.commands.output import json_text
+from addin.report import compute, write_report
+from addin.report.jsonout import results_data
+from addin.safe_io import OutputExistsError
+
+__all__ = ["run", "run_one"]
+
+
+def run_one(case_path, out_path, *, force=False, method=None):
+    """Load, compute and write one report; returns (results, seconds)."""
+    t0 = time.perf_counter()
+    out = Path(out_path)
+    if out.exists() and not force:  # refuse before any work, and write nothing
+        raise OutputExistsError(out)
+    if not out.parent.is_dir():
+        raise FileNotFoundError(f"{out.parent}: output folder does not exist")
+    case = load_case(case_path)
+    results = compute(case, method=method) if method else compute(case)
+    write_report(results, out, overwrite=force)
+    return results, time.perf_counter() - t0
+
+
+def run(args) -> int:
+    """Write the report of ``args.case``; print its path, or every result as JSON."""
+    out = Path(args.output) if args.output else Path(Path(args.case).stem + "-report.xlsx")
+    results, dt = run_one(args.case, out, force=args.force, method=args.method)
+    if args.json:
+        print(json_text(results_data(results)))
+    else:
+        print(
+            f"{out}  ({results.case.source}, {len(results.case.checks)} checks, "
+            f"{dt:.1f} s; inputs {results.case.hash[:12]})"
+        )
+    return EXIT_OK
