@@ -7,6 +7,7 @@ ranking and the notes; the comparison of consecutive checks; the one-line cautio
 
 from __future__ import annotations
 
+from addin import text
 from calc import cautions
 from calc.errors import InputError
 from calc.rheology import compare_series, fit_all
@@ -49,7 +50,7 @@ def _fit_dict(f, system):
             "residuals": [_conv(x, "stress", system) for x in q.residuals.tolist()],
         },
         "shear_rate_range": [lo, hi],
-        "notes": [str(n) for n in f.notes],
+        "notes": [text.note_line(n, system) for n in f.notes],
         "source": f.source,
     }
 
@@ -95,7 +96,7 @@ def _fluid_dict(name, r, system):
             }
             for e in fits.ranking
         ],
-        "notes": [str(n) for n in (*r.notes, *fits.notes)],
+        "notes": [text.note_line(n, system) for n in (*r.notes, *fits.notes)],
     }
     if r.ramp_up is not None:
         out["up_down_ratio"] = r.up_down_ratio.tolist()
@@ -128,7 +129,7 @@ def _comparison_dict(c, system):
         "at_shear_rate_1_s": c.max_difference_at,
         "threshold_deg": c.threshold,
         "reading_differences_deg": {f"{k:g}": v for k, v in c.reading_differences.items()},
-        "notes": [str(n) for n in c.notes],
+        "notes": [text.note_line(n, system) for n in c.notes],
     }
 
 

@@ -178,11 +178,7 @@ def error(e: InputError, system: str = "oilfield") -> str:
     if not e.kind and not e.values:
         return str(e)
     scalar = e.kind and np.ndim(e.value) == 0 and not isinstance(e.value, str)
-    shown = (
-        quantity(float(e.value), e.kind, system)
-        if scalar
-        else str(e)[len(e.name) + 3 :].split(":")[0]
-    )
+    shown = quantity(float(e.value), e.kind, system) if scalar else e.shown
     allowed = fill(e.allowed, e.values, lambda v, spec: value(v, system, spec))
     return f"{e.name} = {shown}: {e.problem}; allowed: {allowed}"
 
