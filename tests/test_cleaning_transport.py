@@ -173,16 +173,16 @@ def demo():
 
 def test_demo_table(demo):
     rows = demo.table()
-    assert len(rows) == len(demo.names)
+    assert len(rows) == len(demo.spans)
     va = np.array([r["annular_velocity"] for r in rows])
     ft = np.array([r["transport_ratio"] for r in rows])
     # the largest annulus (5 in pipe inside the 8.835 in casing) has the lowest velocity and
     # transport ratio and controls the minimum rate
     body = ~demo.is_tool_joint
     slowest = np.flatnonzero(body)[np.argmin(va[body])]
-    assert "intermediate casing" in demo.names[slowest]
+    assert "intermediate casing" in demo.spans[slowest].section
     assert ft[slowest] == pytest.approx(ft[body].min())
-    assert "intermediate casing" in demo.controlling_interval
+    assert "intermediate casing" in demo.controlling_interval.section
     # AV there, by hand: 24.51 × 522 / (8.835² − 5²) ft/min (METHODS §3.1)
     assert from_si(va[slowest], "ft/min") == pytest.approx(24.51 * 522 / (8.835**2 - 25), rel=1e-3)
     assert set(demo.verdict) <= {"adequate", "marginal", "poor"}
@@ -197,7 +197,7 @@ def test_demo_minimum_rate_is_the_threshold(demo):
     w, f = demo_well(), demo_fluid()
     hi = hole_cleaning(w, f, qmin * 1.01, rop=demo_rop(), cuttings=demo_cuttings())
     lo = hole_cleaning(w, f, qmin * 0.99, rop=demo_rop(), cuttings=demo_cuttings())
-    i = demo.names.index(demo.controlling_interval)
+    i = demo.spans.index(demo.controlling_interval)
     assert hi.verdict[i] == "adequate" and lo.verdict[i] != "adequate"
 
 
@@ -205,7 +205,7 @@ def test_demo_rate_sweep_and_loaded_ecd(demo):
     w = demo_well()
     q = to_si(np.array([200.0, 400.0, 600.0]), "gpm")
     sw = hole_cleaning(w, demo_fluid(), q, rop=demo_rop(), cuttings=demo_cuttings())
-    assert np.shape(sw.transport.transport_ratio) == (3, len(sw.names))
+    assert np.shape(sw.transport.transport_ratio) == (3, len(sw.spans))
     assert np.all(np.diff(sw.transport.concentration, axis=0) <= 0)
     md = np.array([500.0, 2500.0, w.bit_depth])
     inc = np.asarray(

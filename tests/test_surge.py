@@ -171,13 +171,14 @@ def test_demo_trip_limits_and_planned_speeds():
     )  # fmt: skip
     assert lim.string_end == "closed"  # float sub in the string
     # at the limit the surge EMW at the governing depth equals fracture − margin
-    name, md, _tvd = lim.running_point
+    run_pt = lim.running_point
     at = surge_pressure(w, f, lim.max_running_speed)
-    i = lim.names.index(name)
-    assert at.pressure_at(md) == pytest.approx(lim.surge_allowance[i], rel=1e-3)
+    i = run_pt.index
+    assert lim.md[i] == run_pt.md and lim.names[i] == run_pt.name
+    assert at.pressure_at(run_pt.md) == pytest.approx(lim.surge_allowance[i], rel=1e-3)
     pull = surge_pressure(w, f, lim.max_pulling_speed, direction="pulling")
-    j = lim.names.index(lim.pulling_point[0])
-    assert -pull.pressure_at(lim.pulling_point[1]) == pytest.approx(lim.swab_allowance[j], rel=1e-3)
+    j = lim.pulling_point.index
+    assert -pull.pressure_at(lim.pulling_point.md) == pytest.approx(lim.swab_allowance[j], rel=1e-3)
     # no depth allows less than the governing one
     assert lim.max_running_speed == pytest.approx(lim.running_limit.min())
     # planned speeds of the demo trip (60-180 ft/min): EMW at the bit rises with speed

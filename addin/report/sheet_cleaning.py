@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from addin import text
 from addin.report.audit import Factors, write_checked
 from addin.report.style import (
     heading,
@@ -16,13 +17,27 @@ from addin.report.style import (
 from addin.text import display_number as _o
 from addin.text import unit_label as U
 from addin.xlsx_cells import put, set_widths
+from calc.circulation import equivalent_density
+from calc.span import Span
 
-__all__ = ["short_name", "write_cleaning", "write_trips"]
+__all__ = ["point_label", "short_name", "write_cleaning", "write_trips"]
 
 
-def short_name(name: str) -> str:
-    """An interval name without its trailing ", MD a-b m" (MD columns show the depths)."""
-    return str(name).split(", MD")[0]
+def short_name(where: Span | str | None) -> str:
+    """An interval in words without its MD span (MD columns show the depths): a
+    :class:`~calc.span.Span` by :func:`addin.text.span`; a name text (interval names of the
+    circulation results) cut before its ", MD a-b unit"; ``""`` for None (no interval)."""
+    if where is None:
+        return ""
+    if isinstance(where, Span):
+        return text.span(where, depths=False)
+    return str(where).split(", MD")[0]
+
+
+def point_label(name: str) -> str:
+    """A trip check point in words: its name ("bit", "<casing> shoe", a weak point), or the
+    exposed hole for a plain depth (no name; the MD and TVD columns say where)."""
+    return name or "open hole (below the shoe)"
 
 
 def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
@@ -167,14 +182,9 @@ def write_trips(wb, results, factors: Factors, title: str):
     ):
         put(ws, row, 1, name)
         put_number(ws, row, 2, _o(v, "trip_speed", system), "#,##0")
-        label = (
-            "bit"
-            if pt[0] == "bit"
-            else (pt[0] if not str(pt[0]).startswith("MD ") else "open hole (below the shoe)")
-        )
-        put(ws, row, 3, label)
-        put_number(ws, row, 4, _o(pt[1], "depth", system), number_format("depth", system))
-        put_number(ws, row, 5, _o(pt[2], "depth", system), number_format("depth", system))
+        put(ws, row, 3, point_label(pt.name))
+        put_number(ws, row, 4, _o(pt.md, "depth", system), number_format("depth", system))
+        put_number(ws, row, 5, _o(pt.tvd, "depth", system), number_format("depth", system))
         row += 1
     row += 1
     row = heading(ws, row, "Pressure change at the bit for the planned speeds", span=6)
@@ -186,8 +196,6 @@ def write_trips(wb, results, factors: Factors, title: str):
         [tu, pu, pu, U("density", system), U("density", system)],
     )
     res = results.circulation
-    from calc.circulation import equivalent_density
-
     for i, sp in enumerate(part["speeds"]):
         s_up = float(np.asarray(run.pressure_bit).reshape(-1)[i])
         s_dn = float(np.asarray(pull.pressure_bit).reshape(-1)[i])
