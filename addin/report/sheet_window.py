@@ -1,6 +1,7 @@
-"""The "Rate window" sheet: the flow-rate operating window of :func:`calc.window.operating_window`.
+"""The "Rate window" sheet: the flow-rate operating window of
+:func:`calc.rate_window.operating_window`.
 
-Every number comes from the :class:`calc.window.OperatingWindow` of the report run (one
+Every number comes from the :class:`calc.rate_window.OperatingWindow` of the report run (one
 vectorised sweep); this module converts units, names the binding limits in words and lays out
 the table and three native charts (ECD at the tightest points against their limits, standpipe
 pressure against the surface rating, cleaning indicator), all against flow rate.
@@ -12,7 +13,8 @@ import numpy as np
 from openpyxl.styles import Alignment, Font
 from openpyxl.worksheet.pagebreak import Break
 
-from addin.report.charts import rate_curves
+from addin import text
+from addin.report.charts import nice_axis, rate_curves
 from addin.report.sheet_cleaning import short_name
 from addin.report.style import (
     heading,
@@ -25,8 +27,9 @@ from addin.report.style import (
 from addin.text import display_values as _o
 from addin.text import unit_label as U
 from addin.xlsx_cells import PALETTE, put, set_widths
+from calc.span import Span
 
-__all__ = ["SHEET", "allowed_ecd", "binding_words", "write_window"]
+__all__ = ["SHEET", "allowed_ecd", "binding_words", "point_words", "write_window"]
 
 SHEET = "Rate window"
 #: Every PRINT_EVERY-th sweep rate is printed; the whole sweep sits below the print range.
@@ -35,9 +38,42 @@ _TOOL_MIN, _TOOL_MAX = " flow window (min)", " flow window (max)"
 
 
 def allowed_ecd(ow):
-    """ECD limits at the tightest points over the sweep [kg/m³], as calc.window returns them:
+    """ECD limits at the tightest points over the sweep [kg/m³], as calc.rate_window returns them:
     (fracture − required margin, pore + required margin)."""
     return np.asarray(ow.ecd_max_at_point), np.asarray(ow.ecd_min_at_point)
+
+
+def point_words(name, md: float, tvd: float, system) -> str:
+    """A check point of the window in words, its depth in the unit system: a place
+    (:class:`~calc.span.Span`), a plain depth ("MD …", said again from ``md`` [m]), a
+    pressure-window station ("window station, TVD …", from ``tvd`` [m]) or a named point
+    (shoe, bit, weak point) as named."""
+    if isinstance(name, Span):
+        return text.span(name, system)
+    name = str(name)
+    if not name or name.startswith("MD "):
+        return text.depth_point(md, system)
+    if name.startswith("window station"):
+        return f"window station, TVD {text.quantity(tvd, 'depth', system)}"
+    return name
+
+
+def fracture_point_words(ow, system) -> list[str]:
+    """The fracture-tightest check point per sweep rate, in words."""
+    return [
+        point_words(n, m, t, system)
+        for n, m, t in zip(
+            ow.fracture_point_name, ow.fracture_point_md, ow.fracture_point_tvd, strict=True
+        )
+    ]
+
+
+def pore_point_words(ow, system) -> list[str]:
+    """The pore-tightest check point per sweep rate, in words."""
+    return [
+        point_words(n, m, t, system)
+        for n, m, t in zip(ow.pore_point_name, ow.pore_point_md, ow.pore_point_tvd, strict=True)
+    ]
 
 
 def _index_at(ow, q):
@@ -45,18 +81,19 @@ def _index_at(ow, q):
     return int(np.argmin(np.abs(np.asarray(ow.q) - q)))
 
 
-def binding_words(ow, end: str, *, long: bool = False) -> str:
-    """The limit that binds at ``end`` ("low" or "high") in words (``long``: with the place)."""
+def binding_words(ow, end: str, *, long: bool = False, system="oilfield") -> str:
+    """The limit that binds at ``end`` ("low" or "high") in words (``long``: with the place,
+    its depth in ``system``)."""
     if not ow.feasible:
         return "no rate satisfies every limit at once (failing: " + ow.binding_low + ")"
     name = ow.binding_low if end == "low" else ow.binding_high
     q = ow.q_low if end == "low" else ow.q_high
     i = _index_at(ow, q)
     if name == "fracture":
-        where = f" at {ow.fracture_point_name[i]}" if long else ""
+        where = f" at {fracture_point_words(ow, system)[i]}" if long else ""
         return "ECD reaches fracture − margin" + where
     if name == "pore":
-        where = f" at {ow.pore_point_name[i]}" if long else ""
+        where = f" at {pore_point_words(ow, system)[i]}" if long else ""
         return "ECD falls to pore + margin" + where
     if name == "surface rating":
         return "standpipe pressure reaches the surface rating"
@@ -96,10 +133,10 @@ def _columns(ow, system):
         ("surface rating", pu, _o(np.full(n, ow.surface_rating), "pressure", system), fp),
         ("ECD, fracture-tightest point", dn, _o(ow.ecd_fracture_point, "density", system), fd),
         ("max. ECD (fracture − margin)", dn, _o(f_lim, "density", system), fd),
-        ("fracture-tightest point", "", [str(x) for x in ow.fracture_point_name], None),
+        ("fracture-tightest point", "", fracture_point_words(ow, system), None),
         ("ECD, pore-tightest point", dn, _o(ow.ecd_pore_point, "density", system), fd),
         ("min. ECD (pore + margin)", dn, _o(p_lim, "density", system), fd),
-        ("pore-tightest point", "", [str(x) for x in ow.pore_point_name], None),
+        ("pore-tightest point", "", pore_point_words(ow, system), None),
         ("cleaning indicator", "≥ 0 cleaned", [float(x) for x in ow.cleaning_indicator], "0.000"),
         ("lowest transport ratio", "–", [float(x) for x in ow.min_transport_ratio], "0.000"),
         ("highest cuttings conc.", "%", [100.0 * float(x) for x in ow.max_concentration], "0.00"),
@@ -124,10 +161,8 @@ def _table(ws, row, cols, rows) -> int:
 
 
 def _nice(values, ticks=6):
-    from addin.report.sheet_hydraulics import _nice_axis
-
     v = [x for x in values if x is not None]
-    return _nice_axis(min(v), max(v), ticks)
+    return nice_axis(min(v), max(v), ticks)
 
 
 def write_window(wb, results, title: str):
@@ -173,8 +208,8 @@ def write_window(wb, results, title: str):
     lines = []
     if ow.feasible:
         lines += [
-            ("lowest rate", ow.q_low, binding_words(ow, "low", long=True)),
-            ("highest rate", ow.q_high, binding_words(ow, "high", long=True)),
+            ("lowest rate", ow.q_low, binding_words(ow, "low", long=True, system=system)),
+            ("highest rate", ow.q_high, binding_words(ow, "high", long=True, system=system)),
         ]
     else:
         lines.append(("operating window", None, binding_words(ow, "low")))
