@@ -165,20 +165,10 @@ def _nice(values, ticks=6):
     return nice_axis(min(v), max(v), ticks)
 
 
-def write_window(wb, results, title: str):
-    """The sheet; returns refs for the summary (empty without a window)."""
-    case, ow = results.case, results.window
-    system = case.unit_system
-    ws = wb.create_sheet(SHEET)
-    # 3 × 48 characters: the three charts sit one per third of the page
-    set_widths(ws, [9, 9, 9, 10, 11, 24, 12, 12, 16, 9, 9, 8, 6])
-    span = 13
-    row = heading(ws, 1, "Flow-rate operating window: every limit at once", span=span, title=True)
-    if ow is None:
-        put(ws, row + 1, 1, "Not evaluated: needs a pressure window (pore, fracture).", "bf_text")
-        setup_print(ws, title)
-        return {}
-    qu, dn, pu = U("flow_rate", system), U("density", system), U("pressure", system)
+def _intro(ws, row, results, ow, system, span) -> int:
+    """The method paragraph: sweep, cuttings load and what "inside" means."""
+    case = results.case
+    qu, dn = U("flow_rate", system), U("density", system)
     q = np.asarray(ow.q)
     q0 = case.check_value(-1, "flow_rate")
     chk = case.checks[-1]
@@ -189,7 +179,7 @@ def write_window(wb, results, title: str):
         if results.cleaning
         else "no cuttings given (no cleaning limit, clean ECD)"
     )
-    text = (
+    intro = (
         f"Method: {ow.method}. Sweep: {q.size} rates from {_o(q[0], 'flow_rate', system):,.0f} "
         f"to {_o(q[-1], 'flow_rate', system):,.0f} {qu} ({q[0] / q0:.1f}–{q[-1] / q0:.1f} × the "
         f"check's rate); {load}. A rate is inside when ECD ≤ fracture − "
@@ -199,8 +189,14 @@ def write_window(wb, results, title: str):
         "downhole tool's flow window holds; each end is interpolated on the limit that fails "
         "just outside it."
     )
-    row = note_row(ws, row, text, span=span)
-    row += 1
+    return note_row(ws, row, intro, span=span)
+
+
+def _window_lines(ws, row, results, ow, system, span) -> int:
+    """The "Window" table (ends, binding limits, the check's rate, the cleaning rate) and the
+    note on the rating and margins; returns the next row."""
+    qu, dn, pu = U("flow_rate", system), U("density", system), U("pressure", system)
+    q0 = results.case.check_value(-1, "flow_rate")
     row = heading(ws, row, "Window", span=span)
     row = table_header(ws, row, 1, ["", "", "rate", "unit", "binding limit or remark"])
     ws.merge_cells(start_row=row - 1, start_column=1, end_row=row - 1, end_column=2)
@@ -236,7 +232,7 @@ def write_window(wb, results, title: str):
         ws.merge_cells(start_row=row, start_column=5, end_row=row, end_column=span)
         row += 1
     rating = _o(ow.surface_rating, "pressure", system)
-    row = note_row(
+    return note_row(
         ws,
         row,
         (f"Surface rating {rating:,.0f} {pu}; " if rating is not None else "No surface rating; ")
@@ -245,13 +241,13 @@ def write_window(wb, results, title: str):
         "[limits]). Charts: dashed lines are the limits, dotted verticals the window ends.",
         span=span,
     )
-    # ---- charts (page 1) and the printed table (page 2)
-    chart_row = row + 1
-    data_row = chart_row + 25  # 11.5-cm charts
-    cols = _columns(ow, system)
-    shown = sorted(set(range(0, q.size, PRINT_EVERY)) | {q.size - 1})
+
+
+def _printed_sweep(ws, data_row, cols, n, span) -> int:
+    """Every PRINT_EVERY-th sweep rate on page 2 with its note; returns the last printed row."""
+    shown = sorted(set(range(0, n, PRINT_EVERY)) | {n - 1})
     ws.row_breaks.append(Break(id=data_row - 1))
-    head = f"Sweep (every {PRINT_EVERY}th rate; all {q.size} below the print range)"
+    head = f"Sweep (every {PRINT_EVERY}th rate; all {n} below the print range)"
     row = heading(ws, data_row, head, span=span)
     ws.print_title_rows = f"{row}:{row + 1}"
     head_row = row
@@ -266,21 +262,12 @@ def write_window(wb, results, title: str):
         "cleaned). 'in window': between the two ends above.",
         span=span,
     )
-    print_end = row - 1
-    # ---- chart data: the whole sweep, below the print range
-    row += 2
-    put(ws, row, 1, "Chart data: the whole sweep (rows below; not printed).", "bf_note")
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=span)
-    row += 1
-    put(ws, row, 1, "Rate sweep", "bf_section")
-    r0 = row + 3  # first data row, under the header and units rows
-    r1 = _table(ws, row + 1, cols, range(q.size)) - 1
-    # window-end marker lines: x = (low, low, gap, high, high), y = axis (min, max, gap, max, min)
-    mrow = r1 + 3
-    put(ws, mrow - 1, 1, "Window ends (chart marker lines)", "bf_section")
-    ends = [ow.q_low, ow.q_low, None, ow.q_high, ow.q_high] if ow.feasible else []
-    lo, hi, step = _nice([_o(q[0], "flow_rate", system), _o(q[-1], "flow_rate", system)], 8)
-    rate_lim = (lo, hi, 2 * step if (hi - lo) / step > 6 else step)  # ≤ 6 labels on a third
+    return row - 1
+
+
+def _chart_specs(results, ow, system):
+    """(title, y-axis title, [(series name, sweep-table column, role)]) of each chart."""
+    dn, pu = U("density", system), U("pressure", system)
     charts = [
         (
             "ECD at the tightest points",
@@ -307,7 +294,21 @@ def write_window(wb, results, title: str):
         charts = charts[:2]
     if ow.surface_rating == float("inf"):
         charts[1] = (charts[1][0], charts[1][1], charts[1][2][:1])
-    for k, (ctitle, ytitle, series) in enumerate(charts):
+    return charts
+
+
+def _charts(ws, results, ow, cols, rows, chart_row, system) -> int:
+    """The native charts over the whole sweep (data ``rows`` = (r0, r1)) with the window-end
+    marker lines written below the data; returns the markers' first row."""
+    r0, r1 = rows
+    q = np.asarray(ow.q)
+    # window-end marker lines: x = (low, low, gap, high, high), y = axis (min, max, gap, max, min)
+    mrow = r1 + 3
+    put(ws, mrow - 1, 1, "Window ends (chart marker lines)", "bf_section")
+    ends = [ow.q_low, ow.q_low, None, ow.q_high, ow.q_high] if ow.feasible else []
+    lo, hi, step = _nice([_o(q[0], "flow_rate", system), _o(q[-1], "flow_rate", system)], 8)
+    rate_lim = (lo, hi, 2 * step if (hi - lo) / step > 6 else step)  # ≤ 6 labels on a third
+    for k, (ctitle, ytitle, series) in enumerate(_chart_specs(results, ow, system)):
         vals = [v for _, c, _ in series for v in cols[c - 1][2]]
         lo, hi, step = _nice(vals)
         mc = 2 + 2 * k
@@ -318,7 +319,7 @@ def write_window(wb, results, title: str):
         ch = rate_curves(
             (ws, 1, r0, r1),
             [(name, (ws, c, r0, r1), role) for name, c, role in series],
-            rate_unit=qu,
+            rate_unit=U("flow_rate", system),
             y_title=ytitle,
             title=ctitle,
             y_limits=(lo, hi, step),
@@ -328,6 +329,40 @@ def write_window(wb, results, title: str):
             else [],
         )
         ws.add_chart(ch, f"{'AFI'[k]}{chart_row}")
+    return mrow
+
+
+def write_window(wb, results, title: str):
+    """The sheet; returns refs for the summary (empty without a window)."""
+    case, ow = results.case, results.window
+    system = case.unit_system
+    ws = wb.create_sheet(SHEET)
+    # 3 × 48 characters: the three charts sit one per third of the page
+    set_widths(ws, [9, 9, 9, 10, 11, 24, 12, 12, 16, 9, 9, 8, 6])
+    span = 13
+    row = heading(ws, 1, "Flow-rate operating window: every limit at once", span=span, title=True)
+    if ow is None:
+        put(ws, row + 1, 1, "Not evaluated: needs a pressure window (pore, fracture).", "bf_text")
+        setup_print(ws, title)
+        return {}
+    q = np.asarray(ow.q)
+    q0 = case.check_value(-1, "flow_rate")
+    row = _intro(ws, row, results, ow, system, span)
+    row = _window_lines(ws, row + 1, results, ow, system, span)
+    # ---- charts (page 1) and the printed table (page 2)
+    chart_row = row + 1
+    data_row = chart_row + 25  # 11.5-cm charts
+    cols = _columns(ow, system)
+    print_end = _printed_sweep(ws, data_row, cols, q.size, span)
+    # ---- chart data: the whole sweep, below the print range
+    row = print_end + 3
+    put(ws, row, 1, "Chart data: the whole sweep (rows below; not printed).", "bf_note")
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=span)
+    row += 1
+    put(ws, row, 1, "Rate sweep", "bf_section")
+    r0 = row + 3  # first data row, under the header and units rows
+    r1 = _table(ws, row + 1, cols, range(q.size)) - 1
+    mrow = _charts(ws, results, ow, cols, (r0, r1), chart_row, system)
     put(ws, mrow, 1, "x, y", "bf_note")
     setup_print(ws, title)
     ws.print_area = f"A1:M{print_end}"
