@@ -17,7 +17,7 @@ from _report_demo import demo_report_path, demo_results
 
 from calc.rate_window import operating_window
 from calc.units import from_si, to_si
-from tests._cleaning_demo import (
+from tests.cleaning_demo import (
     demo_cuttings,
     demo_fluid,
     demo_margins,

@@ -13,7 +13,7 @@ from calc.cleaning import hole_cleaning
 from calc.errors import InputError
 from calc.rate_window import operating_window
 from calc.units import to_si
-from tests._cleaning_demo import (
+from tests.cleaning_demo import (
     demo_cuttings,
     demo_fluid,
     demo_margins,
