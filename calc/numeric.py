@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
-__all__ = ["bisect_increasing", "float_or_array", "scalar_or_array"]
+__all__ = ["bisect_increasing", "depth_weights", "float_or_array", "scalar_or_array"]
 
 
 def bisect_increasing(fun, lo, hi, *, iterations: int = 64, log: bool = False):
@@ -45,3 +45,17 @@ def float_or_array(x):
     """
     arr = np.asarray(x, dtype=float)
     return float(arr) if arr.ndim == 0 else arr
+
+
+def depth_weights(md, top, bottom) -> np.ndarray:
+    """Fraction of each interval lying above each depth: ``W[j, i]`` ∈ [0, 1] (linear in MD).
+
+    ``md`` [m] is 1-D (the depths, axis 0), ``top`` and ``bottom`` [m] the intervals' MD span
+    (axis 1).  Summing an interval quantity times ``W`` gives its part above each depth.
+
+    >>> depth_weights(np.array([0.0, 150.0, 400.0]), np.array([0.0, 100.0]),
+    ...               np.array([100.0, 300.0])).tolist()
+    [[0.0, 0.0], [1.0, 0.25], [1.0, 1.0]]
+    """
+    md, top, bottom = (np.asarray(x, dtype=float) for x in (md, top, bottom))
+    return np.clip((md[:, None] - top[None, :]) / (bottom - top)[None, :], 0.0, 1.0)

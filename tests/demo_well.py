@@ -2,7 +2,7 @@
 benchmarks: the well, pressure window, weak points, margins, fluid and circulate() options.
 The project's full case loader lives in addin/case.py; this one reads only what the
 calculation tests need, in oilfield units.  Shared by the circulation, geometry, cleaning,
-surge and window tests (through tests/_cleaning_demo.py) and tests/benchmarks/."""
+surge and window tests (through tests/cleaning_demo.py) and tests/benchmarks/."""
 
 from __future__ import annotations
 

@@ -5,6 +5,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from addin import text
 from calc.cleaning import (
     CleaningCriteria,
     Cuttings,
@@ -21,7 +22,7 @@ from calc.cleaning import (
 from calc.cleaning.indicators import verdict_levels
 from calc.errors import InputError
 from calc.units import from_si, to_si
-from tests._cleaning_demo import (
+from tests.cleaning_demo import (
     demo_cuttings,
     demo_fluid,
     demo_rate,
@@ -173,16 +174,16 @@ def demo():
 
 def test_demo_table(demo):
     rows = demo.table()
-    assert len(rows) == len(demo.names)
+    assert len(rows) == len(demo.spans)
     va = np.array([r["annular_velocity"] for r in rows])
     ft = np.array([r["transport_ratio"] for r in rows])
     # the largest annulus (5 in pipe inside the 8.835 in casing) has the lowest velocity and
     # transport ratio and controls the minimum rate
     body = ~demo.is_tool_joint
     slowest = np.flatnonzero(body)[np.argmin(va[body])]
-    assert "intermediate casing" in demo.names[slowest]
+    assert "intermediate casing" in demo.spans[slowest].section
     assert ft[slowest] == pytest.approx(ft[body].min())
-    assert "intermediate casing" in demo.controlling_interval
+    assert "intermediate casing" in demo.controlling_interval.section
     # AV there, by hand: 24.51 × 522 / (8.835² − 5²) ft/min (METHODS §3.1)
     assert from_si(va[slowest], "ft/min") == pytest.approx(24.51 * 522 / (8.835**2 - 25), rel=1e-3)
     assert set(demo.verdict) <= {"adequate", "marginal", "poor"}
@@ -197,7 +198,7 @@ def test_demo_minimum_rate_is_the_threshold(demo):
     w, f = demo_well(), demo_fluid()
     hi = hole_cleaning(w, f, qmin * 1.01, rop=demo_rop(), cuttings=demo_cuttings())
     lo = hole_cleaning(w, f, qmin * 0.99, rop=demo_rop(), cuttings=demo_cuttings())
-    i = demo.names.index(demo.controlling_interval)
+    i = demo.spans.index(demo.controlling_interval)
     assert hi.verdict[i] == "adequate" and lo.verdict[i] != "adequate"
 
 
@@ -205,7 +206,7 @@ def test_demo_rate_sweep_and_loaded_ecd(demo):
     w = demo_well()
     q = to_si(np.array([200.0, 400.0, 600.0]), "gpm")
     sw = hole_cleaning(w, demo_fluid(), q, rop=demo_rop(), cuttings=demo_cuttings())
-    assert np.shape(sw.transport.transport_ratio) == (3, len(sw.names))
+    assert np.shape(sw.transport.transport_ratio) == (3, len(sw.spans))
     assert np.all(np.diff(sw.transport.concentration, axis=0) <= 0)
     md = np.array([500.0, 2500.0, w.bit_depth])
     inc = np.asarray(
@@ -220,9 +221,37 @@ def test_demo_rate_sweep_and_loaded_ecd(demo):
 
 
 def test_demo_cuttings_larger_than_gap_rejected():
-    with pytest.raises(InputError, match="cuttings size"):
+    with pytest.raises(InputError, match="cuttings size") as err:
         hole_cleaning(demo_well(), demo_fluid(), demo_rate(), rop=demo_rop(),
                       cuttings=Cuttings(to_si(1.0, "in"), 2600.0))  # fmt: skip
+    # the error carries the size and the tightest gap in SI with their kind and the place as a
+    # Span; the face says them in the user's units (1 in = 0.0254 m exactly, NIST SP 811)
+    e = err.value
+    assert e.kind == "diameter" and e.value == pytest.approx(0.0254, rel=1e-12)
+    where = next(v.value for v in e.values if v.name == "where")
+    a = demo_well().flow_intervals().annulus
+    gap = 0.5 * (np.asarray(a.outer_diameter) - np.asarray(a.inner_diameter))
+    i = int(np.argmin(gap))
+    assert (where.top_md, where.bottom_md) == (a.top_md[i], a.bottom_md[i])
+    words = text.error(e, "oilfield")
+    assert words.startswith("cuttings size = 1 in: ")
+    assert f"< the radial gap {from_si(gap[i], 'in'):.4g} in of {text.span(where)}" in words
+
+
+def test_demo_spans_are_the_flow_intervals(demo):
+    # each row's Span is the annular flow interval of the geometry (names, MD and TVD [m])
+    a = demo_well().flow_intervals().annulus
+    assert [s.item for s in demo.spans] == list(a.component)
+    assert [s.section for s in demo.spans] == list(a.section)
+    assert [s.tool_joint for s in demo.spans] == list(a.is_tool_joint)
+    assert np.array_equal([s.top_md for s in demo.spans], a.top_md)
+    assert np.array_equal([s.bottom_tvd for s in demo.spans], a.bottom_tvd)
+    assert all(s.path == "annulus" for s in demo.spans)
+    assert demo.table()[0]["interval"] == demo.spans[0]
+    # the README's words for the controlling interval (regression value, reviewed)
+    assert text.span(demo.controlling_interval) == (
+        "5 in drill pipe 19.5 ppf in 9-5/8 in intermediate casing, MD 6,000-8,200 ft"
+    )
 
 
 def test_demo_loaded_profile_beside_clean(demo):

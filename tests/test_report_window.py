@@ -1,11 +1,11 @@
-"""Report 'Rate window' sheet, Summary window rows and --json window against calc.window.
+"""Report 'Rate window' sheet, Summary window rows and --json window against calc.rate_window.
 
-The reference is an independent :func:`calc.window.operating_window` call on the demo well built
-by tests/demo_well.py straight from workbooks/demo-case.toml (invented demo data), not through the
-report's case parser.  The demo window ends are fixed by the downhole tools' flow window of the
-case file ([tool_pressure] flow_window = 400-650 gpm, invented data); the sweep is the report's
-200 rates from 0.3 to 1.8 × the check's 522 gpm.  Unit conversions: gpm, psi, ppg by calc.units
-(exact definitions, METHODS §0.1).
+The reference is an independent :func:`calc.rate_window.operating_window` call on the demo well
+built by tests/demo_well.py straight from workbooks/demo-case.toml (invented demo data), not
+through the report's case parser.  The demo window ends are fixed by the downhole tools' flow
+window of the case file ([tool_pressure] flow_window = 400-650 gpm, invented data); the sweep is
+the report's 200 rates from 0.3 to 1.8 × the check's 522 gpm.  Unit conversions: gpm, psi, ppg
+by calc.units (exact definitions, METHODS §0.1).
 """
 
 from __future__ import annotations
@@ -15,9 +15,9 @@ import openpyxl
 import pytest
 from _report_demo import demo_report_path, demo_results
 
+from calc.rate_window import operating_window
 from calc.units import from_si, to_si
-from calc.window import operating_window
-from tests._cleaning_demo import (
+from tests.cleaning_demo import (
     demo_cuttings,
     demo_fluid,
     demo_margins,
@@ -167,7 +167,7 @@ def test_json_window_ends_bindings_and_curves(tmp_path, capsys, ref):
     assert w["feasible"] is True
     assert w["low_rate"] == pytest.approx(_gpm(ref.q_low), rel=1e-12)
     assert w["high_rate"] == pytest.approx(_gpm(ref.q_high), rel=1e-12)
-    assert w["binding_low"] == "downhole tools flow window (min)"  # calc.window's name
+    assert w["binding_low"] == "downhole tools flow window (min)"  # calc.rate_window's name
     assert w["binding_high_words"] == "maximum of the downhole tools flow window"
     c = w["curves"]
     assert len(c["flow_rate"]) == 200
@@ -183,7 +183,7 @@ def test_json_window_ends_bindings_and_curves(tmp_path, capsys, ref):
 
 def test_no_window_gives_a_clear_status(tmp_path):
     # 2.5 ppg below fracture and 2.0 ppg above pore cannot both hold in the demo's 10.5-12.6 ppg
-    # window (demo case data, invented); calc.window then reports no feasible rate
+    # window (demo case data, invented); calc.rate_window then reports no feasible rate
     import tomllib
 
     from _report_demo import DEMO

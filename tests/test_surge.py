@@ -5,6 +5,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from addin import text
 from calc.circulation.fluid import HydraulicsFluid
 from calc.errors import InputError
 from calc.geometry import Bit, DrillString, Hole, HoleSection, StringComponent, Survey, Well
@@ -22,7 +23,7 @@ from calc.surge import (
     trip_speed_limits,
 )
 from calc.units import from_si, to_si
-from tests._cleaning_demo import (
+from tests.cleaning_demo import (
     demo_fluid,
     demo_gel_10min,
     demo_weak_points,
@@ -171,13 +172,14 @@ def test_demo_trip_limits_and_planned_speeds():
     )  # fmt: skip
     assert lim.string_end == "closed"  # float sub in the string
     # at the limit the surge EMW at the governing depth equals fracture − margin
-    name, md, _tvd = lim.running_point
+    run_pt = lim.running_point
     at = surge_pressure(w, f, lim.max_running_speed)
-    i = lim.names.index(name)
-    assert at.pressure_at(md) == pytest.approx(lim.surge_allowance[i], rel=1e-3)
+    i = run_pt.index
+    assert lim.md[i] == run_pt.md and lim.names[i] == run_pt.name
+    assert at.pressure_at(run_pt.md) == pytest.approx(lim.surge_allowance[i], rel=1e-3)
     pull = surge_pressure(w, f, lim.max_pulling_speed, direction="pulling")
-    j = lim.names.index(lim.pulling_point[0])
-    assert -pull.pressure_at(lim.pulling_point[1]) == pytest.approx(lim.swab_allowance[j], rel=1e-3)
+    j = lim.pulling_point.index
+    assert -pull.pressure_at(lim.pulling_point.md) == pytest.approx(lim.swab_allowance[j], rel=1e-3)
     # no depth allows less than the governing one
     assert lim.max_running_speed == pytest.approx(lim.running_limit.min())
     # planned speeds of the demo trip (60-180 ft/min): EMW at the bit rises with speed
@@ -305,6 +307,18 @@ def test_flat_intervals_of_one_string_and_shapes():
     slow = interval_surge(1e-4, d2, d1, ln, peak_factor=1.0, **kw).total_pressure_change
     stuck = trip_speed_limit(0.9 * slow, d2, d1, ln, **kw)
     assert stuck.max_speed == 0.0 and any("slowest" in x.code for x in stuck.notes)
+    # the notes carry their numbers as SI values with kinds; the faces say them in the user's
+    # units (1 ft = 0.3048 m exactly, NIST SP 811 appendix B): the slowest speed searched is the
+    # bracket's 1e-4 m/s = 0.019685 ft/min
+    note = next(x for x in stuck.notes if "slowest" in x.code)
+    slowest = note.value("slowest")
+    assert slowest.kind == "trip_speed" and slowest.value == 1e-4
+    assert "(0.01969 ft/min)" in text.note(note, "oilfield")
+    assert "(0.006 m/min)" in text.note(note, "metric")
+    top = trip_speed_limit(1e15, d2, d1, ln, **kw)
+    cap = next(x for x in top.notes if x.code == "running_not_limiting")
+    assert cap.value("top").kind == "trip_speed" and cap.value("top").value == 10.0
+    assert text.note(cap, "oilfield") == "running speed not limited within 1,969 ft/min."
 
 
 def test_trip_allowance_and_emw_field_forms():

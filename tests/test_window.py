@@ -7,12 +7,13 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from addin.report.sheet_window import fracture_point_words, pore_point_words
 from calc.circulation import Margins, circulate
 from calc.cleaning import hole_cleaning
 from calc.errors import InputError
+from calc.rate_window import operating_window
 from calc.units import to_si
-from calc.window import operating_window
-from tests._cleaning_demo import (
+from tests.cleaning_demo import (
     demo_cuttings,
     demo_fluid,
     demo_margins,
@@ -93,7 +94,7 @@ def test_sweep_must_increase():
         run(q=to_si(np.array([500.0, 400.0, 600.0]), "gpm"))
 
 
-def test_ecd_limit_curves_and_point_names_in_units():
+def test_ecd_limit_curves_and_point_depths_in_units():
     m = demo_margins()
     w = demo_well()
     kw = dict(window=demo_window(), weak_points=demo_weak_points(), margins=m)
@@ -101,6 +102,20 @@ def test_ecd_limit_curves_and_point_names_in_units():
     # the limits returned are the tightest points' fracture − margin and pore + margin
     assert np.allclose(ow.ecd_max_at_point, np.asarray(ow.fracture_at_point) - m.fracture)
     assert np.allclose(ow.ecd_min_at_point, np.asarray(ow.pore_at_point) + m.pore)
-    metric = operating_window(w, demo_fluid(), Q[:20], message_units="metric", **kw)
-    assert all(" ft" not in str(n) for n in metric.fracture_point_name)
-    assert np.array_equal(metric.ecd_fracture_point, ow.ecd_fracture_point)
+    # the tightest points come with their depths [m]; the face says them in the case's units
+    assert np.all((ow.pore_point_md > 0) & (ow.pore_point_md <= w.bit_depth + 1e-9))
+    assert np.allclose(w.tvd_at(ow.fracture_point_md), ow.fracture_point_tvd)
+    checked = 0
+    for words, md, tvd in (
+        (fracture_point_words(ow, "metric"), ow.fracture_point_md, ow.fracture_point_tvd),
+        (pore_point_words(ow, "metric"), ow.pore_point_md, ow.pore_point_tvd),
+    ):
+        assert all(" ft" not in x for x in words)
+        for i, x in enumerate(words):
+            if x.startswith("MD "):
+                assert x == f"MD {md[i]:,.1f} m"
+                checked += 1
+            elif x.startswith("window station"):
+                assert x == f"window station, TVD {tvd[i]:,.0f} m"
+                checked += 1
+    assert checked

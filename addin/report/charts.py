@@ -7,6 +7,7 @@
   depth, depth increasing downward.
 * :func:`rate_curves` — quantities against flow rate (the operating-window sweep), with the
   window ends as vertical marker lines.
+* :func:`nice_axis` — axis limits on round steps around the values a chart shows.
 
 Each builder takes column ranges as ``(sheet, col, first_row, last_row)`` tuples so the chart
 always refers to what the table shows.
@@ -14,6 +15,7 @@ always refers to what the table shows.
 
 from __future__ import annotations
 
+import numpy as np
 from openpyxl.chart import BarChart, Reference, ScatterChart, Series
 from openpyxl.chart.layout import Layout, ManualLayout
 from openpyxl.chart.shapes import GraphicalProperties
@@ -21,9 +23,21 @@ from openpyxl.drawing.line import LineProperties
 
 from addin.xlsx_cells import PALETTE
 
-__all__ = ["depth_profile", "pressure_breakdown", "rate_curves", "rheogram"]
+__all__ = ["depth_profile", "nice_axis", "pressure_breakdown", "rate_curves", "rheogram"]
 
 _SERIES_COLOURS = ("1F5FA8", "C08A2B", "2E7D4F", "8E44AD", "B03A2E", "17808A", "6B7785")
+
+
+def nice_axis(lo: float, hi: float, ticks: int = 8) -> tuple[float, float, float]:
+    """Axis limits on round steps (1, 2, 2.5 or 5 × 10^k) around [lo, hi].
+
+    >>> nice_axis(8.6, 15.2)
+    (8.0, 16.0, 1.0)
+    """
+    raw = max(hi - lo, 1e-9) / ticks
+    mag = 10.0 ** np.floor(np.log10(raw))
+    step = float(next(m * mag for m in (1.0, 2.0, 2.5, 5.0, 10.0) if m * mag >= raw))
+    return float(np.floor(lo / step) * step), float(np.ceil(hi / step) * step), step
 
 
 def _ref(ws, col, r0, r1):

@@ -97,7 +97,7 @@ class Results:
     profile: object
     cleaning: object | None
     surge: object | None
-    window: object | None = None  # calc.window.OperatingWindow over WINDOW_SWEEP
+    window: object | None = None  # calc.rate_window.OperatingWindow over WINDOW_SWEEP
     notes: tuple[Note, ...] = field(default=())
     trend: tuple[CheckHydraulics, ...] = field(default=())
     profile_step: float = 30.48
@@ -267,14 +267,14 @@ def _cleaning(case, well, fluid, q):
 
 
 def _operating_window(case, well, fluid, method, cleaning):
-    """calc.window.operating_window over the WINDOW_SWEEP rates, in one vectorised call.
+    """calc.rate_window.operating_window over the WINDOW_SWEEP rates, in one vectorised call.
 
     Limits of the case (pressure window, weak points, margins, surface rating) and, when the
     latest check gives them, its ROP and cuttings (the cleaning limit and cuttings-loaded ECD).
     None without a pressure window (no ECD limits to hold).
     """
     from calc.circulation import Margins
-    from calc.window import operating_window
+    from calc.rate_window import operating_window
 
     if case.window is None:
         return None
@@ -293,7 +293,6 @@ def _operating_window(case, well, fluid, method, cleaning):
         method=method,
         rop=case.checks[-1].values["rop"] if cleaning else 0.0,
         cuttings=cut,
-        message_units=case.unit_system,
     )
     return ow
 

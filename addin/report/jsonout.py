@@ -7,7 +7,12 @@ import numpy as np
 from addin import text
 from addin.report.compute import scalar
 from addin.report.sheet_cleaning import short_name
-from addin.report.sheet_window import allowed_ecd, binding_words
+from addin.report.sheet_window import (
+    allowed_ecd,
+    binding_words,
+    fracture_point_words,
+    pore_point_words,
+)
 from addin.rheology_data import rheology_data
 from calc.units import from_si, label, unit_for
 
@@ -224,7 +229,8 @@ def results_data(results) -> dict:
 
 
 def _limit_kind(name: str):
-    """Unit kind of a calc.window margin curve, by the limit's name (OperatingWindow.limits)."""
+    """Unit kind of a calc.rate_window margin curve, by the limit's name
+    (OperatingWindow.limits)."""
     if name in ("fracture", "pore"):
         return "density"
     if name == "surface rating":
@@ -235,7 +241,8 @@ def _limit_kind(name: str):
 
 
 def _window_data(results, s) -> dict:
-    """calc.window.OperatingWindow of the run: ends, binding limits (names and words), curves."""
+    """calc.rate_window.OperatingWindow of the run: ends, binding limits (names and words),
+    curves."""
     ow = results.window
     f_lim, p_lim = allowed_ecd(ow)
     return {
@@ -245,8 +252,8 @@ def _window_data(results, s) -> dict:
         "high_rate": _c(ow.q_high, "flow_rate", s) if ow.feasible else None,
         "binding_low": ow.binding_low,
         "binding_high": ow.binding_high,
-        "binding_low_words": binding_words(ow, "low", long=True),
-        "binding_high_words": binding_words(ow, "high", long=True),
+        "binding_low_words": binding_words(ow, "low", long=True, system=s),
+        "binding_high_words": binding_words(ow, "high", long=True, system=s),
         "check_rate": _c(results.case.check_value(-1, "flow_rate"), "flow_rate", s),
         "min_cleaning_rate": _c(ow.min_cleaning_rate, "flow_rate", s) if results.cleaning else None,
         "controlling_interval": short_name(ow.controlling_interval),
@@ -259,11 +266,11 @@ def _window_data(results, s) -> dict:
             "ecd_fracture_point": _c(ow.ecd_fracture_point, "density", s),
             "fracture_at_point": _c(ow.fracture_at_point, "density", s),
             "max_ecd_fracture_point": _c(f_lim, "density", s),
-            "fracture_point_name": [str(x) for x in ow.fracture_point_name],
+            "fracture_point_name": fracture_point_words(ow, s),
             "ecd_pore_point": _c(ow.ecd_pore_point, "density", s),
             "pore_at_point": _c(ow.pore_at_point, "density", s),
             "min_ecd_pore_point": _c(p_lim, "density", s),
-            "pore_point_name": [str(x) for x in ow.pore_point_name],
+            "pore_point_name": pore_point_words(ow, s),
             "cleaning_indicator": _c(ow.cleaning_indicator, None, s),
             "min_transport_ratio": _c(ow.min_transport_ratio, None, s),
             "max_concentration": _c(ow.max_concentration, None, s),

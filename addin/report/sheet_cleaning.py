@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from addin import text
 from addin.report.audit import Factors, write_checked
 from addin.report.style import (
     heading,
@@ -16,13 +17,27 @@ from addin.report.style import (
 from addin.text import display_number as _o
 from addin.text import unit_label as U
 from addin.xlsx_cells import put, set_widths
+from calc.span import Span
+from calc.surge import trip_emw
 
-__all__ = ["short_name", "write_cleaning", "write_trips"]
+__all__ = ["point_label", "short_name", "write_cleaning", "write_trips"]
 
 
-def short_name(name: str) -> str:
-    """An interval name without its trailing ", MD a-b m" (MD columns show the depths)."""
-    return str(name).split(", MD")[0]
+def short_name(where: Span | str | None) -> str:
+    """An interval in words without its MD span (MD columns show the depths): a
+    :class:`~calc.span.Span` by :func:`addin.text.span`; a name text (interval names of the
+    circulation results) cut before its ", MD a-b unit"; ``""`` for None (no interval)."""
+    if where is None:
+        return ""
+    if isinstance(where, Span):
+        return text.span(where, depths=False)
+    return str(where).split(", MD")[0]
+
+
+def point_label(name: str) -> str:
+    """A trip check point in words: its name ("bit", "<casing> shoe", a weak point), or the
+    exposed hole for a plain depth (no name; the MD and TVD columns say where)."""
+    return name or "open hole (below the shoe)"
 
 
 def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
@@ -68,8 +83,38 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
         ],
         ["", du, du, "°", vu, vu, "–", "1 − Vs/Va", "", "%", U("density", system), "–", qu, ""],
     )
-    rows = hc.table()
-    refs = {}
+    row = _interval_rows(ws, row, hc.table(), system)
+    put(
+        ws,
+        row,
+        1,
+        "Transport ratio live check: 1 − slip / annular velocity from the two "
+        "columns on its left. CCI only below the vertical limit; inclined intervals use the "
+        "critical rate of Larsen, Pilehvari & Azar (1997).",
+        "bf_note",
+    )
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=14)
+    row += 2
+    worst = (
+        "poor" if "poor" in hc.verdict else "marginal" if "marginal" in hc.verdict else ("adequate")
+    )
+    refs = {"verdict": worst, "controlling": (short_name(hc.controlling_interval),
+                                              hc.controlling_rate)}  # fmt: skip
+    put(
+        ws,
+        row,
+        1,
+        f"Overall: {worst}. Rate needed for '{hc.require}' cleaning everywhere: "
+        f"{_o(hc.controlling_rate, 'flow_rate', system):,.0f} {qu} "
+        f"(controlled by {short_name(hc.controlling_interval)}).",
+        "bf_text",
+    )
+    setup_print(ws, title)
+    return refs
+
+
+def _interval_rows(ws, row, rows, system) -> int:
+    """One row per annular interval of :meth:`HoleCleaningResult.table`; returns the next row."""
     for r in rows:
         put(ws, row, 1, short_name(r["interval"]))
         put_number(ws, row, 2, _o(r["top_md"], "depth", system), number_format("depth", system))
@@ -98,33 +143,7 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
         put_number(ws, row, 13, _o(r["minimum_rate"], "flow_rate", system), "#,##0")
         put(ws, row, 14, r["verdict"])
         row += 1
-    put(
-        ws,
-        row,
-        1,
-        "Transport ratio live check: 1 − slip / annular velocity from the two "
-        "columns on its left. CCI only below the vertical limit; inclined intervals use the "
-        "critical rate of Larsen, Pilehvari & Azar (1997).",
-        "bf_note",
-    )
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=14)
-    row += 2
-    worst = (
-        "poor" if "poor" in hc.verdict else "marginal" if "marginal" in hc.verdict else ("adequate")
-    )
-    refs["verdict"] = worst
-    refs["controlling"] = (short_name(hc.controlling_interval), hc.controlling_rate)
-    put(
-        ws,
-        row,
-        1,
-        f"Overall: {worst}. Rate needed for '{hc.require}' cleaning everywhere: "
-        f"{_o(hc.controlling_rate, 'flow_rate', system):,.0f} {qu} "
-        f"(controlled by {short_name(hc.controlling_interval)}).",
-        "bf_text",
-    )
-    setup_print(ws, title)
-    return refs
+    return row
 
 
 def write_trips(wb, results, factors: Factors, title: str):
@@ -142,7 +161,7 @@ def write_trips(wb, results, factors: Factors, title: str):
             "bf_text",
         )
         return {}
-    lim, run, pull = part["limits"], part["running"], part["pulling"]
+    lim = part["limits"]
     merged_text(
         ws,
         row,
@@ -151,57 +170,8 @@ def write_trips(wb, results, factors: Factors, title: str):
         span=6,
         height=24,
     )
-    row += 2
-    tu, pu, du = U("trip_speed", system), U("pressure", system), U("depth", system)
-    row = heading(ws, row, "Speed limits (margins from [limits])", span=6)
-    row = table_header(
-        ws,
-        row,
-        1,
-        ["trip direction", "max. average speed", "governing point", "MD", "TVD"],
-        ["", tu, "", du, du],
-    )
-    for name, v, pt in (
-        ("running in (surge)", lim.max_running_speed, lim.running_point),
-        ("pulling out (swab)", lim.max_pulling_speed, lim.pulling_point),
-    ):
-        put(ws, row, 1, name)
-        put_number(ws, row, 2, _o(v, "trip_speed", system), "#,##0")
-        label = (
-            "bit"
-            if pt[0] == "bit"
-            else (pt[0] if not str(pt[0]).startswith("MD ") else "open hole (below the shoe)")
-        )
-        put(ws, row, 3, label)
-        put_number(ws, row, 4, _o(pt[1], "depth", system), number_format("depth", system))
-        put_number(ws, row, 5, _o(pt[2], "depth", system), number_format("depth", system))
-        row += 1
-    row += 1
-    row = heading(ws, row, "Pressure change at the bit for the planned speeds", span=6)
-    row = table_header(
-        ws,
-        row,
-        1,
-        ["average stand speed", "surge (running)", "swab (pulling)", "surge EMW", "swab EMW"],
-        [tu, pu, pu, U("density", system), U("density", system)],
-    )
-    res = results.circulation
-    from calc.circulation import equivalent_density
-
-    for i, sp in enumerate(part["speeds"]):
-        s_up = float(np.asarray(run.pressure_bit).reshape(-1)[i])
-        s_dn = float(np.asarray(pull.pressure_bit).reshape(-1)[i])
-        put_number(ws, row, 1, _o(sp, "trip_speed", system), "#,##0")
-        put_number(ws, row, 2, _o(s_up, "pressure", system), number_format("pressure", system))
-        put_number(ws, row, 3, _o(s_dn, "pressure", system), number_format("pressure", system))
-        for col, dp in ((4, s_up), (5, s_dn)):
-            emw = (
-                res.density + equivalent_density(dp, res.bit_tvd)
-                if dp > 0
-                else (res.density - equivalent_density(-dp, res.bit_tvd))
-            )
-            put_number(ws, row, col, _o(emw, "density", system), number_format("density", system))
-        row += 1
+    row = _limit_rows(ws, row + 2, lim, system)
+    row = _planned_rows(ws, row + 1, part, results.circulation, system)
     put(
         ws,
         row,
@@ -218,3 +188,52 @@ def write_trips(wb, results, factors: Factors, title: str):
         "running_point": lim.running_point,
         "pulling_point": lim.pulling_point,
     }
+
+
+def _limit_rows(ws, row, lim, system) -> int:
+    """The speed limits and their governing points; returns the next row."""
+    tu, du = U("trip_speed", system), U("depth", system)
+    row = heading(ws, row, "Speed limits (margins from [limits])", span=6)
+    row = table_header(
+        ws,
+        row,
+        1,
+        ["trip direction", "max. average speed", "governing point", "MD", "TVD"],
+        ["", tu, "", du, du],
+    )
+    for name, v, pt in (
+        ("running in (surge)", lim.max_running_speed, lim.running_point),
+        ("pulling out (swab)", lim.max_pulling_speed, lim.pulling_point),
+    ):
+        put(ws, row, 1, name)
+        put_number(ws, row, 2, _o(v, "trip_speed", system), "#,##0")
+        put(ws, row, 3, point_label(pt.name))
+        put_number(ws, row, 4, _o(pt.md, "depth", system), number_format("depth", system))
+        put_number(ws, row, 5, _o(pt.tvd, "depth", system), number_format("depth", system))
+        row += 1
+    return row
+
+
+def _planned_rows(ws, row, part, res, system) -> int:
+    """Surge and swab at the bit and the trip EMW for the planned speeds; returns the next row."""
+    tu, pu = U("trip_speed", system), U("pressure", system)
+    run, pull = part["running"], part["pulling"]
+    row = heading(ws, row, "Pressure change at the bit for the planned speeds", span=6)
+    row = table_header(
+        ws,
+        row,
+        1,
+        ["average stand speed", "surge (running)", "swab (pulling)", "surge EMW", "swab EMW"],
+        [tu, pu, pu, U("density", system), U("density", system)],
+    )
+    for i, sp in enumerate(part["speeds"]):
+        s_up = float(np.asarray(run.pressure_bit).reshape(-1)[i])
+        s_dn = float(np.asarray(pull.pressure_bit).reshape(-1)[i])
+        put_number(ws, row, 1, _o(sp, "trip_speed", system), "#,##0")
+        put_number(ws, row, 2, _o(s_up, "pressure", system), number_format("pressure", system))
+        put_number(ws, row, 3, _o(s_dn, "pressure", system), number_format("pressure", system))
+        for col, dp in ((4, s_up), (5, s_dn)):
+            emw = trip_emw(res.density, dp, res.bit_tvd)
+            put_number(ws, row, col, _o(emw, "density", system), number_format("density", system))
+        row += 1
+    return row

@@ -6,7 +6,7 @@ import numpy as np
 from openpyxl.worksheet.pagebreak import Break
 
 from addin.report.audit import Factors, cell_ref, write_checked
-from addin.report.charts import depth_profile, pressure_breakdown
+from addin.report.charts import depth_profile, nice_axis, pressure_breakdown
 from addin.report.compute import scalar
 from addin.report.style import (
     heading,
@@ -551,7 +551,7 @@ def write_ecd(wb, results, factors: Factors, title: str):
         )
         if 0 < x < 1e9
     ]
-    lo, hi, step = _nice_axis(min(allv), max(allv))
+    lo, hi, step = nice_axis(min(allv), max(allv))
     ch = depth_profile(
         (ws, col0 + 1, r0, r1),
         curves,
@@ -569,18 +569,6 @@ def write_ecd(wb, results, factors: Factors, title: str):
     setup_print(ws, title)
     ws.print_area = f"A1:J{data_row - 2}"
     return refs
-
-
-def _nice_axis(lo: float, hi: float, ticks: int = 8) -> tuple[float, float, float]:
-    """Axis limits on round steps (1, 2, 2.5 or 5 × 10^k) around [lo, hi].
-
-    >>> _nice_axis(8.6, 15.2)
-    (8.0, 16.0, 1.0)
-    """
-    raw = max(hi - lo, 1e-9) / ticks
-    mag = 10.0 ** np.floor(np.log10(raw))
-    step = float(next(m * mag for m in (1.0, 2.0, 2.5, 5.0, 10.0) if m * mag >= raw))
-    return float(np.floor(lo / step) * step), float(np.ceil(hi / step) * step), step
 
 
 # ------------------------------------------------------------------------------ bit

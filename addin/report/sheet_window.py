@@ -1,6 +1,7 @@
-"""The "Rate window" sheet: the flow-rate operating window of :func:`calc.window.operating_window`.
+"""The "Rate window" sheet: the flow-rate operating window of
+:func:`calc.rate_window.operating_window`.
 
-Every number comes from the :class:`calc.window.OperatingWindow` of the report run (one
+Every number comes from the :class:`calc.rate_window.OperatingWindow` of the report run (one
 vectorised sweep); this module converts units, names the binding limits in words and lays out
 the table and three native charts (ECD at the tightest points against their limits, standpipe
 pressure against the surface rating, cleaning indicator), all against flow rate.
@@ -12,7 +13,8 @@ import numpy as np
 from openpyxl.styles import Alignment, Font
 from openpyxl.worksheet.pagebreak import Break
 
-from addin.report.charts import rate_curves
+from addin import text
+from addin.report.charts import nice_axis, rate_curves
 from addin.report.sheet_cleaning import short_name
 from addin.report.style import (
     heading,
@@ -25,8 +27,9 @@ from addin.report.style import (
 from addin.text import display_values as _o
 from addin.text import unit_label as U
 from addin.xlsx_cells import PALETTE, put, set_widths
+from calc.span import Span
 
-__all__ = ["SHEET", "allowed_ecd", "binding_words", "write_window"]
+__all__ = ["SHEET", "allowed_ecd", "binding_words", "point_words", "write_window"]
 
 SHEET = "Rate window"
 #: Every PRINT_EVERY-th sweep rate is printed; the whole sweep sits below the print range.
@@ -35,9 +38,42 @@ _TOOL_MIN, _TOOL_MAX = " flow window (min)", " flow window (max)"
 
 
 def allowed_ecd(ow):
-    """ECD limits at the tightest points over the sweep [kg/m³], as calc.window returns them:
+    """ECD limits at the tightest points over the sweep [kg/m³], as calc.rate_window returns them:
     (fracture − required margin, pore + required margin)."""
     return np.asarray(ow.ecd_max_at_point), np.asarray(ow.ecd_min_at_point)
+
+
+def point_words(name, md: float, tvd: float, system) -> str:
+    """A check point of the window in words, its depth in the unit system: a place
+    (:class:`~calc.span.Span`), a plain depth ("MD …", said again from ``md`` [m]), a
+    pressure-window station ("window station, TVD …", from ``tvd`` [m]) or a named point
+    (shoe, bit, weak point) as named."""
+    if isinstance(name, Span):
+        return text.span(name, system)
+    name = str(name)
+    if not name or name.startswith("MD "):
+        return text.depth_point(md, system)
+    if name.startswith("window station"):
+        return f"window station, TVD {text.quantity(tvd, 'depth', system)}"
+    return name
+
+
+def fracture_point_words(ow, system) -> list[str]:
+    """The fracture-tightest check point per sweep rate, in words."""
+    return [
+        point_words(n, m, t, system)
+        for n, m, t in zip(
+            ow.fracture_point_name, ow.fracture_point_md, ow.fracture_point_tvd, strict=True
+        )
+    ]
+
+
+def pore_point_words(ow, system) -> list[str]:
+    """The pore-tightest check point per sweep rate, in words."""
+    return [
+        point_words(n, m, t, system)
+        for n, m, t in zip(ow.pore_point_name, ow.pore_point_md, ow.pore_point_tvd, strict=True)
+    ]
 
 
 def _index_at(ow, q):
@@ -45,18 +81,19 @@ def _index_at(ow, q):
     return int(np.argmin(np.abs(np.asarray(ow.q) - q)))
 
 
-def binding_words(ow, end: str, *, long: bool = False) -> str:
-    """The limit that binds at ``end`` ("low" or "high") in words (``long``: with the place)."""
+def binding_words(ow, end: str, *, long: bool = False, system="oilfield") -> str:
+    """The limit that binds at ``end`` ("low" or "high") in words (``long``: with the place,
+    its depth in ``system``)."""
     if not ow.feasible:
         return "no rate satisfies every limit at once (failing: " + ow.binding_low + ")"
     name = ow.binding_low if end == "low" else ow.binding_high
     q = ow.q_low if end == "low" else ow.q_high
     i = _index_at(ow, q)
     if name == "fracture":
-        where = f" at {ow.fracture_point_name[i]}" if long else ""
+        where = f" at {fracture_point_words(ow, system)[i]}" if long else ""
         return "ECD reaches fracture − margin" + where
     if name == "pore":
-        where = f" at {ow.pore_point_name[i]}" if long else ""
+        where = f" at {pore_point_words(ow, system)[i]}" if long else ""
         return "ECD falls to pore + margin" + where
     if name == "surface rating":
         return "standpipe pressure reaches the surface rating"
@@ -96,10 +133,10 @@ def _columns(ow, system):
         ("surface rating", pu, _o(np.full(n, ow.surface_rating), "pressure", system), fp),
         ("ECD, fracture-tightest point", dn, _o(ow.ecd_fracture_point, "density", system), fd),
         ("max. ECD (fracture − margin)", dn, _o(f_lim, "density", system), fd),
-        ("fracture-tightest point", "", [str(x) for x in ow.fracture_point_name], None),
+        ("fracture-tightest point", "", fracture_point_words(ow, system), None),
         ("ECD, pore-tightest point", dn, _o(ow.ecd_pore_point, "density", system), fd),
         ("min. ECD (pore + margin)", dn, _o(p_lim, "density", system), fd),
-        ("pore-tightest point", "", [str(x) for x in ow.pore_point_name], None),
+        ("pore-tightest point", "", pore_point_words(ow, system), None),
         ("cleaning indicator", "≥ 0 cleaned", [float(x) for x in ow.cleaning_indicator], "0.000"),
         ("lowest transport ratio", "–", [float(x) for x in ow.min_transport_ratio], "0.000"),
         ("highest cuttings conc.", "%", [100.0 * float(x) for x in ow.max_concentration], "0.00"),
@@ -124,26 +161,14 @@ def _table(ws, row, cols, rows) -> int:
 
 
 def _nice(values, ticks=6):
-    from addin.report.sheet_hydraulics import _nice_axis
-
     v = [x for x in values if x is not None]
-    return _nice_axis(min(v), max(v), ticks)
+    return nice_axis(min(v), max(v), ticks)
 
 
-def write_window(wb, results, title: str):
-    """The sheet; returns refs for the summary (empty without a window)."""
-    case, ow = results.case, results.window
-    system = case.unit_system
-    ws = wb.create_sheet(SHEET)
-    # 3 × 48 characters: the three charts sit one per third of the page
-    set_widths(ws, [9, 9, 9, 10, 11, 24, 12, 12, 16, 9, 9, 8, 6])
-    span = 13
-    row = heading(ws, 1, "Flow-rate operating window: every limit at once", span=span, title=True)
-    if ow is None:
-        put(ws, row + 1, 1, "Not evaluated: needs a pressure window (pore, fracture).", "bf_text")
-        setup_print(ws, title)
-        return {}
-    qu, dn, pu = U("flow_rate", system), U("density", system), U("pressure", system)
+def _intro(ws, row, results, ow, system, span) -> int:
+    """The method paragraph: sweep, cuttings load and what "inside" means."""
+    case = results.case
+    qu, dn = U("flow_rate", system), U("density", system)
     q = np.asarray(ow.q)
     q0 = case.check_value(-1, "flow_rate")
     chk = case.checks[-1]
@@ -154,7 +179,7 @@ def write_window(wb, results, title: str):
         if results.cleaning
         else "no cuttings given (no cleaning limit, clean ECD)"
     )
-    text = (
+    intro = (
         f"Method: {ow.method}. Sweep: {q.size} rates from {_o(q[0], 'flow_rate', system):,.0f} "
         f"to {_o(q[-1], 'flow_rate', system):,.0f} {qu} ({q[0] / q0:.1f}–{q[-1] / q0:.1f} × the "
         f"check's rate); {load}. A rate is inside when ECD ≤ fracture − "
@@ -164,8 +189,14 @@ def write_window(wb, results, title: str):
         "downhole tool's flow window holds; each end is interpolated on the limit that fails "
         "just outside it."
     )
-    row = note_row(ws, row, text, span=span)
-    row += 1
+    return note_row(ws, row, intro, span=span)
+
+
+def _window_lines(ws, row, results, ow, system, span) -> int:
+    """The "Window" table (ends, binding limits, the check's rate, the cleaning rate) and the
+    note on the rating and margins; returns the next row."""
+    qu, dn, pu = U("flow_rate", system), U("density", system), U("pressure", system)
+    q0 = results.case.check_value(-1, "flow_rate")
     row = heading(ws, row, "Window", span=span)
     row = table_header(ws, row, 1, ["", "", "rate", "unit", "binding limit or remark"])
     ws.merge_cells(start_row=row - 1, start_column=1, end_row=row - 1, end_column=2)
@@ -173,8 +204,8 @@ def write_window(wb, results, title: str):
     lines = []
     if ow.feasible:
         lines += [
-            ("lowest rate", ow.q_low, binding_words(ow, "low", long=True)),
-            ("highest rate", ow.q_high, binding_words(ow, "high", long=True)),
+            ("lowest rate", ow.q_low, binding_words(ow, "low", long=True, system=system)),
+            ("highest rate", ow.q_high, binding_words(ow, "high", long=True, system=system)),
         ]
     else:
         lines.append(("operating window", None, binding_words(ow, "low")))
@@ -201,7 +232,7 @@ def write_window(wb, results, title: str):
         ws.merge_cells(start_row=row, start_column=5, end_row=row, end_column=span)
         row += 1
     rating = _o(ow.surface_rating, "pressure", system)
-    row = note_row(
+    return note_row(
         ws,
         row,
         (f"Surface rating {rating:,.0f} {pu}; " if rating is not None else "No surface rating; ")
@@ -210,13 +241,13 @@ def write_window(wb, results, title: str):
         "[limits]). Charts: dashed lines are the limits, dotted verticals the window ends.",
         span=span,
     )
-    # ---- charts (page 1) and the printed table (page 2)
-    chart_row = row + 1
-    data_row = chart_row + 25  # 11.5-cm charts
-    cols = _columns(ow, system)
-    shown = sorted(set(range(0, q.size, PRINT_EVERY)) | {q.size - 1})
+
+
+def _printed_sweep(ws, data_row, cols, n, span) -> int:
+    """Every PRINT_EVERY-th sweep rate on page 2 with its note; returns the last printed row."""
+    shown = sorted(set(range(0, n, PRINT_EVERY)) | {n - 1})
     ws.row_breaks.append(Break(id=data_row - 1))
-    head = f"Sweep (every {PRINT_EVERY}th rate; all {q.size} below the print range)"
+    head = f"Sweep (every {PRINT_EVERY}th rate; all {n} below the print range)"
     row = heading(ws, data_row, head, span=span)
     ws.print_title_rows = f"{row}:{row + 1}"
     head_row = row
@@ -231,21 +262,12 @@ def write_window(wb, results, title: str):
         "cleaned). 'in window': between the two ends above.",
         span=span,
     )
-    print_end = row - 1
-    # ---- chart data: the whole sweep, below the print range
-    row += 2
-    put(ws, row, 1, "Chart data: the whole sweep (rows below; not printed).", "bf_note")
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=span)
-    row += 1
-    put(ws, row, 1, "Rate sweep", "bf_section")
-    r0 = row + 3  # first data row, under the header and units rows
-    r1 = _table(ws, row + 1, cols, range(q.size)) - 1
-    # window-end marker lines: x = (low, low, gap, high, high), y = axis (min, max, gap, max, min)
-    mrow = r1 + 3
-    put(ws, mrow - 1, 1, "Window ends (chart marker lines)", "bf_section")
-    ends = [ow.q_low, ow.q_low, None, ow.q_high, ow.q_high] if ow.feasible else []
-    lo, hi, step = _nice([_o(q[0], "flow_rate", system), _o(q[-1], "flow_rate", system)], 8)
-    rate_lim = (lo, hi, 2 * step if (hi - lo) / step > 6 else step)  # ≤ 6 labels on a third
+    return row - 1
+
+
+def _chart_specs(results, ow, system):
+    """(title, y-axis title, [(series name, sweep-table column, role)]) of each chart."""
+    dn, pu = U("density", system), U("pressure", system)
     charts = [
         (
             "ECD at the tightest points",
@@ -272,7 +294,21 @@ def write_window(wb, results, title: str):
         charts = charts[:2]
     if ow.surface_rating == float("inf"):
         charts[1] = (charts[1][0], charts[1][1], charts[1][2][:1])
-    for k, (ctitle, ytitle, series) in enumerate(charts):
+    return charts
+
+
+def _charts(ws, results, ow, cols, rows, chart_row, system) -> int:
+    """The native charts over the whole sweep (data ``rows`` = (r0, r1)) with the window-end
+    marker lines written below the data; returns the markers' first row."""
+    r0, r1 = rows
+    q = np.asarray(ow.q)
+    # window-end marker lines: x = (low, low, gap, high, high), y = axis (min, max, gap, max, min)
+    mrow = r1 + 3
+    put(ws, mrow - 1, 1, "Window ends (chart marker lines)", "bf_section")
+    ends = [ow.q_low, ow.q_low, None, ow.q_high, ow.q_high] if ow.feasible else []
+    lo, hi, step = _nice([_o(q[0], "flow_rate", system), _o(q[-1], "flow_rate", system)], 8)
+    rate_lim = (lo, hi, 2 * step if (hi - lo) / step > 6 else step)  # ≤ 6 labels on a third
+    for k, (ctitle, ytitle, series) in enumerate(_chart_specs(results, ow, system)):
         vals = [v for _, c, _ in series for v in cols[c - 1][2]]
         lo, hi, step = _nice(vals)
         mc = 2 + 2 * k
@@ -283,7 +319,7 @@ def write_window(wb, results, title: str):
         ch = rate_curves(
             (ws, 1, r0, r1),
             [(name, (ws, c, r0, r1), role) for name, c, role in series],
-            rate_unit=qu,
+            rate_unit=U("flow_rate", system),
             y_title=ytitle,
             title=ctitle,
             y_limits=(lo, hi, step),
@@ -293,6 +329,40 @@ def write_window(wb, results, title: str):
             else [],
         )
         ws.add_chart(ch, f"{'AFI'[k]}{chart_row}")
+    return mrow
+
+
+def write_window(wb, results, title: str):
+    """The sheet; returns refs for the summary (empty without a window)."""
+    case, ow = results.case, results.window
+    system = case.unit_system
+    ws = wb.create_sheet(SHEET)
+    # 3 × 48 characters: the three charts sit one per third of the page
+    set_widths(ws, [9, 9, 9, 10, 11, 24, 12, 12, 16, 9, 9, 8, 6])
+    span = 13
+    row = heading(ws, 1, "Flow-rate operating window: every limit at once", span=span, title=True)
+    if ow is None:
+        put(ws, row + 1, 1, "Not evaluated: needs a pressure window (pore, fracture).", "bf_text")
+        setup_print(ws, title)
+        return {}
+    q = np.asarray(ow.q)
+    q0 = case.check_value(-1, "flow_rate")
+    row = _intro(ws, row, results, ow, system, span)
+    row = _window_lines(ws, row + 1, results, ow, system, span)
+    # ---- charts (page 1) and the printed table (page 2)
+    chart_row = row + 1
+    data_row = chart_row + 25  # 11.5-cm charts
+    cols = _columns(ow, system)
+    print_end = _printed_sweep(ws, data_row, cols, q.size, span)
+    # ---- chart data: the whole sweep, below the print range
+    row = print_end + 3
+    put(ws, row, 1, "Chart data: the whole sweep (rows below; not printed).", "bf_note")
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=span)
+    row += 1
+    put(ws, row, 1, "Rate sweep", "bf_section")
+    r0 = row + 3  # first data row, under the header and units rows
+    r1 = _table(ws, row + 1, cols, range(q.size)) - 1
+    mrow = _charts(ws, results, ow, cols, (r0, r1), chart_row, system)
     put(ws, mrow, 1, "x, y", "bf_note")
     setup_print(ws, title)
     ws.print_area = f"A1:M{print_end}"

@@ -56,7 +56,9 @@ def _method(value) -> str | None:
     return cells.text(value, "method", choices=FLUID_FITS.names())
 
 
-def _fluid(density, readings, method, uset):
+def hydraulics_fluid(density, readings, method, uset):
+    """(HydraulicsFluid, friction-method keywords) of a worksheet function's mud: density and
+    viscometer readings fitted as the hydraulics method does (blank = API RP 13D 2010 HB)."""
     rho = cells.positive_number(density, "density", "density", uset)
     name = _method(method)
     r = viscometer(readings)
@@ -69,7 +71,7 @@ def _fluid(density, readings, method, uset):
 
 
 def _pipe(density, readings, d_inner, q, method, uset) -> cf.FlowResult:
-    fluid, kw = _fluid(density, readings, method, uset)
+    fluid, kw = hydraulics_fluid(density, readings, method, uset)
     d = cells.positive_number(d_inner, "pipe inside diameter", "diameter", uset)
     tau_y, k, n = fluid.pipe_parameters
     qv = cells.flow_rates(q, uset)
@@ -77,7 +79,7 @@ def _pipe(density, readings, d_inner, q, method, uset) -> cf.FlowResult:
 
 
 def _annulus(density, readings, d_hole, d_pipe, q, method, eccentricity, uset) -> cf.FlowResult:
-    fluid, kw = _fluid(density, readings, method, uset)
+    fluid, kw = hydraulics_fluid(density, readings, method, uset)
     d2, d1 = annulus(d_hole, d_pipe, uset)
     e = cells.optional_number(eccentricity, "eccentricity", 0.0)
     tau_y, k, n = fluid.annulus_parameters
@@ -168,7 +170,7 @@ def BF_CRIT_RATE(
 ) -> Any:
     """Flow rate at which laminar flow ends, by the method's Reynolds number (gpm)."""
     uset = cells.unit_set(units)
-    fluid, kw = _fluid(density, readings, method, uset)
+    fluid, kw = hydraulics_fluid(density, readings, method, uset)
     if cells.blank(cells.as_grid(d_pipe)[0][0]):
         d = cells.positive_number(d_outer, "pipe inside diameter", "diameter", uset)
         tau_y, k, n = fluid.pipe_parameters

@@ -6,7 +6,6 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.circulation._well_link import _row_names
 from calc.cleaning.indicators import (
     LARSEN_RANGE,
     VERDICTS,
@@ -18,10 +17,13 @@ from calc.cleaning.indicators import (
     larsen_critical_velocity,
     verdict_levels,
 )
+from calc.cleaning.spans import interval_spans
 from calc.cleaning.transport import Cuttings, TransportResult, annular_transport
 from calc.errors import InputError, check_choice, check_nonnegative, check_positive
 from calc.notes import Note
-from calc.numeric import bisect_increasing, scalar_or_array
+from calc.numeric import bisect_increasing, depth_weights, scalar_or_array
+from calc.span import Span
+from calc.values import Value
 
 __all__ = [
     "HoleCleaningResult",
@@ -35,11 +37,6 @@ __all__ = [
 RATE_BRACKET = (1e-4, 0.2)
 
 
-def _annulus_rows(well):
-    a = well.flow_intervals().annulus
-    return a, _row_names(a, "annulus", getattr(well, "message_units", "oilfield"))
-
-
 @dataclass(frozen=True, eq=False)
 class HoleCleaningResult:
     """Per-interval hole cleaning for the annulus, bit upwards (SI; arrays: rate axes + interval).
@@ -48,8 +45,16 @@ class HoleCleaningResult:
     ----------
     q : float or ndarray
         Flow rate(s) [m³/s].
-    names, top_md, bottom_md, inclination, d_hole, d_pipe, is_tool_joint
-        The annular intervals (as :meth:`calc.geometry.Well.flow_intervals` gives them).
+    spans : tuple of Span
+        Where each annular interval lies (item, hole section, tool-joint flag, MD/TVD span [m]).
+    top_md, bottom_md : ndarray
+        MD span of each interval [m].
+    inclination : ndarray
+        Mean inclination [degree].
+    d_hole, d_pipe : ndarray
+        Hole or casing ID and pipe (or tool-joint) OD [m].
+    is_tool_joint : ndarray of bool
+        The intervals as :meth:`calc.geometry.Well.flow_intervals` gives them.
     vertical : ndarray of bool
         Interval below ``criteria.vertical_limit`` (vertical criteria apply).
     transport : TransportResult
@@ -58,17 +63,19 @@ class HoleCleaningResult:
         Carrying capacity index (meaningful where ``vertical``).
     larsen : LarsenResult
         High-angle critical velocity and rate (meaningful where not ``vertical``).
-    critical_ratio : ndarray
-        Q/Q_crit (Larsen).
-    levels : dict
+    critical_ratio : float or ndarray
+        Q/Q_crit (Larsen) [-].
+    levels : dict of str to ndarray
         Per-criterion levels 0/1/2 (adequate/marginal/poor; -1 not applicable) and "overall".
     verdict : ndarray of str
         "adequate", "marginal" or "poor" per interval.
     minimum_rate : ndarray
         Smallest flow rate giving the ``require`` verdict in each interval [m³/s] (``inf`` where
         not reached inside the search bracket).
-    controlling_interval, controlling_rate
-        The interval needing the highest rate, and that rate [m³/s].
+    controlling_interval : Span
+        The interval needing the highest rate.
+    controlling_rate : float
+        That rate [m³/s].
     require : str
         "adequate" or "marginal".
     criteria : CleaningCriteria
@@ -78,8 +85,8 @@ class HoleCleaningResult:
     notes : tuple of Note
     """
 
-    q: object
-    names: tuple[str, ...]
+    q: float | np.ndarray
+    spans: tuple[Span, ...]
     top_md: np.ndarray
     bottom_md: np.ndarray
     inclination: np.ndarray
@@ -90,11 +97,11 @@ class HoleCleaningResult:
     transport: TransportResult
     cci: CCIResult
     larsen: LarsenResult
-    critical_ratio: object
-    levels: dict
+    critical_ratio: float | np.ndarray
+    levels: dict[str, np.ndarray]
     verdict: np.ndarray
     minimum_rate: np.ndarray
-    controlling_interval: str
+    controlling_interval: Span
     controlling_rate: float
     require: str
     criteria: CleaningCriteria
@@ -103,15 +110,16 @@ class HoleCleaningResult:
     notes: tuple[Note, ...] = field(default=())
 
     def table(self) -> list[dict]:
-        """One dictionary per interval (single rate) for tables and reports, SI values."""
+        """One dictionary per interval (single rate) for tables and reports, SI values; the
+        ``"interval"`` entry is the interval's :class:`~calc.span.Span`."""
         if np.ndim(self.q) != 0:
             raise InputError("q", "a sweep", "a single rate for the table")
         t = self.transport
         rows = []
-        for i, name in enumerate(self.names):
+        for i, where in enumerate(self.spans):
             rows.append(
                 {
-                    "interval": name,
+                    "interval": where,
                     "top_md": float(self.top_md[i]),
                     "bottom_md": float(self.bottom_md[i]),
                     "inclination": float(self.inclination[i]),
@@ -132,16 +140,86 @@ class HoleCleaningResult:
         return rows
 
 
-def _evaluate(q, rows, rho, params, cuttings, rop, bit_d, method, criteria, larsen_rate):
-    """Transport, CCI, ratio and levels at rates ``q`` (broadcast against the interval axis)."""
-    ty, k, n = params
-    tr = annular_transport(
-        q, rows["d_hole"], rows["d_pipe"], density=rho, k=k, tau_y=ty, n=n,
-        cuttings=cuttings, rop=rop, bit_diameter=bit_d, method=method,
-    )  # fmt: skip
-    cci = carrying_capacity_index(tr.annular_velocity, density=rho, k=k, tau_y=ty, n=n)
-    ratio = np.asarray(q) / larsen_rate
-    return tr, cci, ratio
+@dataclass(frozen=True, eq=False)
+class _Setting:
+    """What every evaluation of one well shares: the annulus, the mud, cuttings and ROP."""
+
+    d_hole: np.ndarray
+    d_pipe: np.ndarray
+    density: float
+    params: tuple[float, float, float]
+    cuttings: Cuttings
+    rop: float
+    bit_diameter: float
+    method: str
+    critical_rate: np.ndarray
+
+    def evaluate(self, q):
+        """Transport, CCI and Q/Q_crit at rates ``q`` (broadcast against the interval axis)."""
+        ty, k, n = self.params
+        tr = annular_transport(
+            q, self.d_hole, self.d_pipe, density=self.density, k=k, tau_y=ty, n=n,
+            cuttings=self.cuttings, rop=self.rop, bit_diameter=self.bit_diameter,
+            method=self.method,
+        )  # fmt: skip
+        cci = carrying_capacity_index(tr.annular_velocity, density=self.density, k=k, tau_y=ty,
+                                      n=n)  # fmt: skip
+        return tr, cci, np.asarray(q) / self.critical_rate
+
+
+def _minimum_rates(setting: _Setting, criteria, require, vertical, rate_bracket) -> np.ndarray:
+    """Smallest rate giving ``require`` in each interval [m³/s] (``inf`` where the bracket's top
+    does not): the score rises with the rate, so bisect on log q, every interval at once."""
+
+    def score(qq):
+        t2, c2, r2 = setting.evaluate(qq)
+        return cleaning_score(
+            criteria, require, vertical, np.asarray(t2.transport_ratio),
+            np.asarray(t2.concentration), np.asarray(c2.cci), r2,
+        )  # fmt: skip
+
+    lo = np.full(setting.d_hole.shape, float(rate_bracket[0]))
+    hi = np.full(setting.d_hole.shape, float(rate_bracket[1]))
+    s_hi = score(hi)
+    q_min = bisect_increasing(score, lo, hi, iterations=50, log=True)
+    q_min = np.where(score(lo) >= 0, lo, q_min)
+    return np.where(s_hi < 0, np.inf, q_min)
+
+
+def _cleaning_notes(criteria, require, vertical, inc, q_min, levels, rate_bracket) -> list[Note]:
+    notes = []
+    if np.any(~vertical & (inc < LARSEN_RANGE[0])):
+        notes.append(
+            Note(
+                "warning",
+                "larsen_extrapolated",
+                "Larsen-Pilehvari-Azar critical rate used between {vertical_limit:g}° and "
+                "{larsen_low:g}°, below its stated range (45-60° is the hardest band).",
+                "hole cleaning",
+                values=(
+                    Value("vertical_limit", float(criteria.vertical_limit)),
+                    Value("larsen_low", float(LARSEN_RANGE[0])),
+                ),
+            )
+        )
+    if np.any(~np.isfinite(q_min)):
+        notes.append(
+            Note(
+                "caution",
+                "cleaning_rate_unreachable",
+                f"no rate up to {{rate}} gives '{require}' cleaning in {{count}} interval(s).",
+                "hole cleaning",
+                values=(
+                    Value("rate", float(rate_bracket[1]), "flow_rate"),
+                    Value("count", float(np.sum(~np.isfinite(q_min)))),
+                ),
+            )
+        )
+    if np.any(levels["overall"] == 2):
+        notes.append(
+            Note("caution", "poor_cleaning", "poor hole cleaning predicted", "hole cleaning")
+        )
+    return notes
 
 
 def hole_cleaning(
@@ -208,77 +286,36 @@ def hole_cleaning(
         raise InputError("fluid density", "an array", "one density for hole cleaning")
     rho = float(rho)
     params = fluid.annulus_parameters
-    a, names = _annulus_rows(well)
+    a = well.flow_intervals().annulus
+    spans = interval_spans(a)
     d2 = np.asarray(a.outer_diameter, dtype=float)
     d1 = np.asarray(a.inner_diameter, dtype=float)
-    gap = 0.5 * (d2 - d1)
-    if np.any(cuttings.size >= gap):
-        i = int(np.argmin(gap))
-        raise InputError(
-            "cuttings size", cuttings.size, f"< the radial gap {gap[i]:.4g} m of '{names[i]}'"
-        )
+    _check_cuttings_fit(cuttings, d2, d1, spans)
     inc = np.asarray(a.inclination, dtype=float)
-    bit_d = float(well.bit.size)
-    rows = {"d_hole": d2, "d_pipe": d1}
     vertical = inc < criteria.vertical_limit
     lar = larsen_critical_velocity(
         r, d2, d1, density=rho, k=params[1], tau_y=params[0], n=params[2],
         cuttings_size=cuttings.size, inclination=np.clip(inc, 0.0, 90.0),
     )  # fmt: skip
-    q_crit = np.asarray(lar.critical_rate)
+    setting = _Setting(
+        d_hole=d2, d_pipe=d1, density=rho, params=params, cuttings=cuttings, rop=r,
+        bit_diameter=float(well.bit.size), method=method,
+        critical_rate=np.asarray(lar.critical_rate),
+    )  # fmt: skip
     q_arr = np.asarray(qv, dtype=float)
-    q_b = q_arr[..., None] if q_arr.ndim else q_arr
-    tr, cci, ratio = _evaluate(q_b, rows, rho, params, cuttings, r, bit_d, method, criteria, q_crit)
+    tr, cci, ratio = setting.evaluate(q_arr[..., None] if q_arr.ndim else q_arr)
     levels = verdict_levels(
         criteria, vertical, np.asarray(tr.transport_ratio), np.asarray(tr.concentration),
         np.asarray(cci.cci), ratio,
     )  # fmt: skip
     verdict = np.asarray(VERDICTS, dtype=object)[levels["overall"]]
-
-    # minimum rate per interval: the score rises with the rate; bisect on log q, all at once
-    def score(qq):
-        t2, c2, r2 = _evaluate(qq, rows, rho, params, cuttings, r, bit_d, method, criteria, q_crit)
-        return cleaning_score(
-            criteria, require, vertical, np.asarray(t2.transport_ratio),
-            np.asarray(t2.concentration), np.asarray(c2.cci), r2,
-        )  # fmt: skip
-
-    lo = np.full(d2.shape, float(rate_bracket[0]))
-    hi = np.full(d2.shape, float(rate_bracket[1]))
-    s_hi = score(hi)
-    q_min = bisect_increasing(score, lo, hi, iterations=50, log=True)
-    q_min = np.where(score(lo) >= 0, lo, q_min)
-    q_min = np.where(s_hi < 0, np.inf, q_min)
+    q_min = _minimum_rates(setting, criteria, require, vertical, rate_bracket)
     ctrl = int(np.argmax(q_min))
-
     notes = list(tr.notes) + list(cci.notes)
-    if np.any(~vertical & (inc < LARSEN_RANGE[0])):
-        notes.append(
-            Note(
-                "warning",
-                "larsen_extrapolated",
-                f"Larsen-Pilehvari-Azar critical rate used between {criteria.vertical_limit:g}° "
-                f"and {LARSEN_RANGE[0]:g}°, below its stated range (45-60° is the hardest band).",
-                "hole cleaning",
-            )
-        )
-    if np.any(~np.isfinite(q_min)):
-        notes.append(
-            Note(
-                "caution",
-                "cleaning_rate_unreachable",
-                f"no rate up to {rate_bracket[1]:g} m³/s gives '{require}' cleaning in "
-                f"{int(np.sum(~np.isfinite(q_min)))} interval(s).",
-                "hole cleaning",
-            )
-        )
-    if np.any(levels["overall"] == 2):
-        notes.append(
-            Note("caution", "poor_cleaning", "poor hole cleaning predicted", "hole cleaning")
-        )
+    notes += _cleaning_notes(criteria, require, vertical, inc, q_min, levels, rate_bracket)
     return HoleCleaningResult(
         q=scalar_or_array(q_arr),
-        names=names,
+        spans=spans,
         top_md=np.asarray(a.top_md),
         bottom_md=np.asarray(a.bottom_md),
         inclination=inc,
@@ -293,7 +330,7 @@ def hole_cleaning(
         levels=levels,
         verdict=verdict,
         minimum_rate=q_min,
-        controlling_interval=names[ctrl],
+        controlling_interval=spans[ctrl],
         controlling_rate=float(q_min[ctrl]),
         require=require,
         criteria=criteria,
@@ -301,6 +338,20 @@ def hole_cleaning(
         method=f"slip {tr.method}; CCI (Robinson); {lar.method}",
         notes=tuple(dict.fromkeys(notes)),
     )
+
+
+def _check_cuttings_fit(cuttings: Cuttings, d_hole, d_pipe, spans) -> None:
+    """Cuttings must be smaller than every radial gap (InputError naming the tightest one)."""
+    gap = 0.5 * (d_hole - d_pipe)
+    if np.any(cuttings.size >= gap):
+        i = int(np.argmin(gap))
+        raise InputError(
+            "cuttings size",
+            float(cuttings.size),
+            "< the radial gap {gap} of {where}",
+            kind="diameter",
+            values=(Value("gap", float(gap[i]), "diameter"), Value("where", spans[i])),
+        )
 
 
 def cuttings_ecd_increment(well, loaded_density, density, md, *, hydrostatic: str = "exact"):
@@ -329,7 +380,7 @@ def cuttings_ecd_increment(well, loaded_density, density, md, *, hydrostatic: st
     mdv = check_positive("MD", md, "m")
     tvd = np.asarray(well.tvd_at(mdv), dtype=float)
     top, bot = np.asarray(a.top_md), np.asarray(a.bottom_md)
-    w = np.clip((mdv.ravel()[:, None] - top[None, :]) / (bot - top)[None, :], 0.0, 1.0)
+    w = depth_weights(mdv.ravel(), top, bot)
     extra = (np.asarray(loaded_density, dtype=float) - density) * np.asarray(a.delta_tvd)
     dp = extra @ w.T  # per unit g
     out = dp.reshape(dp.shape[:-1] + mdv.shape) / np.where(tvd > 0, tvd, np.inf)

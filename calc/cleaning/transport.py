@@ -22,6 +22,7 @@ from calc.flow.area import cross_section_area, mean_velocity
 from calc.notes import Note
 from calc.numeric import scalar_or_array
 from calc.units import si_factor
+from calc.values import Value
 
 __all__ = [
     "Cuttings",
@@ -71,7 +72,13 @@ class Cuttings:
         notes = []
         if not 0.05 * _IN <= size <= 1.0 * _IN:
             notes.append(
-                Note("warning", "cuttings_size", "cuttings size outside 0.05-1 in", "cuttings")
+                Note(
+                    "warning",
+                    "cuttings_size",
+                    "cuttings size outside {usual}",
+                    "cuttings",
+                    values=(Value("usual", (0.05 * _IN, 1.0 * _IN), "diameter"),),
+                )
             )
         if not 2000.0 <= dens <= 2800.0:
             notes.append(
@@ -265,7 +272,15 @@ def annular_transport(
             )
         )
     if np.any(r > 500.0 * _FT_PER_H):
-        notes.append(Note("warning", "rop_high", "ROP above 500 ft/h", "rate of penetration"))
+        notes.append(
+            Note(
+                "warning",
+                "rop_high",
+                "ROP above {limit}",
+                "rate of penetration",
+                values=(Value("limit", 500.0 * _FT_PER_H, "rop"),),
+            )
+        )
     return TransportResult(
         annular_velocity=scalar_or_array(va),
         slip=s,

@@ -33,7 +33,13 @@ Bourgoyne, A.T. et al. (1986) Applied Drilling Engineering, SPE Textbook Series 
 from calc.surge.clinging import clinging_constant, clinging_constant_exact_newtonian
 from calc.surge.emw import trip_allowance, trip_emw
 from calc.surge.gel import BreakCirculationResult, break_circulation_pressure, gel_break_pressure
-from calc.surge.limits import IntervalTripLimit, TripLimits, trip_speed_limit, trip_speed_limits
+from calc.surge.limits import (
+    IntervalTripLimit,
+    TripLimits,
+    TripPoint,
+    trip_speed_limit,
+    trip_speed_limits,
+)
 from calc.surge.pressure import IntervalSurge, SurgeResult, interval_surge, surge_pressure
 from calc.surge.solver import PEAK_FACTOR
 
@@ -44,6 +50,7 @@ __all__ = [
     "IntervalTripLimit",
     "SurgeResult",
     "TripLimits",
+    "TripPoint",
     "break_circulation_pressure",
     "clinging_constant",
     "clinging_constant_exact_newtonian",

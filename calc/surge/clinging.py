@@ -18,7 +18,7 @@ import numpy as np
 from calc.errors import InputError, check_choice, check_nonnegative
 from calc.numeric import scalar_or_array
 
-__all__ = ["clinging_constant", "clinging_constant_exact_newtonian"]
+__all__ = ["check_clinging", "clinging_constant", "clinging_constant_exact_newtonian"]
 
 
 def clinging_constant(d_pipe, d_hole, regime="laminar"):
@@ -68,8 +68,8 @@ def clinging_constant_exact_newtonian(d_pipe, d_hole):
     return scalar_or_array(1.0 / (2.0 * np.log(1.0 / k)) - k**2 / (1.0 - k**2))
 
 
-def _check_clinging(clinging):
-    """ "burkhardt" (the fits) or given K_c values in [0, 1)."""
+def check_clinging(clinging):
+    """A clinging choice: "burkhardt" (the fits) or given K_c values in [0, 1)."""
     if isinstance(clinging, str):
         check_choice("clinging", clinging, ("burkhardt",))
         return clinging

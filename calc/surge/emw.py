@@ -9,7 +9,7 @@ from __future__ import annotations
 from calc.circulation.hydrostatics import equivalent_circulating_density, hydrostatic_pressure
 from calc.errors import check_choice, check_positive
 from calc.numeric import scalar_or_array
-from calc.surge.solver import _SIGN
+from calc.surge.solver import DIRECTION_SIGN
 
 __all__ = ["trip_allowance", "trip_emw"]
 
@@ -52,7 +52,7 @@ def trip_allowance(limit_emw, density, tvd, direction: str = "running", *, hydro
     h = check_positive("tvd", tvd, "m")
     p_lim = hydrostatic_pressure(lim, h, hydrostatic=hydrostatic)
     p_static = hydrostatic_pressure(rho, h, hydrostatic=hydrostatic)
-    return scalar_or_array(_SIGN[direction] * (p_lim - p_static))
+    return scalar_or_array(DIRECTION_SIGN[direction] * (p_lim - p_static))
 
 
 def trip_emw(density, pressure_change, tvd, *, hydrostatic: str = "exact"):

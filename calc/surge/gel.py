@@ -19,6 +19,7 @@ from calc.errors import InputError, check_nonnegative, check_positive
 from calc.notes import Note
 from calc.numeric import scalar_or_array
 from calc.surge.emw import trip_emw
+from calc.values import Value
 
 __all__ = ["BreakCirculationResult", "break_circulation_pressure", "gel_break_pressure"]
 
@@ -55,7 +56,13 @@ def gel_break_pressure(gel_strength, d_outer, length, d_inner=0.0):
     tg, do, ln, di = np.broadcast_arrays(tg, do, ln, di)
     if np.any(di >= do):
         i = np.unravel_index(int(np.argmax(di >= do)), di.shape)
-        raise InputError("inner diameter", float(di[i]), f"< outer diameter ({do[i]:.6g} m)")
+        raise InputError(
+            "inner diameter",
+            float(di[i]),
+            "< outer diameter {outer}",
+            kind="diameter",
+            values=(Value("outer", float(do[i]), "diameter"),),
+        )
     return scalar_or_array(4.0 * tg * ln / (do - di))
 
 

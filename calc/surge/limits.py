@@ -2,8 +2,8 @@
 pore/fracture window (whole well) or an allowed pressure change (flat intervals).
 
 Δp rises monotonically with the pipe speed, so each limit is a vectorised bisection in ln V
-over every allowance at once (:func:`_speed_limit`; open string with the allowance at the bit:
-:func:`_open_speed_limit`).  Where Δp(V) jumps (the Burkhardt fit changes K_c with the regime)
+over every allowance at once (``_speed_limit``; open string with the allowance at the bit:
+``_open_speed_limit``).  Where Δp(V) jumps (the Burkhardt fit changes K_c with the regime)
 the limit is the speed just below the jump, on the safe side.
 
 References
@@ -19,30 +19,34 @@ from dataclasses import dataclass
 import numpy as np
 
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT
-from calc.circulation._well_link import depth_point, parts
 from calc.circulation.pressure_window import limits_at
-from calc.circulation.result import _depth_weights
 from calc.errors import InputError, check_choice, check_finite, check_nonnegative, check_positive
 from calc.flow.solvers import itp_solve
 from calc.notes import Note
-from calc.numeric import bisect_increasing, scalar_or_array
-from calc.surge.clinging import _check_clinging
+from calc.numeric import bisect_increasing, depth_weights, scalar_or_array
+from calc.surge.clinging import check_clinging
 from calc.surge.emw import trip_allowance
 from calc.surge.solver import (
-    _SIGN,
+    DIRECTION_SIGN,
     PEAK_FACTOR,
-    _annulus_state,
-    _bore_pressure,
-    _check_peak,
-    _Paths,
-    _paths_flat,
-    _paths_from_well,
-    _solve,
-    _string_end,
+    SurgePaths,
+    annulus_state,
+    bore_pressure,
+    check_peak,
+    paths_flat,
+    paths_from_well,
+    solve,
+    string_end_for,
 )
-from calc.units import from_si
+from calc.values import Value
 
-__all__ = ["IntervalTripLimit", "TripLimits", "trip_speed_limit", "trip_speed_limits"]
+__all__ = [
+    "IntervalTripLimit",
+    "TripLimits",
+    "TripPoint",
+    "trip_speed_limit",
+    "trip_speed_limits",
+]
 
 
 def _safe_side(mid, lo, hi, iterations):
@@ -52,7 +56,7 @@ def _safe_side(mid, lo, hi, iterations):
     return mid * np.exp(-np.log(hi / lo) / 2.0**iterations)
 
 
-def _speed_limit(p: _Paths, allow, weights, end, clinging, pf, speed_bracket):
+def _speed_limit(p: SurgePaths, allow, weights, end, clinging, pf, speed_bracket):
     """Average speed at which Σ gradient·length·weights reaches ``allow`` [m/s] (vectorised
     bisection in ln V over every entry of ``allow`` at once).
 
@@ -62,7 +66,7 @@ def _speed_limit(p: _Paths, allow, weights, end, clinging, pf, speed_bracket):
     allow = np.asarray(allow, dtype=float)
 
     def excess(v_avg):
-        _, _, _, grad, _, _ = _solve(p, v_avg * pf, end, clinging, iterations=30)
+        grad = solve(p, v_avg * pf, end, clinging, iterations=30).gradient
         return np.sum(grad * p.length * weights, axis=-1) - allow
 
     lo = np.full(allow.shape, float(speed_bracket[0]))
@@ -72,7 +76,7 @@ def _speed_limit(p: _Paths, allow, weights, end, clinging, pf, speed_bracket):
     return np.where((allow <= 0) | stuck, 0.0, lim), stuck
 
 
-def _open_speed_limit(p: _Paths, allow, clinging, pf, speed_bracket):
+def _open_speed_limit(p: SurgePaths, allow, clinging, pf, speed_bracket):
     """:func:`_speed_limit` for an open string when the allowance applies at the bit.
 
     At the limit both paths carry the allowed pressure change: the bore gives q_rel from
@@ -83,14 +87,12 @@ def _open_speed_limit(p: _Paths, allow, clinging, pf, speed_bracket):
     lo = np.full(allow.shape, float(speed_bracket[0]))
     hi = np.full(allow.shape, float(speed_bracket[1]))
     q_hi = hi * pf * float(np.min(p.area_o))
-    q_rel = itp_solve(
-        lambda q: _bore_pressure(p, q) - allow, np.zeros_like(allow), q_hi, rtol=2e-16
-    )
+    q_rel = itp_solve(lambda q: bore_pressure(p, q) - allow, np.zeros_like(allow), q_hi, rtol=2e-16)
 
     def excess(v_avg):
         vp = v_avg * pf
         qr = np.minimum(q_rel, vp * float(np.min(p.area_o)))
-        _, _, grad, _, _ = _annulus_state(p, vp, qr, clinging)
+        grad = annulus_state(p, vp, qr, clinging).gradient
         return np.sum(grad * p.length, axis=-1) - allow
 
     stuck = (allow > 0) & (np.asarray(excess(lo)) >= 0)
@@ -109,18 +111,14 @@ def _allowance_notes(what: str, allow, stuck, slowest: float) -> list[Note]:
     return notes
 
 
-def _speed_text(v: float) -> str:
-    """A trip speed [m/s] for a note, in SI and in the oilfield unit (notes have no unit system)."""
-    return f"{v:g} m/s = {from_si(v, 'ft/min'):.3g} ft/min"
-
-
 def _yield_note(what: str, count: int, slowest: float) -> Note:
     return Note(
         "caution",
         f"{what}_exceeded_at_slowest_speed",
-        f"at {count} point(s) the {what} at the slowest speed searched ({_speed_text(slowest)}) "
+        f"at {{count}} point(s) the {what} at the slowest speed searched ({{slowest}}) "
         f"already exceeds the allowance (the yield stress alone): no safe {what} speed.",
         "trip speed",
+        values=(Value("count", float(count)), Value("slowest", float(slowest), "trip_speed")),
     )
 
 
@@ -131,22 +129,43 @@ def _check_bracket(speed_bracket):
     return lo, hi
 
 
+@dataclass(frozen=True)
+class TripPoint:
+    """A check depth of :class:`TripLimits`.
+
+    index     position in :attr:`TripLimits.md` (and ``names``, the per-depth arrays)
+    name      "<casing> shoe", "bit" or a weak point's name; ``""`` for a plain depth of the
+              exposed hole (the faces say where it is from ``md``)
+    md, tvd   measured and true vertical depth [m]
+    """
+
+    index: int
+    name: str
+    md: float
+    tvd: float
+
+
 @dataclass(frozen=True, eq=False)
 class TripLimits:
     """Maximum trip speeds keeping surge EMW below fracture − margin and swab EMW above
     pore + margin at every check depth (SI; speeds are average stand speeds).
 
     max_running_speed, max_pulling_speed   [m/s] (the tightest depth governs)
-    running_point, pulling_point          (name, md, tvd) of the governing depth
-    md, tvd, names                        check depths (last shoe to bit, weak points)
+    running_point, pulling_point          the governing check depth (:class:`TripPoint`)
+    md, tvd                               check depths [m] (last shoe to bit, weak points)
+    names                                 their names ("" for plain depths, see TripPoint)
     running_limit, pulling_limit          per-depth speed limits [m/s]
     surge_allowance, swab_allowance       allowed pressure change per depth [Pa]
+    peak_factor                           peak over average stand speed [-]
+    string_end                            "closed" or "open"
+    method                                surge model, friction method, search
+    fracture_margin, pore_margin          trip margins [kg/m³]
     """
 
     max_running_speed: float
     max_pulling_speed: float
-    running_point: tuple
-    pulling_point: tuple
+    running_point: TripPoint
+    pulling_point: TripPoint
     md: np.ndarray
     tvd: np.ndarray
     names: tuple[str, ...]
@@ -162,15 +181,25 @@ class TripLimits:
     notes: tuple[Note, ...] = ()
 
 
+def _exposed_hole(well) -> tuple[float, str]:
+    """Top of the exposed hole [m] (the deepest casing or liner shoe above the bit, 0 without
+    one) and that shoe's name ("<section> shoe", "" without one)."""
+    bit = float(well.bit_depth)
+    cased = [sec for sec in well.hole.sections if not sec.is_open_hole and sec.bottom <= bit]
+    if not cased:
+        return 0.0, ""
+    last = max(cased, key=lambda sec: sec.bottom)
+    return float(last.bottom), f"{last.name} shoe"
+
+
 def _check_points(well, weak_points, step):
     """Check depths: every ``step`` from the last shoe (the top of the exposed hole) to the bit,
-    plus the weak points; named "<casing> shoe", "MD …" (in the well's message units), "bit" and
-    by weak point."""
-    exposed = parts(well)
-    bit, top, shoe = exposed.bit_md, exposed.exposed_top, exposed.shoe_name
+    plus the weak points; named "<casing> shoe", "bit" and by weak point ("" elsewhere)."""
+    bit = float(well.bit_depth)
+    top, shoe = _exposed_hole(well)
     md = np.unique(np.append(np.arange(top, bit, step), bit))
     md = md[md > 0]
-    names = [depth_point(m, getattr(well, "message_units", "oilfield")) for m in md]
+    names = [""] * md.size
     names[-1] = "bit"
     if shoe and md[0] == top:
         names[0] = shoe
@@ -179,6 +208,10 @@ def _check_points(well, weak_points, step):
             md = np.append(md, wp.md)
             names.append(wp.name)
     return md, tuple(names)
+
+
+def _point(i: int, names, md, tvd) -> TripPoint:
+    return TripPoint(index=i, name=names[i], md=float(md[i]), tvd=float(tvd[i]))
 
 
 def trip_speed_limits(
@@ -234,19 +267,20 @@ def trip_speed_limits(
     mf = float(check_nonnegative("fracture margin", fracture_margin, "kg/m³"))
     mp = float(check_nonnegative("pore margin", pore_margin, "kg/m³"))
     stp = float(check_positive("check-depth step", step, "m"))
-    pf = _check_peak(peak_factor)
+    pf = check_peak(peak_factor)
     bracket = _check_bracket(speed_bracket)
-    clinging = _check_clinging(clinging)
-    end, notes = _string_end(well, string_end)
+    clinging = check_clinging(clinging)
+    end, notes = string_end_for(well, string_end)
     notes = list(notes)
-    p, a, _ = _paths_from_well(well, fluid, method, eccentricity)
+    p = paths_from_well(well, fluid, method, eccentricity)
+    a = well.flow_intervals().annulus
     md, names = _check_points(well, tuple(weak_points), stp)
     tvd = np.asarray(well.tvd_at(md), dtype=float)
     pore, frac = limits_at(md, tvd, names, window, tuple(weak_points))
     allow_surge = trip_allowance(frac - mf, p.rho, tvd, "running", hydrostatic=hydrostatic)
     allow_swab = trip_allowance(pore + mp, p.rho, tvd, "pulling", hydrostatic=hydrostatic)
     top, bot = np.asarray(a.top_md), np.asarray(a.bottom_md)
-    w = _depth_weights(md, top, bot)
+    w = depth_weights(md, top, bot)
 
     # surge and swab have the same magnitude in the steady model: bisect both sets of depths in
     # one vectorised pass (running limits first, pulling limits second)
@@ -266,8 +300,8 @@ def trip_speed_limits(
     return TripLimits(
         max_running_speed=float(run[ir]),
         max_pulling_speed=float(pull[ip]),
-        running_point=(names[ir], float(md[ir]), float(tvd[ir])),
-        pulling_point=(names[ip], float(md[ip]), float(tvd[ip])),
+        running_point=_point(ir, names, md, tvd),
+        pulling_point=_point(ip, names, md, tvd),
         md=md,
         tvd=tvd,
         names=names,
@@ -288,9 +322,10 @@ def _static_violation_note(what: str, count: int) -> Note:
     return Note(
         "caution",
         f"{what}_margin_violated_static",
-        f"the static mud weight already violates the {what} margin at {count} check depth(s): "
-        f"no safe {what} speed.",
+        f"the static mud weight already violates the {what} margin at {{count}} check "
+        f"depth(s): no safe {what} speed.",
         "trip speed",
+        values=(Value("count", float(count)),),
     )
 
 
@@ -298,8 +333,9 @@ def _not_limiting_note(what: str, top: float) -> Note:
     return Note(
         "info",
         f"{what}_not_limiting",
-        f"{what} speed not limited within {_speed_text(top)}.",
+        f"{what} speed not limited within {{top}}.",
         "trip speed",
+        values=(Value("top", float(top), "trip_speed"),),
     )
 
 
@@ -310,15 +346,19 @@ class IntervalTripLimit:
 
     max_speed          average stand speed at the limit [m/s] (0: no safe speed, see notes)
     peak_speed         max_speed × peak_factor [m/s]
-    allowed_pressure   allowance [Pa]; ``pressure_at_limit`` the signed change at max_speed
+    allowed_pressure   allowance [Pa]; ``pressure_at_limit`` the signed change at max_speed [Pa]
     limited            False where the speed is not limited within the search bracket
+    direction          "running" (surge) or "pulling" (swab)
+    string_end         "closed" or "open"
+    peak_factor        peak over average stand speed [-]
+    method             surge model, friction method, search
     """
 
-    max_speed: object
-    peak_speed: object
-    allowed_pressure: object
-    pressure_at_limit: object
-    limited: object
+    max_speed: float | np.ndarray
+    peak_speed: float | np.ndarray
+    allowed_pressure: float | np.ndarray
+    pressure_at_limit: float | np.ndarray
+    limited: bool | np.ndarray
     direction: str
     string_end: str
     peak_factor: float
@@ -379,10 +419,10 @@ def trip_speed_limit(
     """
     direction = check_choice("direction", direction, ("running", "pulling"))
     allow = np.asarray(check_finite("allowed pressure change", allowed_pressure, "Pa"))
-    pf = _check_peak(peak_factor)
+    pf = check_peak(peak_factor)
     bracket = _check_bracket(speed_bracket)
-    clinging = _check_clinging(clinging)
-    p, end, _ = _paths_flat(
+    clinging = check_clinging(clinging)
+    p, end, _ = paths_flat(
         d_hole, d_pipe, length, density=density, tau_y=tau_y, k=k, n=n, d_bore=d_bore,
         tfa=tfa, cd=discharge_coefficient, bore_parameters=bore_parameters,
         string_end=string_end, method=method, eccentricity=eccentricity,
@@ -391,8 +431,8 @@ def trip_speed_limit(
         lim, stuck = _open_speed_limit(p, allow, clinging, pf, bracket)
     else:
         lim, stuck = _speed_limit(p, allow, 1.0, end, clinging, pf, bracket)
-    _, _, _, grad, _, _ = _solve(p, lim * pf, end, clinging)
-    at = _SIGN[direction] * np.sum(grad * p.length, axis=-1)
+    grad = solve(p, lim * pf, end, clinging).gradient
+    at = DIRECTION_SIGN[direction] * np.sum(grad * p.length, axis=-1)
     limited = lim < 0.999 * bracket[1]
     what = "surge" if direction == "running" else "swab"
     notes = _allowance_notes(what, allow, stuck, bracket[0])

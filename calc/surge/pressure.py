@@ -18,21 +18,23 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT
-from calc.circulation.result import _depth_weights
+from calc.cleaning.spans import interval_spans
 from calc.errors import check_nonnegative, check_positive
 from calc.flow import mean_velocity
+from calc.geometry import Survey
 from calc.notes import Note
-from calc.numeric import scalar_or_array
+from calc.numeric import depth_weights, scalar_or_array
+from calc.span import Span
 from calc.surge.emw import trip_emw
 from calc.surge.solver import (
-    _SIGN,
+    DIRECTION_SIGN,
     PEAK_FACTOR,
-    _check_trip,
-    _method_text,
-    _paths_flat,
-    _paths_from_well,
-    _solve,
-    _string_end,
+    check_trip,
+    method_text,
+    paths_flat,
+    paths_from_well,
+    solve,
+    string_end_for,
 )
 
 __all__ = ["IntervalSurge", "SurgeResult", "interval_surge", "surge_pressure"]
@@ -46,35 +48,39 @@ class SurgeResult:
     peak_speed         speed used, speed × peak_factor [m/s]
     direction          "running" (surge, +) or "pulling" (swab, −)
     string_end         "closed" or "open"
-    names, top_md, bottom_md     annular intervals, bit upwards
-    clinging           K_c per interval
+    spans              where each annular interval lies, bit upwards (:class:`~calc.span.Span`)
+    top_md, bottom_md  MD span of each annular interval [m]
+    clinging           K_c per interval [-]
     relative_inflow    q_rel, flow entering the open pipe relative to it [m³/s] (0 closed)
     effective_rate     V_e·A_a per interval [m³/s]; ``effective_velocity`` V_e [m/s]
     gradient           friction gradient per interval [Pa/m]
     interval_pressure  gradient × length [Pa]
     pressure_bit       signed pressure change at the bit [Pa] (+ surge, − swab)
     regime             flow regime per interval (0 laminar, 1 transitional, 2 turbulent)
+    method             Burkhardt model, clinging constants and friction method
+    density            mud density [kg/m³]
+    survey             the well's survey (TVD at any MD, for :meth:`emw_at`)
     """
 
-    speed: object
-    peak_speed: object
+    speed: float | np.ndarray
+    peak_speed: float | np.ndarray
     direction: str
     string_end: str
-    names: tuple[str, ...]
+    spans: tuple[Span, ...]
     top_md: np.ndarray
     bottom_md: np.ndarray
     clinging: np.ndarray
-    relative_inflow: object
+    relative_inflow: float | np.ndarray
     effective_rate: np.ndarray
     effective_velocity: np.ndarray
     gradient: np.ndarray
     interval_pressure: np.ndarray
-    pressure_bit: object
+    pressure_bit: float | np.ndarray
     regime: np.ndarray
     method: str
     density: float
+    survey: Survey = field(repr=False)
     notes: tuple[Note, ...] = field(default=())
-    _well: object = field(default=None, repr=False)
 
     @property
     def sign(self) -> float:
@@ -84,14 +90,14 @@ class SurgeResult:
         """Signed pressure change at measured depth(s) ``md`` [Pa] (friction from md to surface;
         below the bit the bit value).  Shape: speed axes + md axes."""
         mdv = check_nonnegative("MD", md, "m")
-        w = _depth_weights(mdv.ravel(), self.top_md, self.bottom_md)
+        w = depth_weights(mdv.ravel(), self.top_md, self.bottom_md)
         p = np.asarray(self.interval_pressure) @ w.T
         return scalar_or_array(self.sign * p.reshape(p.shape[:-1] + mdv.shape))
 
     def emw_at(self, md, *, hydrostatic: str = "exact"):
         """Equivalent mud weight while tripping, ρ ± Δp/(g·TVD) [kg/m³], at ``md`` [m] (> 0)."""
         mdv = check_positive("MD", md, "m")
-        tvd = np.asarray(self._well.tvd_at(mdv), dtype=float)
+        tvd = np.asarray(self.survey.tvd_at(mdv), dtype=float)
         return trip_emw(self.density, self.pressure_at(mdv), tvd, hydrostatic=hydrostatic)
 
 
@@ -141,33 +147,34 @@ def surge_pressure(
     Steady, incompressible, no inertia, no gel breaking, no pipe rotation; the annulus below the
     bit carries no relative flow.  Steady models can miss measured surges (Lal 1983).
     """
-    direction, v, pf, clinging = _check_trip(direction, speed, peak_factor, clinging)
-    end, notes = _string_end(well, string_end)
-    p, a, names = _paths_from_well(well, fluid, method, eccentricity)
+    direction, v, pf, clinging = check_trip(direction, speed, peak_factor, clinging)
+    end, notes = string_end_for(well, string_end)
+    p = paths_from_well(well, fluid, method, eccentricity)
+    a = well.flow_intervals().annulus
     vp = np.asarray(v * pf, dtype=float)
-    q_rel, kc, q_e, grad, regime, fr = _solve(p, vp, end, clinging)
-    ip = grad * p.length
-    notes = list(notes) + list(getattr(fr, "notes", ()))
+    st = solve(p, vp, end, clinging)
+    ip = st.gradient * p.length
+    notes = list(notes) + list(getattr(st.flow, "notes", ()))
     return SurgeResult(
         speed=scalar_or_array(v),
         peak_speed=scalar_or_array(vp),
         direction=direction,
         string_end=end,
-        names=names,
+        spans=interval_spans(a),
         top_md=np.asarray(a.top_md),
         bottom_md=np.asarray(a.bottom_md),
-        clinging=np.asarray(kc),
-        relative_inflow=scalar_or_array(q_rel),
-        effective_rate=q_e,
-        effective_velocity=mean_velocity(q_e, p.d2, p.d1),
-        gradient=grad,
+        clinging=np.asarray(st.clinging),
+        relative_inflow=scalar_or_array(st.relative_inflow),
+        effective_rate=st.effective_rate,
+        effective_velocity=mean_velocity(st.effective_rate, p.d2, p.d1),
+        gradient=st.gradient,
         interval_pressure=ip,
-        pressure_bit=scalar_or_array(_SIGN[direction] * ip.sum(-1)),
-        regime=regime,
-        method=_method_text(clinging, method),
+        pressure_bit=scalar_or_array(DIRECTION_SIGN[direction] * ip.sum(-1)),
+        regime=st.regime,
+        method=method_text(clinging, method),
         density=p.rho,
+        survey=well.survey,
         notes=tuple(dict.fromkeys(notes)),
-        _well=well,
     )
 
 
@@ -176,30 +183,34 @@ class IntervalSurge:
     """Surge or swab in annular intervals given by their dimensions (SI).
 
     Per-interval arrays have the speed's shape plus the interval axis (dropped when the
-    geometry was one interval given as scalars).
+    geometry was one interval given as scalars: then a float, or an int for ``regime``, for one
+    speed).
 
     speed, peak_speed     average speed given and speed × peak_factor used [m/s]
-    clinging              K_c per interval
+    direction             "running" (surge, +) or "pulling" (swab, −)
+    string_end            "closed" or "open"
+    clinging              K_c per interval [-]
     relative_inflow       q_rel entering an open pipe relative to it [m³/s] (0 closed)
     effective_rate        V_e·A_a [m³/s]; ``effective_velocity`` V_e [m/s]
     regime                0 laminar, 1 transitional, 2 turbulent (at V_e)
     gradient              friction gradient [Pa/m] (magnitude)
     pressure_change       signed gradient × length per interval [Pa] (+ surge, − swab)
     total_pressure_change signed sum over the intervals [Pa] (speed's shape)
+    method                Burkhardt model, clinging constants and friction method
     """
 
-    speed: object
-    peak_speed: object
+    speed: float | np.ndarray
+    peak_speed: float | np.ndarray
     direction: str
     string_end: str
-    clinging: object
-    relative_inflow: object
-    effective_rate: object
-    effective_velocity: object
-    regime: object
-    gradient: object
-    pressure_change: object
-    total_pressure_change: object
+    clinging: float | np.ndarray
+    relative_inflow: float | np.ndarray
+    effective_rate: float | np.ndarray
+    effective_velocity: float | np.ndarray
+    regime: int | np.ndarray
+    gradient: float | np.ndarray
+    pressure_change: float | np.ndarray
+    total_pressure_change: float | np.ndarray
     method: str
     notes: tuple[Note, ...] = ()
 
@@ -284,15 +295,15 @@ def interval_surge(
     >>> r.regime, round(r.clinging, 4)
     (0, 0.3875)
     """
-    direction, v, pf, clinging = _check_trip(direction, speed, peak_factor, clinging)
-    p, end, scalar = _paths_flat(
+    direction, v, pf, clinging = check_trip(direction, speed, peak_factor, clinging)
+    p, end, scalar = paths_flat(
         d_hole, d_pipe, length, density=density, tau_y=tau_y, k=k, n=n, d_bore=d_bore,
         tfa=tfa, cd=discharge_coefficient, bore_parameters=bore_parameters,
         string_end=string_end, method=method, eccentricity=eccentricity,
     )  # fmt: skip
     vp = np.asarray(v * pf, dtype=float)
-    q_rel, kc, q_e, grad, regime, fr = _solve(p, vp, end, clinging)
-    dp = _SIGN[direction] * grad * p.length
+    st = solve(p, vp, end, clinging)
+    dp = DIRECTION_SIGN[direction] * st.gradient * p.length
 
     def per(x, as_int=False):
         arr = np.asarray(x)[..., 0] if scalar else np.asarray(x)
@@ -304,14 +315,14 @@ def interval_surge(
         peak_speed=scalar_or_array(vp),
         direction=direction,
         string_end=end,
-        clinging=per(np.broadcast_to(kc, q_e.shape)),
-        relative_inflow=scalar_or_array(q_rel),
-        effective_rate=per(q_e),
-        effective_velocity=per(mean_velocity(q_e, p.d2, p.d1)),
-        regime=per(regime, as_int=True),
-        gradient=per(grad),
+        clinging=per(np.broadcast_to(st.clinging, st.effective_rate.shape)),
+        relative_inflow=scalar_or_array(st.relative_inflow),
+        effective_rate=per(st.effective_rate),
+        effective_velocity=per(mean_velocity(st.effective_rate, p.d2, p.d1)),
+        regime=per(st.regime, as_int=True),
+        gradient=per(st.gradient),
         pressure_change=per(dp),
         total_pressure_change=scalar_or_array(dp.sum(-1)),
-        method=_method_text(clinging, method),
-        notes=tuple(dict.fromkeys(getattr(fr, "notes", ()))),
+        method=method_text(clinging, method),
+        notes=tuple(dict.fromkeys(getattr(st.flow, "notes", ()))),
     )

@@ -1,4 +1,7 @@
-"""The safe operating window of flow rates: every limit at once, with the curves to chart.
+"""The safe operating window of flow RATES: every limit at once, with the curves to chart.
+
+(Not the pore/fracture pressure window of :mod:`calc.circulation.pressure_window`: that one is an
+input here.)
 
 A rate q is inside the window when, simultaneously,
 
@@ -21,33 +24,44 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from calc.circulation import Margins, circulate
 from calc.cleaning import Cuttings, cuttings_ecd_increment, hole_cleaning
 from calc.cleaning.indicators import cleaning_score
 from calc.errors import InputError, check_positive
 from calc.notes import Note
+from calc.span import Span
+from calc.values import Value
 
 __all__ = ["OperatingWindow", "operating_window"]
 
 
 @dataclass(frozen=True, eq=False)
 class OperatingWindow:
-    """Flow-rate window and the curves behind it (SI).
+    """Flow-rate window and the curves behind it (SI; per-rate arrays over the sweep ``q``).
 
     q                       sweep rates [m³/s]
     q_low, q_high           window ends [m³/s] (``feasible`` False → empty window)
-    binding_low, binding_high   name of the limit that binds at each end
-    limits                  dict name → margin curve over q (≥ 0 inside; units per limit:
+    binding_low, binding_high   name of the limit that binds at each end (a key of ``limits``,
+                            "lowest rate swept" / "highest rate swept", or the failing limits'
+                            names joined by " and " when no rate is feasible)
+    limits                  name → margin curve over q (≥ 0 inside; units per limit:
                             kg/m³ for ECD limits, Pa for SPP, m³/s for tool windows,
                             relative for cleaning)
-    spp                     standpipe pressure [Pa]; ``surface_rating`` [Pa]
-    ecd_fracture_point, fracture_at_point, fracture_point_name   ECD at the depth tightest
-                            against fracture (per rate) and that depth's fracture EMW and name
-    ecd_pore_point, pore_at_point, pore_point_name               likewise against pore
+    spp                     standpipe pressure [Pa]; ``surface_rating`` [Pa] (inf: none)
+    ecd_fracture_point      ECD at the check point tightest against fracture [kg/m³]
+    fracture_at_point       that point's fracture EMW [kg/m³]
+    fracture_point_name     that point's name as the circulation's margin table gives it
+    fracture_point_md, fracture_point_tvd   that point's depth [m]
+    ecd_pore_point, pore_at_point, pore_point_name, pore_point_md, pore_point_tvd
+                            likewise against pore
     ecd_max_at_point, ecd_min_at_point   the ECD limits there: fracture − margin and pore +
                             margin [kg/m³] (the lines the window's ECD must stay between)
-    cleaning_indicator      the cleaning score of the worst interval (≥ 0: cleaned)
-    min_transport_ratio, max_concentration   per rate, over the intervals
-    min_cleaning_rate, controlling_interval  rate needed to clean every interval and where
+    cleaning_indicator      the cleaning score of the worst interval [-] (≥ 0: cleaned)
+    min_transport_ratio, max_concentration   per rate, over the intervals [-]
+    min_cleaning_rate       rate needed to clean every interval [m³/s] (0 without cuttings)
+    controlling_interval    the interval needing it (None without cuttings)
+    fracture_margin, pore_margin   required ECD margins [kg/m³]
+    method                  circulation and cleaning methods
     """
 
     q: np.ndarray
@@ -56,26 +70,42 @@ class OperatingWindow:
     feasible: bool
     binding_low: str
     binding_high: str
-    limits: dict
+    limits: dict[str, np.ndarray]
     spp: np.ndarray
     surface_rating: float
     ecd_fracture_point: np.ndarray
     fracture_at_point: np.ndarray
     fracture_point_name: np.ndarray
+    fracture_point_md: np.ndarray
+    fracture_point_tvd: np.ndarray
     ecd_pore_point: np.ndarray
     pore_at_point: np.ndarray
     pore_point_name: np.ndarray
+    pore_point_md: np.ndarray
+    pore_point_tvd: np.ndarray
     ecd_max_at_point: np.ndarray
     ecd_min_at_point: np.ndarray
     cleaning_indicator: np.ndarray
     min_transport_ratio: np.ndarray
     max_concentration: np.ndarray
     min_cleaning_rate: float
-    controlling_interval: str
+    controlling_interval: Span | None
     fracture_margin: float
     pore_margin: float
     method: str
     notes: tuple[Note, ...] = field(default=())
+
+
+@dataclass(frozen=True, eq=False)
+class _Cleaning:
+    """The cleaning side of the window over the sweep (zeros without cuttings)."""
+
+    indicator: np.ndarray
+    min_transport_ratio: np.ndarray
+    max_concentration: np.ndarray
+    rate: float
+    controlling: Span | None
+    loaded_density: np.ndarray | None
 
 
 def _end(q, m_all, names, inside: int, outside: int, default: str):
@@ -91,6 +121,83 @@ def _end(q, m_all, names, inside: int, outside: int, default: str):
     t = np.where(fail, mi / np.where(fail, mi - mo, 1.0), np.inf)
     k = int(np.argmin(t))
     return float(q[inside] + t[k] * (q[outside] - q[inside])), names[k]
+
+
+def _cleaning_side(well, fluid, qv, *, rop, cuttings, slip_method, criteria, require):
+    """Hole cleaning over the sweep: the worst interval's score per rate and the loads."""
+    zero = np.zeros_like(qv)
+    if cuttings is None:
+        return _Cleaning(zero, zero, zero, 0.0, None, None)
+    hc = hole_cleaning(
+        well, fluid, qv, rop=rop, cuttings=cuttings, method=slip_method, criteria=criteria,
+        require=require,
+    )  # fmt: skip
+    tr = hc.transport
+    score = cleaning_score(
+        hc.criteria, require, hc.vertical, np.asarray(tr.transport_ratio),
+        np.asarray(tr.concentration), np.asarray(hc.cci.cci), np.asarray(hc.critical_ratio),
+    )  # fmt: skip
+    return _Cleaning(
+        indicator=score.min(axis=-1),
+        min_transport_ratio=np.asarray(tr.transport_ratio).min(axis=-1),
+        max_concentration=np.asarray(tr.concentration).max(axis=-1),
+        rate=float(hc.controlling_rate),
+        controlling=hc.controlling_interval,
+        loaded_density=np.asarray(tr.loaded_density),
+    )
+
+
+def _tool_limits(well, qv) -> dict[str, np.ndarray]:
+    """Margins to the flow window of every downhole tool that states one [m³/s]."""
+    limits = {}
+    for t in well.tool_drops:
+        fw = getattr(t, "flow_window", None)
+        if fw is not None:
+            limits[f"{t.name} flow window (min)"] = qv - fw[0]
+            limits[f"{t.name} flow window (max)"] = fw[1] - qv
+    return limits
+
+
+def _window_ends(qv, limits: dict[str, np.ndarray]):
+    """(q_low, q_high, binding_low, binding_high, feasible, notes) of the widest run of sweep
+    rates meeting every limit; each end refined between sweep points (:func:`_end`)."""
+    names_all = list(limits)
+    m_all = np.stack([limits[k] for k in names_all])  # (L, N)
+    ok = np.all(m_all >= 0, axis=0)
+    notes = []
+    if not ok.any():
+        worst = np.argmin(m_all / np.maximum(np.abs(m_all).max(axis=1, keepdims=True), 1e-300),
+                          axis=0)  # fmt: skip
+        failing = sorted({names_all[i] for i in worst})
+        notes.append(
+            Note(
+                "caution",
+                "no_operating_window",
+                "no flow rate in the sweep meets every limit at once (failing: {failing}).",
+                "operating window",
+                values=(Value("failing", ", ".join(failing)),),
+            )
+        )
+        both = " and ".join(failing)
+        return float(qv[0]), float(qv[-1]), both, both, False, notes
+    edges = np.diff(np.concatenate([[0], ok.astype(int), [0]]))
+    starts, stops = np.flatnonzero(edges == 1), np.flatnonzero(edges == -1) - 1
+    j = int(np.argmax(stops - starts))
+    a, b = int(starts[j]), int(stops[j])
+    if starts.size > 1:
+        notes.append(
+            Note(
+                "warning",
+                "window_split",
+                "the rates meeting every limit form {count} separate ranges; the widest is "
+                "reported.",
+                "operating window",
+                values=(Value("count", float(starts.size)),),
+            )
+        )
+    q_lo, b_lo = _end(qv, m_all, names_all, a, a - 1, "lowest rate swept")
+    q_hi, b_hi = _end(qv, m_all, names_all, b, b + 1, "highest rate swept")
+    return q_lo, q_hi, b_lo, b_hi, True, notes
 
 
 def operating_window(
@@ -110,7 +217,6 @@ def operating_window(
     require: str = "adequate",
     eccentricity: float = 0.0,
     hydrostatic: str = "exact",
-    message_units: str = "oilfield",
 ) -> OperatingWindow:
     """Range of flow rates meeting the ECD, pressure-rating, cleaning and tool limits together.
 
@@ -139,8 +245,6 @@ def operating_window(
         Passed to :func:`calc.cleaning.hole_cleaning`.
     eccentricity, hydrostatic
         Passed to :func:`calc.circulation.circulate`.
-    message_units : str
-        Unit system of the depth names of the check points ("oilfield", "metric", "si").
 
     Returns
     -------
@@ -152,8 +256,6 @@ def operating_window(
     get narrower).  Cuttings load raises ECD by ΔECD of :func:`calc.cleaning.cuttings_ecd_increment`
     (friction of the laden mud neglected).
     """
-    from calc.circulation import Margins, circulate
-
     qv = np.atleast_1d(check_positive("flow rate", q, "m³/s")).astype(float)
     if qv.ndim != 1 or qv.size < 2 or np.any(np.diff(qv) <= 0):
         raise InputError("flow rate sweep", qv.tolist() if qv.size < 7 else qv, "increasing, ≥ 2")
@@ -161,35 +263,22 @@ def operating_window(
     res = circulate(
         well, fluid, qv, method=method, eccentricity=eccentricity, hydrostatic=hydrostatic,
         window=window, weak_points=tuple(weak_points), margins=margins,
-        surface_rating=surface_rating, message_units=message_units,
+        surface_rating=surface_rating,
     )  # fmt: skip
     mt = res.margins
     ecd = np.asarray(mt.ecd, dtype=float)  # (N, P)
     notes = []
     limits = {}
-    cleaning_ind = np.zeros_like(qv)
-    min_ft = np.zeros_like(qv)
-    max_c = np.zeros_like(qv)
-    q_clean, ctrl = 0.0, ""
+    cl = _cleaning_side(
+        well, fluid, qv, rop=rop, cuttings=cuttings, slip_method=slip_method, criteria=criteria,
+        require=require,
+    )  # fmt: skip
     loaded = ecd
     if cuttings is not None:
-        hc = hole_cleaning(
-            well, fluid, qv, rop=rop, cuttings=cuttings, method=slip_method, criteria=criteria,
-            require=require,
-        )  # fmt: skip
-        tr = hc.transport
-        score = cleaning_score(
-            hc.criteria, require, hc.vertical, np.asarray(tr.transport_ratio),
-            np.asarray(tr.concentration), np.asarray(hc.cci.cci), np.asarray(hc.critical_ratio),
-        )  # fmt: skip
-        cleaning_ind = score.min(axis=-1)
-        min_ft = np.asarray(tr.transport_ratio).min(axis=-1)
-        max_c = np.asarray(tr.concentration).max(axis=-1)
-        q_clean, ctrl = hc.controlling_rate, hc.controlling_interval
-        limits["hole cleaning"] = cleaning_ind
+        limits["hole cleaning"] = cl.indicator
         if rop > 0:
             loaded = ecd + np.asarray(
-                cuttings_ecd_increment(well, tr.loaded_density, float(fluid.density), mt.md)
+                cuttings_ecd_increment(well, cl.loaded_density, float(fluid.density), mt.md)
             )
     else:
         notes.append(
@@ -202,53 +291,14 @@ def operating_window(
     spp = np.asarray(res.standpipe_pressure, dtype=float)
     if surface_rating is not None:
         limits["surface rating"] = float(surface_rating) - spp
-    for t in well.tool_drops:
-        fw = getattr(t, "flow_window", None)
-        if fw is not None:
-            limits[f"{t.name} flow window (min)"] = qv - fw[0]
-            limits[f"{t.name} flow window (max)"] = fw[1] - qv
-    names_all = list(limits)
-    m_all = np.stack([limits[k] for k in names_all])  # (L, N)
-    ok = np.all(m_all >= 0, axis=0)
-    q_lo, q_hi, b_lo, b_hi = float(qv[0]), float(qv[-1]), "", ""
-    feasible = bool(ok.any())
-    if feasible:
-        # the longest run of rates meeting every limit; ends refined between sweep points
-        edges = np.diff(np.concatenate([[0], ok.astype(int), [0]]))
-        starts, stops = np.flatnonzero(edges == 1), np.flatnonzero(edges == -1) - 1
-        j = int(np.argmax(stops - starts))
-        a, b = int(starts[j]), int(stops[j])
-        if starts.size > 1:
-            notes.append(
-                Note(
-                    "warning",
-                    "window_split",
-                    f"the rates meeting every limit form {starts.size} separate ranges; the "
-                    "widest is reported.",
-                    "operating window",
-                )
-            )
-        q_lo, b_lo = _end(qv, m_all, names_all, a, a - 1, "lowest rate swept")
-        q_hi, b_hi = _end(qv, m_all, names_all, b, b + 1, "highest rate swept")
-    else:
-        worst = np.argmin(m_all / np.maximum(np.abs(m_all).max(axis=1, keepdims=True), 1e-300),
-                          axis=0)  # fmt: skip
-        failing = sorted({names_all[i] for i in worst})
-        b_lo = b_hi = " and ".join(failing)
-        notes.append(
-            Note(
-                "caution",
-                "no_operating_window",
-                "no flow rate in the sweep meets every limit at once (failing: "
-                + ", ".join(failing)
-                + ").",
-                "operating window",
-            )
-        )
+    limits.update(_tool_limits(well, qv))
+    q_lo, q_hi, b_lo, b_hi, feasible, end_notes = _window_ends(qv, limits)
+    notes += end_notes
     fi = np.argmin(frac_m, axis=-1)
     pi = np.argmin(pore_m, axis=-1)
     rows = np.arange(qv.size)
     names = np.asarray(mt.names, dtype=object)
+    md, tvd = np.asarray(mt.md, dtype=float), np.asarray(mt.tvd, dtype=float)
     return OperatingWindow(
         q=qv,
         q_low=float(q_lo),
@@ -262,16 +312,20 @@ def operating_window(
         ecd_fracture_point=loaded[rows, fi],
         fracture_at_point=np.asarray(mt.fracture)[fi],
         fracture_point_name=names[fi],
+        fracture_point_md=md[fi],
+        fracture_point_tvd=tvd[fi],
         ecd_pore_point=ecd[rows, pi],
         pore_at_point=np.asarray(mt.pore)[pi],
         pore_point_name=names[pi],
+        pore_point_md=md[pi],
+        pore_point_tvd=tvd[pi],
         ecd_max_at_point=np.asarray(mt.fracture)[fi] - float(margins.fracture),
         ecd_min_at_point=np.asarray(mt.pore)[pi] + float(margins.pore),
-        cleaning_indicator=cleaning_ind,
-        min_transport_ratio=min_ft,
-        max_concentration=max_c,
-        min_cleaning_rate=float(q_clean),
-        controlling_interval=ctrl,
+        cleaning_indicator=cl.indicator,
+        min_transport_ratio=cl.min_transport_ratio,
+        max_concentration=cl.max_concentration,
+        min_cleaning_rate=cl.rate,
+        controlling_interval=cl.controlling,
         fracture_margin=float(margins.fracture),
         pore_margin=float(margins.pore),
         method=f"circulation {res.method}; cleaning {slip_method}" if cuttings else res.method,
