@@ -56,8 +56,7 @@ def fitted(readings_range, method) -> cr.FitResult:
 
 def consistency_label(uset: cells.UnitSet) -> str:
     """Label of K: the stress unit with ·sⁿ (e.g. ``lbf·sⁿ/100ft²``, ``Pa·sⁿ``)."""
-    text = uset.label("consistency")
-    return text.replace("/", "·sⁿ/", 1) if "/" in text else text + "·sⁿ"
+    return text.parameter_unit("consistency", uset)
 
 
 @sheet_function(FAMILY)
