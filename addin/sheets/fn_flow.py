@@ -21,7 +21,7 @@ from addin.sheets.fn_rheology import viscometer
 from addin.sheets.framework import Cells, Num, Text, sheet_function
 from calc import circulation as cc
 from calc import flow as cf
-from calc.circulation.fluid import FLUID_FITS
+from calc.hydraulics_method import HYDRAULICS_METHODS
 
 __all__ = [
     "BF_ANN_FLOW",
@@ -53,7 +53,7 @@ _ECC = "Eccentricity 0 (concentric, blank) to < 1"
 def _method(value) -> str | None:
     if cells.blank(value):
         return None
-    return cells.text(value, "method", choices=FLUID_FITS.names())
+    return cells.text(value, "method", choices=HYDRAULICS_METHODS.names())
 
 
 def _fluid(density, readings, method, uset):

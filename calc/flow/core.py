@@ -1,7 +1,7 @@
 """Public entry points: :func:`pipe_flow`, :func:`annulus_flow`, :func:`critical_flow_rate`.
 
-Inputs are validated and broadcast here, the method is resolved through
-:data:`calc.flow.result.FLOW_METHODS`, and the eccentricity correction, the gradient, the
+Inputs are validated and broadcast here, the friction law is resolved through
+:data:`calc.flow.result.FRICTION_LAWS`, and the eccentricity correction, the gradient, the
 critical velocity and the notes are added to the method's state.
 """
 
@@ -13,7 +13,7 @@ from calc.errors import InputError, check_nonnegative, check_positive, check_ran
 from calc.flow.distinct import distinct_combinations
 from calc.flow.eccentricity import VALIDITY, eccentricity_factor
 from calc.flow.result import (
-    FLOW_METHODS,
+    FRICTION_LAWS,
     LAMINAR,
     TRANSITIONAL,
     FlowCase,
@@ -26,9 +26,17 @@ from calc.flow.solvers import solve_positive
 from calc.notes import Note
 from calc.registry import MethodInfo
 
-__all__ = ["DEFAULT_METHOD", "annulus_flow", "critical_flow_rate", "list_methods", "pipe_flow"]
+__all__ = [
+    "DEFAULT_FRICTION_LAW",
+    "annulus_flow",
+    "critical_flow_rate",
+    "list_friction_laws",
+    "pipe_flow",
+]
 
-DEFAULT_METHOD = "api13d_2010_hb"
+#: The friction law used when none is named (that of the default hydraulics method,
+#: :data:`calc.hydraulics_method.DEFAULT_METHOD`; a test keeps the two together).
+DEFAULT_FRICTION_LAW = "api13d_2010_hb"
 
 #: Flow rate [m³/s] that seeds the critical-velocity solve (its start guess only: the critical
 #: velocity depends on the geometry and the fluid, not on q).
@@ -37,13 +45,13 @@ NOMINAL_RATE = 1e-3
 _CRITICAL_INPUTS = ("d_outer", "d_inner", "density", "tau_y", "k", "n")
 
 
-def list_methods() -> list[MethodInfo]:
-    """The registered flow methods (name, description, source), default first.
+def list_friction_laws() -> list[MethodInfo]:
+    """The registered friction laws (name, description, source), default first.
 
-    >>> [m.name for m in list_methods()][:2]
+    >>> [m.name for m in list_friction_laws()][:2]
     ['api13d_2010_hb', 'api13d_1995_power_law']
     """
-    return FLOW_METHODS.describe()
+    return FRICTION_LAWS.describe()
 
 
 def _build_case(geometry, q, d_outer, d_inner, density, tau_y, k, n, roughness, eccentricity):
@@ -144,7 +152,7 @@ def _shape_out(x, shape, as_int=False):
 
 
 def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
-    info = FLOW_METHODS.get(method)
+    info = FRICTION_LAWS.get(method)
     spec: FlowMethod = info.func
     spec.check(case)
     if spec.limit_from_distinct:
@@ -254,7 +262,9 @@ def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
     )
 
 
-def pipe_flow(q, d, *, density, tau_y, k, n, method=DEFAULT_METHOD, roughness=0.0) -> FlowResult:
+def pipe_flow(
+    q, d, *, density, tau_y, k, n, method=DEFAULT_FRICTION_LAW, roughness=0.0
+) -> FlowResult:
     """Frictional pressure gradient for flow inside a pipe.
 
     .. math:: -\\frac{dp}{dL} = \\frac{2fρV^2}{D} = \\frac{4τ_w}{D}, \\qquad V = \\frac{4Q}{πD^2}
@@ -274,7 +284,7 @@ def pipe_flow(q, d, *, density, tau_y, k, n, method=DEFAULT_METHOD, roughness=0.
     n : array_like
         Flow behaviour index [-], > 0 (1 for Newtonian and Bingham).
     method : str
-        One of :func:`list_methods` (default ``"api13d_2010_hb"``).
+        One of :func:`list_friction_laws` (default ``"api13d_2010_hb"``).
     roughness : array_like
         Absolute wall roughness [m], ≥ 0 (used by ``"newtonian"``; others note it is ignored).
 
@@ -291,7 +301,7 @@ def pipe_flow(q, d, *, density, tau_y, k, n, method=DEFAULT_METHOD, roughness=0.
 
     Notes
     -----
-    Each method's regime bounds and validity are in its description (:func:`list_methods`).
+    Each method's regime bounds and validity are in its description (:func:`list_friction_laws`).
     Doubtful cases (transitional flow, velocity below critical, correlations outside their
     fitted range) are reported in ``notes``.
 
@@ -320,7 +330,7 @@ def annulus_flow(
     tau_y,
     k,
     n,
-    method=DEFAULT_METHOD,
+    method=DEFAULT_FRICTION_LAW,
     eccentricity=0.0,
     roughness=0.0,
 ) -> FlowResult:
@@ -370,7 +380,7 @@ def annulus_flow(
     return _evaluate(method, case, shape, critical)
 
 
-def critical_flow_rate(d, d_pipe=None, *, density, tau_y, k, n, method=DEFAULT_METHOD):
+def critical_flow_rate(d, d_pipe=None, *, density, tau_y, k, n, method=DEFAULT_FRICTION_LAW):
     """Flow rate at which the method's Reynolds number reaches its laminar limit [m³/s].
 
     Pipe when ``d_pipe`` is None (``d`` the pipe ID), annulus otherwise (``d`` the hole ID).
@@ -402,6 +412,6 @@ def critical_flow_rate(d, d_pipe=None, *, density, tau_y, k, n, method=DEFAULT_M
     case, shape, critical = _build_case(
         geometry, NOMINAL_RATE, d, 0.0 if d_pipe is None else d_pipe, density, tau_y, k, n, 0.0, 0.0
     )
-    spec: FlowMethod = FLOW_METHODS.get(method).func
+    spec: FlowMethod = FRICTION_LAWS.get(method).func
     spec.check(case)
     return _shape_out(_critical_velocity(spec, critical) * case.area, shape)

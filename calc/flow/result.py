@@ -1,6 +1,6 @@
 """Result and method plumbing for :mod:`calc.flow`: the result dataclass, the method registry.
 
-Methods register a :class:`FlowMethod` in :data:`FLOW_METHODS` (a
+Methods register a :class:`FlowMethod` in :data:`FRICTION_LAWS` (a
 :class:`calc.registry.MethodRegistry`).  Each method turns a :class:`FlowCase` (the broadcast,
 validated, flattened inputs) into a :class:`MethodState` (Reynolds number, limits, regime,
 Fanning friction factor, wall shear rate and stress); :mod:`calc.flow.core` adds the
@@ -19,7 +19,7 @@ from calc.notes import Note
 from calc.registry import MethodRegistry
 
 __all__ = [
-    "FLOW_METHODS",
+    "FRICTION_LAWS",
     "LAMINAR",
     "REGIME_LABELS",
     "TRANSITIONAL",
@@ -35,8 +35,9 @@ __all__ = [
 LAMINAR, TRANSITIONAL, TURBULENT = 0, 1, 2
 REGIME_LABELS = ("laminar", "transitional", "turbulent")
 
-#: Registry of pipe/annulus pressure-gradient methods.
-FLOW_METHODS = MethodRegistry("flow method")
+#: Friction laws: the registered pipe/annulus pressure-gradient methods (``method="..."`` of
+#: :func:`~calc.flow.pipe_flow`; a hydraulics method of :mod:`calc.hydraulics_method` names one).
+FRICTION_LAWS = MethodRegistry("friction law")
 
 
 def regime_label(regime):
