@@ -35,10 +35,11 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from calc.errors import InputError
+from calc.errors import InputError, check_choice
 from calc.notes import Note
 from calc.rheology.fitting import fit
 from calc.rheology.viscometer import CENTIPOISE, FIELD_STRESS, ViscometerReadings
+from calc.values import Value
 
 __all__ = [
     "DEFAULT_TOLERANCES",
@@ -142,8 +143,6 @@ def _tolerances(user) -> dict[str, Tolerance]:
         raise InputError("tolerances", user, "a mapping parameter → Tolerance or (abs, rel)")
     for key, val in user.items():
         if key not in PARAMETER_KINDS:
-            from calc.errors import check_choice
-
             check_choice("tolerance parameter", key, list(PARAMETER_KINDS))
         if isinstance(val, Tolerance):
             tol[key] = val
@@ -218,7 +217,15 @@ def compare_checks(
         if name in va and name in vb:
             changes.append(_change(name, va[name], vb[name], tol[name]))
         elif name in va or name in vb:
-            notes.append(Note("info", "not_compared", f"{name} is in one check only", name))
+            notes.append(
+                Note(
+                    "info",
+                    "not_compared",
+                    "{parameter} is in one check only",
+                    name,
+                    (Value("parameter", name),),
+                )
+            )
     if abs(fa.model.n - fb.model.n) > 0.1:
         notes.append(
             Note(
@@ -268,8 +275,12 @@ def compare_checks(
             Note(
                 "info",
                 "temperature_differs",
-                f"cup temperatures differ by "
-                f"{abs(a.temperature - b.temperature) * 1.8:.3g} °F (> 10 °F)",
+                "cup temperatures differ by {difference:.3g} °F (> {limit:.3g} °F)",
+                values=(
+                    # a temperature difference: 1 K = 1.8 °F (no offset; no kind converts it)
+                    Value("difference", abs(a.temperature - b.temperature) * 1.8),
+                    Value("limit", TEMPERATURE_TOLERANCE * 1.8),
+                ),
             )
         )
     return CheckComparison(

@@ -30,6 +30,7 @@ import numpy as np
 from calc.errors import check_finite
 from calc.notes import Note
 from calc.registry import MethodRegistry
+from calc.values import Value
 
 __all__ = [
     "LOG_SPACE",
@@ -141,14 +142,20 @@ class FitResult:
         above = g > hi * (1 + tol)
         if not (np.any(below) or np.any(above)):
             return ()
-        used = f"{np.min(g):.4g}–{np.max(g):.4g}" if g.size > 1 else f"{float(g):.4g}"
+        used = (float(np.min(g)), float(np.max(g))) if g.size > 1 else float(g)
         return (
             Note(
                 "warning",
                 "extrapolated",
-                f"{self.model.name} ({self.method}) used at shear rate {used} 1/s, outside the "
-                f"range it was fitted over ({lo:.4g}–{hi:.4g} 1/s)",
+                "{model} ({method}) used at shear rate {used:.4g}, outside the range it was "
+                "fitted over ({fitted:.4g})",
                 self.method,
+                (
+                    Value("model", self.model.name),
+                    Value("method", self.method),
+                    Value("used", used, "shear_rate"),
+                    Value("fitted", (float(lo), float(hi)), "shear_rate"),
+                ),
             ),
         )
 
