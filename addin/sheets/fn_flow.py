@@ -5,7 +5,7 @@ Over :mod:`calc.flow`, with the fluid from
 
 Argument order: fluid (density, readings) → geometry (diameters outer before inner, then the
 interval length) → rate → options (``method``, eccentricity) → units.  The hydraulics
-``method`` picks both the friction method and the rheology fit each path uses (blank =
+``method`` picks both the friction law and the rheology fit each path uses (blank =
 ``api13d_2010_hb``; ``api13d_1995_power_law`` uses 600/300 rpm in pipe and 100/3 rpm in the
 annulus).  The flow rate may be a range: the result then has its shape.
 """
@@ -21,7 +21,7 @@ from addin.sheets.fn_rheology import viscometer
 from addin.sheets.framework import Cells, Num, Text, sheet_function
 from calc import circulation as cc
 from calc import flow as cf
-from calc.hydraulics_method import HYDRAULICS_METHODS
+from calc.hydraulics_method import HYDRAULICS_METHODS, resolve_method
 
 __all__ = [
     "BF_ANN_FLOW",
@@ -56,20 +56,18 @@ def _method(value) -> str | None:
     return cells.text(value, "method", choices=HYDRAULICS_METHODS.names())
 
 
-def _fluid(density, readings, method, uset):
+def hydraulics_fluid(density, readings, method, uset):
+    """(HydraulicsFluid, flow keywords) of a worksheet call: the readings fitted as the
+    hydraulics ``method`` argument says (blank = the default), and ``method=`` its friction law
+    for :mod:`calc.flow` (and :mod:`calc.surge`)."""
     rho = cells.positive_number(density, "density", "density", uset)
-    name = _method(method)
-    r = viscometer(readings)
-    fluid = (
-        cc.hydraulics_fluid_from_readings(r, density=rho)
-        if name is None
-        else cc.hydraulics_fluid_from_readings(r, name, density=rho)
-    )
-    return fluid, ({} if name is None else {"method": name})
+    preset = resolve_method(_method(method))
+    fluid = cc.hydraulics_fluid_from_readings(viscometer(readings), preset, density=rho)
+    return fluid, {"method": preset.friction}
 
 
 def _pipe(density, readings, d_inner, q, method, uset) -> cf.FlowResult:
-    fluid, kw = _fluid(density, readings, method, uset)
+    fluid, kw = hydraulics_fluid(density, readings, method, uset)
     d = cells.positive_number(d_inner, "pipe inside diameter", "diameter", uset)
     tau_y, k, n = fluid.pipe_parameters
     qv = cells.flow_rates(q, uset)
@@ -77,7 +75,7 @@ def _pipe(density, readings, d_inner, q, method, uset) -> cf.FlowResult:
 
 
 def _annulus(density, readings, d_hole, d_pipe, q, method, eccentricity, uset) -> cf.FlowResult:
-    fluid, kw = _fluid(density, readings, method, uset)
+    fluid, kw = hydraulics_fluid(density, readings, method, uset)
     d2, d1 = annulus(d_hole, d_pipe, uset)
     e = cells.optional_number(eccentricity, "eccentricity", 0.0)
     tau_y, k, n = fluid.annulus_parameters
@@ -168,7 +166,7 @@ def BF_CRIT_RATE(
 ) -> Any:
     """Flow rate at which laminar flow ends, by the method's Reynolds number (gpm)."""
     uset = cells.unit_set(units)
-    fluid, kw = _fluid(density, readings, method, uset)
+    fluid, kw = hydraulics_fluid(density, readings, method, uset)
     if cells.blank(cells.as_grid(d_pipe)[0][0]):
         d = cells.positive_number(d_outer, "pipe inside diameter", "diameter", uset)
         tau_y, k, n = fluid.pipe_parameters

@@ -17,7 +17,7 @@ from typing import Any
 import numpy as np
 
 from addin.sheets import cells
-from addin.sheets.fn_flow import _fluid
+from addin.sheets.fn_flow import hydraulics_fluid
 from addin.sheets.framework import Cells, Num, Text, sheet_function
 from calc import bit as cb
 from calc import surge as cs
@@ -115,7 +115,7 @@ def _options(nozzles, clinging, peak_factor, bore):
 
 def _surge(density, readings, d_hole, d_pipe, length, speed, direction, d_bore, nozzles,
            method, clinging, peak_factor, uset, *, one_speed=False):  # fmt: skip
-    fluid, kw = _fluid(density, readings, method, uset)
+    fluid, kw = hydraulics_fluid(density, readings, method, uset)
     d2, d1, ln, bore, shape = _geometry(d_hole, d_pipe, length, d_bore, uset)
     v = cells.positive_values(speed, "trip speed", "trip_speed", uset, allow_zero=True)
     if one_speed:
@@ -269,7 +269,7 @@ def BF_TRIP_SPEED(
     at the depth within the limit EMW (ft/min); 0 if no speed is safe, capped at 10 m/s.
     """
     uset = cells.unit_set(units)
-    fluid, kw = _fluid(density, readings, method, uset)
+    fluid, kw = hydraulics_fluid(density, readings, method, uset)
     d2, d1, ln, bore, _ = _geometry(d_hole, d_pipe, length, d_bore, uset)
     lim_emw = cells.positive_number(limit_emw, "limit EMW", "density", uset)
     h = cells.positive_number(tvd, "tvd", "depth", uset)

@@ -30,6 +30,7 @@ import numpy as np
 from calc.errors import check_finite
 from calc.notes import Note
 from calc.registry import MethodRegistry
+from calc.rheology.models import Model
 from calc.values import Value
 
 __all__ = [
@@ -117,7 +118,7 @@ class FitResult:
     intermediates    named numbers for a hand check (dial readings, field-unit values …)
     """
 
-    model: object
+    model: Model
     method: str
     quality: FitQuality
     notes: tuple[Note, ...]
