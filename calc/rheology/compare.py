@@ -210,7 +210,29 @@ def compare_checks(
     if not np.isfinite(res) or res < 0:
         raise InputError("reading resolution", res, ">= 0 degree")
     fa, fb = fit(a, method), fit(b, method)
-    va, vb = _values(a, fa.model), _values(b, fb.model)
+    changes, notes = _parameter_changes(
+        _values(a, fa.model), _values(b, fb.model), tol, fa.model.n - fb.model.n
+    )
+    grid, diff_deg, curve_notes = _curve_difference(a, b, fa, fb)
+    i = int(np.argmax(np.abs(diff_deg)))
+    threshold = 2.0 * res
+    return CheckComparison(
+        a.label,
+        b.label,
+        method,
+        tuple(changes),
+        bool(abs(diff_deg[i]) > threshold),
+        float(diff_deg[i]),
+        float(grid[i]),
+        threshold,
+        _shared_readings(a, b),
+        tuple(notes + curve_notes + _like_for_like_notes(a, b)),
+    )
+
+
+def _parameter_changes(va, vb, tol, n_difference):
+    """The change of each parameter both checks have; notes on those only one has, and on K
+    when n moved (K of different n are not comparable)."""
     notes: list[Note] = []
     changes = []
     for name in PARAMETER_KINDS:
@@ -226,7 +248,7 @@ def compare_checks(
                     (Value("parameter", name),),
                 )
             )
-    if abs(fa.model.n - fb.model.n) > 0.1:
+    if abs(n_difference) > 0.1:
         notes.append(
             Note(
                 "info",
@@ -235,15 +257,23 @@ def compare_checks(
                 "K",
             )
         )
+    return changes, notes
+
+
+def _curve_difference(a, b, fa, fb):
+    """The fitted curves' difference b − a [dial degrees of a's instrument] on 200 log-spaced
+    shear rates over both measured ranges, with the fits' extrapolation notes there."""
     lo = min(a.shear_rate_range[0], b.shear_rate_range[0])
     hi = max(a.shear_rate_range[1], b.shear_rate_range[1])
     grid = np.geomspace(lo, hi, 200)
-    for f in (fa, fb):
-        notes.extend(f.extrapolation_notes(grid))
+    notes = [n for f in (fa, fb) for n in f.extrapolation_notes(grid)]
     diff_deg = (fb.model.stress(grid) - fa.model.stress(grid)) / a.geometry.stress_per_reading
-    i = int(np.argmax(np.abs(diff_deg)))
-    threshold = 2.0 * res
-    shared = {
+    return grid, diff_deg, notes
+
+
+def _shared_readings(a, b) -> dict[float, float]:
+    """rpm → θb − θa (in a's spring) at the speeds both checks read."""
+    return {
         float(s): (
             b.reading(s) * b.geometry.spring_factor - a.reading(s) * a.geometry.spring_factor
         )
@@ -251,6 +281,11 @@ def compare_checks(
         for s in a.speeds
         if b.reading(s) is not None
     }
+
+
+def _like_for_like_notes(a, b) -> list[Note]:
+    """Whether the checks are like for like: the same instrument factors, cup temperatures."""
+    notes = []
     if a.geometry.shear_rate_per_rpm != b.geometry.shear_rate_per_rpm or (
         a.geometry.stress_per_degree != b.geometry.stress_per_degree
     ):
@@ -283,18 +318,7 @@ def compare_checks(
                 ),
             )
         )
-    return CheckComparison(
-        a.label,
-        b.label,
-        method,
-        tuple(changes),
-        bool(abs(diff_deg[i]) > threshold),
-        float(diff_deg[i]),
-        float(grid[i]),
-        threshold,
-        shared,
-        tuple(notes),
-    )
+    return notes
 
 
 def compare_series(checks: Sequence[ViscometerReadings], **kwargs) -> tuple[CheckComparison, ...]:

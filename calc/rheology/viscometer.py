@@ -488,7 +488,7 @@ class ViscometerReadings:
         return {k: out[k] for k in order}
 
     def _plausibility(self, notes):
-        rd = self.reading
+        """Notes (and the PV > 0 check) on readings that are possible but doubtful."""
         if self.speeds.size == 2 or self.speeds.min() > 6.0:
             notes.append(
                 Note(
@@ -499,7 +499,21 @@ class ViscometerReadings:
                     "speeds",
                 )
             )
-        t600, t300 = rd(600), rd(300)
+        self._check_600_300(notes)
+        if self.mode == "cement" and self.speeds.max() > 300.0:
+            notes.append(
+                Note(
+                    "warning",
+                    "cement_above_300",
+                    "cement/spacer readings above 300 rpm are outside API RP 10B-2 practice",
+                    "speeds",
+                )
+            )
+        self._field_value_notes(notes)
+
+    def _check_600_300(self, notes):
+        """θ600 > θ300 (PV > 0), and a warning when their ratio is unusual."""
+        t600, t300 = self.reading(600), self.reading(300)
         if t600 is not None and t300 is not None:
             if t600 <= t300:
                 raise InputError(
@@ -520,15 +534,9 @@ class ViscometerReadings:
                         (Value("ratio", float(ratio)),),
                     )
                 )
-        if self.mode == "cement" and self.speeds.max() > 300.0:
-            notes.append(
-                Note(
-                    "warning",
-                    "cement_above_300",
-                    "cement/spacer readings above 300 rpm are outside API RP 10B-2 practice",
-                    "speeds",
-                )
-            )
+
+    def _field_value_notes(self, notes):
+        """Warnings on YP (negative, or above 3 PV) and on small or close 3/6-rpm readings."""
         try:
             pv, yp = self.pv, self.yp
         except InputError:
@@ -541,7 +549,7 @@ class ViscometerReadings:
                 notes.append(
                     Note("warning", "yp_high", "YP ({yp:.3g}) > 3 × PV ({pv:.3g})", "YP", shown)
                 )
-        t6, t3 = rd(6), rd(3)
+        t6, t3 = self.reading(6), self.reading(3)
         if t6 is not None and t3 is not None and (t3 < 3 or t6 < 3 or t6 - t3 < 1):
             notes.append(
                 Note(
