@@ -1,5 +1,9 @@
 """Pressure gradient in pipes and annuli for Newtonian, Bingham, power-law and HB fluids.
 
+The ``method`` of these functions is a *friction law*; the hydraulics method a user names
+(which also says which viscometer fit feeds pipe and annulus) is resolved to one by
+:func:`calc.hydraulics_method.resolve_method`.
+
 Public API (SI throughout):
 
 * :func:`pipe_flow`, :func:`annulus_flow` → :class:`FlowResult`

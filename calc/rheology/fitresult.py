@@ -50,9 +50,9 @@ STRESS_SPACE = "shear stress [Pa], unweighted"
 LOG_SPACE = "log10 shear stress (≡ log10 viscosity), unweighted"
 
 #: Fit methods for viscometer readings (:class:`~calc.rheology.viscometer.ViscometerReadings`).
-VISCOMETER_FITS = MethodRegistry("viscometer fit method")
+VISCOMETER_FITS = MethodRegistry("viscometer fit")
 #: Fit methods for rheometer tables (:class:`~calc.rheology.table.RheometerTable`).
-TABLE_FITS = MethodRegistry("rheometer-table fit method")
+TABLE_FITS = MethodRegistry("rheometer-table fit")
 
 
 @dataclass(frozen=True, eq=False)
