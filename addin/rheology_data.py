@@ -39,7 +39,8 @@ def _fit_dict(f, system):
         "model": f.model.name,
         "description": f.description,
         "parameters": {
-            k: {"value": v, "unit": u} for k, (v, u) in f.model.parameters(system).items()
+            k: {"value": v, "unit": u}
+            for k, (v, u) in text.model_parameters(f.model, system).items()
         },
         "quality": {
             "space": q.space,

@@ -32,9 +32,12 @@ __all__ = [
     "display_number",
     "display_values",
     "error",
+    "model",
+    "model_parameters",
     "note",
     "note_line",
     "number_text",
+    "parameter_unit",
     "quantity",
     "span",
     "subject",
@@ -198,3 +201,59 @@ def note_line(n: Note, system: str = "oilfield") -> str:
     """'LEVEL [subject]: text' in the unit system (the command line's form of a note)."""
     where = subject(n, system)
     return f"{n.level.upper()}{' [' + where + ']' if where else ''}: {note(n, system)}"
+
+
+#: Model parameters of these kinds keep one unit in every system: relaxation times (Cross,
+#: Carreau-Yasuda λ) are quoted in seconds, as rheometry reports them.
+_FIXED_PARAMETER_UNITS = {"time": "s"}
+
+
+def parameter_unit(kind: str, system="oilfield") -> str:
+    """Printable unit of a rheology-model parameter of ``kind`` ("" for a pure number): the
+    system's unit, with ·sⁿ for a consistency index, seconds for a time constant.
+
+    >>> parameter_unit("consistency"), parameter_unit("consistency", "si"), parameter_unit("time")
+    ('lbf·sⁿ/100ft²', 'Pa·sⁿ', 's')
+    """
+    if not kind or kind == "dimensionless":
+        return ""
+    if kind in _FIXED_PARAMETER_UNITS:
+        return _FIXED_PARAMETER_UNITS[kind]
+    text = label(_unit(kind, system))
+    if kind == "consistency":
+        text = text.replace("/", "·sⁿ/", 1) if "/" in text else text + "·sⁿ"
+    return text
+
+
+def model_parameters(m, system="oilfield") -> dict[str, tuple[float, str]]:
+    """A rheology model's parameters in a unit system: symbol → (value, unit label).
+
+    ``m`` is any :mod:`calc.rheology.models` model (its ``parameters()`` are SI values with
+    kinds).
+
+    >>> from calc.rheology import Bingham
+    >>> model_parameters(Bingham(3.0, 0.025), "metric")
+    {'τy': (3.0, 'Pa'), 'μp': (25.0, 'mPa·s')}
+    """
+    out = {}
+    for v in m.parameters():
+        if not v.kind or v.kind == "dimensionless" or v.kind in _FIXED_PARAMETER_UNITS:
+            shown = float(v.value)
+        else:
+            shown = float(from_si(float(v.value), _unit(v.kind, system), v.kind))
+        out[v.name] = (shown, parameter_unit(v.kind, system))
+    return out
+
+
+def model(m, system="oilfield", digits: int = 4) -> str:
+    """One line: a rheology model's name and parameters in a unit system.
+
+    >>> from calc.rheology import HerschelBulkley
+    >>> model(HerschelBulkley(3.0, 0.5, 0.6), "si")
+    'Herschel-Bulkley: τy = 3 Pa, K = 0.5 Pa·sⁿ, n = 0.6'
+    """
+    parts = [
+        f"{sym} = {val:.{digits}g}{' ' + unit if unit else ''}"
+        for sym, (val, unit) in model_parameters(m, system).items()
+    ]
+    return f"{m.name}: " + ", ".join(parts)

@@ -1,8 +1,13 @@
-"""A small registry of named methods, so a ``method="..."`` string resolves in one place.
+"""A small registry of named implementations, so a name resolves in one place.
 
-Each calculation family (friction methods, slip-velocity correlations, fits …) keeps one
-:class:`MethodRegistry`.  Entries carry a one-line description and the published source, which
-``describe()`` lists for users choosing a method.
+Each calculation family keeps one :class:`MethodRegistry`, named by its own word: friction laws
+(:data:`calc.flow.FRICTION_LAWS`), viscometer and rheometer-table fits
+(:data:`calc.rheology.VISCOMETER_FITS`, :data:`calc.rheology.TABLE_FITS`), slip-velocity
+correlations, and the hydraulics methods users name with ``method="..."``
+(:data:`calc.hydraulics_method.HYDRAULICS_METHODS`, presets over the others).  Entries carry a
+one-line description and the published source, which ``describe()`` lists for users choosing.
+An unknown name raises :class:`~calc.errors.InputError` naming the registry's word, the
+registered names and the nearest one.
 """
 
 from __future__ import annotations

@@ -12,11 +12,12 @@ import numpy as np
 import pytest
 
 from addin import text
-from calc.circulation import FLUID_FITS, calibrate_friction, circulate
+from calc.circulation import calibrate_friction, circulate
+from calc.hydraulics_method import HYDRAULICS_METHODS
 from calc.units import from_si
 from tests import demo_well as demo
 
-METHODS = FLUID_FITS.names()
+METHODS = HYDRAULICS_METHODS.names()
 
 # [expected_approx] of the demo scenario (hand check, ±10–15 %; see the module docstring).
 HAND = {

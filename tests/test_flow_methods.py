@@ -7,7 +7,7 @@ from scipy import optimize
 
 from calc import units
 from calc.errors import InputError
-from calc.flow import annulus_flow, critical_flow_rate, list_methods, pipe_flow
+from calc.flow import annulus_flow, critical_flow_rate, list_friction_laws, pipe_flow
 from calc.flow.friction import (
     api_turbulent_fanning,
     colebrook_fanning,
@@ -18,7 +18,7 @@ from calc.flow.friction import (
 from calc.flow.methods_api import api_geometry_factor
 
 RHO = 1200.0
-METHODS = [m.name for m in list_methods()]
+METHODS = [m.name for m in list_friction_laws()]
 
 
 def fluid_for(method):
@@ -455,7 +455,7 @@ BAD = [
     ("ty", dict(tau_y=-1.0), "yield stress tau_y"),
     ("e1", dict(eccentricity=1.0), "eccentricity"),
     ("e-", dict(eccentricity=-0.1), "eccentricity"),
-    ("m", dict(method="api13d_2011_hb"), "flow method"),
+    ("m", dict(method="api13d_2011_hb"), "friction law"),
     ("nan", dict(q=np.nan), "flow rate q"),
     ("pl_yield", dict(method="power_law"), "yield stress tau_y"),
     ("api95_yield", dict(method="api13d_1995_power_law"), "yield stress tau_y"),

@@ -10,14 +10,14 @@ from calc.flow import (
     annulus_flow,
     critical_flow_rate,
     cross_section_area,
-    list_methods,
+    list_friction_laws,
     mean_velocity,
     pipe_flow,
 )
 from calc.flow.distinct import distinct_combinations
 from calc.units import from_si, to_si
 
-METHODS = [m.name for m in list_methods()]
+METHODS = [m.name for m in list_friction_laws()]
 FAST = dict(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 
 density = st.floats(800.0, 2200.0)

@@ -5,6 +5,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from addin import text
 from calc.errors import InputError
 from calc.rheology import (
     Bingham,
@@ -94,13 +95,19 @@ def test_plateau_models_limits_and_slopes():
 
 def test_display_units():
     m = HerschelBulkley(FIELD_STRESS * 6.0, FIELD_STRESS * 0.5, 0.7)
-    text = m.display("oilfield")
-    assert "τy = 6 lbf/100ft²" in text and "K = 0.5 lbf·sⁿ/100ft²" in text
-    p = Bingham(3.0, 0.025).parameters("metric")
+    line = text.model(m, "oilfield")
+    assert "τy = 6 lbf/100ft²" in line and "K = 0.5 lbf·sⁿ/100ft²" in line
+    p = text.model_parameters(Bingham(3.0, 0.025), "metric")
     assert p["μp"] == (pytest.approx(25.0), "mPa·s")
-    assert Cross(1.0, 0.0, 2.0, 0.5).parameters("oilfield")["λ"] == (2.0, "s")
+    assert text.model_parameters(Cross(1.0, 0.0, 2.0, 0.5), "oilfield")["λ"] == (2.0, "s")
     with pytest.raises(InputError):
-        m.display("imperial")
+        text.model(m, "imperial")
+
+
+def test_parameters_are_si_values_with_kinds():
+    """Models give their parameters as SI numbers with quantity kinds (no display units)."""
+    vals = {v.name: (v.value, v.kind) for v in Bingham(3.0, 0.025).parameters()}
+    assert vals == {"τy": (3.0, "stress"), "μp": (0.025, "viscosity")}
 
 
 @pytest.mark.parametrize(

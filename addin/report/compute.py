@@ -12,12 +12,11 @@ from dataclasses import dataclass, field
 import numpy as np
 
 import calc
+from calc.hydraulics_method import DEFAULT_METHOD  # the report's default: calc's one default
 from calc.notes import Note
 
 __all__ = ["CheckHydraulics", "CheckResults", "Results", "compute"]
 
-#: Hydraulics method used for the report (API RP 13D 2010 Herschel-Bulkley, as in calc.flow).
-DEFAULT_METHOD = "api13d_2010_hb"
 #: Fits shown on the rheology sheet, in this order (calc.rheology registry names).
 SHOWN_FITS = (
     "bingham_two_speed",
@@ -114,14 +113,12 @@ class Results:
 
 def fluid_for(readings, density: float, method: str, label: str):
     """HydraulicsFluid with the fits the hydraulics ``method`` prescribes (calc.circulation)."""
-    from calc.circulation.fluid import FLUID_FITS, HydraulicsFluid
-    from calc.rheology import fit
+    from calc.circulation.fluid import hydraulics_fluid_from_readings
 
-    choice = FLUID_FITS.get(method).func
-    pipe = fit(readings, choice.pipe).model
-    ann = pipe if choice.annulus == choice.pipe else fit(readings, choice.annulus).model
-    fits = choice.pipe if choice.pipe == choice.annulus else f"{choice.pipe} | {choice.annulus}"
-    return HydraulicsFluid(density, pipe, ann, label=label, fits=fits)
+    # the report shows the fits' notes on its rheology sheet, not again with the circulation
+    return hydraulics_fluid_from_readings(
+        readings, method, density=density, label=label, fit_notes=False
+    )
 
 
 def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) -> Results:

@@ -20,10 +20,9 @@ from addin.report.style import (
 from addin.text import display_number as _o
 from addin.text import unit_label as U
 from addin.xlsx_cells import put, set_widths
+from calc.flow import regime_label
 
 __all__ = ["write_bit", "write_ecd", "write_hydraulics"]
-
-REGIMES = {0: "laminar", 1: "transitional", 2: "turbulent"}
 
 
 def _input_row(ws, row, name, value, kind, system, fmt=None):
@@ -242,7 +241,7 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
                 ws, row, 8, _o(vel, "velocity", system), formula, kind="velocity", system=system
             )
             reg = int(np.atleast_1d(flow.regime).reshape(-1)[i])
-            put(ws, row, 11, REGIMES.get(reg, str(reg)))
+            put(ws, row, 11, regime_label(reg))
             put_number(ws, row, 12, np.atleast_1d(flow.reynolds).reshape(-1)[i], "#,##0")
             put_number(ws, row, 13, np.atleast_1d(flow.friction_factor).reshape(-1)[i], "0.00000")
             put_number(

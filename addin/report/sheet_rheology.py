@@ -18,6 +18,7 @@ from addin.report.style import (
 from addin.text import display_number as _out
 from addin.text import unit_label as U
 from addin.xlsx_cells import put, set_widths
+from calc.circulation.fluid import model_parameters
 
 __all__ = ["write_rheology"]
 
@@ -39,12 +40,6 @@ _CURVE_LABELS = {
 }
 
 
-def _params(model):
-    from calc.circulation.fluid import model_parameters
-
-    return model_parameters(model)
-
-
 def write_rheology(wb, results, factors: Factors, title: str):
     """Add the sheet; return {"refs": {...}} with cells other sheets may cite."""
     system = results.case.unit_system
@@ -58,8 +53,24 @@ def write_rheology(wb, results, factors: Factors, title: str):
         title=True,
     )
     checks = results.checks
-    # ---------------------------------------------------------------- readings
-    row = heading(ws, row + 1, "Viscometer readings (standard rotor–bob–spring)", span=10)
+    row, dial_cells, read_rows = _readings_table(ws, row + 1, checks, system)
+    row, refs = _properties_table(ws, row, results, factors, dial_cells)
+    row = _fits_table(ws, row, checks, system)
+    last = checks[-1]
+    if last.comparison is not None:
+        row = _change_table(ws, row, last.comparison, system)
+    data_row = _rheogram(ws, row, checks, read_rows, system)
+    setup_print(ws, title)
+    last_col = max(10, 3 + 3 * len(checks))
+    ws.print_area = f"A1:{get_column_letter(last_col)}{data_row - 2}"
+    return {"refs": refs, "next_row": row}
+
+
+def _readings_table(ws, row, checks, system):
+    """Speeds, shear rates, dial readings and stresses of every check.
+
+    Returns (next row, per check {rpm: absolute dial cell}, (first, last) reading row)."""
+    row = heading(ws, row, "Viscometer readings (standard rotor–bob–spring)", span=10)
     speeds = sorted({float(s) for c in checks for s in c.readings.speeds}, reverse=True)
     su = U("stress", system)
     heads = ["speed", "shear rate"]
@@ -97,8 +108,16 @@ def write_rheology(wb, results, factors: Factors, title: str):
         "rpm × Couette factor of the standard geometry (calc.rheology.viscometer).",
         span=2 + 2 * len(checks),
     )
-    row += 1
-    # ---------------------------------------------------------------- properties with checks
+    return row + 1, dial_cells, read_rows
+
+
+def _properties_table(ws, row, results, factors: Factors, dial_cells):
+    """PV, YP, LSYP, AV with live formulas over the dial cells, the gels, the programme.
+
+    Returns (next row, {(property, check index): value cell})."""
+    system = results.case.unit_system
+    checks = results.checks
+    su = U("stress", system)
     row = heading(ws, row, "Field properties (API RP 13B-1 definitions) with live checks", span=10)
     heads = ["property", "unit"]
     units = ["", ""]
@@ -166,8 +185,12 @@ def write_rheology(wb, results, factors: Factors, title: str):
                     ws, row, 3 + 3 * j, _out(g, "stress", system), number_format("stress", system)
                 )
         row += 1
-    row += 1
-    # ---------------------------------------------------------------- fits
+    return row + 1, refs
+
+
+def _fits_table(ws, row, checks, system):
+    """Every fit of every check: τy, K, n, quality, rank, range, source.  Returns next row."""
+    su = U("stress", system)
     row = heading(ws, row, "Fitted models (every method; quality over all readings)", span=10)
     heads = [
         "check / method",
@@ -186,7 +209,7 @@ def write_rheology(wb, results, factors: Factors, title: str):
     for c in checks:
         rank = {e.method: e.rank for e in c.fits.ranking}
         for fr in c.fits.results:
-            ty, k, n = _params(fr.model)
+            ty, k, n = model_parameters(fr.model)
             put(ws, row, 1, f"{c.label}: {fr.method}")
             put(ws, row, 2, type(fr.model).__name__)
             put_number(ws, row, 3, _out(ty, "stress", system), number_format("stress", system))
@@ -209,42 +232,50 @@ def write_rheology(wb, results, factors: Factors, title: str):
         "power law: τy = 0). RMSE in stress over all readings; rank by standard error.",
         span=10,
     )
-    row += 1
-    # ---------------------------------------------------------------- change
-    last = checks[-1]
-    if last.comparison is not None:
-        cmp_ = last.comparison
-        row = heading(
-            ws,
-            row,
-            f"Change since the previous check ({cmp_.label_a} → {cmp_.label_b}, {cmp_.method})",
-            span=10,
-        )
-        row = table_header(
-            ws,
-            row,
-            1,
-            ["parameter", "previous", "latest", "change", "relative", "flagged?"],
-            ["", "", "", "", "%", "beyond tolerance"],
-        )
-        for ch in cmp_.changes:
-            kind = ch.kind if ch.kind in ("stress", "viscosity", "consistency") else None
-            put(ws, row, 1, f"{ch.name} [{U(kind, system)}]" if kind else ch.name)
-            for col, v in ((2, ch.a), (3, ch.b), (4, ch.change)):
-                put_number(ws, row, col, _out(v, kind, system) if kind else v, "0.000")
-            put_number(ws, row, 5, 100 * ch.relative, "0.0")
-            put(ws, row, 6, "YES" if ch.flagged else "no")
-            row += 1
-        row = note_row(
-            ws,
-            row,
-            f"Largest difference between the fitted curves: "
-            f"{_out(cmp_.max_curve_difference, 'stress', system):.2f} {su} at "
-            f"{cmp_.max_difference_at:,.0f} 1/s.",
-            span=6,
-        )
+    return row + 1
+
+
+def _change_table(ws, row, cmp_, system):
+    """The latest check against the previous one: values, change, flags.  Returns next row."""
+    su = U("stress", system)
+    row = heading(
+        ws,
+        row,
+        f"Change since the previous check ({cmp_.label_a} → {cmp_.label_b}, {cmp_.method})",
+        span=10,
+    )
+    row = table_header(
+        ws,
+        row,
+        1,
+        ["parameter", "previous", "latest", "change", "relative", "flagged?"],
+        ["", "", "", "", "%", "beyond tolerance"],
+    )
+    for ch in cmp_.changes:
+        kind = ch.kind if ch.kind in ("stress", "viscosity", "consistency") else None
+        put(ws, row, 1, f"{ch.name} [{U(kind, system)}]" if kind else ch.name)
+        for col, v in ((2, ch.a), (3, ch.b), (4, ch.change)):
+            put_number(ws, row, col, _out(v, kind, system) if kind else v, "0.000")
+        put_number(ws, row, 5, 100 * ch.relative, "0.0")
+        put(ws, row, 6, "YES" if ch.flagged else "no")
         row += 1
-    # ---------------------------------------------------------------- chart, then its data
+    row = note_row(
+        ws,
+        row,
+        f"Largest difference between the fitted curves: "
+        f"{_out(cmp_.max_curve_difference, 'stress', system):.2f} {su} at "
+        f"{cmp_.max_difference_at:,.0f} 1/s.",
+        span=6,
+    )
+    return row + 1
+
+
+def _rheogram(ws, row, checks, read_rows, system):
+    """The rheogram chart at ``row`` and, below it, the model-curve data it plots.
+
+    Returns the first row of the chart data (the print area ends two rows above it)."""
+    su = U("stress", system)
+    last = checks[-1]
     chart_row = row
     chart_rows = 20  # the 9.5-cm chart
     data_row = chart_row + chart_rows + 2
@@ -289,10 +320,7 @@ def write_rheology(wb, results, factors: Factors, title: str):
     )
     ch.width = 22.0
     ws.add_chart(ch, f"A{chart_row}")
-    setup_print(ws, title)
-    last_col = max(10, 3 + 3 * len(checks))
-    ws.print_area = f"A1:{get_column_letter(last_col)}{data_row - 2}"
-    return {"refs": refs, "next_row": row}
+    return data_row
 
 
 def _has(fs, method):

@@ -15,11 +15,11 @@ from addin.sheets import cells
 from addin.sheets.fn_rheology import viscometer
 from addin.sheets.framework import Cells, Num, Text, sheet_function
 from calc import circulation as cc
-from calc.circulation.fluid import FLUID_FITS
 from calc.cleaning.indicators import carrying_capacity_index
 from calc.cleaning.slip import SLIP_METHODS
 from calc.cleaning.transport import Cuttings, annular_transport, annular_velocity
 from calc.errors import InputError
+from calc.hydraulics_method import HYDRAULICS_METHODS
 
 __all__ = [
     "BF_ANN_VEL",
@@ -51,7 +51,9 @@ def annulus_fluid(density, readings, hydraulics_method, uset):
     if cells.blank(hydraulics_method):
         fluid = cc.hydraulics_fluid_from_readings(r, density=rho)
     else:
-        name = cells.text(hydraulics_method, "hydraulics method", choices=FLUID_FITS.names())
+        name = cells.text(
+            hydraulics_method, "hydraulics method", choices=HYDRAULICS_METHODS.names()
+        )
         fluid = cc.hydraulics_fluid_from_readings(r, name, density=rho)
     return (rho, *fluid.annulus_parameters)
 

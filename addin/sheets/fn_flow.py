@@ -5,7 +5,7 @@ Over :mod:`calc.flow`, with the fluid from
 
 Argument order: fluid (density, readings) → geometry (diameters outer before inner, then the
 interval length) → rate → options (``method``, eccentricity) → units.  The hydraulics
-``method`` picks both the friction method and the rheology fit each path uses (blank =
+``method`` picks both the friction law and the rheology fit each path uses (blank =
 ``api13d_2010_hb``; ``api13d_1995_power_law`` uses 600/300 rpm in pipe and 100/3 rpm in the
 annulus).  The flow rate may be a range: the result then has its shape.
 """
@@ -21,7 +21,7 @@ from addin.sheets.fn_rheology import viscometer
 from addin.sheets.framework import Cells, Num, Text, sheet_function
 from calc import circulation as cc
 from calc import flow as cf
-from calc.circulation.fluid import FLUID_FITS
+from calc.hydraulics_method import HYDRAULICS_METHODS, resolve_method
 
 __all__ = [
     "BF_ANN_FLOW",
@@ -53,21 +53,17 @@ _ECC = "Eccentricity 0 (concentric, blank) to < 1"
 def _method(value) -> str | None:
     if cells.blank(value):
         return None
-    return cells.text(value, "method", choices=FLUID_FITS.names())
+    return cells.text(value, "method", choices=HYDRAULICS_METHODS.names())
 
 
 def hydraulics_fluid(density, readings, method, uset):
-    """(HydraulicsFluid, friction-method keywords) of a worksheet function's mud: density and
-    viscometer readings fitted as the hydraulics method does (blank = API RP 13D 2010 HB)."""
+    """(HydraulicsFluid, flow keywords) of a worksheet call: the readings fitted as the
+    hydraulics ``method`` argument says (blank = the default), and ``method=`` its friction law
+    for :mod:`calc.flow` (and :mod:`calc.surge`)."""
     rho = cells.positive_number(density, "density", "density", uset)
-    name = _method(method)
-    r = viscometer(readings)
-    fluid = (
-        cc.hydraulics_fluid_from_readings(r, density=rho)
-        if name is None
-        else cc.hydraulics_fluid_from_readings(r, name, density=rho)
-    )
-    return fluid, ({} if name is None else {"method": name})
+    preset = resolve_method(_method(method))
+    fluid = cc.hydraulics_fluid_from_readings(viscometer(readings), preset, density=rho)
+    return fluid, {"method": preset.friction}
 
 
 def _pipe(density, readings, d_inner, q, method, uset) -> cf.FlowResult:

@@ -1,9 +1,9 @@
 """Worksheet functions: rheology from viscometer readings (over :mod:`calc.rheology`).
 
 Every function takes the readings range first (see *Readings* in the conventions), then a
-shear rate where one is needed, then the fit ``method`` (blank = calc's default, Herschel-Bulkley
-least squares), then the units.  Fit methods: the names of
-:data:`calc.rheology.VISCOMETER_FITS` (``api13d_2010_hb``, ``hb_least_squares``,
+shear rate where one is needed, then the ``method`` argument, here a viscometer fit (blank =
+calc's default, Herschel-Bulkley least squares; not a hydraulics method), then the units.  Fits:
+the names of :data:`calc.rheology.VISCOMETER_FITS` (``api13d_2010_hb``, ``hb_least_squares``,
 ``api13d_1995_pipe``, ``api13d_1995_annulus``, ``bingham_two_speed``, …).
 """
 
@@ -35,7 +35,7 @@ _UNITS = "Unit system (blank = oilfield), overrides 'kind=unit; …', or a kind/
 _READINGS = (
     "Viscometer readings: two columns rpm and dial, or one column of 6 dial readings (600…3 rpm)"
 )
-_METHOD = "Fit method, e.g. 'api13d_2010_hb', 'hb_least_squares' (blank), 'bingham_two_speed'"
+_METHOD = "Viscometer fit, e.g. 'api13d_2010_hb', 'hb_least_squares' (blank), 'bingham_two_speed'"
 _RATE = "Shear rate (1/s); a range gives a range of results"
 
 
@@ -56,8 +56,7 @@ def fitted(readings_range, method) -> cr.FitResult:
 
 def consistency_label(uset: cells.UnitSet) -> str:
     """Label of K: the stress unit with ·sⁿ (e.g. ``lbf·sⁿ/100ft²``, ``Pa·sⁿ``)."""
-    text = uset.label("consistency")
-    return text.replace("/", "·sⁿ/", 1) if "/" in text else text + "·sⁿ"
+    return text.parameter_unit("consistency", uset)
 
 
 @sheet_function(FAMILY)

@@ -4,8 +4,8 @@ Public API (SI throughout):
 
 * :func:`circulate` → :class:`CirculationResult` (breakdown, BHP, ECD/ESD at any MD, profile,
   margins with the tightest point, pump power, notes); :class:`Profile`;
-* :class:`HydraulicsFluid`, :func:`hydraulics_fluid_from_readings`, :data:`FLUID_FITS` (which
-  rheology fit feeds pipe and annulus for each hydraulics method);
+* :class:`HydraulicsFluid`, :func:`hydraulics_fluid_from_readings` (fitted as a hydraulics
+  method of :mod:`calc.hydraulics_method` says);
 * :class:`PressureWindow`, :class:`WeakPoint`, :class:`Margins`, :class:`MarginTable`,
   :class:`TightestPoint`;
 * :func:`calibrate_friction` → :class:`FrictionCalibration`;
@@ -14,7 +14,7 @@ Public API (SI throughout):
 """
 
 from calc.circulation.calibration import CALIBRATION_LABEL, FrictionCalibration, calibrate_friction
-from calc.circulation.fluid import FLUID_FITS, HydraulicsFluid, hydraulics_fluid_from_readings
+from calc.circulation.fluid import HydraulicsFluid, hydraulics_fluid_from_readings
 from calc.circulation.hydrostatics import (
     equivalent_circulating_density,
     equivalent_density,
@@ -32,7 +32,6 @@ from calc.circulation.pressure_window import (
 
 __all__ = [
     "CALIBRATION_LABEL",
-    "FLUID_FITS",
     "CirculationResult",
     "FrictionCalibration",
     "HydraulicsFluid",

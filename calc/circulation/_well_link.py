@@ -8,7 +8,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from calc.circulation.fluid import FLUID_FITS
+from calc.hydraulics_method import resolve_method
 from calc.units import from_si, unit_for
 from calc.units import label as unit_label
 
@@ -118,8 +118,8 @@ def parts(well, system: str = "oilfield") -> WellParts:
 
 
 def check_method(method: str) -> str:
-    """Validate a friction-method name (the same names as :mod:`calc.flow`)."""
-    return FLUID_FITS.get(method).name
+    """The friction law of a hydraulics method (:func:`calc.hydraulics_method.resolve_method`)."""
+    return resolve_method(method).friction
 
 
 def pipe(Q, d, R, params, method):

@@ -1,21 +1,24 @@
-"""The fluid as the circulating-system calculation sees it, and which fit feeds which path.
+"""The fluid as the circulating-system calculation sees it, fitted for a hydraulics method.
 
 A :class:`HydraulicsFluid` carries the density and two rheology models, one for the flow
-inside pipe (surface lines, drill string) and one for the annulus.  Most methods use one fit
-for both; the API RP 13D (1995) power-law method uses the 600/300-rpm pair in pipe and the
-100/3-rpm pair in the annulus.  :func:`hydraulics_fluid_from_readings` picks the fits from one
-table, :data:`FLUID_FITS` (``method`` → pipe fit, annulus fit, description, source).
+inside pipe (surface lines, drill string) and one for the annulus.  Most hydraulics methods use
+one fit for both; the API RP 13D (1995) power-law method uses the 600/300-rpm pair in pipe and
+the 100/3-rpm pair in the annulus.  :func:`hydraulics_fluid_from_readings` fits the readings as
+the method's preset (:class:`calc.hydraulics_method.HydraulicsMethod`) says.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass
 
+import numpy as np
+
 from calc.errors import InputError, check_positive
-from calc.registry import MethodRegistry
+from calc.hydraulics_method import HydraulicsMethod, resolve_method
+from calc.notes import Note
+from calc.rheology import FitResult, Model, fit
 
 __all__ = [
-    "FLUID_FITS",
     "HydraulicsFluid",
     "hydraulics_fluid_from_readings",
     "model_parameters",
@@ -74,14 +77,14 @@ class HydraulicsFluid:
         The fits' notes; :func:`~calc.circulation.circulate` passes them on.
     """
 
-    density: object
-    pipe_model: object
-    annulus_model: object
+    density: float | np.ndarray
+    pipe_model: Model
+    annulus_model: Model
     label: str = ""
     fits: str = ""
-    pipe_fit: object = None
-    annulus_fit: object = None
-    notes: tuple = ()
+    pipe_fit: FitResult | None = None
+    annulus_fit: FitResult | None = None
+    notes: tuple[Note, ...] = ()
 
     def __post_init__(self):
         rho = check_positive("density", self.density, "kg/m³")
@@ -100,68 +103,13 @@ class HydraulicsFluid:
         return model_parameters(self.annulus_model)
 
 
-@dataclass(frozen=True)
-class FitChoice:
-    """Which rheology fit feeds the pipe and the annulus for one hydraulics method."""
-
-    pipe: str
-    annulus: str
-
-
-#: method → (pipe fit, annulus fit); fit names of :data:`calc.rheology.VISCOMETER_FITS`.
-FLUID_FITS = MethodRegistry("hydraulics method")
-
-
-def _choice(name, pipe, annulus, description, source):
-    FLUID_FITS.register(name, description, source)(FitChoice(pipe, annulus))
-
-
-_choice(
-    "api13d_2010_hb",
-    "api13d_2010_hb",
-    "api13d_2010_hb",
-    "API Herschel-Bulkley estimate (τ_y from 3/6 rpm, n and K from 300/600 rpm), both paths",
-    "API RP 13D 6th ed. (2010); Zamora & Power (2002) AADE-02-DFWM-HO-13",
-)
-_choice(
-    "api13d_1995_power_law",
-    "api13d_1995_pipe",
-    "api13d_1995_annulus",
-    "power law from 600/300 rpm in pipe and from 100/3 rpm in the annulus",
-    "API RP 13D 3rd ed. (1995)",
-)
-_choice(
-    "newtonian",
-    "newtonian_least_squares",
-    "newtonian_least_squares",
-    "Newtonian least-squares fit over all readings, both paths",
-    "least squares over the readings (common practice)",
-)
-_choice(
-    "bingham",
-    "bingham_least_squares",
-    "bingham_least_squares",
-    "Bingham plastic least-squares fit over all readings, both paths",
-    "Bingham (1922); least squares over the readings (API RP 10B-2 practice)",
-)
-_choice(
-    "power_law",
-    "power_law_least_squares",
-    "power_law_least_squares",
-    "power-law least-squares fit (log-log) over all readings, both paths",
-    "least squares over the readings (common practice)",
-)
-_choice(
-    "exact_laminar",
-    "hb_least_squares",
-    "hb_least_squares",
-    "Herschel-Bulkley least-squares fit over all readings, both paths",
-    "Kelessidis et al. (2006) J. Pet. Sci. Eng. 53:203-224",
-)
-
-
 def hydraulics_fluid_from_readings(
-    readings, method: str = "api13d_2010_hb", *, density=None, label: str = ""
+    readings,
+    method: str | HydraulicsMethod | None = None,
+    *,
+    density=None,
+    label: str = "",
+    fit_notes: bool = True,
 ) -> HydraulicsFluid:
     """The :class:`HydraulicsFluid` a hydraulics method uses, fitted from viscometer readings.
 
@@ -169,20 +117,25 @@ def hydraulics_fluid_from_readings(
     ----------
     readings : calc.rheology.ViscometerReadings
         Dial readings of the check.
-    method : str
-        A hydraulics method (:data:`FLUID_FITS` names; the same names as :mod:`calc.flow`).
+    method : str, HydraulicsMethod or None
+        A hydraulics method (:data:`calc.hydraulics_method.HYDRAULICS_METHODS` names, or a
+        preset from :func:`~calc.hydraulics_method.resolve_method`); None → the default,
+        ``api13d_2010_hb``.
     density : float or array_like
         Fluid density [kg/m³] (the readings object carries none); required unless the readings
         object has a ``density`` attribute.
     label : str
         Text for results; default the readings' label if they carry one.
+    fit_notes : bool
+        Carry the fits' notes in ``notes`` (which :func:`~calc.circulation.circulate` passes
+        on); False where a face shows the fits' notes elsewhere (the report's rheology sheet).
 
     Returns
     -------
     HydraulicsFluid
         With ``fits`` naming the :func:`calc.rheology.fit` methods used for pipe and annulus,
-        ``pipe_fit``/``annulus_fit`` the :class:`~calc.rheology.FitResult` objects and their
-        notes in ``notes``.
+        ``pipe_fit``/``annulus_fit`` the :class:`~calc.rheology.FitResult` objects and (with
+        ``fit_notes``) their notes in ``notes``.
 
     Notes
     -----
@@ -199,24 +152,21 @@ def hydraulics_fluid_from_readings(
 
     The fit names are those of :data:`calc.rheology.VISCOMETER_FITS`.
     """
-    from calc.rheology import fit
-
-    choice: FitChoice = FLUID_FITS.get(method).func
+    preset = resolve_method(method)
     if density is None:
         density = getattr(readings, "density", None)
     if density is None:
         raise InputError("density", None, "the fluid density in kg/m³")
-    pipe = fit(readings, choice.pipe)
-    ann = pipe if choice.annulus == choice.pipe else fit(readings, choice.annulus)
+    pipe = fit(readings, preset.pipe_fit)
+    ann = pipe if preset.annulus_fit == preset.pipe_fit else fit(readings, preset.annulus_fit)
     lab = label or str(getattr(readings, "label", "") or "")
-    fits = choice.pipe if choice.pipe == choice.annulus else f"{choice.pipe} | {choice.annulus}"
-    notes = tuple(dict.fromkeys((*pipe.notes, *ann.notes)))
+    notes = tuple(dict.fromkeys((*pipe.notes, *ann.notes))) if fit_notes else ()
     return HydraulicsFluid(
         density=density,
         pipe_model=pipe.model,
         annulus_model=ann.model,
         label=lab,
-        fits=fits,
+        fits=preset.fits,
         pipe_fit=pipe,
         annulus_fit=ann,
         notes=notes,

@@ -6,6 +6,7 @@ import numpy as np
 
 from calc.errors import InputError
 from calc.flow.result import FlowCase
+from calc.values import Value
 
 __all__ = ["require_n_at_most", "require_n_one", "require_no_yield"]
 
@@ -44,5 +45,8 @@ def require_n_at_most(case: FlowCase, method: str, n_max: float = 2.0) -> None:
     bad = case.n > n_max
     if np.any(bad):
         raise InputError(
-            "flow behaviour index n", _first(case.n, bad), f"0 < n <= {n_max:g} for '{method}'"
+            "flow behaviour index n",
+            _first(case.n, bad),
+            "0 < n <= {n_max:g} for '{method}'",
+            values=(Value("n_max", float(n_max)), Value("method", method)),
         )

@@ -1,7 +1,7 @@
 """Public entry points: :func:`pipe_flow`, :func:`annulus_flow`, :func:`critical_flow_rate`.
 
-Inputs are validated and broadcast here, the method is resolved through
-:data:`calc.flow.result.FLOW_METHODS`, and the eccentricity correction, the gradient, the
+Inputs are validated and broadcast here, the friction law is resolved through
+:data:`calc.flow.result.FRICTION_LAWS`, and the eccentricity correction, the gradient, the
 critical velocity and the notes are added to the method's state.
 """
 
@@ -13,7 +13,7 @@ from calc.errors import InputError, check_nonnegative, check_positive, check_ran
 from calc.flow.distinct import distinct_combinations
 from calc.flow.eccentricity import VALIDITY, eccentricity_factor
 from calc.flow.result import (
-    FLOW_METHODS,
+    FRICTION_LAWS,
     LAMINAR,
     TRANSITIONAL,
     FlowCase,
@@ -23,12 +23,20 @@ from calc.flow.result import (
     count_note,
 )
 from calc.flow.solvers import solve_positive
-from calc.notes import Note
 from calc.registry import MethodInfo
+from calc.values import Value
 
-__all__ = ["DEFAULT_METHOD", "annulus_flow", "critical_flow_rate", "list_methods", "pipe_flow"]
+__all__ = [
+    "DEFAULT_FRICTION_LAW",
+    "annulus_flow",
+    "critical_flow_rate",
+    "list_friction_laws",
+    "pipe_flow",
+]
 
-DEFAULT_METHOD = "api13d_2010_hb"
+#: The friction law used when none is named (that of the default hydraulics method,
+#: :data:`calc.hydraulics_method.DEFAULT_METHOD`; a test keeps the two together).
+DEFAULT_FRICTION_LAW = "api13d_2010_hb"
 
 #: Flow rate [m³/s] that seeds the critical-velocity solve (its start guess only: the critical
 #: velocity depends on the geometry and the fluid, not on q).
@@ -37,13 +45,13 @@ NOMINAL_RATE = 1e-3
 _CRITICAL_INPUTS = ("d_outer", "d_inner", "density", "tau_y", "k", "n")
 
 
-def list_methods() -> list[MethodInfo]:
-    """The registered flow methods (name, description, source), default first.
+def list_friction_laws() -> list[MethodInfo]:
+    """The registered friction laws (name, description, source), default first.
 
-    >>> [m.name for m in list_methods()][:2]
+    >>> [m.name for m in list_friction_laws()][:2]
     ['api13d_2010_hb', 'api13d_1995_power_law']
     """
-    return FLOW_METHODS.describe()
+    return FRICTION_LAWS.describe()
 
 
 def _build_case(geometry, q, d_outer, d_inner, density, tau_y, k, n, roughness, eccentricity):
@@ -75,7 +83,9 @@ def _build_case(geometry, q, d_outer, d_inner, density, tau_y, k, n, roughness, 
             raise InputError(
                 "pipe outside diameter d_pipe",
                 float(flat["d_inner"][i]),
-                f"< hole diameter d_hole ({flat['d_outer'][i]:.6g} m)",
+                "< hole diameter d_hole ({hole})",
+                kind="diameter",
+                values=(Value("hole", float(flat["d_outer"][i]), "diameter"),),
             )
     d_h = flat["d_outer"] - flat["d_inner"]
     bad = flat["roughness"] >= 0.5 * d_h
@@ -84,7 +94,9 @@ def _build_case(geometry, q, d_outer, d_inner, density, tau_y, k, n, roughness, 
         raise InputError(
             "roughness",
             float(flat["roughness"][i]),
-            f"< half the hydraulic diameter ({0.5 * d_h[i]:.6g} m)",
+            "< half the hydraulic diameter ({half})",
+            kind="length",
+            values=(Value("half", float(0.5 * d_h[i]), "length"),),
         )
     case = FlowCase(geometry=geometry, **flat)
     return case, shape, _critical_case(geometry, vals, shape)
@@ -143,9 +155,98 @@ def _shape_out(x, shape, as_int=False):
     return arr.astype(int) if as_int else arr
 
 
+def _eccentricity(method: str, case: FlowCase, st: MethodState):
+    """Eccentricity factor per element (ones for pipes) and the notes on its validity."""
+    if not case.is_annulus:
+        return np.ones_like(case.q), []
+    kappa = case.d_inner / case.d_outer
+    ecc = eccentricity_factor(case.eccentricity, kappa, case.n, _turbulent_weight(st))
+    bad = ecc <= 0
+    if np.any(bad):
+        i = np.flatnonzero(bad)[0]
+        raise InputError(
+            "eccentricity",
+            float(case.eccentricity[i]),
+            "a value for which the Haciislamoglu-Langlinais factor stays positive "
+            "(here n = {n:.3g}, D1/D2 = {ratio:.3g})",
+            values=(Value("n", float(case.n[i])), Value("ratio", float(kappa[i]))),
+        )
+    e_hi = VALIDITY["eccentricity"][1]
+    k_lo, k_hi = VALIDITY["diameter_ratio"]
+    n_lo, n_hi = VALIDITY["n"]
+    outside = (case.eccentricity > 0) & (
+        (case.eccentricity > e_hi)
+        | (kappa < k_lo)
+        | (kappa > k_hi)
+        | (case.n < n_lo)
+        | (case.n > n_hi)
+    )
+    notes = [
+        count_note(
+            outside,
+            "warning",
+            "eccentricity_outside_validity",
+            "eccentricity correction (Haciislamoglu & Langlinais 1990) used outside its "
+            "range e <= {e_max}, {ratio_min} <= D1/D2 <= {ratio_max}, {n_min} <= n <= {n_max}",
+            "annulus",
+            values=(
+                Value("e_max", e_hi),
+                Value("ratio_min", k_lo),
+                Value("ratio_max", k_hi),
+                Value("n_min", n_lo),
+                Value("n_max", n_hi),
+            ),
+        )
+    ]
+    if method == "exact_laminar":
+        notes.append(
+            count_note(
+                case.eccentricity > 0,
+                "info",
+                "eccentric_not_exact",
+                "the eccentric gradient is the exact concentric one times the "
+                "Haciislamoglu-Langlinais laminar factor, not an exact eccentric solution",
+                "annulus",
+            )
+        )
+    return ecc, notes
+
+
+def _regime_notes(method: str, spec: FlowMethod, case: FlowCase, st: MethodState, v_c):
+    """Transitional flow, laminar flow below the critical velocity, roughness not used."""
+    notes = [
+        count_note(
+            st.regime == TRANSITIONAL,
+            "warning",
+            "transitional_flow",
+            "transitional flow: the Reynolds number lies between the method's laminar and "
+            "turbulent limits, where friction is least certain",
+            case.geometry,
+        ),
+        count_note(
+            (st.regime == LAMINAR) & (case.velocity < v_c),
+            "info",
+            "below_critical_velocity",
+            "velocity below the critical velocity (laminar flow)",
+            case.geometry,
+        ),
+    ]
+    if not spec.uses_roughness:
+        notes.append(
+            count_note(
+                case.roughness > 0,
+                "info",
+                "roughness_ignored",
+                "method '{method}' assumes smooth walls; the roughness given is not used",
+                case.geometry,
+                values=(Value("method", method),),
+            )
+        )
+    return notes
+
+
 def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
-    info = FLOW_METHODS.get(method)
-    spec: FlowMethod = info.func
+    spec: FlowMethod = FRICTION_LAWS.get(method).func
     spec.check(case)
     if spec.limit_from_distinct:
         # rate-independent laminar limit: once per distinct (geometry, fluid), gathered back
@@ -155,83 +256,10 @@ def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
         limit = None
         st = spec.evaluate(case)
     v = case.velocity
-    notes: list[Note | None] = list(st.notes)
-    if case.is_annulus:
-        kappa = case.d_inner / case.d_outer
-        ecc = eccentricity_factor(case.eccentricity, kappa, case.n, _turbulent_weight(st))
-        bad = ecc <= 0
-        if np.any(bad):
-            i = np.flatnonzero(bad)[0]
-            raise InputError(
-                "eccentricity",
-                float(case.eccentricity[i]),
-                "a value for which the Haciislamoglu-Langlinais factor stays positive "
-                f"(here n = {case.n[i]:.3g}, D1/D2 = {kappa[i]:.3g})",
-            )
-        e_hi = VALIDITY["eccentricity"][1]
-        k_lo, k_hi = VALIDITY["diameter_ratio"]
-        n_lo, n_hi = VALIDITY["n"]
-        outside = (case.eccentricity > 0) & (
-            (case.eccentricity > e_hi)
-            | (kappa < k_lo)
-            | (kappa > k_hi)
-            | (case.n < n_lo)
-            | (case.n > n_hi)
-        )
-        notes.append(
-            count_note(
-                outside,
-                "warning",
-                "eccentricity_outside_validity",
-                "eccentricity correction (Haciislamoglu & Langlinais 1990) used outside its "
-                f"range e <= {e_hi}, {k_lo} <= D1/D2 <= {k_hi}, {n_lo} <= n <= {n_hi}",
-                "annulus",
-            )
-        )
-        if method == "exact_laminar":
-            notes.append(
-                count_note(
-                    case.eccentricity > 0,
-                    "info",
-                    "eccentric_not_exact",
-                    "the eccentric gradient is the exact concentric one times the "
-                    "Haciislamoglu-Langlinais laminar factor, not an exact eccentric solution",
-                    "annulus",
-                )
-            )
-    else:
-        ecc = np.ones_like(v)
+    ecc, ecc_notes = _eccentricity(method, case, st)
     gradient = 2.0 * st.friction_factor * case.density * v**2 / case.d_h * ecc
     v_c = _critical_velocity(spec, critical, limit)
-    notes.append(
-        count_note(
-            st.regime == TRANSITIONAL,
-            "warning",
-            "transitional_flow",
-            "transitional flow: the Reynolds number lies between the method's laminar and "
-            "turbulent limits, where friction is least certain",
-            case.geometry,
-        )
-    )
-    notes.append(
-        count_note(
-            (st.regime == LAMINAR) & (v < v_c),
-            "info",
-            "below_critical_velocity",
-            "velocity below the critical velocity (laminar flow)",
-            case.geometry,
-        )
-    )
-    if not spec.uses_roughness:
-        notes.append(
-            count_note(
-                case.roughness > 0,
-                "info",
-                "roughness_ignored",
-                f"method '{method}' assumes smooth walls; the roughness given is not used",
-                case.geometry,
-            )
-        )
+    notes = [*st.notes, *ecc_notes, *_regime_notes(method, spec, case, st, v_c)]
     o = lambda x: _shape_out(x, shape)  # noqa: E731
     return FlowResult(
         method=method,
@@ -254,7 +282,9 @@ def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
     )
 
 
-def pipe_flow(q, d, *, density, tau_y, k, n, method=DEFAULT_METHOD, roughness=0.0) -> FlowResult:
+def pipe_flow(
+    q, d, *, density, tau_y, k, n, method=DEFAULT_FRICTION_LAW, roughness=0.0
+) -> FlowResult:
     """Frictional pressure gradient for flow inside a pipe.
 
     .. math:: -\\frac{dp}{dL} = \\frac{2fρV^2}{D} = \\frac{4τ_w}{D}, \\qquad V = \\frac{4Q}{πD^2}
@@ -274,7 +304,7 @@ def pipe_flow(q, d, *, density, tau_y, k, n, method=DEFAULT_METHOD, roughness=0.
     n : array_like
         Flow behaviour index [-], > 0 (1 for Newtonian and Bingham).
     method : str
-        One of :func:`list_methods` (default ``"api13d_2010_hb"``).
+        One of :func:`list_friction_laws` (default ``"api13d_2010_hb"``).
     roughness : array_like
         Absolute wall roughness [m], ≥ 0 (used by ``"newtonian"``; others note it is ignored).
 
@@ -291,7 +321,7 @@ def pipe_flow(q, d, *, density, tau_y, k, n, method=DEFAULT_METHOD, roughness=0.
 
     Notes
     -----
-    Each method's regime bounds and validity are in its description (:func:`list_methods`).
+    Each method's regime bounds and validity are in its description (:func:`list_friction_laws`).
     Doubtful cases (transitional flow, velocity below critical, correlations outside their
     fitted range) are reported in ``notes``.
 
@@ -320,7 +350,7 @@ def annulus_flow(
     tau_y,
     k,
     n,
-    method=DEFAULT_METHOD,
+    method=DEFAULT_FRICTION_LAW,
     eccentricity=0.0,
     roughness=0.0,
 ) -> FlowResult:
@@ -370,7 +400,7 @@ def annulus_flow(
     return _evaluate(method, case, shape, critical)
 
 
-def critical_flow_rate(d, d_pipe=None, *, density, tau_y, k, n, method=DEFAULT_METHOD):
+def critical_flow_rate(d, d_pipe=None, *, density, tau_y, k, n, method=DEFAULT_FRICTION_LAW):
     """Flow rate at which the method's Reynolds number reaches its laminar limit [m³/s].
 
     Pipe when ``d_pipe`` is None (``d`` the pipe ID), annulus otherwise (``d`` the hole ID).
@@ -402,6 +432,6 @@ def critical_flow_rate(d, d_pipe=None, *, density, tau_y, k, n, method=DEFAULT_M
     case, shape, critical = _build_case(
         geometry, NOMINAL_RATE, d, 0.0 if d_pipe is None else d_pipe, density, tau_y, k, n, 0.0, 0.0
     )
-    spec: FlowMethod = FLOW_METHODS.get(method).func
+    spec: FlowMethod = FRICTION_LAWS.get(method).func
     spec.check(case)
     return _shape_out(_critical_velocity(spec, critical) * case.area, shape)

@@ -19,7 +19,7 @@ from calc.flow.friction import (
     n_dependent_bounds,
 )
 from calc.flow.result import (
-    FLOW_METHODS,
+    FRICTION_LAWS,
     LAMINAR,
     TURBULENT,
     FlowCase,
@@ -139,7 +139,7 @@ def _check_api10(case: FlowCase) -> None:
     require_n_at_most(case, "api13d_2010_hb")
 
 
-FLOW_METHODS.register(
+FRICTION_LAWS.register(
     "api13d_2010_hb",
     "API RP 13D (2006/2010) Herschel-Bulkley: G factor, tau_w, Re_G, blended friction factor",
     "API RP 13D 5th ed. (2006) / 6th ed. (2010); as in METHODS §3.2, §3.5, pending "
@@ -213,7 +213,7 @@ def _check_api95(case: FlowCase) -> None:
     require_no_yield(case, "api13d_1995_power_law")
 
 
-FLOW_METHODS.register(
+FRICTION_LAWS.register(
     "api13d_1995_power_law",
     "API RP 13D (1995) power law: mu_e, Re, 16/Re or 24/Re below 2100, a/Re^b above",
     "API RP 13D 3rd ed. (1995), as compiled in METHODS §3.2, §3.4 (second-hand)",

@@ -27,7 +27,7 @@ from calc.flow.friction import (
 )
 from calc.flow.laminar_exact import hb_pipe_wall_stress, hb_slot_wall_stress, lamb_diameter
 from calc.flow.result import (
-    FLOW_METHODS,
+    FRICTION_LAWS,
     FlowCase,
     FlowMethod,
     MethodState,
@@ -104,7 +104,7 @@ def _check_newtonian(case: FlowCase) -> None:
     require_no_yield(case, "newtonian")
 
 
-FLOW_METHODS.register(
+FRICTION_LAWS.register(
     "newtonian",
     "Newtonian: Hagen-Poiseuille / Lamb laminar, Colebrook turbulent with roughness, "
     "linear transition 2100-4000",
@@ -167,7 +167,7 @@ def _check_bingham(case: FlowCase) -> None:
     require_n_one(case, "bingham")
 
 
-FLOW_METHODS.register(
+FRICTION_LAWS.register(
     "bingham",
     "Bingham plastic: Buckingham-Reiner (pipe) / plane slot (annulus) laminar, Hanks "
     "transition, Darby-Mun-Boger turbulent and blend",
@@ -239,7 +239,7 @@ def _check_power_law(case: FlowCase) -> None:
     require_n_at_most(case, "power_law")
 
 
-FLOW_METHODS.register(
+FRICTION_LAWS.register(
     "power_law",
     "Power law: Metzner-Reed Re, Dodge-Metzner turbulent (solved), bounds 3470-1370n / "
     "4270-1370n with linear transition",

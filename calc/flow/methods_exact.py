@@ -21,7 +21,7 @@ from calc.flow.laminar_exact import (
     power_law_slot_wall_stress,
 )
 from calc.flow.result import (
-    FLOW_METHODS,
+    FRICTION_LAWS,
     FlowCase,
     FlowMethod,
     MethodState,
@@ -102,7 +102,7 @@ def _check(case: FlowCase) -> None:
     require_n_at_most(case, "exact_laminar")
 
 
-FLOW_METHODS.register(
+FRICTION_LAWS.register(
     "exact_laminar",
     "Exact laminar Herschel-Bulkley: pipe closed form, concentric annulus solved numerically "
     "(laminar only; flags non-laminar Re)",

@@ -1,6 +1,6 @@
 """Result and method plumbing for :mod:`calc.flow`: the result dataclass, the method registry.
 
-Methods register a :class:`FlowMethod` in :data:`FLOW_METHODS` (a
+Methods register a :class:`FlowMethod` in :data:`FRICTION_LAWS` (a
 :class:`calc.registry.MethodRegistry`).  Each method turns a :class:`FlowCase` (the broadcast,
 validated, flattened inputs) into a :class:`MethodState` (Reynolds number, limits, regime,
 Fanning friction factor, wall shear rate and stress); :mod:`calc.flow.core` adds the
@@ -17,9 +17,10 @@ import numpy as np
 from calc.flow.area import cross_section_area
 from calc.notes import Note
 from calc.registry import MethodRegistry
+from calc.values import Value
 
 __all__ = [
-    "FLOW_METHODS",
+    "FRICTION_LAWS",
     "LAMINAR",
     "REGIME_LABELS",
     "TRANSITIONAL",
@@ -35,8 +36,9 @@ __all__ = [
 LAMINAR, TRANSITIONAL, TURBULENT = 0, 1, 2
 REGIME_LABELS = ("laminar", "transitional", "turbulent")
 
-#: Registry of pipe/annulus pressure-gradient methods.
-FLOW_METHODS = MethodRegistry("flow method")
+#: Friction laws: the registered pipe/annulus pressure-gradient methods (``method="..."`` of
+#: :func:`~calc.flow.pipe_flow`; a hydraulics method of :mod:`calc.hydraulics_method` names one).
+FRICTION_LAWS = MethodRegistry("friction law")
 
 
 def regime_label(regime):
@@ -188,14 +190,21 @@ class FlowResult:
         return 4.0 * self.friction_factor
 
 
-def count_note(mask, level, code, what, subject=""):
+def count_note(mask, level, code, what, subject="", values=()):
     """One :class:`Note` for the elements where ``mask`` holds, or ``None`` if none do.
 
-    The message reads "<what> (k of N evaluations)" so a 10,000-rate sweep gives one note.
+    The text reads "<what> ({hits} of {evaluations} evaluations)" so a 10,000-rate sweep gives
+    one note; ``what`` may name fields of ``values``.
+
+    >>> str(count_note(np.array([True, False, True]), "info", "demo", "slow flow", "pipe"))
+    'INFO [pipe]: slow flow (2 of 3 evaluations).'
     """
     m = np.asarray(mask, dtype=bool)
     hits = int(np.count_nonzero(m))
     if hits == 0:
         return None
-    where = "" if m.size == 1 else f" ({hits} of {m.size} evaluations)"
-    return Note(level, code, f"{what}{where}.", subject)
+    if m.size == 1:
+        return Note(level, code, f"{what}.", subject, tuple(values))
+    counts = (Value("hits", float(hits)), Value("evaluations", float(m.size)))
+    text = f"{what} ({{hits:.0f}} of {{evaluations:.0f}} evaluations)."
+    return Note(level, code, text, subject, (*values, *counts))

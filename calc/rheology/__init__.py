@@ -5,10 +5,12 @@ Public API (all SI):
 * readings — :class:`ViscometerReadings`, :class:`ViscometerGeometry`, :data:`STANDARD_GEOMETRY`,
   :class:`RheometerTable`, :func:`find_plateau`;
 * models — :class:`Newtonian`, :class:`Bingham`, :class:`PowerLaw`, :class:`HerschelBulkley`,
-  :class:`Cross`, :class:`CarreauYasuda`;
+  :class:`Cross`, :class:`CarreauYasuda`; ``model.parameters()`` gives SI values with kinds
+  (the faces format them: ``addin.text.model``);
 * fits — :func:`fit`, :func:`fit_all`, :func:`rank_fits`, :func:`methods_for`,
-  :class:`FitResult`, :class:`FitQuality`, :class:`FitSet`, registries
-  :data:`VISCOMETER_FITS` and :data:`TABLE_FITS`;
+  :class:`FitResult`, :class:`FitQuality`, :class:`FitSet`, the viscometer fits
+  :data:`VISCOMETER_FITS` and rheometer-table fits :data:`TABLE_FITS` (which fit a hydraulics
+  method uses for pipe and annulus: :mod:`calc.hydraulics_method`);
 * comparing checks — :func:`compare_checks`, :func:`compare_series`, :data:`DEFAULT_TOLERANCES`.
 """
 

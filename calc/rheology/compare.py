@@ -35,10 +35,11 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from calc.errors import InputError
+from calc.errors import InputError, check_choice
 from calc.notes import Note
 from calc.rheology.fitting import fit
 from calc.rheology.viscometer import CENTIPOISE, FIELD_STRESS, ViscometerReadings
+from calc.values import Value
 
 __all__ = [
     "DEFAULT_TOLERANCES",
@@ -142,8 +143,6 @@ def _tolerances(user) -> dict[str, Tolerance]:
         raise InputError("tolerances", user, "a mapping parameter → Tolerance or (abs, rel)")
     for key, val in user.items():
         if key not in PARAMETER_KINDS:
-            from calc.errors import check_choice
-
             check_choice("tolerance parameter", key, list(PARAMETER_KINDS))
         if isinstance(val, Tolerance):
             tol[key] = val
@@ -211,15 +210,45 @@ def compare_checks(
     if not np.isfinite(res) or res < 0:
         raise InputError("reading resolution", res, ">= 0 degree")
     fa, fb = fit(a, method), fit(b, method)
-    va, vb = _values(a, fa.model), _values(b, fb.model)
+    changes, notes = _parameter_changes(
+        _values(a, fa.model), _values(b, fb.model), tol, fa.model.n - fb.model.n
+    )
+    grid, diff_deg, curve_notes = _curve_difference(a, b, fa, fb)
+    i = int(np.argmax(np.abs(diff_deg)))
+    threshold = 2.0 * res
+    return CheckComparison(
+        a.label,
+        b.label,
+        method,
+        tuple(changes),
+        bool(abs(diff_deg[i]) > threshold),
+        float(diff_deg[i]),
+        float(grid[i]),
+        threshold,
+        _shared_readings(a, b),
+        tuple(notes + curve_notes + _like_for_like_notes(a, b)),
+    )
+
+
+def _parameter_changes(va, vb, tol, n_difference):
+    """The change of each parameter both checks have; notes on those only one has, and on K
+    when n moved (K of different n are not comparable)."""
     notes: list[Note] = []
     changes = []
     for name in PARAMETER_KINDS:
         if name in va and name in vb:
             changes.append(_change(name, va[name], vb[name], tol[name]))
         elif name in va or name in vb:
-            notes.append(Note("info", "not_compared", f"{name} is in one check only", name))
-    if abs(fa.model.n - fb.model.n) > 0.1:
+            notes.append(
+                Note(
+                    "info",
+                    "not_compared",
+                    "{parameter} is in one check only",
+                    name,
+                    (Value("parameter", name),),
+                )
+            )
+    if abs(n_difference) > 0.1:
         notes.append(
             Note(
                 "info",
@@ -228,15 +257,23 @@ def compare_checks(
                 "K",
             )
         )
+    return changes, notes
+
+
+def _curve_difference(a, b, fa, fb):
+    """The fitted curves' difference b − a [dial degrees of a's instrument] on 200 log-spaced
+    shear rates over both measured ranges, with the fits' extrapolation notes there."""
     lo = min(a.shear_rate_range[0], b.shear_rate_range[0])
     hi = max(a.shear_rate_range[1], b.shear_rate_range[1])
     grid = np.geomspace(lo, hi, 200)
-    for f in (fa, fb):
-        notes.extend(f.extrapolation_notes(grid))
+    notes = [n for f in (fa, fb) for n in f.extrapolation_notes(grid)]
     diff_deg = (fb.model.stress(grid) - fa.model.stress(grid)) / a.geometry.stress_per_reading
-    i = int(np.argmax(np.abs(diff_deg)))
-    threshold = 2.0 * res
-    shared = {
+    return grid, diff_deg, notes
+
+
+def _shared_readings(a, b) -> dict[float, float]:
+    """rpm → θb − θa (in a's spring) at the speeds both checks read."""
+    return {
         float(s): (
             b.reading(s) * b.geometry.spring_factor - a.reading(s) * a.geometry.spring_factor
         )
@@ -244,6 +281,11 @@ def compare_checks(
         for s in a.speeds
         if b.reading(s) is not None
     }
+
+
+def _like_for_like_notes(a, b) -> list[Note]:
+    """Whether the checks are like for like: the same instrument factors, cup temperatures."""
+    notes = []
     if a.geometry.shear_rate_per_rpm != b.geometry.shear_rate_per_rpm or (
         a.geometry.stress_per_degree != b.geometry.stress_per_degree
     ):
@@ -268,22 +310,15 @@ def compare_checks(
             Note(
                 "info",
                 "temperature_differs",
-                f"cup temperatures differ by "
-                f"{abs(a.temperature - b.temperature) * 1.8:.3g} °F (> 10 °F)",
+                "cup temperatures differ by {difference:.3g} °F (> {limit:.3g} °F)",
+                values=(
+                    # a temperature difference: 1 K = 1.8 °F (no offset; no kind converts it)
+                    Value("difference", abs(a.temperature - b.temperature) * 1.8),
+                    Value("limit", TEMPERATURE_TOLERANCE * 1.8),
+                ),
             )
         )
-    return CheckComparison(
-        a.label,
-        b.label,
-        method,
-        tuple(changes),
-        bool(abs(diff_deg[i]) > threshold),
-        float(diff_deg[i]),
-        float(grid[i]),
-        threshold,
-        shared,
-        tuple(notes),
-    )
+    return notes
 
 
 def compare_series(checks: Sequence[ViscometerReadings], **kwargs) -> tuple[CheckComparison, ...]:

@@ -29,6 +29,7 @@ from calc.rheology.fit_viscometer import fit_hb_stress, n_notes
 from calc.rheology.fitresult import LOG_SPACE, TABLE_FITS, FitResult, quality_of
 from calc.rheology.models import CarreauYasuda, Cross, HerschelBulkley, Newtonian, PowerLaw
 from calc.rheology.table import RheometerTable
+from calc.values import Value
 
 __all__: list[str] = []
 
@@ -58,16 +59,21 @@ def _plateau_notes(t: RheometerTable, method: str) -> tuple[list[Note], dict]:
     if p.onset_rate is not None:
         inter["onset_shear_rate_1_s"] = p.onset_rate
     if p.found:
-        msg = (
-            f"zero-shear plateau η₀ ≈ {p.eta0:.4g} Pa·s over {p.n_points} points up to "
-            f"{p.last_rate:.4g} 1/s"
-        )
-        msg += (
-            f"; shear thinning begins near {p.onset_rate:.4g} 1/s (η < {1 - p.tol:.0%} of η₀)"
-            if p.onset_rate is not None
-            else "; no shear thinning in the table"
-        )
-        return [Note("info", "plateau", msg, method)], inter
+        msg = "zero-shear plateau η₀ ≈ {eta0:.4g} over {points:.0f} points up to {last_rate:.4g}"
+        values = [
+            Value("eta0", float(p.eta0), "viscosity"),
+            Value("points", float(p.n_points)),
+            Value("last_rate", float(p.last_rate), "shear_rate"),
+        ]
+        if p.onset_rate is not None:
+            msg += "; shear thinning begins near {onset:.4g} (η < {fraction:.0%} of η₀)"
+            values += [
+                Value("onset", float(p.onset_rate), "shear_rate"),
+                Value("fraction", float(1 - p.tol)),
+            ]
+        else:
+            msg += "; no shear thinning in the table"
+        return [Note("info", "plateau", msg, method, tuple(values))], inter
     return [
         Note(
             "warning",
@@ -98,9 +104,13 @@ def power_law_loglog(data) -> FitResult:
             Note(
                 "info",
                 "thinning_region",
-                f"shear-thinning region {g[0]:.4g}–"
-                f"{g[-1]:.4g} 1/s ({mask.sum()} of {mask.size} points)",
+                "shear-thinning region {region:.4g} ({used:.0f} of {points:.0f} points)",
                 method,
+                (
+                    Value("region", (float(g[0]), float(g[-1])), "shear_rate"),
+                    Value("used", float(mask.sum())),
+                    Value("points", float(mask.size)),
+                ),
             )
         )
     x, y = np.log10(g), np.log10(tau)

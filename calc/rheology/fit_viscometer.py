@@ -44,6 +44,7 @@ from calc.notes import Note
 from calc.rheology.fitresult import STRESS_SPACE, VISCOMETER_FITS, FitResult, quality_of
 from calc.rheology.models import Bingham, HerschelBulkley, Newtonian, PowerLaw
 from calc.rheology.viscometer import CENTIPOISE, FIELD_STRESS, ViscometerReadings
+from calc.values import Value
 
 __all__ = ["fit_hb_stress", "n_notes", "profile_fit"]
 
@@ -66,7 +67,15 @@ def n_notes(n: float, method: str) -> list[Note]:
     """A warning when n is outside the usual 0.2–1 range (PRACTICE §2.1, common practice)."""
     if 0.2 <= n <= 1.0:
         return []
-    return [Note("warning", "n_unusual", f"n = {n:.3g} is outside the usual 0.2–1 range", method)]
+    return [
+        Note(
+            "warning",
+            "n_unusual",
+            "n = {n:.3g} is outside the usual 0.2–1 range",
+            method,
+            (Value("n", float(n)),),
+        )
+    ]
 
 
 def _at(r: ViscometerReadings, rpm: float, what: str):
@@ -101,7 +110,15 @@ def _two_speeds(r: ViscometerReadings, method: str) -> tuple[float, float, list[
     return (
         hi,
         lo,
-        [Note("info", "two_speed_choice", f"no 600/300 pair: used {hi:g}/{lo:g} rpm", method)],
+        [
+            Note(
+                "info",
+                "two_speed_choice",
+                "no 600/300 pair: used {high:g}/{low:g} rpm",
+                method,
+                (Value("high", hi), Value("low", lo)),
+            )
+        ],
     )
 
 
@@ -225,8 +242,9 @@ def bingham_two_speed(data) -> FitResult:
             Note(
                 "warning",
                 "tau_y_clipped",
-                f"two-speed yield stress {ty:.4g} Pa < 0; set to 0",
+                "two-speed yield stress {tau_y:.4g} < 0; set to 0",
                 method,
+                (Value("tau_y", float(ty), "stress"),),
             )
         )
         ty = 0.0
@@ -277,7 +295,11 @@ def api13d_2010_hb(data) -> FitResult:
     if ty < 0:
         notes.append(
             Note(
-                "warning", "tau_y_clipped", f"2θ3 − θ6 = {2 * th3 - th6:g} < 0: τy set to 0", method
+                "warning",
+                "tau_y_clipped",
+                "2θ3 − θ6 = {lsyp_dial:g} < 0: τy set to 0",
+                method,
+                (Value("lsyp_dial", 2 * th3 - th6),),
             )
         )
         ty = 0.0
@@ -392,14 +414,21 @@ def fit_hb_stress(shear_rate, stress, method: str = "hb_least_squares"):
             Note(
                 "warning",
                 "tau_y_clipped",
-                f"least-squares τy would be {ty_free:.4g} Pa "
-                "(< 0); set to 0 and refitted (Kelessidis et al. 2006)",
+                "least-squares τy would be {tau_y:.4g} (< 0); set to 0 and refitted "
+                "(Kelessidis et al. 2006)",
                 method,
+                (Value("tau_y", float(ty_free), "stress"),),
             )
         )
     if edge:
         notes.append(
-            Note("warning", "n_at_bound", f"n = {n:.3g} at the search bound 0.02–2.5", method)
+            Note(
+                "warning",
+                "n_at_bound",
+                "n = {n:.3g} at the search bound 0.02–2.5",
+                method,
+                (Value("n", float(n)),),
+            )
         )
     return HerschelBulkley(ty, k, n), notes + n_notes(n, method), ty_free
 
@@ -412,9 +441,10 @@ def _lsq_result(r, model, method, notes, description, n_params, inter):
             Note(
                 "info",
                 "exact_fit",
-                f"{r.speeds.size} readings for {n_params} "
-                "parameters: the fit passes through every reading",
+                "{readings:.0f} readings for {parameters:.0f} parameters: the fit passes "
+                "through every reading",
                 method,
+                (Value("readings", float(r.speeds.size)), Value("parameters", float(n_params))),
             ),
         ]
     return FitResult(
@@ -472,8 +502,9 @@ def power_law_least_squares(data) -> FitResult:
             Note(
                 "warning",
                 "n_at_bound",
-                f"n = {n:.3g} at the search bound",
+                "n = {n:.3g} at the search bound",
                 "power_law_least_squares",
+                (Value("n", float(n)),),
             )
         )
     model = PowerLaw(k, n)
@@ -505,8 +536,9 @@ def bingham_least_squares(data) -> FitResult:
             Note(
                 "warning",
                 "tau_y_clipped",
-                f"least-squares τy would be {ty_free[0]:.4g} Pa (< 0); set to 0 and refitted",
+                "least-squares τy would be {tau_y:.4g} (< 0); set to 0 and refitted",
                 method,
+                (Value("tau_y", float(ty_free[0]), "stress"),),
             )
         )
     model = Bingham(float(ty[0]), float(mu[0]))

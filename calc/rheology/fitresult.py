@@ -30,6 +30,8 @@ import numpy as np
 from calc.errors import check_finite
 from calc.notes import Note
 from calc.registry import MethodRegistry
+from calc.rheology.models import Model
+from calc.values import Value
 
 __all__ = [
     "LOG_SPACE",
@@ -48,9 +50,9 @@ STRESS_SPACE = "shear stress [Pa], unweighted"
 LOG_SPACE = "log10 shear stress (≡ log10 viscosity), unweighted"
 
 #: Fit methods for viscometer readings (:class:`~calc.rheology.viscometer.ViscometerReadings`).
-VISCOMETER_FITS = MethodRegistry("viscometer fit method")
+VISCOMETER_FITS = MethodRegistry("viscometer fit")
 #: Fit methods for rheometer tables (:class:`~calc.rheology.table.RheometerTable`).
-TABLE_FITS = MethodRegistry("rheometer-table fit method")
+TABLE_FITS = MethodRegistry("rheometer-table fit")
 
 
 @dataclass(frozen=True, eq=False)
@@ -116,7 +118,7 @@ class FitResult:
     intermediates    named numbers for a hand check (dial readings, field-unit values …)
     """
 
-    model: object
+    model: Model
     method: str
     quality: FitQuality
     notes: tuple[Note, ...]
@@ -141,14 +143,20 @@ class FitResult:
         above = g > hi * (1 + tol)
         if not (np.any(below) or np.any(above)):
             return ()
-        used = f"{np.min(g):.4g}–{np.max(g):.4g}" if g.size > 1 else f"{float(g):.4g}"
+        used = (float(np.min(g)), float(np.max(g))) if g.size > 1 else float(g)
         return (
             Note(
                 "warning",
                 "extrapolated",
-                f"{self.model.name} ({self.method}) used at shear rate {used} 1/s, outside the "
-                f"range it was fitted over ({lo:.4g}–{hi:.4g} 1/s)",
+                "{model} ({method}) used at shear rate {used:.4g}, outside the range it was "
+                "fitted over ({fitted:.4g})",
                 self.method,
+                (
+                    Value("model", self.model.name),
+                    Value("method", self.method),
+                    Value("used", used, "shear_rate"),
+                    Value("fitted", (float(lo), float(hi)), "shear_rate"),
+                ),
             ),
         )
 

@@ -31,6 +31,7 @@ from calc.rheology.fitresult import (
 )
 from calc.rheology.table import RheometerTable
 from calc.rheology.viscometer import ViscometerReadings
+from calc.values import Value
 
 __all__ = ["fit", "fit_all", "methods_for", "rank_fits"]
 
@@ -94,5 +95,13 @@ def fit_all(data, methods=None) -> FitSet:
         try:
             results.append(reg.get(name).func(data))
         except InputError as exc:
-            notes.append(Note("info", "fit_skipped", f"{name} not fitted: {exc}", name))
+            notes.append(
+                Note(
+                    "info",
+                    "fit_skipped",
+                    "{method} not fitted: {reason}",
+                    name,
+                    (Value("method", name), Value("reason", str(exc))),
+                )
+            )
     return FitSet(tuple(results), rank_fits(data, results), tuple(notes))

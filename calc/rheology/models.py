@@ -31,7 +31,7 @@ from typing import ClassVar
 import numpy as np
 
 from calc.errors import InputError, check_finite
-from calc.units import from_si, label, unit_for
+from calc.values import Value
 
 __all__ = [
     "MODEL_TYPES",
@@ -73,11 +73,16 @@ def _param(cls_name, name, value, lo=0.0, lo_open=True, hi=None):
 
 
 class Model:
-    """Shared behaviour: ``stress``, ``apparent_viscosity``, ``parameters``, ``display``."""
+    """Shared behaviour: ``stress``, ``apparent_viscosity`` and ``parameters``.
+
+    ``symbols`` maps each parameter field to its symbol and quantity kind
+    (:data:`calc.kinds.KINDS`; ``""`` for a pure number), so a face can show any model's
+    parameters in a unit system without knowing the class (``addin.text.model``).
+    """
 
     name: ClassVar[str] = "model"
-    #: parameter → (symbol, quantity kind for calc.units, or a fixed unit text)
-    _kinds: ClassVar[dict[str, tuple[str, str]]] = {}
+    #: parameter field → (symbol, quantity kind of calc.kinds, "" for a pure number)
+    symbols: ClassVar[dict[str, tuple[str, str]]] = {}
     n_params: ClassVar[int] = 0
 
     def stress(self, shear_rate):  # pragma: no cover - overridden
@@ -86,33 +91,17 @@ class Model:
     def apparent_viscosity(self, shear_rate):  # pragma: no cover - overridden
         raise NotImplementedError
 
-    def parameters(self, system: str = "si") -> dict[str, tuple[float, str]]:
-        """Parameters in a named unit system: symbol → (value, unit label)."""
-        out = {}
-        for f in fields(self):
-            sym, kind = self._kinds[f.name]
-            val = getattr(self, f.name)
-            if kind in ("dimensionless", "s"):
-                out[sym] = (val, "" if kind == "dimensionless" else "s")
-                continue
-            unit = unit_for(kind, system)
-            text = label(unit)
-            if kind == "consistency":
-                text = text.replace("/", "·sⁿ/", 1) if "/" in text else text + "·sⁿ"
-            out[sym] = (from_si(val, unit, kind), text)
-        return out
+    def parameters(self) -> tuple[Value, ...]:
+        """The parameters in SI, each a :class:`~calc.values.Value` named by its symbol.
 
-    def display(self, system: str = "oilfield", digits: int = 4) -> str:
-        """One line: model name and parameters in a named unit system.
-
-        >>> HerschelBulkley(3.0, 0.5, 0.6).display("si")
-        'Herschel-Bulkley: τy = 3 Pa, K = 0.5 Pa·sⁿ, n = 0.6'
+        >>> [(v.name, v.value, v.kind) for v in HerschelBulkley(3.0, 0.5, 0.6).parameters()]
+        [('τy', 3.0, 'stress'), ('K', 0.5, 'consistency'), ('n', 0.6, '')]
         """
-        parts = [
-            f"{sym} = {val:.{digits}g}{' ' + unit if unit else ''}"
-            for sym, (val, unit) in self.parameters(system).items()
-        ]
-        return f"{self.name}: " + ", ".join(parts)
+        out = []
+        for f in fields(self):
+            sym, kind = self.symbols[f.name]
+            out.append(Value(sym, float(getattr(self, f.name)), kind))
+        return tuple(out)
 
 
 class _YieldPowerLaw(Model):
@@ -148,7 +137,7 @@ class Newtonian(_YieldPowerLaw):
     mu: float
     name: ClassVar[str] = "Newtonian"
     n_params: ClassVar[int] = 1
-    _kinds: ClassVar = {"mu": ("μ", "viscosity")}
+    symbols: ClassVar = {"mu": ("μ", "viscosity")}
 
     def __post_init__(self):
         object.__setattr__(self, "mu", _param(self.name, "μ", self.mu))
@@ -166,7 +155,7 @@ class Bingham(_YieldPowerLaw):
     mu_p: float
     name: ClassVar[str] = "Bingham"
     n_params: ClassVar[int] = 2
-    _kinds: ClassVar = {"tau_y": ("τy", "stress"), "mu_p": ("μp", "viscosity")}
+    symbols: ClassVar = {"tau_y": ("τy", "stress"), "mu_p": ("μp", "viscosity")}
 
     def __post_init__(self):
         object.__setattr__(self, "tau_y", _param(self.name, "τy", self.tau_y, lo_open=False))
@@ -184,7 +173,7 @@ class PowerLaw(_YieldPowerLaw):
     n: float
     name: ClassVar[str] = "power law"
     n_params: ClassVar[int] = 2
-    _kinds: ClassVar = {"k": ("K", "consistency"), "n": ("n", "dimensionless")}
+    symbols: ClassVar = {"k": ("K", "consistency"), "n": ("n", "")}
 
     def __post_init__(self):
         object.__setattr__(self, "k", _param(self.name, "K", self.k))
@@ -206,10 +195,10 @@ class HerschelBulkley(_YieldPowerLaw):
     n: float
     name: ClassVar[str] = "Herschel-Bulkley"
     n_params: ClassVar[int] = 3
-    _kinds: ClassVar = {
+    symbols: ClassVar = {
         "tau_y": ("τy", "stress"),
         "k": ("K", "consistency"),
-        "n": ("n", "dimensionless"),
+        "n": ("n", ""),
     }
 
     def __post_init__(self):
@@ -252,11 +241,11 @@ class Cross(_Plateau):
     m: float
     name: ClassVar[str] = "Cross"
     n_params: ClassVar[int] = 4
-    _kinds: ClassVar = {
+    symbols: ClassVar = {
         "eta0": ("η₀", "viscosity"),
         "eta_inf": ("η∞", "viscosity"),
-        "lam": ("λ", "s"),
-        "m": ("m", "dimensionless"),
+        "lam": ("λ", "time"),
+        "m": ("m", ""),
     }
 
     def __post_init__(self):
@@ -290,12 +279,12 @@ class CarreauYasuda(_Plateau):
     a: float = 2.0
     name: ClassVar[str] = "Carreau-Yasuda"
     n_params: ClassVar[int] = 5
-    _kinds: ClassVar = {
+    symbols: ClassVar = {
         "eta0": ("η₀", "viscosity"),
         "eta_inf": ("η∞", "viscosity"),
-        "lam": ("λ", "s"),
-        "n": ("n", "dimensionless"),
-        "a": ("a", "dimensionless"),
+        "lam": ("λ", "time"),
+        "n": ("n", ""),
+        "a": ("a", ""),
     }
 
     def __post_init__(self):

@@ -26,6 +26,7 @@ import numpy as np
 from calc.errors import InputError, as_float_array
 from calc.notes import Note
 from calc.units import to_si
+from calc.values import Value
 
 __all__ = ["Plateau", "RheometerTable", "find_plateau", "shear_thinning_region"]
 
@@ -154,7 +155,14 @@ class RheometerTable:
                     "one value per shear rate",
                     "duplicate shear rate",
                 )
-            notes.append(Note("info", "duplicate_rate", f"{s:g} 1/s listed twice; used once"))
+            notes.append(
+                Note(
+                    "info",
+                    "duplicate_rate",
+                    "{rate:g} listed twice; used once",
+                    values=(Value("rate", float(s), "shear_rate"),),
+                )
+            )
         keep = np.sort(idx)
         g, vals = g[keep], vals[keep]
         if g.size < 2:

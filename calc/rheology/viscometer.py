@@ -39,7 +39,9 @@ import numpy as np
 
 from calc.errors import InputError, as_float_array, check_finite
 from calc.notes import Note
+from calc.rheology.table import RheometerTable
 from calc.units import si_factor
+from calc.values import Value
 
 __all__ = [
     "GEL_NAMES",
@@ -386,8 +388,9 @@ class ViscometerReadings:
                     Note(
                         "info",
                         "duplicate_speed",
-                        f"{s:g} rpm given {c} times with the same reading; used once",
+                        "{speed:g} rpm given {count:.0f} times with the same reading; used once",
                         f"{s:g} rpm",
+                        (Value("speed", float(s)), Value("count", float(c))),
                     )
                 )
         keep = np.sort(idx)
@@ -409,9 +412,16 @@ class ViscometerReadings:
                     Note(
                         "warning",
                         "low_shear_reversed",
-                        f"{lo:g}-rpm ({dial[i]:g}) > {hi:g}-rpm ({dial[i + 1]:g}) within the "
-                        f"reading resolution (±{res:g}°): swapped?",
+                        "{low:g}-rpm ({low_dial:g}) > {high:g}-rpm ({high_dial:g}) within the "
+                        "reading resolution (±{resolution:g}°): swapped?",
                         f"{lo:g}/{hi:g} rpm",
+                        (
+                            Value("low", float(lo)),
+                            Value("low_dial", float(dial[i])),
+                            Value("high", float(hi)),
+                            Value("high_dial", float(dial[i + 1])),
+                            Value("resolution", float(res)),
+                        ),
                     )
                 )
                 continue
@@ -427,8 +437,13 @@ class ViscometerReadings:
                     Note(
                         "warning",
                         "tied_readings",
-                        f"{speeds[i]:g} and {speeds[i + 1]:g} rpm read the same ({dial[i]:g}°)",
+                        "{low:g} and {high:g} rpm read the same ({dial:g}°)",
                         f"{speeds[i]:g}/{speeds[i + 1]:g} rpm",
+                        (
+                            Value("low", float(speeds[i])),
+                            Value("high", float(speeds[i + 1])),
+                            Value("dial", float(dial[i])),
+                        ),
                     )
                 )
 
@@ -459,15 +474,21 @@ class ViscometerReadings:
                     Note(
                         "warning",
                         "gels_reversed",
-                        f"{b} gel ({out[b]:g}) below {a} gel "
-                        f"({out[a]:g}): gels normally rise with rest time",
+                        "{later} gel ({later_dial:g}) below {earlier} gel "
+                        "({earlier_dial:g}): gels normally rise with rest time",
                         "gels",
+                        (
+                            Value("later", b),
+                            Value("later_dial", out[b]),
+                            Value("earlier", a),
+                            Value("earlier_dial", out[a]),
+                        ),
                     )
                 )
         return {k: out[k] for k in order}
 
     def _plausibility(self, notes):
-        rd = self.reading
+        """Notes (and the PV > 0 check) on readings that are possible but doubtful."""
         if self.speeds.size == 2 or self.speeds.min() > 6.0:
             notes.append(
                 Note(
@@ -478,7 +499,21 @@ class ViscometerReadings:
                     "speeds",
                 )
             )
-        t600, t300 = rd(600), rd(300)
+        self._check_600_300(notes)
+        if self.mode == "cement" and self.speeds.max() > 300.0:
+            notes.append(
+                Note(
+                    "warning",
+                    "cement_above_300",
+                    "cement/spacer readings above 300 rpm are outside API RP 10B-2 practice",
+                    "speeds",
+                )
+            )
+        self._field_value_notes(notes)
+
+    def _check_600_300(self, notes):
+        """θ600 > θ300 (PV > 0), and a warning when their ratio is unusual."""
+        t600, t300 = self.reading(600), self.reading(300)
         if t600 is not None and t300 is not None:
             if t600 <= t300:
                 raise InputError(
@@ -493,38 +528,42 @@ class ViscometerReadings:
                     Note(
                         "warning",
                         "ratio_600_300",
-                        f"θ600/θ300 = {ratio:.3g} is outside "
-                        "1.05–2 (power-law n outside about 0.07–1)",
+                        "θ600/θ300 = {ratio:.3g} is outside 1.05–2 "
+                        "(power-law n outside about 0.07–1)",
                         "600/300 rpm",
+                        (Value("ratio", float(ratio)),),
                     )
                 )
-        if self.mode == "cement" and self.speeds.max() > 300.0:
-            notes.append(
-                Note(
-                    "warning",
-                    "cement_above_300",
-                    "cement/spacer readings above 300 rpm are outside API RP 10B-2 practice",
-                    "speeds",
-                )
-            )
+
+    def _field_value_notes(self, notes):
+        """Warnings on YP (negative, or above 3 PV) and on small or close 3/6-rpm readings."""
         try:
-            pv, yp = self.pv / CENTIPOISE, self.yp / FIELD_STRESS
+            pv, yp = self.pv, self.yp
         except InputError:
             pv = yp = None
         if pv is not None:
+            shown = (Value("yp", yp, "stress"), Value("pv", pv, "viscosity"))
             if yp < 0:
-                notes.append(Note("warning", "yp_negative", f"YP = {yp:.3g} lbf/100ft² < 0", "YP"))
-            elif yp > 3 * pv:
-                notes.append(Note("warning", "yp_high", f"YP ({yp:.3g}) > 3 × PV ({pv:.3g})", "YP"))
-        t6, t3 = rd(6), rd(3)
+                notes.append(Note("warning", "yp_negative", "YP = {yp:.3g} < 0", "YP", shown[:1]))
+            elif yp / FIELD_STRESS > 3 * (pv / CENTIPOISE):  # field units: YP > 3 PV
+                notes.append(
+                    Note("warning", "yp_high", "YP ({yp:.3g}) > 3 × PV ({pv:.3g})", "YP", shown)
+                )
+        t6, t3 = self.reading(6), self.reading(3)
         if t6 is not None and t3 is not None and (t3 < 3 or t6 < 3 or t6 - t3 < 1):
             notes.append(
                 Note(
                     "info",
                     "low_shear_uncertain",
-                    f"low-shear readings (θ6 = {t6:g}, θ3 = "
-                    f"{t3:g}) are small or close: LSYP and τy uncertain by about ±1 lbf/100ft²",
+                    "low-shear readings (θ6 = {theta6:g}, θ3 = {theta3:g}) are small or close: "
+                    "LSYP and τy uncertain by about ±{uncertainty:.3g}",
                     "3/6 rpm",
+                    (
+                        Value("theta6", t6),
+                        Value("theta3", t3),
+                        # one dial degree, read as 1 lbf/100 ft² (the field convention)
+                        Value("uncertainty", FIELD_STRESS, "stress"),
+                    ),
                 )
             )
 
@@ -630,6 +669,4 @@ class ViscometerReadings:
 
     def to_table(self):
         """The readings as a :class:`~calc.rheology.table.RheometerTable` (shear rate, stress)."""
-        from calc.rheology.table import RheometerTable
-
         return RheometerTable(self.shear_rate, stress=self.shear_stress, label=self.label)
