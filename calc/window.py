@@ -161,7 +161,7 @@ def operating_window(
     res = circulate(
         well, fluid, qv, method=method, eccentricity=eccentricity, hydrostatic=hydrostatic,
         window=window, weak_points=tuple(weak_points), margins=margins,
-        surface_rating=surface_rating, message_units=message_units,
+        surface_rating=surface_rating,
     )  # fmt: skip
     mt = res.margins
     ecd = np.asarray(mt.ecd, dtype=float)  # (N, P)
@@ -248,7 +248,8 @@ def operating_window(
     fi = np.argmin(frac_m, axis=-1)
     pi = np.argmin(pore_m, axis=-1)
     rows = np.arange(qv.size)
-    names = np.asarray(mt.names, dtype=object)
+    names = np.empty(len(mt.points), dtype=object)
+    names[:] = list(mt.points)
     return OperatingWindow(
         q=qv,
         q_low=float(q_lo),

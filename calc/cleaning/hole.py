@@ -6,7 +6,6 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.circulation._well_link import _row_names
 from calc.cleaning.indicators import (
     LARSEN_RANGE,
     VERDICTS,
@@ -22,6 +21,8 @@ from calc.cleaning.transport import Cuttings, TransportResult, annular_transport
 from calc.errors import InputError, check_choice, check_nonnegative, check_positive
 from calc.notes import Note
 from calc.numeric import bisect_increasing, scalar_or_array
+from calc.units import from_si, unit_for
+from calc.units import label as unit_label
 
 __all__ = [
     "HoleCleaningResult",
@@ -33,6 +34,27 @@ __all__ = [
 
 #: Default bracket for minimum-rate searches [m³/s] (≈ 1.6-3200 gpm).
 RATE_BRACKET = (1e-4, 0.2)
+
+
+# Interval names with their MD range in a unit system's depth unit (moved here from the former
+# calc.circulation._well_link, which no longer builds display text; to be replaced by the
+# rows' spans, calc.geometry.FlowIntervals.spans(), worded by the faces).
+def _depth_span(top: float, bottom: float, system: str = "oilfield") -> str:
+    u = unit_for("depth", system)
+    a, b = (float(from_si(float(x), u)) for x in (top, bottom))
+    digits = 0 if u == "ft" else 1
+    return f"MD {a:,.{digits}f}-{b:,.{digits}f} {unit_label(u)}"
+
+
+def _row_names(iv, path: str, system: str = "oilfield") -> tuple[str, ...]:
+    out = []
+    for comp, sec, tj, top, bot in zip(
+        iv.component, iv.section, iv.is_tool_joint, iv.top_md, iv.bottom_md, strict=True
+    ):
+        part = f"{comp} tool joints" if tj else str(comp)
+        where = f"{part} in {sec}" if path == "annulus" else part
+        out.append(f"{where}, {_depth_span(top, bot, system)}")
+    return tuple(out)
 
 
 def _annulus_rows(well):

@@ -27,6 +27,7 @@ from calc.geometry.string import DrillString
 from calc.geometry.surface import SurfaceLine, ToolPressureDrop
 from calc.geometry.survey import Survey
 from calc.notes import Note
+from calc.span import Span
 from calc.values import Value
 
 __all__ = ["DepthGrid", "FlowIntervals", "Well"]
@@ -130,6 +131,39 @@ class FlowIntervals:
     def delta_tvd(self) -> np.ndarray:
         """Vertical extent this row stands for, share × (bottom_tvd - top_tvd) [m]."""
         return self.share * (self.bottom_tvd - self.top_tvd)
+
+    def spans(self) -> tuple[Span, ...]:
+        """Where each row lies: a :class:`~calc.span.Span` per row (path, component, hole
+        section for annulus rows, tool-joint flag, MD and TVD span [m]).
+
+        >>> from tests.demo_well import demo_well
+        >>> s = demo_well().flow_intervals().annulus.spans()[-1]
+        >>> (s.path, s.top_md)
+        ('annulus', 0.0)
+        """
+        return tuple(
+            Span(
+                str(path),
+                str(comp),
+                str(sec) if path == "annulus" else "",
+                bool(tj),
+                float(top),
+                float(bot),
+                float(ttop),
+                float(tbot),
+            )
+            for path, comp, sec, tj, top, bot, ttop, tbot in zip(
+                self.path,
+                self.component,
+                self.section,
+                self.is_tool_joint,
+                self.top_md,
+                self.bottom_md,
+                self.top_tvd,
+                self.bottom_tvd,
+                strict=True,
+            )
+        )
 
     def to_records(self) -> list[dict]:
         """Rows as dictionaries (for tables and reports)."""

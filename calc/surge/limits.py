@@ -19,9 +19,9 @@ from dataclasses import dataclass
 import numpy as np
 
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT
-from calc.circulation._well_link import depth_point, parts
-from calc.circulation.pressure_window import limits_at
-from calc.circulation.result import _depth_weights
+from calc.circulation.pore_fracture import limits_at
+from calc.circulation.result import depth_weights
+from calc.circulation.well_parts import parts
 from calc.errors import InputError, check_choice, check_finite, check_nonnegative, check_positive
 from calc.flow.solvers import itp_solve
 from calc.notes import Note
@@ -40,7 +40,8 @@ from calc.surge.solver import (
     _solve,
     _string_end,
 )
-from calc.units import from_si
+from calc.units import from_si, unit_for
+from calc.units import label as unit_label
 
 __all__ = ["IntervalTripLimit", "TripLimits", "trip_speed_limit", "trip_speed_limits"]
 
@@ -162,6 +163,14 @@ class TripLimits:
     notes: tuple[Note, ...] = ()
 
 
+# One MD in a unit system's depth unit (moved here from the former calc.circulation._well_link,
+# which no longer builds display text).
+def _depth_point(md: float, system: str = "oilfield") -> str:
+    u = unit_for("depth", system)
+    digits = 0 if u == "ft" else 1
+    return f"MD {float(from_si(float(md), u)):,.{digits}f} {unit_label(u)}"
+
+
 def _check_points(well, weak_points, step):
     """Check depths: every ``step`` from the last shoe (the top of the exposed hole) to the bit,
     plus the weak points; named "<casing> shoe", "MD …" (in the well's message units), "bit" and
@@ -170,7 +179,7 @@ def _check_points(well, weak_points, step):
     bit, top, shoe = exposed.bit_md, exposed.exposed_top, exposed.shoe_name
     md = np.unique(np.append(np.arange(top, bit, step), bit))
     md = md[md > 0]
-    names = [depth_point(m, getattr(well, "message_units", "oilfield")) for m in md]
+    names = [_depth_point(m, getattr(well, "message_units", "oilfield")) for m in md]
     names[-1] = "bit"
     if shoe and md[0] == top:
         names[0] = shoe
@@ -246,7 +255,7 @@ def trip_speed_limits(
     allow_surge = trip_allowance(frac - mf, p.rho, tvd, "running", hydrostatic=hydrostatic)
     allow_swab = trip_allowance(pore + mp, p.rho, tvd, "pulling", hydrostatic=hydrostatic)
     top, bot = np.asarray(a.top_md), np.asarray(a.bottom_md)
-    w = _depth_weights(md, top, bot)
+    w = depth_weights(md, top, bot)
 
     # surge and swab have the same magnitude in the steady model: bisect both sets of depths in
     # one vectorised pass (running limits first, pulling limits second)

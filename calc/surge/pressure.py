@@ -18,7 +18,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT
-from calc.circulation.result import _depth_weights
+from calc.circulation.result import depth_weights
 from calc.errors import check_nonnegative, check_positive
 from calc.flow import mean_velocity
 from calc.notes import Note
@@ -84,7 +84,7 @@ class SurgeResult:
         """Signed pressure change at measured depth(s) ``md`` [Pa] (friction from md to surface;
         below the bit the bit value).  Shape: speed axes + md axes."""
         mdv = check_nonnegative("MD", md, "m")
-        w = _depth_weights(mdv.ravel(), self.top_md, self.bottom_md)
+        w = depth_weights(mdv.ravel(), self.top_md, self.bottom_md)
         p = np.asarray(self.interval_pressure) @ w.T
         return scalar_or_array(self.sign * p.reshape(p.shape[:-1] + mdv.shape))
 

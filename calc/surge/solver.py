@@ -28,12 +28,13 @@ from dataclasses import dataclass
 import numpy as np
 
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT, bit_pressure_drop
-from calc.circulation._well_link import _row_names
 from calc.errors import InputError, check_choice, check_nonnegative, check_positive
 from calc.flow import annulus_flow, cross_section_area, pipe_flow
 from calc.flow.solvers import itp_solve
 from calc.notes import Note
 from calc.surge.clinging import _check_clinging, clinging_constant
+from calc.units import from_si, unit_for
+from calc.units import label as unit_label
 
 __all__ = ["PEAK_FACTOR"]
 
@@ -95,6 +96,27 @@ def _one_density(rho) -> float:
     if rho.ndim:
         raise InputError("fluid density", "an array", "one density for surge and swab")
     return float(check_positive("density", rho, "kg/m³"))
+
+
+# Interval names with their MD range in a unit system's depth unit (moved here from the former
+# calc.circulation._well_link, which no longer builds display text; to be replaced by the
+# rows' spans, calc.geometry.FlowIntervals.spans(), worded by the faces).
+def _depth_span(top: float, bottom: float, system: str = "oilfield") -> str:
+    u = unit_for("depth", system)
+    a, b = (float(from_si(float(x), u)) for x in (top, bottom))
+    digits = 0 if u == "ft" else 1
+    return f"MD {a:,.{digits}f}-{b:,.{digits}f} {unit_label(u)}"
+
+
+def _row_names(iv, path: str, system: str = "oilfield") -> tuple[str, ...]:
+    out = []
+    for comp, sec, tj, top, bot in zip(
+        iv.component, iv.section, iv.is_tool_joint, iv.top_md, iv.bottom_md, strict=True
+    ):
+        part = f"{comp} tool joints" if tj else str(comp)
+        where = f"{part} in {sec}" if path == "annulus" else part
+        out.append(f"{where}, {_depth_span(top, bot, system)}")
+    return tuple(out)
 
 
 def _paths_from_well(well, fluid, method, eccentricity) -> tuple[_Paths, object, tuple]:
