@@ -301,7 +301,9 @@ def test_friction_multiplier_scales_friction_only():
     a = circulate(well, hb_fluid(), Q)
     b = circulate(well, hb_fluid(), Q, friction_multiplier=1.2)
     assert b.frictional_loss == pytest.approx(1.2 * a.frictional_loss, rel=1e-12)
-    assert b.bit.pressure_drop == pytest.approx(a.bit.pressure_drop) and b.tools.total == pytest.approx(a.tools.total)
+    assert b.bit.pressure_drop == pytest.approx(
+        a.bit.pressure_drop
+    ) and b.tools.total == pytest.approx(a.tools.total)
     assert b.ecd_bit > a.ecd_bit
 
 

@@ -14,14 +14,23 @@ always refers to what the table shows.
 
 from __future__ import annotations
 
+import numpy as np
 from openpyxl.chart import BarChart, Reference, ScatterChart, Series
 from openpyxl.chart.layout import Layout, ManualLayout
 from openpyxl.chart.shapes import GraphicalProperties
+from openpyxl.chart.text import RichText, Text
+from openpyxl.chart.title import Title
 from openpyxl.drawing.line import LineProperties
+from openpyxl.drawing.text import (
+    CharacterProperties,
+    Paragraph,
+    ParagraphProperties,
+    RegularTextRun,
+)
 
 from addin.report.style import PALETTE
 
-__all__ = ["depth_profile", "pressure_breakdown", "rate_curves", "rheogram"]
+__all__ = ["depth_profile", "nice_axis", "pressure_breakdown", "rate_curves", "rheogram"]
 
 _SERIES_COLOURS = ("1F5FA8", "C08A2B", "2E7D4F", "8E44AD", "B03A2E", "17808A", "6B7785")
 
@@ -241,15 +250,18 @@ def rate_curves(
 
 def _small_title(text: str, size_pt: float = 10.0):
     """A chart title in a modest bold font (the default is large for a one-third-page chart)."""
-    from openpyxl.chart.text import RichText, Text
-    from openpyxl.chart.title import Title
-    from openpyxl.drawing.text import (
-        CharacterProperties,
-        Paragraph,
-        ParagraphProperties,
-        RegularTextRun,
-    )
-
     cp = CharacterProperties(sz=int(size_pt * 100), b=True)
     para = Paragraph(pPr=ParagraphProperties(defRPr=cp), r=[RegularTextRun(rPr=cp, t=text)])
     return Title(tx=Text(rich=RichText(p=[para])), overlay=False)
+
+
+def nice_axis(lo: float, hi: float, ticks: int = 8) -> tuple[float, float, float]:
+    """Axis limits on round steps (1, 2, 2.5 or 5 × 10^k) around [lo, hi].
+
+    >>> nice_axis(8.6, 15.2)
+    (8.0, 16.0, 1.0)
+    """
+    raw = max(hi - lo, 1e-9) / ticks
+    mag = 10.0 ** np.floor(np.log10(raw))
+    step = float(next(m * mag for m in (1.0, 2.0, 2.5, 5.0, 10.0) if m * mag >= raw))
+    return float(np.floor(lo / step) * step), float(np.ceil(hi / step) * step), step

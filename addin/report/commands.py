@@ -9,6 +9,7 @@ import sys
 import time
 from pathlib import Path
 
+from addin import text
 from calc.errors import InputError
 from calc.units import UNIT_SYSTEMS, from_si, label, unit_for
 
@@ -179,15 +180,20 @@ def _cmd_calc(args) -> int:
             weak_points=case.weak_points,
             margins=Margins(lim["fracture_margin"], lim["pore_margin"]),
             surface_rating=lim["surface_rating"],
-            message_units=case.units,
         )
         d = {"flow rate": (scalar(res.q), "flow_rate")}
-        d.update({f"loss: {k}": (scalar(v), "pressure") for k, v in res.breakdown().items()})
+        d.update(
+            {
+                f"loss: {text.BREAKDOWN_LABELS[k]}": (scalar(v), "pressure")
+                for k, v in res.breakdown().items()
+            }
+        )
         d["standpipe pressure"] = (scalar(res.standpipe_pressure), "pressure")
         d["ECD at the bit"] = (scalar(res.ecd_bit), "density")
         if res.margins is not None:
             t = res.margins.tightest
-            d[f"tightest margin ({t.name}, {t.limit})"] = (float(t.margin), "density")
+            where = text.check_point(t.point, s)
+            d[f"tightest margin ({where}, {t.limit})"] = (float(t.margin), "density")
         _show(d, s, args.json)
     return 0
 

@@ -66,16 +66,17 @@ def results_data(results) -> dict:
     bd = {k: _c(v, "pressure", s) for k, v in res.breakdown().items()}
     iv = results.well.flow_intervals()
     intervals = []
-    for path, rows, names, losses, flow in (
-        ("string", iv.select("string"), res.string_names, res.string_losses, res.string_flow),
-        ("annulus", iv.select("annulus"), res.annulus_names, res.annulus_losses, res.annulus_flow),
+    for path, rows, group in (
+        ("string", iv.select("string"), res.string),
+        ("annulus", iv.select("annulus"), res.annulus),
     ):
+        flow, losses = group.flow, group.losses
         vel = np.atleast_1d(flow.velocity).reshape(-1)
-        for i, name in enumerate(names):
+        for i, span in enumerate(group.spans):
             intervals.append(
                 {
                     "path": path,
-                    "name": short_name(name),
+                    "name": text.span(span, s, depths=False),
                     "top_md": _c(rows.top_md[i], "depth", s),
                     "bottom_md": _c(rows.bottom_md[i], "depth", s),
                     "outer_diameter": _c(rows.outer_diameter[i], "diameter", s),
@@ -106,11 +107,11 @@ def results_data(results) -> dict:
     }
     mt = res.margins
     if mt is not None:
-        named = [i for i, n in enumerate(mt.names) if not str(n).startswith("MD ")]
+        named = [i for i, p in enumerate(mt.points) if p.role != "depth"]
         out["margins"] = {
             "points": [
                 {
-                    "name": str(mt.names[i]),
+                    "name": text.check_point(mt.points[i], s),
                     "md": _c(mt.md[i], "depth", s),
                     "tvd": _c(mt.tvd[i], "depth", s),
                     "pore": _c(mt.pore[i], "density", s),
@@ -122,7 +123,7 @@ def results_data(results) -> dict:
                 for i in named
             ],
             "tightest": {
-                "name": str(mt.tightest.name),
+                "name": text.check_point(mt.tightest.point, s),
                 "md": _c(mt.tightest.md, "depth", s),
                 "limit": str(mt.tightest.limit),
                 "margin": _c(mt.tightest.margin, "density", s),
@@ -141,7 +142,7 @@ def results_data(results) -> dict:
         "method": bh.method,
     }
     if results.cleaning:
-        hc = results.cleaning["result"]
+        hc = results.cleaning.result
         out["cleaning"] = {
             "method": hc.method,
             "criteria": hc.criteria_text,
@@ -164,19 +165,19 @@ def results_data(results) -> dict:
             ],
         }
     if results.surge:
-        lim = results.surge["limits"]
+        lim = results.surge.limits
         out["trips"] = {
             "method": lim.method,
             "string_end": lim.string_end,
             "max_running_speed": _c(lim.max_running_speed, "trip_speed", s),
             "max_pulling_speed": _c(lim.max_pulling_speed, "trip_speed", s),
-            "speeds": _c(results.surge["speeds"], "trip_speed", s),
-            "surge_at_bit": _c(results.surge["running"].pressure_bit, "pressure", s),
-            "swab_at_bit": _c(results.surge["pulling"].pressure_bit, "pressure", s),
+            "speeds": _c(results.surge.speeds, "trip_speed", s),
+            "surge_at_bit": _c(results.surge.running.pressure_bit, "pressure", s),
+            "swab_at_bit": _c(results.surge.pulling.pressure_bit, "pressure", s),
         }
     if results.window is not None:
         out["operating_window"] = _window_data(results, s)
-    out["circulation"]["tool_covered"] = list(getattr(res, "tool_covered", ()))
+    out["circulation"]["tool_covered"] = list(res.tools.covered)
     cal = results.calibration
     if cal is not None:
         out["calibration"] = {
@@ -203,7 +204,7 @@ def results_data(results) -> dict:
             "tightest": None
             if t.tightest is None
             else {
-                "name": str(t.tightest.name),
+                "name": text.check_point(t.tightest.point, s),
                 "limit": str(t.tightest.limit),
                 "margin": _c(float(t.tightest.margin), "density", s),
             },
@@ -247,8 +248,8 @@ def _window_data(results, s) -> dict:
         "high_rate": _c(ow.q_high, "flow_rate", s) if ow.feasible else None,
         "binding_low": ow.binding_low,
         "binding_high": ow.binding_high,
-        "binding_low_words": binding_words(ow, "low", long=True),
-        "binding_high_words": binding_words(ow, "high", long=True),
+        "binding_low_words": binding_words(ow, "low", long=True, system=s),
+        "binding_high_words": binding_words(ow, "high", long=True, system=s),
         "check_rate": _c(results.case.check_value(-1, "flow_rate"), "flow_rate", s),
         "min_cleaning_rate": _c(ow.min_cleaning_rate, "flow_rate", s) if results.cleaning else None,
         "controlling_interval": short_name(ow.controlling_interval),
@@ -261,11 +262,11 @@ def _window_data(results, s) -> dict:
             "ecd_fracture_point": _c(ow.ecd_fracture_point, "density", s),
             "fracture_at_point": _c(ow.fracture_at_point, "density", s),
             "max_ecd_fracture_point": _c(f_lim, "density", s),
-            "fracture_point_name": [str(x) for x in ow.fracture_point_name],
+            "fracture_point_name": [text.check_point(x, s) for x in ow.fracture_point_name],
             "ecd_pore_point": _c(ow.ecd_pore_point, "density", s),
             "pore_at_point": _c(ow.pore_at_point, "density", s),
             "min_ecd_pore_point": _c(p_lim, "density", s),
-            "pore_point_name": [str(x) for x in ow.pore_point_name],
+            "pore_point_name": [text.check_point(x, s) for x in ow.pore_point_name],
             "cleaning_indicator": _c(ow.cleaning_indicator, None, s),
             "min_transport_ratio": _c(ow.min_transport_ratio, None, s),
             "max_concentration": _c(ow.max_concentration, None, s),

@@ -41,7 +41,7 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
             "bf_text",
         )
         return {}
-    hc = part["result"]
+    hc = part.result
     merged_text(ws, row, f"Method: {hc.method}", span=14, height=24)
     merged_text(ws, row + 1, f"Criteria: {hc.criteria_text}", span=14, height=24)
     row += 3
@@ -143,7 +143,7 @@ def write_trips(wb, results, factors: Factors, title: str):
             "bf_text",
         )
         return {}
-    lim, run, pull = part["limits"], part["running"], part["pulling"]
+    lim, run, pull = part.limits, part.running, part.pulling
     merged_text(
         ws,
         row,
@@ -189,7 +189,7 @@ def write_trips(wb, results, factors: Factors, title: str):
     res = results.circulation
     from calc.circulation import equivalent_density
 
-    for i, sp in enumerate(part["speeds"]):
+    for i, sp in enumerate(part.speeds):
         s_up = float(np.asarray(run.pressure_bit).reshape(-1)[i])
         s_dn = float(np.asarray(pull.pressure_bit).reshape(-1)[i])
         put_number(ws, row, 1, _o(sp, "trip_speed", system), "#,##0")

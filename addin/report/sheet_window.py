@@ -25,6 +25,7 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
+from addin.text import check_point
 from addin.text import display_values as _o
 from addin.text import unit_label as U
 
@@ -47,18 +48,19 @@ def _index_at(ow, q):
     return int(np.argmin(np.abs(np.asarray(ow.q) - q)))
 
 
-def binding_words(ow, end: str, *, long: bool = False) -> str:
-    """The limit that binds at ``end`` ("low" or "high") in words (``long``: with the place)."""
+def binding_words(ow, end: str, *, long: bool = False, system: str = "oilfield") -> str:
+    """The limit that binds at ``end`` ("low" or "high") in words (``long``: with the place,
+    in ``system``'s units)."""
     if not ow.feasible:
         return "no rate satisfies every limit at once (failing: " + ow.binding_low + ")"
     name = ow.binding_low if end == "low" else ow.binding_high
     q = ow.q_low if end == "low" else ow.q_high
     i = _index_at(ow, q)
     if name == "fracture":
-        where = f" at {ow.fracture_point_name[i]}" if long else ""
+        where = f" at {check_point(ow.fracture_point_name[i], system)}" if long else ""
         return "ECD reaches fracture − margin" + where
     if name == "pore":
-        where = f" at {ow.pore_point_name[i]}" if long else ""
+        where = f" at {check_point(ow.pore_point_name[i], system)}" if long else ""
         return "ECD falls to pore + margin" + where
     if name == "surface rating":
         return "standpipe pressure reaches the surface rating"
@@ -98,10 +100,20 @@ def _columns(ow, system):
         ("surface rating", pu, _o(np.full(n, ow.surface_rating), "pressure", system), fp),
         ("ECD, fracture-tightest point", dn, _o(ow.ecd_fracture_point, "density", system), fd),
         ("max. ECD (fracture − margin)", dn, _o(f_lim, "density", system), fd),
-        ("fracture-tightest point", "", [str(x) for x in ow.fracture_point_name], None),
+        (
+            "fracture-tightest point",
+            "",
+            [check_point(x, system) for x in ow.fracture_point_name],
+            None,
+        ),
         ("ECD, pore-tightest point", dn, _o(ow.ecd_pore_point, "density", system), fd),
         ("min. ECD (pore + margin)", dn, _o(p_lim, "density", system), fd),
-        ("pore-tightest point", "", [str(x) for x in ow.pore_point_name], None),
+        (
+            "pore-tightest point",
+            "",
+            [check_point(x, system) for x in ow.pore_point_name],
+            None,
+        ),
         ("cleaning indicator", "≥ 0 cleaned", [float(x) for x in ow.cleaning_indicator], "0.000"),
         ("lowest transport ratio", "–", [float(x) for x in ow.min_transport_ratio], "0.000"),
         ("highest cuttings conc.", "%", [100.0 * float(x) for x in ow.max_concentration], "0.00"),
@@ -126,10 +138,10 @@ def _table(ws, row, cols, rows) -> int:
 
 
 def _nice(values, ticks=6):
-    from addin.report.sheet_hydraulics import _nice_axis
+    from addin.report.charts import nice_axis
 
     v = [x for x in values if x is not None]
-    return _nice_axis(min(v), max(v), ticks)
+    return nice_axis(min(v), max(v), ticks)
 
 
 def write_window(wb, results, title: str):
@@ -175,8 +187,8 @@ def write_window(wb, results, title: str):
     lines = []
     if ow.feasible:
         lines += [
-            ("lowest rate", ow.q_low, binding_words(ow, "low", long=True)),
-            ("highest rate", ow.q_high, binding_words(ow, "high", long=True)),
+            ("lowest rate", ow.q_low, binding_words(ow, "low", long=True, system=system)),
+            ("highest rate", ow.q_high, binding_words(ow, "high", long=True, system=system)),
         ]
     else:
         lines.append(("operating window", None, binding_words(ow, "low")))

@@ -18,9 +18,12 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
+from addin.report.summary_rows import summary_rows
 from addin.text import display_number as out
 from addin.text import unit_label as U
+from addin.workbook_input import LAYOUT, write_case_sheets
 from calc import cautions
+from calc.circulation import ecd_deviation
 
 __all__ = ["write_audit", "write_cautions", "write_inputs", "write_summary"]
 
@@ -29,8 +32,6 @@ __all__ = ["write_audit", "write_cautions", "write_inputs", "write_summary"]
 
 
 def write_inputs(wb, results, title):
-    from addin.workbook_input import LAYOUT, write_case_sheets
-
     case = results.case
     ws = wb.create_sheet("Inputs")
     put(
@@ -313,7 +314,7 @@ def _trend_table(ws, row, results, system) -> int:
             (10, out(t.pwd_ecd, "density", system), number_format("density", system)),
         ]
         if t.model_ecd_at_pwd is not None and t.pwd_ecd is not None:
-            gap = out(t.model_ecd_at_pwd, "density", system) - out(t.pwd_ecd, "density", system)
+            gap = out(ecd_deviation(t.model_ecd_at_pwd, t.pwd_ecd), "density", system)
             vals.append((11, gap, "+0.00;-0.00;0.00"))
         tight = t.tightest
         if tight is not None:
@@ -326,21 +327,19 @@ def _trend_table(ws, row, results, system) -> int:
                 put_number(ws, row, col, v, fmt)
         row += 1
     where = [
-        f"{t.label}: {t.tightest.name} ({t.tightest.limit})"
+        f"{t.label}: {text.check_point(t.tightest.point, system)} ({t.tightest.limit})"
         for t in results.trend
         if t.tightest is not None
     ]
-    text = (
+    words = (
         "Each check is computed at its own bit depth, flow rate, density and rheology with the "
         "same method; deviation = (model − measured)/measured. Tightest margin to the "
         "fracture/pore limit at: " + "; ".join(where) + "."
     )
-    merged_text(ws, row, text, span=12, height=24)
+    merged_text(ws, row, words, span=12, height=24)
     return row + 1
 
 
 def results_rows(results, refs):
     """Rows of the key-results table (values SI; kinds for units)."""
-    from addin.report.summary_rows import summary_rows
-
     return summary_rows(results, refs)

@@ -4,7 +4,9 @@ from __future__ import annotations
 
 import numpy as np
 
+from addin import text
 from addin.report.compute import scalar
+from calc.circulation import ecd_deviation, fracture_margin, spp_deviation_percent
 
 __all__ = ["summary_rows"]
 
@@ -46,7 +48,7 @@ def summary_rows(results, refs) -> list[dict]:
     )
     meas = case.checks[-1].values.get("measured_spp")
     if meas is not None:
-        gap = 100.0 * (spp - meas) / meas
+        gap = float(spp_deviation_percent(spp, meas))
         rows.append(
             dict(
                 name=f"standpipe pressure, measured (predicted {gap:+.1f} %)",
@@ -56,25 +58,25 @@ def summary_rows(results, refs) -> list[dict]:
             )
         )
     mt = res.margins
-    names = list(mt.names) if mt is not None else []
     req_f = mt.margins.fracture if mt is not None else None
-    shoe = next((i for i, n in enumerate(names) if str(n).lower().endswith("shoe")), None)
+    shoe = mt.index("shoe") if mt is not None else None
     if shoe is not None:
-        e, f = _at(mt.ecd, shoe), _at(mt.fracture, shoe)
+        e, f, m = _at(mt.ecd, shoe), _at(mt.fracture, shoe), _at(mt.fracture_margin, shoe)
         rows.append(
             dict(
-                name=f"ECD at the {names[shoe]}",
+                name=f"ECD at the {text.check_point(mt.points[shoe], case.system)}",
                 kind="density",
                 value=e,
                 limit=f,
-                margin=f - e,
+                margin=m,
                 required=req_f,
-                status=_status_margin(f - e, req_f),
+                status=_status_margin(m, req_f),
             )
         )
     e_bit = scalar(res.ecd_bit)
-    f_bit = _at(mt.fracture, names.index("bit")) if "bit" in names else None
-    m_bit = None if f_bit is None else f_bit - e_bit
+    at_bit = mt.index("bit") if mt is not None else None
+    f_bit = None if at_bit is None else _at(mt.fracture, at_bit)
+    m_bit = None if at_bit is None else float(fracture_margin(f_bit, e_bit))
     rows.append(
         dict(
             name="ECD at the bit",
@@ -92,7 +94,7 @@ def summary_rows(results, refs) -> list[dict]:
         m = float(np.asarray(t.margin))
         rows.append(
             dict(
-                name=f"tightest margin: {t.name} ({t.limit})",
+                name=f"tightest margin: {text.check_point(t.point, case.system)} ({t.limit})",
                 kind="density",
                 value=m,
                 required=float(t.required),
@@ -107,7 +109,7 @@ def summary_rows(results, refs) -> list[dict]:
                 name="downhole gauge (PWD) ECD; margin = gauge − predicted",
                 kind="density",
                 value=gauge,
-                margin=gauge - pred,
+                margin=-float(ecd_deviation(pred, gauge)),
                 status="INFO",
             )
         )
@@ -123,7 +125,7 @@ def summary_rows(results, refs) -> list[dict]:
         dict(
             name="bit pressure drop",
             kind="pressure",
-            value=scalar(res.bit_loss),
+            value=scalar(res.bit.pressure_drop),
             check=bit["dp"][1],
         )
     )

@@ -87,7 +87,8 @@ def check_points(
     notes: list[Note],
 ) -> list[CheckPoint]:
     """Check points from the last shoe to the bit, the shoe, the bit, the window stations and
-    the weak points above the bit (a note for each weak point below it)."""
+    the weak points above the bit (a note for each weak point below it).  A weak point at the
+    shoe (within 0.5 m) replaces the shoe's own point and takes the role "shoe"."""
     top, bit_md = parts.exposed_top, parts.bit_md
     grid = well.annulus_depth_grid(step)
     gmd, gtvd = np.asarray(grid.md, dtype=float), np.asarray(grid.tvd, dtype=float)
@@ -116,7 +117,9 @@ def check_points(
                 )
             )
             continue
-        out.append(("weak_point", wp.name, wp.md))
+        # a weak point at the last shoe (its shoe test) stands for the shoe
+        role = "shoe" if top > 0 and abs(wp.md - top) < 0.5 else "weak_point"
+        out.append((role, wp.name, wp.md))
     md = np.array([m for _, _, m in out], dtype=float)
     tvd = np.asarray(well.survey.tvd_at(md), dtype=float)
     return [

@@ -139,13 +139,9 @@ def circulate(
     res = _assemble(well, fluid, parts, inp, lp, margins=None, notes=())
     table = None
     if inp.window is not None or inp.weak_points or parts.shoe_test is not None:
-        table = margin_table(
-            res, parts, inp.window, inp.weak_points, inp.margins, inp.step, notes
-        )
+        table = margin_table(res, parts, inp.window, inp.weak_points, inp.margins, inp.step, notes)
         margin_notes(table, inp.margins, inp.q, notes)
-    return _assemble(
-        well, fluid, parts, inp, lp, margins=table, notes=tuple(dedupe_notes(notes))
-    )
+    return _assemble(well, fluid, parts, inp, lp, margins=table, notes=tuple(dedupe_notes(notes)))
 
 
 @dataclass(frozen=True, eq=False)
@@ -254,8 +250,7 @@ def _loop_pass(well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs) -> 
             Note(
                 "info",
                 "bore_covered_by_tool_drop",
-                "bore friction not added for {covered}: the supplier's fixed tool drop "
-                "includes it",
+                "bore friction not added for {covered}: the supplier's fixed tool drop includes it",
                 "; ".join(s.item for s in parts.tool_spans),
                 values=(Value("covered", ", ".join(covered)),),
             )

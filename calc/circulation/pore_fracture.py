@@ -176,7 +176,7 @@ class CheckPoint:
     """One depth where the margins are checked.
 
     ``role`` says what it is: ``"depth"`` (a point of the depth grid, no name),
-    ``"shoe"`` (the last casing or liner shoe), ``"bit"``, ``"window_station"`` (a station of
+    ``"shoe"`` (the last casing or liner shoe, or a weak point there), ``"bit"``, ``"window_station"`` (a station of
     the pressure window, at its TVD) or ``"weak_point"``; ``name`` is the shoe's, weak point's
     or ``"bit"`` ("" for grid points and window stations); ``md``, ``tvd`` [m].  The faces turn
     it into words (``addin.text.check_point``).

@@ -13,8 +13,8 @@ import numpy as np
 
 from calc.errors import InputError, check_finite, check_range
 from calc.notes import Note
-from calc.values import Value
 from calc.units import to_si
+from calc.values import Value
 
 __all__ = ["Survey"]
 
