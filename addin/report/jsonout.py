@@ -7,6 +7,7 @@ import numpy as np
 from addin import text
 from addin.report.compute import scalar
 from addin.report.sheet_cleaning import short_name
+from addin.report.sheet_window import allowed_ecd, binding_words
 from calc.units import from_si, label, unit_for
 
 __all__ = ["results_data"]
@@ -29,7 +30,7 @@ def _c(v, kind, system):
 
 def results_data(results) -> dict:
     """The whole run: run info, summary rows, rheology, circulation, ECD, bit, cleaning, trips."""
-    from addin.cli import rheology_data
+    from addin.cli import rheology_data  # lazy: addin.cli imports this module (see addin.cli)
 
     case, res = results.case, results.circulation
     s = case.system
@@ -237,8 +238,6 @@ def _limit_kind(name: str):
 
 def _window_data(results, s) -> dict:
     """calc.window.OperatingWindow of the run: ends, binding limits (names and words), curves."""
-    from addin.report.sheet_window import allowed_ecd, binding_words
-
     ow = results.window
     f_lim, p_lim = allowed_ecd(ow)
     return {
