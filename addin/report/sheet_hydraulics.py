@@ -32,6 +32,7 @@ REGIMES = {0: "laminar", 1: "transitional", 2: "turbulent"}
 
 
 def write_hydraulics(wb, results, factors: Factors, title: str):
+    """The Hydraulics sheet; returns the references the summary and other sheets use."""
     case, res, system = results.case, results.circulation, results.case.system
     ws = wb.create_sheet("Hydraulics")
     set_widths(ws, [40, 22, 10, 10, 9, 8, 8, 9, 9, 8, 10, 9, 9, 9, 9])
@@ -49,7 +50,36 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
     row += 2
     q_ref = input_row(ws, row, "flow rate", _o(res.q, "flow_rate", system), "flow_rate", system)
     row += 2
-    # ---- breakdown
+    row, first, refs = _breakdown_block(ws, row, results, system)
+    refs["q"] = q_ref
+    row = _tool_texts(ws, row + 1, results, system)
+    row = max(row + 1, first + 15)
+    cal = results.calibration
+    if cal is not None:
+        row = _calibration_block(ws, row, cal, results, factors, system)
+    ws.row_breaks.append(Break(id=row))
+    row, refs["min_av"] = _interval_table(ws, row + 1, results, factors, system, q_ref)
+    merged_text(
+        ws,
+        row,
+        "Velocity live check: Q / (π/4·(OD² − ID²)) with the conversion factors "
+        "on 'Audit'. Flow OD/ID: pipe ID in the string; hole or casing ID and pipe OD in the "
+        "annulus. Tool joints are separate rows over the same depths (their share of the "
+        "joint length).",
+        span=15,
+        height=24,
+    )
+    ws.freeze_panes = None
+    setup_print(ws, title)
+    return refs
+
+
+def _breakdown_block(ws, row, results, system):
+    """The SPP breakdown table with its live sum, the measurement and the chart.
+
+    Returns the next row, the table's first row and the references ``spp`` (and
+    ``spp_measured``)."""
+    case, res = results.case, results.circulation
     row = heading(ws, row, "Standpipe pressure breakdown", span=3)
     row = table_header(
         ws,
@@ -60,19 +90,16 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
     )
     first = row
     spp = scalar(res.standpipe_pressure)
-    covered = res.tools.covered
-    parts = [
-        (k, scalar(v))
-        for k, v in res.breakdown().items()
-        if not (k == "back_pressure" and scalar(v) == 0.0)
-    ]
-    for key, v in parts:
+    shares = res.shares()
+    for key, v in res.breakdown().items():
+        if key == "back_pressure" and scalar(v) == 0.0:
+            continue
         name = text.BREAKDOWN_LABELS[key]
-        if key == "tools" and covered:
+        if key == "tools" and res.tools.covered:
             name = "fixed tool drops (incl. their bores)"
         put(ws, row, 1, name)
         put_number(ws, row, 2, _o(v, "pressure", system), number_format("pressure", system))
-        put_number(ws, row, 3, 100.0 * v / spp, "0.0")
+        put_number(ws, row, 3, 100.0 * scalar(shares[key]), "0.0")
         row += 1
     last = row - 1
     put(ws, row, 1, "predicted standpipe pressure (sum)")
@@ -85,7 +112,7 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
         kind="pressure",
         system=system,
     )
-    refs = {"spp": (spp_v, spp_f), "q": q_ref}
+    refs = {"spp": (spp_v, spp_f)}
     row += 1
     meas = case.checks[-1].values.get("measured_spp")
     if meas is not None:
@@ -99,9 +126,16 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
         put_number(ws, row, 2, spp_deviation_percent(spp, meas), "+0.0;-0.0;0.0")
         put(ws, row, 3, "% of measured", "bf_unit")
         row += 1
-    row += 1
-    tools = list(results.well.tool_drops)
-    for t in tools:
+    chart = pressure_breakdown(
+        (ws, 1, first, last), (ws, 2, first, last), pressure_unit=U("pressure", system)
+    )
+    ws.add_chart(chart, f"E{first - 2}")
+    return row, first, refs
+
+
+def _tool_texts(ws, row, results, system) -> int:
+    """One line per fixed tool drop: the supplier's figure and what it includes."""
+    for t in results.well.tool_drops:
         what = (
             "includes the bore loss of " + ", ".join(t.components) + " (their bore friction is "
             "not added again: listed as 0 below)"
@@ -122,63 +156,47 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
             height=36,
         )
         row += 1
-    chart = pressure_breakdown(
-        (ws, 1, first, last), (ws, 2, first, last), pressure_unit=U("pressure", system)
-    )
-    ws.add_chart(chart, f"E{first - 2}")
-    row = max(row + 1, first + 15)
-    cal = getattr(results, "calibration", None)
-    if cal is not None:
-        row = _calibration_block(ws, row, cal, results, factors, system)
-    ws.row_breaks.append(Break(id=row))
-    row += 1
-    # ---- per-interval table
+    return row
+
+
+_INTERVAL_HEADS = (
+    "interval",
+    "hole section",
+    "top MD",
+    "bottom MD",
+    "length",
+    "flow OD",
+    "flow ID",
+    "velocity",
+    "velocity live",
+    "agree?",
+    "regime",
+    "Reynolds",
+    "Fanning f",
+    "gradient",
+    "loss",
+)
+
+
+def _interval_table(ws, row, results, factors, system, q_ref):
+    """Per-interval table (surface lines, string from surface down, annulus from the bit up).
+
+    Returns the next row and the lowest annular velocity (value [m/s], where, value cell,
+    live-check cell)."""
+    res = results.circulation
     row = heading(
         ws,
         row,
         "Per-interval hydraulics (string from surface down, annulus from the bit up)",
         span=15,
     )
-    heads = [
-        "interval",
-        "hole section",
-        "top MD",
-        "bottom MD",
-        "length",
-        "flow OD",
-        "flow ID",
-        "velocity",
-        "velocity live",
-        "agree?",
-        "regime",
-        "Reynolds",
-        "Fanning f",
-        "gradient",
-        "loss",
-    ]
-    du, lu = U("depth", system), U("length", system)
-    units = [
-        "",
-        "",
-        du,
-        du,
-        lu,
-        U("diameter", system),
-        U("diameter", system),
-        U("velocity", system),
-        "formula",
-        "",
-        "",
-        "–",
-        "–",
-        U("pressure_gradient", system),
-        U("pressure", system),
-    ]
+    du, lu, dd = U("depth", system), U("length", system), U("diameter", system)
+    units = ["", "", du, du, lu, dd, dd, U("velocity", system), "formula", "", "", "–", "–",
+             U("pressure_gradient", system), U("pressure", system)]  # fmt: skip
     head_row = row
-    row = table_header(ws, row, 1, heads, units)
+    row = table_header(ws, row, 1, list(_INTERVAL_HEADS), units)
     ws.print_title_rows = f"{head_row}:{head_row + 1}"
     iv = results.well.flow_intervals()
-    fq, fd, fv = factors.unit("flow_rate"), factors.unit("diameter"), factors.unit("velocity")
     groups = [
         ("surface", None, res.surface),
         ("string", iv.select("string"), res.string),
@@ -186,75 +204,58 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
     ]
     min_av = None
     for path, rows, group in groups:
-        losses, flow = np.atleast_1d(np.asarray(group.losses, dtype=float)), group.flow
         for i, span in enumerate(group.spans):
-            label = f"{path}: {span.part}"
-            if path == "string" and span.item in covered:
-                label += " (bore loss in the fixed tool drop)"
-            put(ws, row, 1, label)
-            if rows is not None:
-                put(ws, row, 2, str(rows.section[i]) if path == "annulus" else "", "bf_cell")
-                put_number(
-                    ws, row, 3, _o(rows.top_md[i], "depth", system), number_format("depth", system)
-                )
-                put_number(
-                    ws,
-                    row,
-                    4,
-                    _o(rows.bottom_md[i], "depth", system),
-                    number_format("depth", system),
-                )
-                put_number(
-                    ws,
-                    row,
-                    5,
-                    _o(rows.length[i], "length", system),
-                    number_format("length", system),
-                )
-                do, di = rows.outer_diameter[i], rows.inner_diameter[i]
-            else:
-                line = case.surface_lines[i]
-                put_number(
-                    ws, row, 5, _o(line.length, "length", system), number_format("length", system)
-                )
-                do, di = line.id, 0.0
-            put_number(ws, row, 6, _o(do, "diameter", system), number_format("diameter", system))
-            put_number(ws, row, 7, _o(di, "diameter", system), number_format("diameter", system))
-            vel = np.atleast_1d(np.asarray(flow.velocity, dtype=float)).reshape(-1)[i]
-            formula = f"{q_ref}*{fq}/(PI()/4*((F{row}*{fd})^2-(G{row}*{fd})^2))/{fv}"
-            write_checked(
-                ws, row, 8, _o(vel, "velocity", system), formula, kind="velocity", system=system
-            )
-            reg = int(np.atleast_1d(flow.regime).reshape(-1)[i])
-            put(ws, row, 11, REGIMES.get(reg, str(reg)))
-            put_number(ws, row, 12, np.atleast_1d(flow.reynolds).reshape(-1)[i], "#,##0")
-            put_number(ws, row, 13, np.atleast_1d(flow.friction_factor).reshape(-1)[i], "0.00000")
-            put_number(
-                ws,
-                row,
-                14,
-                _o(np.atleast_1d(flow.gradient).reshape(-1)[i], "pressure_gradient", system),
-                number_format("pressure_gradient", system),
-            )
-            put_number(ws, row, 15, _o(losses.reshape(-1)[i], "pressure", system), "#,##0.0")
+            vel = _interval_row(ws, row, results, factors, system, q_ref, path, rows, group, i)
             if path == "annulus" and (min_av is None or vel < min_av[0]):
                 where = text.span(span, system, depths=False)
                 min_av = (vel, where, cell_ref(ws, row, 8), cell_ref(ws, row, 9))
             row += 1
-    refs["min_av"] = min_av
-    merged_text(
+    return row, min_av
+
+
+def _interval_row(ws, row, results, factors, system, q_ref, path, rows, group, i) -> float:
+    """One row of the interval table; returns its velocity [m/s]."""
+    span, flow = group.spans[i], group.flow
+    label = f"{path}: {span.part}"
+    if path == "string" and span.item in results.circulation.tools.covered:
+        label += " (bore loss in the fixed tool drop)"
+    put(ws, row, 1, label)
+    if rows is not None:
+        put(ws, row, 2, str(rows.section[i]) if path == "annulus" else "", "bf_cell")
+        for col, v, kind in (
+            (3, rows.top_md[i], "depth"),
+            (4, rows.bottom_md[i], "depth"),
+            (5, rows.length[i], "length"),
+        ):
+            put_number(ws, row, col, _o(v, kind, system), number_format(kind, system))
+        do, di = rows.outer_diameter[i], rows.inner_diameter[i]
+    else:
+        line = results.case.surface_lines[i]
+        put_number(ws, row, 5, _o(line.length, "length", system), number_format("length", system))
+        do, di = line.id, 0.0
+    put_number(ws, row, 6, _o(do, "diameter", system), number_format("diameter", system))
+    put_number(ws, row, 7, _o(di, "diameter", system), number_format("diameter", system))
+
+    def at(a):
+        return np.atleast_1d(np.asarray(a, dtype=float)).reshape(-1)[i]
+
+    vel = at(flow.velocity)
+    fq, fd, fv = factors.unit("flow_rate"), factors.unit("diameter"), factors.unit("velocity")
+    formula = f"{q_ref}*{fq}/(PI()/4*((F{row}*{fd})^2-(G{row}*{fd})^2))/{fv}"
+    write_checked(ws, row, 8, _o(vel, "velocity", system), formula, kind="velocity", system=system)
+    reg = int(np.atleast_1d(flow.regime).reshape(-1)[i])
+    put(ws, row, 11, REGIMES.get(reg, str(reg)))
+    put_number(ws, row, 12, at(flow.reynolds), "#,##0")
+    put_number(ws, row, 13, at(flow.friction_factor), "0.00000")
+    put_number(
         ws,
         row,
-        "Velocity live check: Q / (π/4·(OD² − ID²)) with the conversion factors "
-        "on 'Audit'. Flow OD/ID: pipe ID in the string; hole or casing ID and pipe OD in the "
-        "annulus. Tool joints are separate rows over the same depths (their share of the "
-        "joint length).",
-        span=15,
-        height=24,
+        14,
+        _o(at(flow.gradient), "pressure_gradient", system),
+        number_format("pressure_gradient", system),
     )
-    ws.freeze_panes = None
-    setup_print(ws, title)
-    return refs
+    put_number(ws, row, 15, _o(at(group.losses), "pressure", system), "#,##0.0")
+    return vel
 
 
 def _calibration_block(ws, row, cal, results, factors, system):

@@ -175,9 +175,9 @@ CHECK_POINT_ROLES = ("depth", "shoe", "bit", "window_station", "weak_point")
 class CheckPoint:
     """One depth where the margins are checked.
 
-    ``role`` says what it is: ``"depth"`` (a point of the depth grid, no name),
-    ``"shoe"`` (the last casing or liner shoe, or a weak point there), ``"bit"``, ``"window_station"`` (a station of
-    the pressure window, at its TVD) or ``"weak_point"``; ``name`` is the shoe's, weak point's
+    ``role`` says what it is: ``"depth"`` (a point of the depth grid, no name), ``"shoe"``
+    (the last casing or liner shoe, or a weak point there), ``"bit"``, ``"window_station"`` (a
+    station of the pressure window, at its TVD) or ``"weak_point"``; ``name`` is the shoe's, weak point's
     or ``"bit"`` ("" for grid points and window stations); ``md``, ``tvd`` [m].  The faces turn
     it into words (``addin.text.check_point``).
     """

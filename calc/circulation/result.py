@@ -227,6 +227,11 @@ class CirculationResult:
             "annulus": self.annulus.total,
         }
 
+    def shares(self) -> dict[str, float | np.ndarray]:
+        """Share of the standpipe pressure of each :meth:`breakdown` part [-] (same keys)."""
+        spp = np.asarray(self.standpipe_pressure, dtype=float)
+        return {k: as_scalar(np.asarray(v, dtype=float) / spp) for k, v in self.breakdown().items()}
+
     def annular_loss_above(self, md):
         """Annular friction between the surface and ``md`` [Pa] (linear within each interval)."""
         mdv = np.asarray(md, dtype=float)
