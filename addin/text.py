@@ -28,6 +28,7 @@ from calc.values import Value, fill
 
 __all__ = [
     "BREAKDOWN_LABELS",
+    "STATUS_WORDS",
     "check_point",
     "depth_point",
     "depth_span",
@@ -173,6 +174,9 @@ def check_point(p, system: str = "oilfield") -> str:
         return f"window station, TVD {_md(p.tvd, system)} {label(_unit('depth', system))}"
     return p.name
 
+
+#: Words for the margin states of :func:`calc.circulation.margin_status`.
+STATUS_WORDS = {"ok": "OK", "near_limit": "NEAR LIMIT", "exceeded": "EXCEEDED"}
 
 #: Words for the keys of :meth:`calc.circulation.CirculationResult.breakdown`.
 BREAKDOWN_LABELS = {

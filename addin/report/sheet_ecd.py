@@ -21,17 +21,29 @@ from addin.report.style import (
 )
 from addin.text import display_number as _o
 from addin.text import unit_label as U
-from calc.circulation import ecd_deviation
+from calc.circulation import ecd_deviation, margin_status, worst_status
 
 __all__ = ["write_ecd"]
 
 
 def write_ecd(wb, results, factors: Factors, title: str):
-    case, res, system = results.case, results.circulation, results.case.system
+    """The ECD sheet; returns the references the summary uses."""
     ws = wb.create_sheet("ECD")
     set_widths(ws, [34, 12, 12, 10, 11, 11, 11, 11, 11, 11])
     row = heading(ws, 1, "Equivalent densities and margins", span=10, title=True)
-    row += 1
+    row, refs = _bit_block(ws, row + 1, results, factors)
+    if results.circulation.margins is not None:
+        row = _margins_block(ws, row, results)
+        refs["tightest"] = results.circulation.margins.tightest
+        row += 1
+    refs.update(_profile_block(ws, row, results, title))
+    return refs
+
+
+def _bit_block(ws, row, results, factors):
+    """Inputs and live checks of the hydrostatic and circulating pressure and ECD at the bit,
+    and the ECD at the downhole gauge.  Returns the next row and the references."""
+    case, res, system = results.case, results.circulation, results.case.system
     rho = input_row(
         ws, row, "mud density (static)", _o(res.density, "density", system), "density", system
     )
@@ -100,8 +112,8 @@ def write_ecd(wb, results, factors: Factors, title: str):
     )
     row += 1
     refs = {"ecd_bit": (ecd_v, ecd_f), "hydrostatic": (hyd_v, hyd_f), "bhp": bhp_v}
-    pwd_md = case.checks[-1].values.get("pwd", {}).get("md")
-    pwd_ecd = case.checks[-1].values.get("pwd", {}).get("ecd")
+    pwd = case.checks[-1].values.get("pwd", {})
+    pwd_md, pwd_ecd = pwd.get("md"), pwd.get("ecd")
     if pwd_md is not None and pwd_ecd is not None and 0 < pwd_md <= res.bit_md:
         pred = float(res.ecd_at(pwd_md))
         put(
@@ -124,73 +136,65 @@ def write_ecd(wb, results, factors: Factors, title: str):
         ws.merge_cells(start_row=row, start_column=6, end_row=row, end_column=10)
         refs["pwd"] = (pred, pwd_ecd, pwd_md)
         row += 1
-    row += 1
-    # ---- margins
-    mt = res.margins
-    if mt is not None:
-        row = heading(ws, row, "Margins at the exposed formation and weak points", span=10)
-        du, dn = U("depth", system), U("density", system)
-        row = table_header(
-            ws,
-            row,
-            1,
-            [
-                "check point",
-                "MD",
-                "TVD",
-                "pore",
-                "fracture",
-                "ESD",
-                "ECD",
-                "frac − ECD",
-                "ECD − pore",
-                "status",
-            ],
-            ["", du, du, dn, dn, dn, dn, dn, dn, ""],
-        )
-        req_f, req_p = mt.margins.fracture, mt.margins.pore
-        named = [i for i, p in enumerate(mt.points) if p.role != "depth"]
-        for i in named:
-            vals = [mt.md[i], mt.tvd[i]]
-            put(ws, row, 1, text.check_point(mt.points[i], system))
-            put_number(ws, row, 2, _o(vals[0], "depth", system), number_format("depth", system))
-            put_number(ws, row, 3, _o(vals[1], "depth", system), number_format("depth", system))
-            for col, arr in ((4, mt.pore), (5, mt.fracture), (6, mt.esd), (7, mt.ecd)):
-                put_number(
-                    ws,
-                    row,
-                    col,
-                    _o(np.asarray(arr).reshape(-1)[i], "density", system),
-                    number_format("density", system),
-                )
-            fm = float(np.asarray(mt.fracture_margin).reshape(-1)[i])
-            pm = float(np.asarray(mt.pore_margin).reshape(-1)[i])
-            for col, v in ((8, fm), (9, pm)):
-                put_number(
-                    ws, row, col, _o(v, "density", system) if np.isfinite(v) else None, "0.00"
-                )
-            status = "OK"
-            if fm < 0 or pm < 0:
-                status = "EXCEEDED"
-            elif fm < req_f or pm < req_p:
-                status = "NEAR LIMIT"
-            put(ws, row, 10, status)
-            row += 1
-        t = mt.tightest
-        where = text.check_point(t.point, system)
-        row = note_row(
-            ws,
-            row,
-            f"Tightest point: {where} (MD {_o(t.md, 'depth', system):,.0f} "
-            f"{du}), {t.limit} margin {_o(t.margin, 'density', system):.2f} {dn} against "
-            f"{_o(t.required, 'density', system):.2f} {dn} required. Margins: fracture − ECD "
-            "and ECD − pore; status NEAR LIMIT below the required margin.",
-            span=10,
-        )
-        refs["tightest"] = t
+    return row + 1, refs
+
+
+def _margins_block(ws, row, results) -> int:
+    """Margins at the named check points (shoe, bit, window stations, weak points) with their
+    status, and the tightest point in words."""
+    mt, system = results.circulation.margins, results.case.system
+    row = heading(ws, row, "Margins at the exposed formation and weak points", span=10)
+    du, dn = U("depth", system), U("density", system)
+    heads = ["check point", "MD", "TVD", "pore", "fracture", "ESD", "ECD", "frac − ECD",
+             "ECD − pore", "status"]  # fmt: skip
+    row = table_header(ws, row, 1, heads, ["", du, du, dn, dn, dn, dn, dn, dn, ""])
+    req_f, req_p = mt.margins.fracture, mt.margins.pore
+
+    def at(arr, i):
+        return np.asarray(arr).reshape(-1)[i]
+
+    for i, point in enumerate(mt.points):
+        if point.role == "depth":
+            continue
+        put(ws, row, 1, text.check_point(point, system))
+        put_number(ws, row, 2, _o(mt.md[i], "depth", system), number_format("depth", system))
+        put_number(ws, row, 3, _o(mt.tvd[i], "depth", system), number_format("depth", system))
+        for col, arr in ((4, mt.pore), (5, mt.fracture), (6, mt.esd), (7, mt.ecd)):
+            put_number(
+                ws, row, col, _o(at(arr, i), "density", system), number_format("density", system)
+            )
+        fm, pm = float(at(mt.fracture_margin, i)), float(at(mt.pore_margin, i))
+        for col, v in ((8, fm), (9, pm)):
+            put_number(ws, row, col, _o(v, "density", system) if np.isfinite(v) else None, "0.00")
+        status = worst_status(margin_status(fm, req_f), margin_status(pm, req_p))
+        put(ws, row, 10, text.STATUS_WORDS[status])
         row += 1
-    # ---- chart (printed) and its data (below, outside the print range)
-    prof = results.profile
+    t = mt.tightest
+    where = text.check_point(t.point, system)
+    return note_row(
+        ws,
+        row,
+        f"Tightest point: {where} (MD {_o(t.md, 'depth', system):,.0f} "
+        f"{du}), {t.limit} margin {_o(t.margin, 'density', system):.2f} {dn} against "
+        f"{_o(t.required, 'density', system):.2f} {dn} required. Margins: fracture − ECD "
+        "and ECD − pore; status NEAR LIMIT below the required margin.",
+        span=10,
+    )
+
+
+_PROFILE_COLUMNS = (
+    ("md", "depth"),
+    ("tvd", "depth"),
+    ("esd", "density"),
+    ("ecd", "density"),
+    ("pore", "density"),
+    ("fracture", "density"),
+)
+
+
+def _profile_block(ws, row, results, title) -> dict:
+    """The printed ESD/ECD/pore/fracture chart and its data rows below the print range."""
+    prof, system = results.profile, results.case.system
     du, dn = U("depth", system), U("density", system)
     chart_row = row + 1
     chart_rows = 28  # the 14-cm chart
@@ -215,17 +219,8 @@ def write_ecd(wb, results, factors: Factors, title: str):
     )
     n = len(prof.md)
     for i in range(n):
-        for j, (arr, kind) in enumerate(
-            (
-                (prof.md, "depth"),
-                (prof.tvd, "depth"),
-                (prof.esd, "density"),
-                (prof.ecd, "density"),
-                (prof.pore, "density"),
-                (prof.fracture, "density"),
-            )
-        ):
-            v = np.asarray(arr).reshape(-1)[i]
+        for j, (attr, kind) in enumerate(_PROFILE_COLUMNS):
+            v = np.asarray(getattr(prof, attr)).reshape(-1)[i]
             put_number(
                 ws,
                 r0 + i,
@@ -235,7 +230,7 @@ def write_ecd(wb, results, factors: Factors, title: str):
             )
     r1 = r0 + n - 1
     curves = [("ESD", (ws, col0 + 2, r0, r1), "esd"), ("ECD", (ws, col0 + 3, r0, r1), "ecd")]
-    if case.window is not None:
+    if results.case.window is not None:
         curves += [
             ("pore pressure", (ws, col0 + 4, r0, r1), "pore"),
             ("fracture pressure", (ws, col0 + 5, r0, r1), "fracture"),
@@ -260,8 +255,6 @@ def write_ecd(wb, results, factors: Factors, title: str):
     ch.width = 24.0
     ws.add_chart(ch, f"A{chart_row}")
     ws.row_breaks.append(Break(id=chart_row - 1))
-    refs["profile_rows"] = (r0, r1)
-    refs["profile_head"] = data_row + 1
     setup_print(ws, title)
     ws.print_area = f"A1:J{data_row - 2}"
-    return refs
+    return {"profile_rows": (r0, r1), "profile_head": data_row + 1}

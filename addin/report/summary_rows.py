@@ -6,19 +6,19 @@ import numpy as np
 
 from addin import text
 from addin.report.compute import scalar
-from calc.circulation import ecd_deviation, fracture_margin, spp_deviation_percent
+from calc.circulation import (
+    ecd_deviation,
+    fracture_margin,
+    margin_status,
+    spp_deviation_percent,
+)
 
 __all__ = ["summary_rows"]
 
 
 def _status_margin(margin, required):
-    if margin is None:
-        return ""
-    if margin < 0:
-        return "EXCEEDED"
-    if required is not None and margin < required:
-        return "NEAR LIMIT"
-    return "OK"
+    """Status words of a margin (calc.circulation.margin_status); "" without one."""
+    return "" if margin is None else text.STATUS_WORDS[margin_status(margin, required)]
 
 
 def _at(arr, i):

@@ -11,7 +11,7 @@ Public API (SI throughout):
 * :mod:`~calc.circulation.pore_fracture` (the pore/fracture window, not the operating window
   of flow rates): :class:`PressureWindow`, :class:`WeakPoint`, :class:`Margins`,
   :class:`CheckPoint`, :class:`MarginTable`, :class:`TightestPoint`, :func:`fracture_margin`,
-  :func:`pore_margin`;
+  :func:`pore_margin`, :func:`margin_status`;
 * :func:`calibrate_friction` → :class:`FrictionCalibration`; :func:`spp_deviation`,
   :func:`spp_deviation_percent`, :func:`ecd_deviation` (predicted − measured);
 * hydrostatics: :func:`hydrostatic_pressure`, :func:`equivalent_density`,
@@ -42,7 +42,9 @@ from calc.circulation.pore_fracture import (
     TightestPoint,
     WeakPoint,
     fracture_margin,
+    margin_status,
     pore_margin,
+    worst_status,
 )
 from calc.circulation.result import (
     BREAKDOWN_KEYS,
@@ -79,7 +81,9 @@ __all__ = [
     "gravity_for",
     "hydraulics_fluid_from_readings",
     "hydrostatic_pressure",
+    "margin_status",
     "pore_margin",
     "spp_deviation",
     "spp_deviation_percent",
+    "worst_status",
 ]

@@ -23,6 +23,7 @@ from calc.span import Span
 
 __all__ = [
     "CHECK_POINT_ROLES",
+    "MARGIN_STATES",
     "CheckPoint",
     "MarginTable",
     "Margins",
@@ -32,8 +33,10 @@ __all__ = [
     "as_plain",
     "fracture_margin",
     "limits_at",
+    "margin_status",
     "pore_margin",
     "tabulate_margins",
+    "worst_status",
 ]
 
 
@@ -176,10 +179,10 @@ class CheckPoint:
     """One depth where the margins are checked.
 
     ``role`` says what it is: ``"depth"`` (a point of the depth grid, no name), ``"shoe"``
-    (the last casing or liner shoe, or a weak point there), ``"bit"``, ``"window_station"`` (a
-    station of the pressure window, at its TVD) or ``"weak_point"``; ``name`` is the shoe's, weak point's
-    or ``"bit"`` ("" for grid points and window stations); ``md``, ``tvd`` [m].  The faces turn
-    it into words (``addin.text.check_point``).
+    (the last casing or liner shoe, or a weak point there), ``"bit"``, ``"window_station"``
+    (a station of the pressure window, at its TVD) or ``"weak_point"``; ``name`` is the
+    shoe's, weak point's or ``"bit"`` ("" for grid points and window stations); ``md``,
+    ``tvd`` [m].  The faces turn it into words (``addin.text.check_point``).
     """
 
     role: Literal["depth", "shoe", "bit", "window_station", "weak_point"]
@@ -263,6 +266,29 @@ def pore_margin(ecd, pore):
     """Margin to pore pressure [kg/m³]: ECD (or ESD) − pore EMW (positive = above the pore
     limit)."""
     return np.asarray(ecd, dtype=float) - np.asarray(pore, dtype=float)
+
+
+#: Margin states, best first (:func:`margin_status`).
+MARGIN_STATES = ("ok", "near_limit", "exceeded")
+
+
+def margin_status(margin: float, required: float | None = None) -> str:
+    """State of a margin [kg/m³ or Pa]: ``"exceeded"`` below 0 (limit crossed),
+    ``"near_limit"`` below the required margin, else ``"ok"``.
+
+    >>> margin_status(-1.0), margin_status(20.0, 50.0), margin_status(80.0, 50.0)
+    ('exceeded', 'near_limit', 'ok')
+    """
+    if margin < 0:
+        return "exceeded"
+    if required is not None and margin < required:
+        return "near_limit"
+    return "ok"
+
+
+def worst_status(*states: str) -> str:
+    """The worst of several :func:`margin_status` states."""
+    return max(states, key=MARGIN_STATES.index)
 
 
 def as_plain(v):
