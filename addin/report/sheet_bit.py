@@ -21,34 +21,14 @@ __all__ = ["write_bit"]
 
 
 def write_bit(wb, results, factors: Factors, title: str):
+    """The Bit sheet: inputs, then each bit quantity with its live check."""
     case, res, system = results.case, results.circulation, results.case.system
     bit, bh = case.bit, res.bit
     ws = wb.create_sheet("Bit")
     set_widths(ws, [36, 13, 13, 9, 12, 9, 9, 9, 9, 9, 9])
     row = heading(ws, 1, f"Bit hydraulics: {bit.name}", span=6, title=True)
-    row += 1
-    q = input_row(ws, row, "flow rate", _o(res.q, "flow_rate", system), "flow_rate", system)
-    rho = input_row(
-        ws, row + 1, "mud density", _o(res.density, "density", system), "density", system
-    )
-    size = input_row(ws, row + 2, "bit size", _o(bit.size, "diameter", system), "diameter", system)
-    cd = input_row(
-        ws,
-        row + 3,
-        "discharge coefficient",
-        bit.discharge_coefficient,
-        "dimensionless",
-        system,
-        "0.00",
-    )
-    row += 4
-    put(ws, row, 1, "nozzle sizes (one cell each)")
+    row, (q, rho, size, cd, noz) = _bit_inputs(ws, row + 1, results)
     nozzles = bit.nozzles or ()
-    for j, nz in enumerate(nozzles):
-        put_number(ws, row, 2 + j, nz, "0", "bf_input")
-    put(ws, row, 2 + max(len(nozzles), 1), "1/32 in", "bf_unit")
-    noz = f"B{row}:{chr(ord('B') + max(len(nozzles), 1) - 1)}{row}"
-    row += 2
     fq, fr, fa, fp = (
         factors.unit("flow_rate"),
         factors.unit("density"),
@@ -143,3 +123,31 @@ def write_bit(wb, results, factors: Factors, title: str):
     refs.update(dp=(dp_v, dp_f), hsi=(hsi_v, hsi_f))
     setup_print(ws, title)
     return refs
+
+
+def _bit_inputs(ws, row, results):
+    """Rate, density, bit size, discharge coefficient and nozzle cells; returns the next row
+    and their references (the nozzles as a range)."""
+    res, bit, system = results.circulation, results.case.bit, results.case.system
+    q = input_row(ws, row, "flow rate", _o(res.q, "flow_rate", system), "flow_rate", system)
+    rho = input_row(
+        ws, row + 1, "mud density", _o(res.density, "density", system), "density", system
+    )
+    size = input_row(ws, row + 2, "bit size", _o(bit.size, "diameter", system), "diameter", system)
+    cd = input_row(
+        ws,
+        row + 3,
+        "discharge coefficient",
+        bit.discharge_coefficient,
+        "dimensionless",
+        system,
+        "0.00",
+    )
+    row += 4
+    put(ws, row, 1, "nozzle sizes (one cell each)")
+    nozzles = bit.nozzles or ()
+    for j, nz in enumerate(nozzles):
+        put_number(ws, row, 2 + j, nz, "0", "bf_input")
+    put(ws, row, 2 + max(len(nozzles), 1), "1/32 in", "bf_unit")
+    noz = f"B{row}:{chr(ord('B') + max(len(nozzles), 1) - 1)}{row}"
+    return row + 2, (q, rho, size, cd, noz)
