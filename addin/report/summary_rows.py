@@ -28,9 +28,19 @@ def _at(arr, i):
 def summary_rows(results, refs) -> list[dict]:
     """Rows: name, kind (calc.units kind or None), value [SI], check (formula), limit, margin,
     required, status; ``bound`` (text over the limit…required columns) names a binding limit."""
+    rows: list[dict] = []
+    rows += _pressure_rows(results, refs)
+    rows += _ecd_rows(results, refs)
+    rows += _bit_rows(results, refs)
+    rows += _other_rows(refs)
+    return rows
+
+
+def _pressure_rows(results, refs) -> list[dict]:
+    """Predicted standpipe pressure against the rating, and the measurement."""
     case, res = results.case, results.circulation
     lim = case.limits
-    hyd, ecd, bit = refs["hydraulics"], refs["ecd"], refs["bit"]
+    hyd = refs["hydraulics"]
     rows = []
     spp = scalar(res.standpipe_pressure)
     rating = lim["surface_rating"]
@@ -57,6 +67,14 @@ def summary_rows(results, refs) -> list[dict]:
                 status="OK" if abs(gap) <= 10 else "CHECK",
             )
         )
+    return rows
+
+
+def _ecd_rows(results, refs) -> list[dict]:
+    """ECD at the shoe and the bit against fracture, the tightest margin, ESD and PWD."""
+    case, res = results.case, results.circulation
+    ecd = refs["ecd"]
+    rows = []
     mt = res.margins
     req_f = mt.margins.fracture if mt is not None else None
     shoe = mt.index("shoe") if mt is not None else None
@@ -113,6 +131,14 @@ def summary_rows(results, refs) -> list[dict]:
                 status="INFO",
             )
         )
+    return rows
+
+
+def _bit_rows(results, refs) -> list[dict]:
+    """Hydrostatic pressure, bit pressure drop, HSI and the lowest annular velocity."""
+    res = results.circulation
+    ecd, bit, hyd = refs["ecd"], refs["bit"], refs["hydraulics"]
+    rows = []
     rows.append(
         dict(
             name="hydrostatic pressure at the bit",
@@ -142,6 +168,12 @@ def summary_rows(results, refs) -> list[dict]:
                 check=av[3],
             )
         )
+    return rows
+
+
+def _other_rows(refs) -> list[dict]:
+    """Hole cleaning, operating window and trip-speed rows (where those sheets exist)."""
+    rows = []
     cl = refs.get("cleaning") or {}
     if cl:
         status = {"adequate": "OK", "marginal": "NEAR LIMIT", "poor": "EXCEEDED"}[cl["verdict"]]
