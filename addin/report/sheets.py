@@ -200,7 +200,37 @@ def write_summary(ws, results, refs, title):
         put(ws, row + i, 7, str(rv), "bf_cell")
         ws.merge_cells(start_row=row + i, start_column=7, end_row=row + i, end_column=12)
     row += len(left) + 1
-    # ---- key results
+    row = _key_results(ws, row, results, refs, system)
+    row += 1
+    if len(results.trend) > 1:
+        row = _trend_table(ws, row, results, system) + 1
+    row = heading(ws, row, "Run", span=12)
+    for k, v in (
+        ("boreflow version", results.version),
+        ("run time", results.run_time),
+        ("inputs hash (SHA-256)", case.hash),
+        ("case source", case.source),
+    ):
+        put(ws, row, 1, k, "bf_note")
+        put(ws, row, 2, str(v), "bf_cell")
+        ws.merge_cells(start_row=row, start_column=2, end_row=row, end_column=12)
+        row += 1
+    put(
+        ws,
+        row + 1,
+        1,
+        "Detail on the following sheets; every caution and note on 'Cautions'; "
+        "units follow the case (" + system + ").",
+        "bf_note",
+    )
+    ws.merge_cells(start_row=row + 1, start_column=1, end_row=row + 1, end_column=12)
+    setup_print(ws, title, fit_height=1)
+    ws.freeze_panes = None
+    return ws
+
+
+def _key_results(ws, row, results, refs, system) -> int:
+    """The key-results table (summary rows with live checks, limits, margins and status)."""
     row = heading(ws, row, "Key results against limits", span=12)
     row = table_header(
         ws,
@@ -254,32 +284,7 @@ def write_summary(ws, results, refs, title):
             ws.row_dimensions[row].height = 12.0 * (1 + len(item["bound"]) // 60)
         _status(ws, row, 9, item.get("status", ""))
         row += 1
-    row += 1
-    if len(results.trend) > 1:
-        row = _trend_table(ws, row, results, system) + 1
-    row = heading(ws, row, "Run", span=12)
-    for k, v in (
-        ("boreflow version", results.version),
-        ("run time", results.run_time),
-        ("inputs hash (SHA-256)", case.hash),
-        ("case source", case.source),
-    ):
-        put(ws, row, 1, k, "bf_note")
-        put(ws, row, 2, str(v), "bf_cell")
-        ws.merge_cells(start_row=row, start_column=2, end_row=row, end_column=12)
-        row += 1
-    put(
-        ws,
-        row + 1,
-        1,
-        "Detail on the following sheets; every caution and note on 'Cautions'; "
-        "units follow the case (" + system + ").",
-        "bf_note",
-    )
-    ws.merge_cells(start_row=row + 1, start_column=1, end_row=row + 1, end_column=12)
-    setup_print(ws, title, fit_height=1)
-    ws.freeze_panes = None
-    return ws
+    return row
 
 
 def _trend_table(ws, row, results, system) -> int:
