@@ -20,6 +20,7 @@ import numpy as np
 from calc.errors import InputError, check_nonnegative, check_positive
 from calc.numeric import float_or_array
 from calc.span import Span
+from calc.values import Value
 
 __all__ = [
     "CHECK_POINT_ROLES",
@@ -88,9 +89,14 @@ class PressureWindow:
         if np.any(pore >= frac):
             i = int(np.flatnonzero(pore >= frac)[0])
             raise InputError(
-                f"pore EMW at TVD {tvd[i]:g} m",
+                f"pore EMW at TVD station {i + 1}",
                 float(pore[i]),
-                f"< fracture EMW there ({frac[i]:g} kg/m³)",
+                "< fracture EMW there ({fracture}; station TVD {tvd})",
+                kind="density",
+                values=(
+                    Value("fracture", float(frac[i]), "density"),
+                    Value("tvd", float(tvd[i]), "depth"),
+                ),
             )
         for name, arr in (("tvd", tvd), ("pore", pore), ("fracture", frac)):
             arr.setflags(write=False)
@@ -141,7 +147,13 @@ class WeakPoint:
         if self.pore is not None:
             pore = float(check_positive(f"{self.name}: pore EMW", self.pore, "kg/m³"))
             if pore >= frac:
-                raise InputError(f"{self.name}: pore EMW", pore, f"< fracture EMW ({frac:g} kg/m³)")
+                raise InputError(
+                    f"{self.name}: pore EMW",
+                    pore,
+                    "< fracture EMW ({fracture})",
+                    kind="density",
+                    values=(Value("fracture", frac, "density"),),
+                )
             object.__setattr__(self, "pore", pore)
 
 

@@ -63,7 +63,13 @@ class HoleSection:
         top = float(check_nonnegative(f"top of {who}", self.top, "m"))
         bottom = float(check_positive(f"bottom of {who}", self.bottom, "m"))
         if bottom <= top:
-            raise InputError(f"bottom of {who}", bottom, f"> top ({top:g} m)")
+            raise InputError(
+                f"bottom of {who}",
+                bottom,
+                "> top ({top})",
+                kind="depth",
+                values=(Value("top", top, "depth"),),
+            )
         dia = float(check_positive(f"inside diameter of {who}", self.diameter, "m"))
         object.__setattr__(self, "top", top)
         object.__setattr__(self, "bottom", bottom)
@@ -71,12 +77,24 @@ class HoleSection:
         if self.drift is not None:
             drift = float(check_positive(f"drift of {who}", self.drift, "m"))
             if drift > dia:
-                raise InputError(f"drift of {who}", drift, f"<= inside diameter {dia:g} m")
+                raise InputError(
+                    f"drift of {who}",
+                    drift,
+                    "<= inside diameter {id}",
+                    kind="diameter",
+                    values=(Value("id", dia, "diameter"),),
+                )
             object.__setattr__(self, "drift", drift)
         if self.od is not None:
             od = float(check_positive(f"OD of {who}", self.od, "m"))
             if od <= dia:
-                raise InputError(f"inside diameter of {who}", dia, f"< OD {od:g} m")
+                raise InputError(
+                    f"inside diameter of {who}",
+                    dia,
+                    "< OD {od}",
+                    kind="diameter",
+                    values=(Value("od", od, "diameter"),),
+                )
             object.__setattr__(self, "od", od)
         if self.shoe_test is not None:
             object.__setattr__(
@@ -254,7 +272,13 @@ class Hole:
         mdv = np.asarray(md, dtype=float)
         if np.any((mdv < 0) | (mdv > self.depth + 1e-9)):
             bad = mdv[(mdv < 0) | (mdv > self.depth + 1e-9)].ravel()[0]
-            raise InputError("MD", float(bad), f"within the hole, 0 to {self.depth:g} m")
+            raise InputError(
+                "MD",
+                float(bad),
+                "within the hole, 0 to {depth}",
+                kind="depth",
+                values=(Value("depth", float(self.depth), "depth"),),
+            )
         cover = (mdv[..., None] >= self._top - 1e-12) & (mdv[..., None] <= self._bottom + 1e-12)
         dia = np.where(cover, self._dia, np.inf)
         idx = np.argmin(dia, axis=-1)

@@ -149,7 +149,13 @@ class StringComponent:
             jl = float(check_positive(f"joint length of {who}", jl, "m"))
             tjl = float(check_positive(f"tool-joint length of {who}", tjl, "m"))
             if tjl >= jl:
-                raise InputError(f"tool-joint length of {who}", tjl, f"< joint length {jl:g} m")
+                raise InputError(
+                    f"tool-joint length of {who}",
+                    tjl,
+                    "< joint length {joint}",
+                    kind="length",
+                    values=(Value("joint", jl, "length"),),
+                )
             if jl < to_si(15.0, "ft") or jl > to_si(50.0, "ft"):
                 notes.append(
                     Note(

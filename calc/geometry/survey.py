@@ -169,7 +169,13 @@ class Survey:
         d = steps[:, None] * (w1[:, None] * t[:-1] + w2[:, None] * t[1:])
         tvd0 = md[0] if self.tie_in_tvd is None else float(self.tie_in_tvd)
         if tvd0 > md[0] + 1e-9:
-            raise InputError("survey tie-in TVD", tvd0, f"<= first station MD {md[0]:g} m")
+            raise InputError(
+                "survey tie-in TVD",
+                tvd0,
+                "<= first station MD {md}",
+                kind="depth",
+                values=(Value("md", float(md[0]), "depth"),),
+            )
         pos = np.zeros((md.size, 3))
         pos[0, 2] = tvd0
         pos[1:] = pos[0] + np.cumsum(d, axis=0)
