@@ -274,7 +274,12 @@ class Case:
             if exc.name.startswith(self.source):
                 raise
             raise InputError(
-                f"{_where(self.source, path)}: {exc.name}", exc.value, exc.allowed, exc.problem
+                f"{_where(self.source, path)}: {exc.name}",
+                exc.value,
+                exc.allowed,
+                exc.problem,
+                kind=exc.kind,
+                values=exc.values,
             ) from exc
 
     @property
@@ -295,7 +300,6 @@ class Case:
             [r[0] for r in st],
             [r[1] for r in st],
             [r[2] for r in st],
-            message_units=self.unit_system,
         )
 
     @property
@@ -330,7 +334,6 @@ class Case:
             bit_size=oh["bit_size"],
             diameter=oh.get("diameter"),
             washout_factor=oh.get("washout_factor"),
-            message_units=self.unit_system,
         )
 
     @property
@@ -454,7 +457,6 @@ class Case:
             self.surface_lines,
             self.tool_drops,
             bit_depth=depth,
-            message_units=self.unit_system,
         )
 
 

@@ -27,6 +27,9 @@ from calc.units import from_si, label, unit_for
 from calc.values import Value, fill
 
 __all__ = [
+    "BREAKDOWN_LABELS",
+    "STATUS_WORDS",
+    "check_point",
     "depth_point",
     "depth_span",
     "display_number",
@@ -143,12 +146,50 @@ def depth_point(md: float, system: str = "oilfield") -> str:
 
 
 def span(s: Span, system: str = "oilfield", *, depths: bool = True) -> str:
-    """A place in the well in words: "item[ tool joints][ in section], MD a-b unit"."""
+    """A place in the well in words: "item[ tool joints][ in section], MD a-b unit"; a point
+    (top = bottom) reads "item, MD x unit" ("MD x unit" without an item).
+
+    >>> span(Span("annulus", "", top_md=3255.264, bottom_md=3255.264))
+    'MD 10,680 ft'
+    """
     part = s.part
     where = f"{part} in {s.section}" if s.section else part
     if depths and s.has_depth:
-        where += f", {depth_span(s.top_md, s.bottom_md, system)}"
+        point = s.top_md == s.bottom_md
+        md = depth_point(s.top_md, system) if point else depth_span(s.top_md, s.bottom_md, system)
+        where = f"{where}, {md}" if where else md
     return where
+
+
+def check_point(p, system: str = "oilfield") -> str:
+    """A margin check point (:class:`calc.circulation.CheckPoint`) in words: its name, "MD x
+    unit" for a depth-grid point, "window station, TVD x unit" for a pressure-window station.
+
+    >>> from calc.circulation import CheckPoint
+    >>> check_point(CheckPoint("window_station", "", 3298.0, 3018.13))
+    'window station, TVD 9,902 ft'
+    >>> check_point(CheckPoint("depth", "", 3255.264, 3000.0), "oilfield")
+    'MD 10,680 ft'
+    """
+    if p.role == "depth":
+        return depth_point(p.md, system)
+    if p.role == "window_station":
+        return f"window station, TVD {_md(p.tvd, system)} {label(_unit('depth', system))}"
+    return p.name
+
+
+#: Words for the margin states of :func:`calc.circulation.margin_status`.
+STATUS_WORDS = {"ok": "OK", "near_limit": "NEAR LIMIT", "exceeded": "EXCEEDED"}
+
+#: Words for the keys of :meth:`calc.circulation.CirculationResult.breakdown`.
+BREAKDOWN_LABELS = {
+    "back_pressure": "back pressure",
+    "surface": "surface lines",
+    "string": "drill string",
+    "tools": "fixed tool drops",
+    "bit": "bit",
+    "annulus": "annulus",
+}
 
 
 def value(v: Value, system: str = "oilfield", spec: str = "") -> str:

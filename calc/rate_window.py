@@ -1,6 +1,6 @@
 """The safe operating window of flow RATES: every limit at once, with the curves to chart.
 
-(Not the pore/fracture pressure window of :mod:`calc.circulation.pressure_window`: that one is an
+(Not the pore/fracture pressure window of :mod:`calc.circulation.pore_fracture`: that one is an
 input here.)
 
 A rate q is inside the window when, simultaneously,
@@ -297,7 +297,8 @@ def operating_window(
     fi = np.argmin(frac_m, axis=-1)
     pi = np.argmin(pore_m, axis=-1)
     rows = np.arange(qv.size)
-    names = np.asarray(mt.names, dtype=object)
+    names = np.empty(len(mt.points), dtype=object)
+    names[:] = list(mt.points)
     md, tvd = np.asarray(mt.md, dtype=float), np.asarray(mt.tvd, dtype=float)
     return OperatingWindow(
         q=qv,

@@ -48,11 +48,11 @@ def test_demo_computes_in_every_method(method, day):
     assert r.ecd_bit > r.esd_bit
     p = r.profile(10.0)
     assert p.md.size >= r.bit_md / 10.0 and np.all(np.isfinite(p.ecd)) and np.all(p.ecd >= p.esd)
-    assert r.margins is not None and isinstance(r.margins.tightest.name, str)
+    assert r.margins is not None and isinstance(r.margins.tightest.point.name, str)
     # Sand B (MD 10,680-10,820 ft, fracture EMW 12.6 ppg against ≥ 14.5 elsewhere below the
     # shoe; demo data) is above the bit on both days; the tightest point is on its fracture
     # side, at its base (deepest, so highest ECD).
-    assert SAND_B in r.margins.names
+    assert SAND_B in [p.name for p in r.margins.points]
     t = r.margins.tightest
     assert t.limit == "fracture"
     assert demo.ft(10680.0) - 1.0 <= t.md <= demo.ft(10820.0) + 1.0
@@ -74,15 +74,15 @@ def test_demo_api1995_against_the_scenario_hand_check(day):
     r = run("api13d_1995_power_law", day)
     h = HAND[day]
     assert psi(r.standpipe_pressure) == pytest.approx(h["spp"], rel=0.15)
-    assert psi(r.bit_loss) == pytest.approx(h["bit"], rel=0.05)  # same nozzle formula
-    assert psi(r.annulus_loss) == pytest.approx(h["annulus"], rel=0.35)
+    assert psi(r.bit.pressure_drop) == pytest.approx(h["bit"], rel=0.05)  # same nozzle formula
+    assert psi(r.annulus.total) == pytest.approx(h["annulus"], rel=0.35)
     assert ppg(r.ecd_bit) == pytest.approx(h["ecd_bit"], abs=0.15)
     sand = ppg(r.ecd_at(demo.ft(10680.0)))
     assert sand == pytest.approx(h["ecd_sand_b"], abs=0.15)
     assert from_si(r.bit.hsi, "hp/in**2") == pytest.approx(h["hsi"], rel=0.15)
     if day == 0:
-        assert psi(r.string_loss) == pytest.approx(h["string"], rel=0.15)
-        assert psi(r.tool_loss) == pytest.approx(h["tools"], rel=0.02)
+        assert psi(r.string.total) == pytest.approx(h["string"], rel=0.15)
+        assert psi(r.tools.total) == pytest.approx(h["tools"], rel=0.02)
         assert 100 * r.bit_share == pytest.approx(h["pct_bit"], abs=5)
 
 
@@ -128,6 +128,6 @@ def test_demo_api1995_spp_drops_only_where_the_annulus_switches_at_re_2100():
     )
     falls = np.flatnonzero(np.diff(r.standpipe_pressure) < 0)
     assert falls.size > 0
-    regime = np.asarray(r.annulus_flow.regime)
+    regime = np.asarray(r.annulus.flow.regime)
     for i in falls:
         assert np.any((regime[i] == 0) & (regime[i + 1] == 2)), f"SPP fell at rate index {i}"

@@ -17,7 +17,13 @@ from calc.circulation.hydrostatics import (
     gravity_for,
     hydrostatic_pressure,
 )
-from calc.circulation.pressure_window import Margins, PressureWindow, WeakPoint, tabulate_margins
+from calc.circulation.pore_fracture import (
+    CheckPoint,
+    Margins,
+    PressureWindow,
+    WeakPoint,
+    tabulate_margins,
+)
 from calc.errors import InputError
 from calc.units import G_N, from_si, to_si
 
@@ -139,19 +145,19 @@ def test_window_bad_inputs():
 def test_tightest_point_and_limit_named():
     # Hand-made table: three points, ECD 1400 everywhere.  Fracture margins 200, 60, 300;
     # pore margins 300, 350, 80 → the tightest is point "b" on the fracture side (60).
-    names = ("a", "b", "c")
     md = np.array([1.0, 2.0, 3.0])
+    names = tuple(CheckPoint("weak_point", n, m, m) for n, m in zip("abc", md, strict=True))
     pore = np.array([1100.0, 1050.0, 1320.0])
     frac = np.array([1600.0, 1460.0, 1700.0])
     ecd = np.full(3, 1400.0)
     t = tabulate_margins(names, md, md, pore, frac, ecd, ecd - 10, Margins(50.0, 20.0))
-    assert t.tightest.name == "b" and t.tightest.limit == "fracture"
+    assert t.tightest.point.name == "b" and t.tightest.limit == "fracture"
     assert t.tightest.margin == pytest.approx(60.0)
     assert t.tightest.required == pytest.approx(50.0)
     # a sweep: second row has ECD 1250 → pore side at "c" (−70) is tightest
     ecd2 = np.array([ecd, np.full(3, 1250.0)])
     t2 = tabulate_margins(names, md, md, pore, frac, ecd2, ecd2, Margins())
-    assert list(t2.tightest.name) == ["b", "c"]
+    assert [p.name for p in t2.tightest.point] == ["b", "c"]
     assert list(t2.tightest.limit) == ["fracture", "pore"]
     assert t2.tightest.margin == pytest.approx([60.0, -70.0])
     assert t2.static_pore_margin.shape == (2, 3)

@@ -91,16 +91,16 @@ def test_breakdown_equals_the_flow_and_bit_results_it_is_made_of():
     iv = well.flow_intervals()
     s, a = iv.select("string"), iv.select("annulus")
     fs = pipe_flow(Q, s.outer_diameter, density=1318.0, tau_y=ty, k=k, n=n)
-    assert r.string_losses == pytest.approx(fs.gradient * s.length, rel=1e-12)
+    assert r.string.losses == pytest.approx(fs.gradient * s.length, rel=1e-12)
     fa = annulus_flow(Q, a.outer_diameter, a.inner_diameter, density=1318.0, tau_y=ty, k=k, n=n)
-    assert r.annulus_losses == pytest.approx(fa.gradient * a.length, rel=1e-12)
+    assert r.annulus.losses == pytest.approx(fa.gradient * a.length, rel=1e-12)
     fl_lines = pipe_flow(Q, np.array([0.1016, 0.0762]), density=1318.0, tau_y=ty, k=k, n=n)
-    assert r.surface_losses == pytest.approx(fl_lines.gradient * np.array([27.0, 20.0]), rel=1e-12)
-    assert r.tool_loss == pytest.approx(2.2e6 * (Q / 0.0328) ** 2, rel=1e-12)
+    assert r.surface.losses == pytest.approx(fl_lines.gradient * np.array([27.0, 20.0]), rel=1e-12)
+    assert r.tools.total == pytest.approx(2.2e6 * (Q / 0.0328) ** 2, rel=1e-12)
     parts = sum(r.breakdown().values())
     assert r.standpipe_pressure == pytest.approx(parts, rel=1e-14)
     assert r.pump_power == pytest.approx(r.standpipe_pressure * Q, rel=1e-14)
-    assert r.bit.share_of_standpipe == pytest.approx(r.bit_loss / r.standpipe_pressure)
+    assert r.bit.share_of_standpipe == pytest.approx(r.bit.pressure_drop / r.standpipe_pressure)
 
 
 def test_pipe_only_loop_newtonian_laminar_equals_hagen_poiseuille_and_lamb():
@@ -115,18 +115,18 @@ def test_pipe_only_loop_newtonian_laminar_equals_hagen_poiseuille_and_lamb():
     iv = well.flow_intervals()
     s, a = iv.select("string"), iv.select("annulus")
     hp = 128 * mu * q * s.length / (np.pi * s.outer_diameter**4)
-    assert r.string_losses == pytest.approx(hp, rel=1e-6)
+    assert r.string.losses == pytest.approx(hp, rel=1e-6)
     lines_hp = 128 * mu * q * np.array([27.0, 20.0]) / (np.pi * np.array([0.1016, 0.0762]) ** 4)
-    assert r.surface_losses == pytest.approx(lines_hp, rel=1e-6)
+    assert r.surface.losses == pytest.approx(lines_hp, rel=1e-6)
     r2, r1 = a.outer_diameter / 2, a.inner_diameter / 2
     lamb = 8 * mu * q / (np.pi * (r2**4 - r1**4 - (r2**2 - r1**2) ** 2 / np.log(r2 / r1)))
-    assert r.annulus_losses == pytest.approx(lamb * a.length, rel=1e-6)
+    assert r.annulus.losses == pytest.approx(lamb * a.length, rel=1e-6)
     bit = well.bit
     jet = rho * q**2 / (2 * bit.discharge_coefficient**2 * bit.tfa**2)
-    assert r.bit_loss == pytest.approx(jet, rel=1e-12)
+    assert r.bit.pressure_drop == pytest.approx(jet, rel=1e-12)
     total = hp.sum() + lines_hp.sum() + (lamb * a.length).sum() + jet
     assert r.standpipe_pressure == pytest.approx(total, rel=1e-6)
-    assert np.all(np.asarray(r.annulus_flow.regime) == 0)
+    assert np.all(np.asarray(r.annulus.flow.regime) == 0)
 
 
 def test_hydrostatics_in_a_slant_well():
@@ -143,7 +143,7 @@ def test_hydrostatics_in_a_slant_well():
     assert from_si(r052.static_bhp, "psi") == pytest.approx(
         0.052 * 11.0 * from_si(tvd, "ft"), rel=1e-9
     )
-    assert r.circulating_bhp == pytest.approx(r.static_bhp + r.annulus_loss, rel=1e-14)
+    assert r.circulating_bhp == pytest.approx(r.static_bhp + r.annulus.total, rel=1e-14)
 
 
 def test_ecd_identity_at_bit_and_along_the_annulus():
@@ -152,12 +152,12 @@ def test_ecd_identity_at_bit_and_along_the_annulus():
     rho = 1318.0
     pb = to_si(150.0, "psi")
     r = circulate(well, hb_fluid(rho), Q, back_pressure=pb)
-    assert r.ecd_bit == pytest.approx(rho + (r.annulus_loss + pb) / (G_N * r.bit_tvd), rel=1e-12)
+    assert r.ecd_bit == pytest.approx(rho + (r.annulus.total + pb) / (G_N * r.bit_tvd), rel=1e-12)
     assert r.ecd_at(3000.0) == pytest.approx(r.ecd_bit, rel=1e-12)
-    assert r.annular_loss_above(3000.0) == pytest.approx(r.annulus_loss, rel=1e-12)
+    assert r.annular_loss_above(3000.0) == pytest.approx(r.annulus.total, rel=1e-12)
     # at the casing shoe (an interval boundary): the sum of the annular rows above it
     a = well.flow_intervals().select("annulus")
-    above = np.asarray(r.annulus_losses)[a.bottom_md <= 1500.0 + 1e-9].sum()
+    above = np.asarray(r.annulus.losses)[a.bottom_md <= 1500.0 + 1e-9].sum()
     tvd_shoe = well.survey.tvd_at(1500.0)
     assert r.ecd_at(1500.0) == pytest.approx(rho + (above + pb) / (G_N * tvd_shoe), rel=1e-12)
     assert r.standpipe_pressure == pytest.approx(sum(r.breakdown().values()), rel=1e-14)
@@ -170,8 +170,8 @@ def test_ecd_identity_at_bit_and_along_the_annulus():
 def test_tool_joints_raise_annular_loss():
     # Tool-joint sub-intervals narrow the annulus over their share of each joint: more loss
     # (physical expectation; exact laminar flow loss falls with the gap).
-    base = circulate(simple_well(), hb_fluid(), Q).annulus_loss
-    tj = circulate(simple_well(tool_joints=True), hb_fluid(), Q).annulus_loss
+    base = circulate(simple_well(), hb_fluid(), Q).annulus.total
+    tj = circulate(simple_well(tool_joints=True), hb_fluid(), Q).annulus.total
     assert tj > base
 
 
@@ -183,15 +183,15 @@ def test_sweep_equals_per_rate_calls_and_density_sweep():
     opts = dict(window=_window(), weak_points=(WeakPoint("sand", 2500.0, 1500.0, 1100.0),))
     rs = circulate(well, fl, qs, **opts)
     assert np.shape(rs.standpipe_pressure) == (4,)
-    assert np.shape(rs.annulus_losses) == (4, len(rs.annulus_names))
-    assert np.shape(rs.annulus_flow.velocity) == (4, len(rs.annulus_names))
+    assert np.shape(rs.annulus.losses) == (4, len(rs.annulus.spans))
+    assert np.shape(rs.annulus.flow.velocity) == (4, len(rs.annulus.spans))
     for i, q in enumerate(qs):
         r1 = circulate(well, fl, float(q), **opts)
         assert isinstance(r1.standpipe_pressure, float)
         assert rs.standpipe_pressure[i] == pytest.approx(r1.standpipe_pressure, rel=1e-12)
         assert rs.ecd_bit[i] == pytest.approx(r1.ecd_bit, rel=1e-12)
         assert rs.margins.tightest.margin[i] == pytest.approx(r1.margins.tightest.margin)
-        assert rs.margins.tightest.name[i] == r1.margins.tightest.name
+        assert rs.margins.tightest.point[i] == r1.margins.tightest.point
         assert rs.bit.pressure_drop[i] == pytest.approx(r1.bit.pressure_drop, rel=1e-12)
     rhos = np.array([1100.0, 1318.0, 1500.0])
     m = HerschelBulkley(3.06, 0.215, 0.69)
@@ -249,11 +249,14 @@ def test_margins_and_tightest_point():
     r = circulate(well, hb_fluid(1318.0), Q, window=_window(), weak_points=(weak,))
     t = r.margins.tightest
     # the weak sand (fracture EMW 1400) is far tighter than the window (≥ 1700)
-    assert t.name == "depleted sand" and t.limit == "fracture"
+    assert t.point.name == "depleted sand" and t.limit == "fracture"
+    assert t.point.role == "weak_point"
     assert t.margin == pytest.approx(1400.0 - r.ecd_at(2000.0), rel=1e-12)
-    assert "casing shoe" in r.margins.names and "bit" in r.margins.names
+    names = [p.name for p in r.margins.points]
+    assert "casing shoe" in names and "bit" in names
     # the shoe takes its shoe test as fracture EMW
-    j = r.margins.names.index("casing shoe")
+    j = names.index("casing shoe")
+    assert r.margins.points[j].role == "shoe" and r.margins.index("shoe") == j
     assert r.margins.fracture[j] == pytest.approx(1750.0)
     assert r.margins.md.min() >= 1500.0  # exposed formation only: last shoe to bit
 
@@ -288,7 +291,7 @@ def test_transitional_flow_note():
     well = simple_well(tools=False, lines=False)
     fl = HydraulicsFluid(1000.0, Newtonian(0.01), Newtonian(0.01))
     r = circulate(well, fl, to_si(np.linspace(5.0, 200.0, 300), "gpm"), method="newtonian")
-    regimes = np.unique(np.asarray(r.annulus_flow.regime))
+    regimes = np.unique(np.asarray(r.annulus.flow.regime))
     assert 1 in regimes
     assert "transitional_flow" in {n.code for n in r.notes}
 
@@ -298,7 +301,9 @@ def test_friction_multiplier_scales_friction_only():
     a = circulate(well, hb_fluid(), Q)
     b = circulate(well, hb_fluid(), Q, friction_multiplier=1.2)
     assert b.frictional_loss == pytest.approx(1.2 * a.frictional_loss, rel=1e-12)
-    assert b.bit_loss == pytest.approx(a.bit_loss) and b.tool_loss == pytest.approx(a.tool_loss)
+    assert b.bit.pressure_drop == pytest.approx(
+        a.bit.pressure_drop
+    ) and b.tools.total == pytest.approx(a.tools.total)
     assert b.ecd_bit > a.ecd_bit
 
 
@@ -309,13 +314,15 @@ def test_calibration_reproduces_the_measured_spp():
     meas = 1.08 * pred
     cal = calibrate_friction(well, hb_fluid(), Q, meas)
     assert cal.label == CALIBRATION_LABEL and "CALIBRATION" in cal.label
-    assert cal.deviation == pytest.approx(meas - pred, rel=1e-12)
-    assert cal.deviation_percent == pytest.approx(8.0, rel=1e-9)
+    # one definition (calc.circulation.spp_deviation[_percent]): predicted − measured, relative
+    # to the measurement: 100·(1 − 1.08)/1.08
+    assert cal.deviation == pytest.approx(pred - meas, rel=1e-12)
+    assert cal.deviation_percent == pytest.approx(100.0 * (1.0 - 1.08) / 1.08, rel=1e-9)
     assert cal.calibrated.standpipe_pressure == pytest.approx(meas, rel=1e-12)
     fixed = pred - cal.predicted.frictional_loss
     assert cal.multiplier == pytest.approx((meas - fixed) / cal.predicted.frictional_loss)
     assert cal.multiplier > 1.0
-    assert cal.calibrated.bit_loss == pytest.approx(cal.predicted.bit_loss)
+    assert cal.calibrated.bit.pressure_drop == pytest.approx(cal.predicted.bit.pressure_drop)
     assert any(n.code == "calibration" for n in cal.notes)
     far = calibrate_friction(well, hb_fluid(), Q, 1.5 * pred)
     assert "spp_gap" in {n.code for n in far.notes}
@@ -390,14 +397,14 @@ def test_tool_drop_covering_a_bore_removes_exactly_that_bore_friction():
     darcy = f * length / d * rho * v**2 / 2
     assert plain.standpipe_pressure - cov.standpipe_pressure == pytest.approx(darcy, rel=0.01)
     # bookkeeping: only the collar rows are zeroed; tool, bit and annulus are unchanged
-    names = np.array([n.startswith("collars") for n in cov.string_names])
-    assert np.all(np.asarray(cov.string_losses)[names] == 0.0)
+    names = np.array([s.item == "collars" for s in cov.string.spans])
+    assert np.all(np.asarray(cov.string.losses)[names] == 0.0)
     np.testing.assert_array_equal(
-        np.asarray(cov.string_losses)[~names], np.asarray(plain.string_losses)[~names]
+        np.asarray(cov.string.losses)[~names], np.asarray(plain.string.losses)[~names]
     )
-    assert cov.tool_loss == plain.tool_loss and cov.annulus_loss == plain.annulus_loss
+    assert cov.tools.total == plain.tools.total and cov.annulus.total == plain.annulus.total
     assert cov.ecd_bit == plain.ecd_bit  # the annulus is untouched
-    assert cov.tool_covered == ("collars",) and plain.tool_covered == ()
+    assert cov.tools.covered == ("collars",) and plain.tools.covered == ()
     assert "bore_covered_by_tool_drop" in {n.code for n in cov.notes}
 
 
@@ -408,18 +415,26 @@ def test_calibration_with_covered_bores_keeps_the_tool_drop_fixed():
     pred = circulate(well, hb_fluid(), Q).standpipe_pressure
     cal = calibrate_friction(well, hb_fluid(), Q, 1.05 * pred)
     assert cal.calibrated.standpipe_pressure == pytest.approx(1.05 * pred, rel=1e-12)
-    assert cal.calibrated.tool_loss == pytest.approx(cal.predicted.tool_loss, rel=1e-14)
+    assert cal.calibrated.tools.total == pytest.approx(cal.predicted.tools.total, rel=1e-14)
 
 
-def test_interval_names_and_sweep_notes_in_the_message_units():
-    # 1 ft = 0.3048 m exactly (NIST SP 811): oilfield names in ft, metric in m
+def test_interval_spans_and_sweep_notes_in_the_faces_units():
+    # 1 ft = 0.3048 m exactly (NIST SP 811): the spans are SI, the faces word them in ft or m
     well = simple_well()
-    oil = circulate(well, hb_fluid(), Q, message_units="oilfield")
-    met = circulate(well, hb_fluid(), Q, message_units="metric")
-    assert all(n.endswith(" ft") for n in oil.string_names + oil.annulus_names)
-    assert all(n.endswith(" m") for n in met.string_names + met.annulus_names)
+    r = circulate(well, hb_fluid(), Q)
+    iv = well.flow_intervals()
+    assert r.string.spans == iv.string.spans() and r.annulus.spans == iv.annulus.spans()
+    assert {s.path for s in r.string.spans} == {"string"}
+    assert all(s.section for s in r.annulus.spans)
+    oil = [text.span(s, "oilfield") for s in r.string.spans + r.annulus.spans]
+    met = [text.span(s, "metric") for s in r.string.spans + r.annulus.spans]
+    assert all(n.endswith(" ft") for n in oil) and all(n.endswith(" m") for n in met)
     top, bot = 0.0, 500.0  # the first string interval: surface to the kick-off station
-    assert f"MD {top / 0.3048:,.0f}-{bot / 0.3048:,.0f} ft" in oil.string_names[0]
-    sweep = circulate(well, hb_fluid(), np.linspace(0.3, 1.6, 5) * Q, message_units="oilfield")
-    texts = " ".join(text.note(n) for n in sweep.notes)
+    s0 = r.string.spans[0]
+    assert (s0.top_md, s0.bottom_md) == (top, bot)
+    assert f"MD {top / 0.3048:,.0f}-{bot / 0.3048:,.0f} ft" in text.span(s0, "oilfield")
+    sweep = circulate(well, hb_fluid(), np.linspace(0.3, 1.6, 5) * Q)
+    texts = " ".join(text.note(n, "oilfield") for n in sweep.notes)
     assert "m³/s" not in texts and "gpm" in texts
+    ranged = [v for n in sweep.notes for v in n.values if v.name == "rates"]
+    assert ranged and all(v.kind == "flow_rate" and len(v.value) == 2 for v in ranged)

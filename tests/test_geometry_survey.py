@@ -105,7 +105,7 @@ def test_high_dogleg_gives_note_only_above_10_deg_per_100ft():
     steep = Survey(np.array([0, 1000, 1100]) * ft, [0.0, 0.0, 15.0], [0.0, 0.0, 0.0])
     mild = Survey(np.array([0, 1000, 1100]) * ft, [0.0, 0.0, 5.0], [0.0, 0.0, 0.0])
     assert [n.code for n in steep.notes] == ["high_dogleg"]
-    assert "15.0°/100 ft" in text.note(steep.notes[0])
+    assert "15.0 °/100ft" in text.note(steep.notes[0])
     assert mild.notes == ()
 
 

@@ -267,8 +267,8 @@ def test_every_label_in_the_case_units_for_a_metric_case(tmp_path):
         for t in _texts(ws):
             assert not re.search(r"\d ft\b|ppg|psi|gpm", t), (ws.title, t)
     for n in res.notes:
-        assert not re.search(r"\d ft\b|ppg|psi|gpm", text.note(n)), text.note(n)
-    assert any(" m" in n for n in res.circulation.string_names)
+        assert not re.search(r"\d ft\b|ppg|psi|gpm", text.note(n, "metric")), text.note(n)
+    assert any(" m" in text.span(sp, "metric") for sp in res.circulation.string.spans)
 
 
 def _metric(doc):

@@ -7,7 +7,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from addin.report.sheet_window import fracture_point_words, pore_point_words
+from addin import text
 from calc.circulation import Margins, circulate
 from calc.cleaning import hole_cleaning
 from calc.errors import InputError
@@ -107,8 +107,16 @@ def test_ecd_limit_curves_and_point_depths_in_units():
     assert np.allclose(w.tvd_at(ow.fracture_point_md), ow.fracture_point_tvd)
     checked = 0
     for words, md, tvd in (
-        (fracture_point_words(ow, "metric"), ow.fracture_point_md, ow.fracture_point_tvd),
-        (pore_point_words(ow, "metric"), ow.pore_point_md, ow.pore_point_tvd),
+        (
+            [text.check_point(p, "metric") for p in ow.fracture_point_name],
+            ow.fracture_point_md,
+            ow.fracture_point_tvd,
+        ),
+        (
+            [text.check_point(p, "metric") for p in ow.pore_point_name],
+            ow.pore_point_md,
+            ow.pore_point_tvd,
+        ),
     ):
         assert all(" ft" not in x for x in words)
         for i, x in enumerate(words):
@@ -116,6 +124,6 @@ def test_ecd_limit_curves_and_point_depths_in_units():
                 assert x == f"MD {md[i]:,.1f} m"
                 checked += 1
             elif x.startswith("window station"):
-                assert x == f"window station, TVD {tvd[i]:,.0f} m"
+                assert x == f"window station, TVD {tvd[i]:,.1f} m"
                 checked += 1
     assert checked

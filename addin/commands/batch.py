@@ -12,12 +12,12 @@ import sys
 import time
 from pathlib import Path
 
+from addin import text
 from addin.commands.exit_codes import EXIT_BATCH_FAILED, EXIT_OK
 from addin.commands.report import run_one
 from addin.report.compute import scalar
 from addin.safe_io import atomic_write_bytes, csv_safe
 from calc.errors import InputError
-from calc.units import from_si, unit_for
 
 __all__ = ["run"]
 
@@ -58,7 +58,7 @@ def _bar(i, n, name, width=28):
 
 def _display(value, kind: str, system: str) -> float:
     """An SI result as a number in ``system``'s unit for ``kind`` (for the summary table)."""
-    return from_si(scalar(value), unit_for(kind, system), kind)
+    return text.display_number(scalar(value), kind, system)
 
 
 def _summary(results) -> dict[str, str]:
@@ -71,12 +71,10 @@ def _summary(results) -> dict[str, str]:
         "ecd_bit": f"{_display(circ.ecd_bit, 'density', s):.3f}",
         "tightest_margin": ""
         if tight is None
-        else f"{_display(tight.margin, 'density', s):.3f} ({tight.name})",
+        else f"{_display(tight.margin, 'density', s):.3f} ({text.check_point(tight.point, s)})",
         "cleaning": ""
         if not results.cleaning
-        else min(
-            (r["verdict"] for r in results.cleaning["result"].table()), key=_VERDICT_ORDER.index
-        ),
+        else min((r["verdict"] for r in results.cleaning.result.table()), key=_VERDICT_ORDER.index),
         "units": s,
     }
 

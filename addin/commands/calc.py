@@ -2,10 +2,11 @@
 
 from __future__ import annotations
 
+from addin import text
 from addin.case import load_case, parse_quantity
 from addin.commands.exit_codes import EXIT_OK
 from addin.commands.output import json_text
-from addin.report.compute import DEFAULT_METHOD, fluid_for, scalar
+from addin.report.compute import DEFAULT_METHOD, report_fluid, scalar
 from calc.bit import Bit, bit_hydraulics
 from calc.circulation import Margins, hydrostatic_pressure
 from calc.circulation.loop import circulate
@@ -102,7 +103,7 @@ def run(args) -> int:
             else case.check_value(-1, "flow_rate")
         )
         chk = case.checks[-1]
-        fluid = fluid_for(
+        fluid = report_fluid(
             chk.readings, case.check_value(-1, "density"), args.method or DEFAULT_METHOD, chk.label
         )
         lim = case.limits
@@ -115,14 +116,19 @@ def run(args) -> int:
             weak_points=case.weak_points,
             margins=Margins(lim["fracture_margin"], lim["pore_margin"]),
             surface_rating=lim["surface_rating"],
-            message_units=case.unit_system,
         )
         d = {"flow rate": (scalar(res.q), "flow_rate")}
-        d.update({f"loss: {k}": (scalar(v), "pressure") for k, v in res.breakdown().items()})
+        d.update(
+            {
+                f"loss: {text.BREAKDOWN_LABELS[k]}": (scalar(v), "pressure")
+                for k, v in res.breakdown().items()
+            }
+        )
         d["standpipe pressure"] = (scalar(res.standpipe_pressure), "pressure")
         d["ECD at the bit"] = (scalar(res.ecd_bit), "density")
         if res.margins is not None:
             t = res.margins.tightest
-            d[f"tightest margin ({t.name}, {t.limit})"] = (float(t.margin), "density")
+            where = text.check_point(t.point, s)
+            d[f"tightest margin ({where}, {t.limit})"] = (float(t.margin), "density")
         _show(d, s, args.json)
     return EXIT_OK

@@ -6,35 +6,41 @@ so the report parses back to the same case) · ``Rheology`` · ``Hydraulics`` ·
 ``Audit`` (run information, conversion factors and an index of the live checks).  Which sheets
 appear depends on the calc modules present in this build (see :data:`SECTIONS`).
 
-Usage::
+Usage (``write_report`` takes the computed results, not the case)::
 
     from addin.case import load_case
-    from addin.report import write_report
-    write_report(load_case("workbooks/demo-case.toml"), "demo-report.xlsx")
+    from addin.report import compute, write_report
+    write_report(compute(load_case("workbooks/demo-case.toml")), "demo-report.xlsx")
+
+Modules: :mod:`~addin.report.compute` (runs calc, typed results), one module per sheet
+(``sheet_rheology``, ``sheet_hydraulics``, ``sheet_ecd``, ``sheet_bit``, ``sheet_cleaning``,
+``sheet_window``; Summary, Inputs, Cautions and Audit in ``sheets``), ``summary_rows``,
+``audit`` (conversion factors, live checks), ``charts``, ``style``, ``jsonout`` (``--json``).
 """
 
 from __future__ import annotations
 
 from pathlib import Path
 
+import openpyxl
+
+from addin.report.audit import Factors
 from addin.report.compute import Results, compute
+from addin.report.sheet_bit import write_bit
+from addin.report.sheet_cleaning import write_cleaning, write_trips
+from addin.report.sheet_ecd import write_ecd
+from addin.report.sheet_hydraulics import write_hydraulics
+from addin.report.sheet_rheology import write_rheology
+from addin.report.sheet_window import write_window
+from addin.report.sheets import write_audit, write_cautions, write_inputs, write_summary
+from addin.safe_io import OutputExistsError, atomic_write
+from addin.xlsx_cells import add_styles
 
 __all__ = ["Results", "build_report", "compute", "write_report"]
 
 
 def build_report(results: Results):
     """The report as an openpyxl Workbook (not saved)."""
-    import openpyxl
-
-    from addin.report.audit import Factors
-    from addin.report.sheets import (
-        write_audit,
-        write_cautions,
-        write_inputs,
-        write_summary,
-    )
-    from addin.xlsx_cells import add_styles
-
     wb = openpyxl.Workbook()
     add_styles(wb)
     case = results.case
@@ -45,20 +51,12 @@ def build_report(results: Results):
     audit = wb.create_sheet("Audit")
     factors = Factors(audit, row=12, system=case.unit_system)
     refs = {}
-    from addin.report.sheet_rheology import write_rheology
-
     refs["rheology"] = write_rheology(wb, results, factors, title)
-    from addin.report.sheet_hydraulics import write_bit, write_ecd, write_hydraulics
-
     refs["hydraulics"] = write_hydraulics(wb, results, factors, title)
     refs["ecd"] = write_ecd(wb, results, factors, title)
     refs["bit"] = write_bit(wb, results, factors, title)
-    from addin.report.sheet_cleaning import write_cleaning, write_trips
-
     refs["cleaning"] = write_cleaning(wb, results, factors, title, refs["hydraulics"]["q"])
     refs["trips"] = write_trips(wb, results, factors, title)
-    from addin.report.sheet_window import write_window
-
     refs["window"] = write_window(wb, results, title)
     write_cautions(wb, results, title)
     write_summary(summary, results, refs, title)
@@ -71,8 +69,6 @@ def build_report(results: Results):
 
 def write_report(results: Results, path, *, overwrite: bool = False) -> Path:
     """Build and save the report atomically; never replaces an existing file unless asked."""
-    from addin.safe_io import OutputExistsError, atomic_write
-
     path = Path(path)
     if path.exists() and not overwrite:
         raise OutputExistsError(path)

@@ -20,10 +20,11 @@ from dataclasses import dataclass, field
 from openpyxl.utils import get_column_letter, quote_sheetname
 
 from addin.report.style import number_format, put_number
+from addin.text import unit_label
 from addin.xlsx_cells import put
 from calc.units import G_N, label, si_factor, unit_for
 
-__all__ = ["AGREE_TOL", "Factors", "cell_ref", "write_checked"]
+__all__ = ["AGREE_TOL", "Factors", "cell_ref", "checked_row", "input_row", "write_checked"]
 
 #: Relative tolerance of the agreement cells (display of agreement only; tests use their own).
 AGREE_TOL = 1e-6
@@ -111,3 +112,24 @@ def write_checked(
     )
     agree.style = "bf_note"
     return cell_ref(ws, row, col), cell_ref(ws, row, col + 1)
+
+
+def input_row(ws, row, name, value, kind, system, fmt=None) -> str:
+    """A labelled input cell (name, value, unit) for live checks to refer to; returns its
+    absolute reference."""
+    put(ws, row, 1, name)
+    put_number(ws, row, 2, value, fmt or number_format(kind, system), "bf_input")
+    put(ws, row, 3, unit_label(kind, system), "bf_unit")
+    return cell_ref(ws, row, 2, absolute=True)
+
+
+def checked_row(ws, row, name, value, formula, kind, system, note="", note_end=11):
+    """A quantity row: name, value, live check, agreement, unit and the formula in words
+    (merged up to column ``note_end``); returns the value and formula references."""
+    put(ws, row, 1, name)
+    v, f = write_checked(ws, row, 2, value, formula, kind=kind, system=system)
+    put(ws, row, 5, unit_label(kind, system), "bf_unit")
+    if note:
+        put(ws, row, 6, note, "bf_note")
+        ws.merge_cells(start_row=row, start_column=6, end_row=row, end_column=note_end)
+    return v, f

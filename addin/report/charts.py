@@ -19,7 +19,15 @@ import numpy as np
 from openpyxl.chart import BarChart, Reference, ScatterChart, Series
 from openpyxl.chart.layout import Layout, ManualLayout
 from openpyxl.chart.shapes import GraphicalProperties
+from openpyxl.chart.text import RichText, Text
+from openpyxl.chart.title import Title
 from openpyxl.drawing.line import LineProperties
+from openpyxl.drawing.text import (
+    CharacterProperties,
+    Paragraph,
+    ParagraphProperties,
+    RegularTextRun,
+)
 
 from addin.xlsx_cells import PALETTE
 
@@ -255,15 +263,6 @@ def rate_curves(
 
 def _small_title(text: str, size_pt: float = 10.0):
     """A chart title in a modest bold font (the default is large for a one-third-page chart)."""
-    from openpyxl.chart.text import RichText, Text
-    from openpyxl.chart.title import Title
-    from openpyxl.drawing.text import (
-        CharacterProperties,
-        Paragraph,
-        ParagraphProperties,
-        RegularTextRun,
-    )
-
     cp = CharacterProperties(sz=int(size_pt * 100), b=True)
     para = Paragraph(pPr=ParagraphProperties(defRPr=cp), r=[RegularTextRun(rPr=cp, t=text)])
     return Title(tx=Text(rich=RichText(p=[para])), overlay=False)

@@ -12,10 +12,43 @@ from dataclasses import dataclass, field
 import numpy as np
 
 import calc
+from addin.case import Case
+from calc.circulation import (
+    CirculationResult,
+    FrictionCalibration,
+    HydraulicsFluid,
+    Margins,
+    Profile,
+    TightestPoint,
+    calibrate_friction,
+    circulate,
+    hydraulics_fluid_from_readings,
+    spp_deviation_percent,
+)
+from calc.cleaning import Cuttings, HoleCleaningResult, hole_cleaning
+from calc.geometry import Well
 from calc.hydraulics_method import DEFAULT_METHOD  # the report's default: calc's one default
 from calc.notes import Note
+from calc.rate_window import OperatingWindow, operating_window
+from calc.rheology import (
+    CheckComparison,
+    FitSet,
+    ViscometerReadings,
+    compare_checks,
+    fit_all,
+)
+from calc.surge import SurgeResult, TripLimits, surge_pressure, trip_speed_limits
 
-__all__ = ["CheckHydraulics", "CheckResults", "Results", "compute"]
+__all__ = [
+    "CheckHydraulics",
+    "CheckResults",
+    "CleaningRun",
+    "Results",
+    "TripRun",
+    "compute",
+    "report_fluid",
+    "scalar",
+]
 
 #: Fits shown on the rheology sheet, in this order (calc.rheology registry names).
 SHOWN_FITS = (
@@ -33,12 +66,13 @@ WINDOW_SWEEP = (0.3, 1.8, 200)
 
 @dataclass(frozen=True)
 class CheckResults:
-    """Rheology of one mud check."""
+    """Rheology of one mud check: its readings, every fit, and the comparison with the previous
+    check (None for the first)."""
 
     label: str
-    readings: object  # ViscometerReadings
-    fits: object  # FitSet
-    comparison: object | None  # CheckComparison with the previous check
+    readings: ViscometerReadings
+    fits: FitSet
+    comparison: CheckComparison | None
 
 
 @dataclass(frozen=True)
@@ -47,7 +81,8 @@ class CheckHydraulics:
 
     ``circulation`` is None (and ``missing`` names the keys) when the check lacks a bit depth,
     density or flow rate.  ``calibration`` is :func:`calc.circulation.calibrate_friction` when
-    the check has a measured standpipe pressure the model can reproduce.
+    the check has a measured standpipe pressure the model can reproduce.  Depths [m], densities
+    [kg/m³], rates [m³/s], pressures [Pa], PV [Pa·s], YP [Pa].
     """
 
     label: str
@@ -56,9 +91,9 @@ class CheckHydraulics:
     q: float | None
     pv: float | None
     yp: float | None
-    circulation: object | None
+    circulation: CirculationResult | None
     measured_spp: float | None = None
-    calibration: object | None = None
+    calibration: FrictionCalibration | None = None
     pwd_md: float | None = None
     pwd_ecd: float | None = None
     model_ecd_at_pwd: float | None = None
@@ -66,43 +101,65 @@ class CheckHydraulics:
 
     @property
     def spp(self) -> float | None:
+        """Predicted standpipe pressure [Pa]."""
         return None if self.circulation is None else scalar(self.circulation.standpipe_pressure)
 
     @property
     def spp_deviation_percent(self) -> float | None:
-        """100·(predicted − measured)/measured [%] (None without a measurement)."""
+        """:func:`calc.circulation.spp_deviation_percent`: 100·(predicted − measured)/measured
+        [%] (None without a measurement)."""
         if self.spp is None or not self.measured_spp:
             return None
-        return 100.0 * (self.spp - self.measured_spp) / self.measured_spp
+        return float(spp_deviation_percent(self.spp, self.measured_spp))
 
     @property
-    def tightest(self):
+    def tightest(self) -> TightestPoint | None:
         res = self.circulation
         return None if res is None or res.margins is None else res.margins.tightest
+
+
+@dataclass(frozen=True)
+class CleaningRun:
+    """Hole cleaning at the latest check's rate, the cuttings it assumed and its notes."""
+
+    result: HoleCleaningResult
+    cuttings: Cuttings
+    notes: tuple[Note, ...]
+
+
+@dataclass(frozen=True)
+class TripRun:
+    """Trip-speed limits and surge/swab at the planned speeds [m/s] (running and pulling)."""
+
+    limits: TripLimits
+    running: SurgeResult
+    pulling: SurgeResult
+    speeds: np.ndarray
+    notes: tuple[Note, ...]
 
 
 @dataclass(frozen=True)
 class Results:
     """All results of one report run (the latest check drives hydraulics)."""
 
-    case: object
+    case: Case
     run_time: str
     version: str
     method: str
     checks: tuple[CheckResults, ...]
-    well: object
-    fluid: object
-    circulation: object
-    profile: object
-    cleaning: object | None
-    surge: object | None
-    window: object | None = None  # calc.rate_window.OperatingWindow over WINDOW_SWEEP
+    well: Well
+    fluid: HydraulicsFluid
+    circulation: CirculationResult
+    profile: Profile
+    cleaning: CleaningRun | None
+    surge: TripRun | None
+    window: OperatingWindow | None = None  # over WINDOW_SWEEP
     notes: tuple[Note, ...] = field(default=())
     trend: tuple[CheckHydraulics, ...] = field(default=())
     profile_step: float = 30.48
 
     @property
-    def calibration(self):
+    def calibration(self) -> FrictionCalibration | None:
         """Friction calibration of the latest check (None without a usable measured SPP)."""
         return self.trend[-1].calibration if self.trend else None
 
@@ -111,11 +168,9 @@ class Results:
         return self.checks[-1]
 
 
-def fluid_for(readings, density: float, method: str, label: str):
-    """HydraulicsFluid with the fits the hydraulics ``method`` prescribes (calc.circulation)."""
-    from calc.circulation.fluid import hydraulics_fluid_from_readings
-
-    # the report shows the fits' notes on its rheology sheet, not again with the circulation
+def report_fluid(readings, density: float, method: str, label: str) -> HydraulicsFluid:
+    """The fluid as the hydraulics ``method`` fits it, without the fits' notes (the report shows
+    them once, on its rheology sheet)."""
     return hydraulics_fluid_from_readings(
         readings, method, density=density, label=label, fit_notes=False
     )
@@ -123,9 +178,6 @@ def fluid_for(readings, density: float, method: str, label: str):
 
 def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) -> Results:
     """Run rheology, circulation, ECD profile (and cleaning/surge where available) for a case."""
-    from calc.circulation.loop import circulate
-    from calc.rheology import compare_checks, fit_all
-
     run_time = run_time or _dt.datetime.now(_dt.UTC).strftime("%Y-%m-%d %H:%M:%S UTC")
     checks = []
     prev = None
@@ -138,7 +190,7 @@ def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) 
     well = case.well(-1)
     density = case.check_value(-1, "density")
     q = case.check_value(-1, "flow_rate")
-    fluid = fluid_for(checks[-1].readings, density, method, case.checks[-1].label)
+    fluid = report_fluid(checks[-1].readings, density, method, case.checks[-1].label)
     res = circulate(well, fluid, q, method=method, **_circulate_options(case))
     step = 30.48 if case.unit_system == "oilfield" else 25.0  # profile grid: 100 ft or 25 m
     prof = res.profile(step)
@@ -146,8 +198,9 @@ def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) 
     for c in checks:
         notes.extend(c.readings.notes)
         notes.extend(c.fits.notes)
+    latest = (res, fluid)
     trend = tuple(
-        _check_hydraulics(case, i, checks[i], method, res if i == len(checks) - 1 else None)
+        _check_hydraulics(case, i, checks[i], method, latest if i == len(checks) - 1 else None)
         for i in range(len(checks))
     )
     if trend[-1].calibration is not None:
@@ -157,7 +210,7 @@ def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) 
     window = _operating_window(case, well, fluid, method, cleaning)
     for part in (cleaning, surge):
         if part is not None:
-            notes.extend(part["notes"])
+            notes.extend(part.notes)
     if window is not None:
         notes.extend(window.notes)
     return Results(
@@ -180,23 +233,20 @@ def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) 
 
 
 def _circulate_options(case) -> dict:
-    from calc.circulation import Margins
-
     lim = case.limits
     return dict(
         window=case.window,
         weak_points=case.weak_points,
         margins=Margins(fracture=lim["fracture_margin"], pore=lim["pore_margin"]),
         surface_rating=lim["surface_rating"],
-        message_units=case.unit_system,
     )
 
 
 def _check_hydraulics(case, index, chk, method, latest=None) -> CheckHydraulics:
-    """One check's hydraulics at its own bit depth, rate and density (``latest``: reuse)."""
-    from calc.circulation import calibrate_friction
-    from calc.circulation.loop import circulate
+    """One check's hydraulics at its own bit depth, rate and density.
 
+    ``latest``: the (result, fluid) already computed for this check (reused, not refitted).
+    """
     values = case.checks[index].values
     r = chk.readings
     pv = _try(lambda: r.pv)
@@ -209,15 +259,13 @@ def _check_hydraulics(case, index, chk, method, latest=None) -> CheckHydraulics:
     opts = _circulate_options(case)
     if latest is None:
         well = case.well(index)
-        fluid = fluid_for(r, rho, method, chk.label)
+        fluid = report_fluid(r, rho, method, chk.label)
         res = circulate(well, fluid, q, method=method, **opts)
     else:
-        res = latest
-        well, fluid = res._well, None
+        res, fluid = latest
+        well = res.context.well
     meas = values.get("measured_spp")
     cal = None
-    if meas is not None and fluid is None:
-        fluid = fluid_for(r, rho, method, chk.label)
     if meas is not None and meas > scalar(res.standpipe_pressure) - scalar(res.frictional_loss):
         cal = calibrate_friction(well, fluid, q, meas, method=method, **opts)
     pwd = values.get("pwd", {})
@@ -248,10 +296,8 @@ def _try(get):
         return None
 
 
-def _cleaning(case, well, fluid, q):
+def _cleaning(case, well, fluid, q) -> CleaningRun | None:
     """Hole cleaning at the check's rate (needs ROP and cuttings on the latest check)."""
-    from calc.cleaning import Cuttings, hole_cleaning
-
     v = case.checks[-1].values
     cut = v.get("cuttings", {})
     if "rop" not in v or "size" not in cut or "density" not in cut:
@@ -260,26 +306,23 @@ def _cleaning(case, well, fluid, q):
         size=cut["size"], density=cut["density"], sphericity=cut.get("sphericity", 1.0)
     )
     hc = hole_cleaning(well, fluid, q, rop=v["rop"], cuttings=cuttings)
-    return {"result": hc, "cuttings": cuttings, "notes": tuple(hc.notes) + cuttings.notes}
+    return CleaningRun(result=hc, cuttings=cuttings, notes=tuple(hc.notes) + cuttings.notes)
 
 
-def _operating_window(case, well, fluid, method, cleaning):
+def _operating_window(case, well, fluid, method, cleaning) -> OperatingWindow | None:
     """calc.rate_window.operating_window over the WINDOW_SWEEP rates, in one vectorised call.
 
     Limits of the case (pressure window, weak points, margins, surface rating) and, when the
     latest check gives them, its ROP and cuttings (the cleaning limit and cuttings-loaded ECD).
     None without a pressure window (no ECD limits to hold).
     """
-    from calc.circulation import Margins
-    from calc.rate_window import operating_window
-
     if case.window is None:
         return None
     lo, hi, n = WINDOW_SWEEP
     q0 = case.check_value(-1, "flow_rate")
     lim = case.limits
-    cut = cleaning["cuttings"] if cleaning else None
-    ow = operating_window(
+    cut = cleaning.cuttings if cleaning else None
+    return operating_window(
         well,
         fluid,
         np.linspace(lo * q0, hi * q0, n),
@@ -291,13 +334,10 @@ def _operating_window(case, well, fluid, method, cleaning):
         rop=case.checks[-1].values["rop"] if cleaning else 0.0,
         cuttings=cut,
     )
-    return ow
 
 
-def _trips(case, well, fluid, method):
+def _trips(case, well, fluid, method) -> TripRun | None:
     """Trip-speed limits and surge/swab at the planned speeds (needs [trip] and a window)."""
-    from calc.surge import surge_pressure, trip_speed_limits
-
     trip = case.trip
     if trip is None or case.window is None:
         return None
@@ -317,16 +357,11 @@ def _trips(case, well, fluid, method):
     run = surge_pressure(well, fluid, speeds, direction="running", string_end=end, method=method)
     pull = surge_pressure(well, fluid, speeds, direction="pulling", string_end=end, method=method)
     notes = tuple(limits.notes) + tuple(run.notes) + tuple(pull.notes)
-    return {"limits": limits, "running": run, "pulling": pull, "speeds": speeds, "notes": notes}
+    return TripRun(limits=limits, running=run, pulling=pull, speeds=speeds, notes=notes)
 
 
 def _dedupe(notes) -> tuple[Note, ...]:
-    seen, out = set(), []
-    for n in notes:
-        if n not in seen:
-            seen.add(n)
-            out.append(n)
-    return tuple(out)
+    return tuple(dict.fromkeys(notes))
 
 
 def scalar(x) -> float:

@@ -7,12 +7,7 @@ import numpy as np
 from addin import text
 from addin.report.compute import scalar
 from addin.report.sheet_cleaning import short_name
-from addin.report.sheet_window import (
-    allowed_ecd,
-    binding_words,
-    fracture_point_words,
-    pore_point_words,
-)
+from addin.report.sheet_window import allowed_ecd, binding_words
 from addin.rheology_data import rheology_data
 from calc.units import from_si, label, unit_for
 
@@ -68,19 +63,50 @@ def results_data(results) -> dict:
         "units": {k: label(unit_for(k, s)) for k in kinds},
     }
     out["rheology"] = rheology_data(case, s)
-    bd = {k: _c(v, "pressure", s) for k, v in res.breakdown().items()}
+    out["circulation"] = _circulation_data(results, s)
+    if res.margins is not None:
+        out["margins"] = _margins_data(res.margins, s)
+    out["bit"] = _bit_data(res, s)
+    if results.cleaning:
+        out["cleaning"] = _cleaning_data(results.cleaning.result, s)
+    if results.surge:
+        out["trips"] = _trips_data(results.surge, s)
+    if results.window is not None:
+        out["operating_window"] = _window_data(results, s)
+    out["circulation"]["tool_covered"] = list(res.tools.covered)
+    if results.calibration is not None:
+        out["calibration"] = _calibration_data(results.calibration, s)
+    out["trend"] = [_trend_data(t, s) for t in results.trend]
+    out["notes"] = [
+        {
+            "level": n.level,
+            "code": n.code,
+            "subject": text.subject(n, s),
+            "message": text.note(n, s),
+        }
+        for n in results.notes
+    ]
+    return out
+
+
+def _circulation_data(results, s) -> dict:
+    """Rate, density, SPP breakdown (keyed by their words, as the --json output always was),
+    BHP, ECD and the per-interval table of the string and annulus."""
+    res = results.circulation
+    bd = {text.BREAKDOWN_LABELS[k]: _c(v, "pressure", s) for k, v in res.breakdown().items()}
     iv = results.well.flow_intervals()
     intervals = []
-    for path, rows, names, losses, flow in (
-        ("string", iv.select("string"), res.string_names, res.string_losses, res.string_flow),
-        ("annulus", iv.select("annulus"), res.annulus_names, res.annulus_losses, res.annulus_flow),
+    for path, rows, group in (
+        ("string", iv.select("string"), res.string),
+        ("annulus", iv.select("annulus"), res.annulus),
     ):
+        flow, losses = group.flow, group.losses
         vel = np.atleast_1d(flow.velocity).reshape(-1)
-        for i, name in enumerate(names):
+        for i, span in enumerate(group.spans):
             intervals.append(
                 {
                     "path": path,
-                    "name": short_name(name),
+                    "name": text.span(span, s, depths=False),
                     "top_md": _c(rows.top_md[i], "depth", s),
                     "bottom_md": _c(rows.bottom_md[i], "depth", s),
                     "outer_diameter": _c(rows.outer_diameter[i], "diameter", s),
@@ -97,7 +123,7 @@ def results_data(results) -> dict:
                     "loss": _c(np.atleast_1d(losses).reshape(-1)[i], "pressure", s),
                 }
             )
-    out["circulation"] = {
+    return {
         "flow_rate": _c(res.q, "flow_rate", s),
         "density": _c(res.density, "density", s),
         "standpipe_pressure": _c(res.standpipe_pressure, "pressure", s),
@@ -109,33 +135,38 @@ def results_data(results) -> dict:
         "pump_power": _c(res.pump_power, "power", s),
         "intervals": intervals,
     }
-    mt = res.margins
-    if mt is not None:
-        named = [i for i, n in enumerate(mt.names) if not str(n).startswith("MD ")]
-        out["margins"] = {
-            "points": [
-                {
-                    "name": str(mt.names[i]),
-                    "md": _c(mt.md[i], "depth", s),
-                    "tvd": _c(mt.tvd[i], "depth", s),
-                    "pore": _c(mt.pore[i], "density", s),
-                    "fracture": _c(mt.fracture[i], "density", s),
-                    "ecd": _c(mt.ecd[i], "density", s),
-                    "fracture_margin": _c(mt.fracture_margin[i], "density", s),
-                    "pore_margin": _c(mt.pore_margin[i], "density", s),
-                }
-                for i in named
-            ],
-            "tightest": {
-                "name": str(mt.tightest.name),
-                "md": _c(mt.tightest.md, "depth", s),
-                "limit": str(mt.tightest.limit),
-                "margin": _c(mt.tightest.margin, "density", s),
-                "required": _c(mt.tightest.required, "density", s),
-            },
-        }
+
+
+def _margins_data(mt, s) -> dict:
+    """The named check points and the tightest point."""
+    named = [i for i, p in enumerate(mt.points) if p.role != "depth"]
+    return {
+        "points": [
+            {
+                "name": text.check_point(mt.points[i], s),
+                "md": _c(mt.md[i], "depth", s),
+                "tvd": _c(mt.tvd[i], "depth", s),
+                "pore": _c(mt.pore[i], "density", s),
+                "fracture": _c(mt.fracture[i], "density", s),
+                "ecd": _c(mt.ecd[i], "density", s),
+                "fracture_margin": _c(mt.fracture_margin[i], "density", s),
+                "pore_margin": _c(mt.pore_margin[i], "density", s),
+            }
+            for i in named
+        ],
+        "tightest": {
+            "name": text.check_point(mt.tightest.point, s),
+            "md": _c(mt.tightest.md, "depth", s),
+            "limit": str(mt.tightest.limit),
+            "margin": _c(mt.tightest.margin, "density", s),
+            "required": _c(mt.tightest.required, "density", s),
+        },
+    }
+
+
+def _bit_data(res, s) -> dict:
     bh = res.bit
-    out["bit"] = {
+    return {
         "tfa": _c(bh.tfa, "area", s),
         "nozzle_velocity": _c(bh.nozzle_velocity, "jet_velocity", s),
         "pressure_drop": _c(bh.pressure_drop, "pressure", s),
@@ -145,87 +176,78 @@ def results_data(results) -> dict:
         "share_of_standpipe": scalar(res.bit_share),
         "method": bh.method,
     }
-    if results.cleaning:
-        hc = results.cleaning["result"]
-        out["cleaning"] = {
-            "method": hc.method,
-            "criteria": hc.criteria_text,
-            "controlling_interval": short_name(hc.controlling_interval),
-            "controlling_rate": _c(hc.controlling_rate, "flow_rate", s),
-            "intervals": [
-                {
-                    **{k: v for k, v in r.items() if not isinstance(v, float)},
-                    "interval": short_name(r["interval"]),
-                    "top_md": _c(r["top_md"], "depth", s),
-                    "bottom_md": _c(r["bottom_md"], "depth", s),
-                    "annular_velocity": _c(r["annular_velocity"], "velocity", s),
-                    "slip_velocity": _c(r["slip_velocity"], "velocity", s),
-                    "transport_ratio": r["transport_ratio"],
-                    "concentration": r["concentration"],
-                    "cci": r["cci"],
-                    "minimum_rate": _c(r["minimum_rate"], "flow_rate", s),
-                }
-                for r in hc.table()
-            ],
-        }
-    if results.surge:
-        lim = results.surge["limits"]
-        out["trips"] = {
-            "method": lim.method,
-            "string_end": lim.string_end,
-            "max_running_speed": _c(lim.max_running_speed, "trip_speed", s),
-            "max_pulling_speed": _c(lim.max_pulling_speed, "trip_speed", s),
-            "speeds": _c(results.surge["speeds"], "trip_speed", s),
-            "surge_at_bit": _c(results.surge["running"].pressure_bit, "pressure", s),
-            "swab_at_bit": _c(results.surge["pulling"].pressure_bit, "pressure", s),
-        }
-    if results.window is not None:
-        out["operating_window"] = _window_data(results, s)
-    out["circulation"]["tool_covered"] = list(getattr(res, "tool_covered", ()))
-    cal = results.calibration
-    if cal is not None:
-        out["calibration"] = {
-            "label": cal.label,
-            "friction_multiplier": scalar(cal.multiplier),
-            "measured_spp": _c(cal.measured_spp, "pressure", s),
-            "fixed_loss": _c(cal.fixed_loss, "pressure", s),
-            "frictional_loss": _c(cal.frictional_loss, "pressure", s),
-            "calibrated_ecd_bit": _c(scalar(cal.calibrated.ecd_bit), "density", s),
-        }
-    out["trend"] = [
-        {
-            "check": t.label,
-            "bit_md": _c(t.bit_md, "depth", s),
-            "density": _c(t.density, "density", s),
-            "flow_rate": _c(t.q, "flow_rate", s),
-            "pv": _c(t.pv, "viscosity", s),
-            "yp": _c(t.yp, "stress", s),
-            "spp_predicted": _c(t.spp, "pressure", s),
-            "spp_measured": _c(t.measured_spp, "pressure", s),
-            "spp_deviation_percent": t.spp_deviation_percent,
-            "ecd_model_at_pwd": _c(t.model_ecd_at_pwd, "density", s),
-            "ecd_pwd": _c(t.pwd_ecd, "density", s),
-            "tightest": None
-            if t.tightest is None
-            else {
-                "name": str(t.tightest.name),
-                "limit": str(t.tightest.limit),
-                "margin": _c(float(t.tightest.margin), "density", s),
-            },
-            "missing": list(t.missing),
-        }
-        for t in results.trend
-    ]
-    out["notes"] = [
-        {
-            "level": n.level,
-            "code": n.code,
-            "subject": text.subject(n, s),
-            "message": text.note(n, s),
-        }
-        for n in results.notes
-    ]
-    return out
+
+
+def _cleaning_data(hc, s) -> dict:
+    return {
+        "method": hc.method,
+        "criteria": hc.criteria_text,
+        "controlling_interval": short_name(hc.controlling_interval),
+        "controlling_rate": _c(hc.controlling_rate, "flow_rate", s),
+        "intervals": [
+            {
+                **{k: v for k, v in r.items() if not isinstance(v, float)},
+                "interval": short_name(r["interval"]),
+                "top_md": _c(r["top_md"], "depth", s),
+                "bottom_md": _c(r["bottom_md"], "depth", s),
+                "annular_velocity": _c(r["annular_velocity"], "velocity", s),
+                "slip_velocity": _c(r["slip_velocity"], "velocity", s),
+                "transport_ratio": r["transport_ratio"],
+                "concentration": r["concentration"],
+                "cci": r["cci"],
+                "minimum_rate": _c(r["minimum_rate"], "flow_rate", s),
+            }
+            for r in hc.table()
+        ],
+    }
+
+
+def _trips_data(trip, s) -> dict:
+    lim = trip.limits
+    return {
+        "method": lim.method,
+        "string_end": lim.string_end,
+        "max_running_speed": _c(lim.max_running_speed, "trip_speed", s),
+        "max_pulling_speed": _c(lim.max_pulling_speed, "trip_speed", s),
+        "speeds": _c(trip.speeds, "trip_speed", s),
+        "surge_at_bit": _c(trip.running.pressure_bit, "pressure", s),
+        "swab_at_bit": _c(trip.pulling.pressure_bit, "pressure", s),
+    }
+
+
+def _calibration_data(cal, s) -> dict:
+    return {
+        "label": cal.label,
+        "friction_multiplier": scalar(cal.multiplier),
+        "measured_spp": _c(cal.measured_spp, "pressure", s),
+        "fixed_loss": _c(cal.fixed_loss, "pressure", s),
+        "frictional_loss": _c(cal.frictional_loss, "pressure", s),
+        "calibrated_ecd_bit": _c(scalar(cal.calibrated.ecd_bit), "density", s),
+    }
+
+
+def _trend_data(t, s) -> dict:
+    return {
+        "check": t.label,
+        "bit_md": _c(t.bit_md, "depth", s),
+        "density": _c(t.density, "density", s),
+        "flow_rate": _c(t.q, "flow_rate", s),
+        "pv": _c(t.pv, "viscosity", s),
+        "yp": _c(t.yp, "stress", s),
+        "spp_predicted": _c(t.spp, "pressure", s),
+        "spp_measured": _c(t.measured_spp, "pressure", s),
+        "spp_deviation_percent": t.spp_deviation_percent,
+        "ecd_model_at_pwd": _c(t.model_ecd_at_pwd, "density", s),
+        "ecd_pwd": _c(t.pwd_ecd, "density", s),
+        "tightest": None
+        if t.tightest is None
+        else {
+            "name": text.check_point(t.tightest.point, s),
+            "limit": str(t.tightest.limit),
+            "margin": _c(float(t.tightest.margin), "density", s),
+        },
+        "missing": list(t.missing),
+    }
 
 
 def _limit_kind(name: str):
@@ -266,11 +288,11 @@ def _window_data(results, s) -> dict:
             "ecd_fracture_point": _c(ow.ecd_fracture_point, "density", s),
             "fracture_at_point": _c(ow.fracture_at_point, "density", s),
             "max_ecd_fracture_point": _c(f_lim, "density", s),
-            "fracture_point_name": fracture_point_words(ow, s),
+            "fracture_point_name": [text.check_point(x, s) for x in ow.fracture_point_name],
             "ecd_pore_point": _c(ow.ecd_pore_point, "density", s),
             "pore_at_point": _c(ow.pore_at_point, "density", s),
             "min_ecd_pore_point": _c(p_lim, "density", s),
-            "pore_point_name": pore_point_words(ow, s),
+            "pore_point_name": [text.check_point(x, s) for x in ow.pore_point_name],
             "cleaning_indicator": _c(ow.cleaning_indicator, None, s),
             "min_transport_ratio": _c(ow.min_transport_ratio, None, s),
             "max_concentration": _c(ow.max_concentration, None, s),

@@ -55,7 +55,7 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
             "bf_text",
         )
         return {}
-    hc = part["result"]
+    hc = part.result
     merged_text(ws, row, f"Method: {hc.method}", span=14, height=24)
     merged_text(ws, row + 1, f"Criteria: {hc.criteria_text}", span=14, height=24)
     row += 3
@@ -161,7 +161,7 @@ def write_trips(wb, results, factors: Factors, title: str):
             "bf_text",
         )
         return {}
-    lim = part["limits"]
+    lim = part.limits
     merged_text(
         ws,
         row,
@@ -217,7 +217,7 @@ def _limit_rows(ws, row, lim, system) -> int:
 def _planned_rows(ws, row, part, res, system) -> int:
     """Surge and swab at the bit and the trip EMW for the planned speeds; returns the next row."""
     tu, pu = U("trip_speed", system), U("pressure", system)
-    run, pull = part["running"], part["pulling"]
+    run, pull = part.running, part.pulling
     row = heading(ws, row, "Pressure change at the bit for the planned speeds", span=6)
     row = table_header(
         ws,
@@ -226,7 +226,7 @@ def _planned_rows(ws, row, part, res, system) -> int:
         ["average stand speed", "surge (running)", "swab (pulling)", "surge EMW", "swab EMW"],
         [tu, pu, pu, U("density", system), U("density", system)],
     )
-    for i, sp in enumerate(part["speeds"]):
+    for i, sp in enumerate(part.speeds):
         s_up = float(np.asarray(run.pressure_bit).reshape(-1)[i])
         s_dn = float(np.asarray(pull.pressure_bit).reshape(-1)[i])
         put_number(ws, row, 1, _o(sp, "trip_speed", system), "#,##0")

@@ -13,7 +13,6 @@ import numpy as np
 from openpyxl.styles import Alignment, Font
 from openpyxl.worksheet.pagebreak import Break
 
-from addin import text
 from addin.report.charts import nice_axis, rate_curves
 from addin.report.sheet_cleaning import short_name
 from addin.report.style import (
@@ -24,12 +23,12 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
+from addin.text import check_point
 from addin.text import display_values as _o
 from addin.text import unit_label as U
 from addin.xlsx_cells import PALETTE, put, set_widths
-from calc.span import Span
 
-__all__ = ["SHEET", "allowed_ecd", "binding_words", "point_words", "write_window"]
+__all__ = ["SHEET", "allowed_ecd", "binding_words", "write_window"]
 
 SHEET = "Rate window"
 #: Every PRINT_EVERY-th sweep rate is printed; the whole sweep sits below the print range.
@@ -43,57 +42,24 @@ def allowed_ecd(ow):
     return np.asarray(ow.ecd_max_at_point), np.asarray(ow.ecd_min_at_point)
 
 
-def point_words(name, md: float, tvd: float, system) -> str:
-    """A check point of the window in words, its depth in the unit system: a place
-    (:class:`~calc.span.Span`), a plain depth ("MD …", said again from ``md`` [m]), a
-    pressure-window station ("window station, TVD …", from ``tvd`` [m]) or a named point
-    (shoe, bit, weak point) as named."""
-    if isinstance(name, Span):
-        return text.span(name, system)
-    name = str(name)
-    if not name or name.startswith("MD "):
-        return text.depth_point(md, system)
-    if name.startswith("window station"):
-        return f"window station, TVD {text.quantity(tvd, 'depth', system)}"
-    return name
-
-
-def fracture_point_words(ow, system) -> list[str]:
-    """The fracture-tightest check point per sweep rate, in words."""
-    return [
-        point_words(n, m, t, system)
-        for n, m, t in zip(
-            ow.fracture_point_name, ow.fracture_point_md, ow.fracture_point_tvd, strict=True
-        )
-    ]
-
-
-def pore_point_words(ow, system) -> list[str]:
-    """The pore-tightest check point per sweep rate, in words."""
-    return [
-        point_words(n, m, t, system)
-        for n, m, t in zip(ow.pore_point_name, ow.pore_point_md, ow.pore_point_tvd, strict=True)
-    ]
-
-
 def _index_at(ow, q):
     """Sweep index nearest to rate ``q`` (to name the tightest point at a window end)."""
     return int(np.argmin(np.abs(np.asarray(ow.q) - q)))
 
 
-def binding_words(ow, end: str, *, long: bool = False, system="oilfield") -> str:
+def binding_words(ow, end: str, *, long: bool = False, system: str = "oilfield") -> str:
     """The limit that binds at ``end`` ("low" or "high") in words (``long``: with the place,
-    its depth in ``system``)."""
+    in ``system``'s units)."""
     if not ow.feasible:
         return "no rate satisfies every limit at once (failing: " + ow.binding_low + ")"
     name = ow.binding_low if end == "low" else ow.binding_high
     q = ow.q_low if end == "low" else ow.q_high
     i = _index_at(ow, q)
     if name == "fracture":
-        where = f" at {fracture_point_words(ow, system)[i]}" if long else ""
+        where = f" at {check_point(ow.fracture_point_name[i], system)}" if long else ""
         return "ECD reaches fracture − margin" + where
     if name == "pore":
-        where = f" at {pore_point_words(ow, system)[i]}" if long else ""
+        where = f" at {check_point(ow.pore_point_name[i], system)}" if long else ""
         return "ECD falls to pore + margin" + where
     if name == "surface rating":
         return "standpipe pressure reaches the surface rating"
@@ -133,10 +99,20 @@ def _columns(ow, system):
         ("surface rating", pu, _o(np.full(n, ow.surface_rating), "pressure", system), fp),
         ("ECD, fracture-tightest point", dn, _o(ow.ecd_fracture_point, "density", system), fd),
         ("max. ECD (fracture − margin)", dn, _o(f_lim, "density", system), fd),
-        ("fracture-tightest point", "", fracture_point_words(ow, system), None),
+        (
+            "fracture-tightest point",
+            "",
+            [check_point(x, system) for x in ow.fracture_point_name],
+            None,
+        ),
         ("ECD, pore-tightest point", dn, _o(ow.ecd_pore_point, "density", system), fd),
         ("min. ECD (pore + margin)", dn, _o(p_lim, "density", system), fd),
-        ("pore-tightest point", "", pore_point_words(ow, system), None),
+        (
+            "pore-tightest point",
+            "",
+            [check_point(x, system) for x in ow.pore_point_name],
+            None,
+        ),
         ("cleaning indicator", "≥ 0 cleaned", [float(x) for x in ow.cleaning_indicator], "0.000"),
         ("lowest transport ratio", "–", [float(x) for x in ow.min_transport_ratio], "0.000"),
         ("highest cuttings conc.", "%", [100.0 * float(x) for x in ow.max_concentration], "0.00"),

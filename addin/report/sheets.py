@@ -15,12 +15,14 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
+from addin.report.summary_rows import summary_rows
 from addin.text import display_number as out
 from addin.text import unit_label as U
 from addin.workbook_layout import LAYOUT
 from addin.workbook_template import write_case_sheets
 from addin.xlsx_cells import PALETTE, put, set_widths
 from calc import cautions
+from calc.circulation import ecd_deviation
 
 __all__ = ["write_audit", "write_cautions", "write_inputs", "write_summary"]
 
@@ -200,7 +202,37 @@ def write_summary(ws, results, refs, title):
         put(ws, row + i, 7, str(rv), "bf_cell")
         ws.merge_cells(start_row=row + i, start_column=7, end_row=row + i, end_column=12)
     row += len(left) + 1
-    # ---- key results
+    row = _key_results(ws, row, results, refs, system)
+    row += 1
+    if len(results.trend) > 1:
+        row = _trend_table(ws, row, results, system) + 1
+    row = heading(ws, row, "Run", span=12)
+    for k, v in (
+        ("boreflow version", results.version),
+        ("run time", results.run_time),
+        ("inputs hash (SHA-256)", case.hash),
+        ("case source", case.source),
+    ):
+        put(ws, row, 1, k, "bf_note")
+        put(ws, row, 2, str(v), "bf_cell")
+        ws.merge_cells(start_row=row, start_column=2, end_row=row, end_column=12)
+        row += 1
+    put(
+        ws,
+        row + 1,
+        1,
+        "Detail on the following sheets; every caution and note on 'Cautions'; "
+        "units follow the case (" + system + ").",
+        "bf_note",
+    )
+    ws.merge_cells(start_row=row + 1, start_column=1, end_row=row + 1, end_column=12)
+    setup_print(ws, title, fit_height=1)
+    ws.freeze_panes = None
+    return ws
+
+
+def _key_results(ws, row, results, refs, system) -> int:
+    """The key-results table (summary rows with live checks, limits, margins and status)."""
     row = heading(ws, row, "Key results against limits", span=12)
     row = table_header(
         ws,
@@ -254,32 +286,7 @@ def write_summary(ws, results, refs, title):
             ws.row_dimensions[row].height = 12.0 * (1 + len(item["bound"]) // 60)
         _status(ws, row, 9, item.get("status", ""))
         row += 1
-    row += 1
-    if len(results.trend) > 1:
-        row = _trend_table(ws, row, results, system) + 1
-    row = heading(ws, row, "Run", span=12)
-    for k, v in (
-        ("boreflow version", results.version),
-        ("run time", results.run_time),
-        ("inputs hash (SHA-256)", case.hash),
-        ("case source", case.source),
-    ):
-        put(ws, row, 1, k, "bf_note")
-        put(ws, row, 2, str(v), "bf_cell")
-        ws.merge_cells(start_row=row, start_column=2, end_row=row, end_column=12)
-        row += 1
-    put(
-        ws,
-        row + 1,
-        1,
-        "Detail on the following sheets; every caution and note on 'Cautions'; "
-        "units follow the case (" + system + ").",
-        "bf_note",
-    )
-    ws.merge_cells(start_row=row + 1, start_column=1, end_row=row + 1, end_column=12)
-    setup_print(ws, title, fit_height=1)
-    ws.freeze_panes = None
-    return ws
+    return row
 
 
 def _trend_table(ws, row, results, system) -> int:
@@ -314,7 +321,7 @@ def _trend_table(ws, row, results, system) -> int:
             (10, out(t.pwd_ecd, "density", system), number_format("density", system)),
         ]
         if t.model_ecd_at_pwd is not None and t.pwd_ecd is not None:
-            gap = out(t.model_ecd_at_pwd, "density", system) - out(t.pwd_ecd, "density", system)
+            gap = out(ecd_deviation(t.model_ecd_at_pwd, t.pwd_ecd), "density", system)
             vals.append((11, gap, "+0.00;-0.00;0.00"))
         tight = t.tightest
         if tight is not None:
@@ -327,21 +334,19 @@ def _trend_table(ws, row, results, system) -> int:
                 put_number(ws, row, col, v, fmt)
         row += 1
     where = [
-        f"{t.label}: {t.tightest.name} ({t.tightest.limit})"
+        f"{t.label}: {text.check_point(t.tightest.point, system)} ({t.tightest.limit})"
         for t in results.trend
         if t.tightest is not None
     ]
-    text = (
+    words = (
         "Each check is computed at its own bit depth, flow rate, density and rheology with the "
         "same method; deviation = (model − measured)/measured. Tightest margin to the "
         "fracture/pore limit at: " + "; ".join(where) + "."
     )
-    merged_text(ws, row, text, span=12, height=24)
+    merged_text(ws, row, words, span=12, height=24)
     return row + 1
 
 
 def results_rows(results, refs):
     """Rows of the key-results table (values SI; kinds for units)."""
-    from addin.report.summary_rows import summary_rows
-
     return summary_rows(results, refs)

@@ -4,19 +4,21 @@ from __future__ import annotations
 
 import numpy as np
 
+from addin import text
 from addin.report.compute import scalar
+from calc.circulation import (
+    ecd_deviation,
+    fracture_margin,
+    margin_status,
+    spp_deviation_percent,
+)
 
 __all__ = ["summary_rows"]
 
 
 def _status_margin(margin, required):
-    if margin is None:
-        return ""
-    if margin < 0:
-        return "EXCEEDED"
-    if required is not None and margin < required:
-        return "NEAR LIMIT"
-    return "OK"
+    """Status words of a margin (calc.circulation.margin_status); "" without one."""
+    return "" if margin is None else text.STATUS_WORDS[margin_status(margin, required)]
 
 
 def _at(arr, i):
@@ -26,9 +28,19 @@ def _at(arr, i):
 def summary_rows(results, refs) -> list[dict]:
     """Rows: name, kind (calc.units kind or None), value [SI], check (formula), limit, margin,
     required, status; ``bound`` (text over the limit…required columns) names a binding limit."""
+    rows: list[dict] = []
+    rows += _pressure_rows(results, refs)
+    rows += _ecd_rows(results, refs)
+    rows += _bit_rows(results, refs)
+    rows += _other_rows(refs)
+    return rows
+
+
+def _pressure_rows(results, refs) -> list[dict]:
+    """Predicted standpipe pressure against the rating, and the measurement."""
     case, res = results.case, results.circulation
     lim = case.limits
-    hyd, ecd, bit = refs["hydraulics"], refs["ecd"], refs["bit"]
+    hyd = refs["hydraulics"]
     rows = []
     spp = scalar(res.standpipe_pressure)
     rating = lim["surface_rating"]
@@ -46,7 +58,7 @@ def summary_rows(results, refs) -> list[dict]:
     )
     meas = case.checks[-1].values.get("measured_spp")
     if meas is not None:
-        gap = 100.0 * (spp - meas) / meas
+        gap = float(spp_deviation_percent(spp, meas))
         rows.append(
             dict(
                 name=f"standpipe pressure, measured (predicted {gap:+.1f} %)",
@@ -55,26 +67,34 @@ def summary_rows(results, refs) -> list[dict]:
                 status="OK" if abs(gap) <= 10 else "CHECK",
             )
         )
+    return rows
+
+
+def _ecd_rows(results, refs) -> list[dict]:
+    """ECD at the shoe and the bit against fracture, the tightest margin, ESD and PWD."""
+    case, res = results.case, results.circulation
+    ecd = refs["ecd"]
+    rows = []
     mt = res.margins
-    names = list(mt.names) if mt is not None else []
     req_f = mt.margins.fracture if mt is not None else None
-    shoe = next((i for i, n in enumerate(names) if str(n).lower().endswith("shoe")), None)
+    shoe = mt.index("shoe") if mt is not None else None
     if shoe is not None:
-        e, f = _at(mt.ecd, shoe), _at(mt.fracture, shoe)
+        e, f, m = _at(mt.ecd, shoe), _at(mt.fracture, shoe), _at(mt.fracture_margin, shoe)
         rows.append(
             dict(
-                name=f"ECD at the {names[shoe]}",
+                name=f"ECD at the {text.check_point(mt.points[shoe], case.unit_system)}",
                 kind="density",
                 value=e,
                 limit=f,
-                margin=f - e,
+                margin=m,
                 required=req_f,
-                status=_status_margin(f - e, req_f),
+                status=_status_margin(m, req_f),
             )
         )
     e_bit = scalar(res.ecd_bit)
-    f_bit = _at(mt.fracture, names.index("bit")) if "bit" in names else None
-    m_bit = None if f_bit is None else f_bit - e_bit
+    at_bit = mt.index("bit") if mt is not None else None
+    f_bit = None if at_bit is None else _at(mt.fracture, at_bit)
+    m_bit = None if at_bit is None else float(fracture_margin(f_bit, e_bit))
     rows.append(
         dict(
             name="ECD at the bit",
@@ -92,7 +112,7 @@ def summary_rows(results, refs) -> list[dict]:
         m = float(np.asarray(t.margin))
         rows.append(
             dict(
-                name=f"tightest margin: {t.name} ({t.limit})",
+                name=f"tightest margin: {text.check_point(t.point, case.unit_system)} ({t.limit})",
                 kind="density",
                 value=m,
                 required=float(t.required),
@@ -107,10 +127,18 @@ def summary_rows(results, refs) -> list[dict]:
                 name="downhole gauge (PWD) ECD; margin = gauge − predicted",
                 kind="density",
                 value=gauge,
-                margin=gauge - pred,
+                margin=-float(ecd_deviation(pred, gauge)),
                 status="INFO",
             )
         )
+    return rows
+
+
+def _bit_rows(results, refs) -> list[dict]:
+    """Hydrostatic pressure, bit pressure drop, HSI and the lowest annular velocity."""
+    res = results.circulation
+    ecd, bit, hyd = refs["ecd"], refs["bit"], refs["hydraulics"]
+    rows = []
     rows.append(
         dict(
             name="hydrostatic pressure at the bit",
@@ -123,7 +151,7 @@ def summary_rows(results, refs) -> list[dict]:
         dict(
             name="bit pressure drop",
             kind="pressure",
-            value=scalar(res.bit_loss),
+            value=scalar(res.bit.pressure_drop),
             check=bit["dp"][1],
         )
     )
@@ -140,6 +168,12 @@ def summary_rows(results, refs) -> list[dict]:
                 check=av[3],
             )
         )
+    return rows
+
+
+def _other_rows(refs) -> list[dict]:
+    """Hole cleaning, operating window and trip-speed rows (where those sheets exist)."""
+    rows = []
     cl = refs.get("cleaning") or {}
     if cl:
         status = {"adequate": "OK", "marginal": "NEAR LIMIT", "poor": "EXCEEDED"}[cl["verdict"]]

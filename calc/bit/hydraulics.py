@@ -25,7 +25,8 @@ from calc.errors import InputError, check_positive, check_range
 from calc.flow.area import cross_section_area
 from calc.notes import Note
 from calc.numeric import float_or_array
-from calc.units import from_si, to_si
+from calc.units import to_si
+from calc.values import Value
 
 __all__ = [
     "DEFAULT_DISCHARGE_COEFFICIENT",
@@ -167,10 +168,13 @@ class Bit:
                         Note(
                             "warning",
                             "tfa_mismatch",
-                            f"given TFA {from_si(given, 'in**2'):.3f} in² differs from the "
-                            f"nozzles' {from_si(area, 'in**2'):.3f} in² by more than 2 %: "
-                            "the nozzles are used",
+                            "given TFA {given:.3f} differs from the nozzles' {area:.3f} by more "
+                            "than 2 %: the nozzles are used",
                             self.name,
+                            values=(
+                                Value("given", given, "area"),
+                                Value("area", float(area), "area"),
+                            ),
                         )
                     )
             object.__setattr__(self, "tfa", area)
@@ -241,9 +245,12 @@ def bit_hydraulics(q, density, bit: Bit, standpipe_pressure=None) -> BitHydrauli
             Note(
                 "warning",
                 "high_jet_velocity",
-                f"nozzle velocity up to {from_si(np.max(vn), 'ft/s'):.0f} ft/s, above ~450 ft/s: "
-                "erosion risk",
+                "nozzle velocity up to {velocity:.0f}, above ~{limit:.0f}: erosion risk",
                 bit.name,
+                values=(
+                    Value("velocity", float(np.max(vn)), "jet_velocity"),
+                    Value("limit", JET_VELOCITY_WARN, "jet_velocity"),
+                ),
             )
         )
     if np.any(np.asarray(h) < HSI_WARN):
@@ -251,9 +258,12 @@ def bit_hydraulics(q, density, bit: Bit, standpipe_pressure=None) -> BitHydrauli
             Note(
                 "warning",
                 "low_hsi",
-                f"HSI down to {from_si(np.min(h), 'hp/in**2'):.2f} hp/in², below ~1: poor bit "
-                "cleaning or balling risk",
+                "HSI down to {hsi:.2f}, below ~{limit:.0f}: poor bit cleaning or balling risk",
                 bit.name,
+                values=(
+                    Value("hsi", float(np.min(h)), "power_density"),
+                    Value("limit", HSI_WARN, "power_density"),
+                ),
             )
         )
     return BitHydraulics(

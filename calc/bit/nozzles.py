@@ -18,7 +18,7 @@ import numpy as np
 from calc.errors import InputError
 from calc.flow.area import cross_section_area
 from calc.notes import Note
-from calc.units import from_si, si_factor  # noqa: F401  (from_si: doctest)
+from calc.units import si_factor
 
 __all__ = ["NOZZLE_RANGE", "NOZZLE_UNIT", "NozzleSet", "parse_nozzles", "total_flow_area"]
 
@@ -153,6 +153,7 @@ def total_flow_area(nozzles_32nds, ports: int | None = None):
 
     Examples
     --------
+    >>> from calc.units import from_si
     >>> round(from_si(total_flow_area([12, 12, 12, 11, 11, 11]), "in**2"), 4)
     0.6098
     """

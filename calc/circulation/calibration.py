@@ -25,8 +25,16 @@ from calc.circulation.loop import CirculationResult, circulate
 from calc.errors import InputError, check_positive
 from calc.notes import Note
 from calc.numeric import float_or_array
+from calc.values import Value
 
-__all__ = ["CALIBRATION_LABEL", "FrictionCalibration", "calibrate_friction"]
+__all__ = [
+    "CALIBRATION_LABEL",
+    "FrictionCalibration",
+    "calibrate_friction",
+    "ecd_deviation",
+    "spp_deviation",
+    "spp_deviation_percent",
+]
 
 #: Label carried by every calibration result.
 CALIBRATION_LABEL = (
@@ -52,9 +60,9 @@ class FrictionCalibration:
     measured_spp, predicted_spp : float or ndarray
         Standpipe pressures [Pa]; ``predicted_spp`` with multiplier 1.
     deviation : float or ndarray
-        measured − predicted [Pa].
+        predicted − measured [Pa] (:func:`spp_deviation`).
     deviation_percent : float or ndarray
-        100·deviation/predicted [%].
+        100·(predicted − measured)/measured [%] (:func:`spp_deviation_percent`).
     fixed_loss, frictional_loss : float or ndarray
         The two parts of the prediction [Pa] (module docstring).
     multiplier : float or ndarray
@@ -65,17 +73,48 @@ class FrictionCalibration:
     """
 
     label: str
-    q: object
-    measured_spp: object
-    predicted_spp: object
-    deviation: object
-    deviation_percent: object
-    fixed_loss: object
-    frictional_loss: object
-    multiplier: object
+    q: float | np.ndarray
+    measured_spp: float | np.ndarray
+    predicted_spp: float | np.ndarray
+    deviation: float | np.ndarray
+    deviation_percent: float | np.ndarray
+    fixed_loss: float | np.ndarray
+    frictional_loss: float | np.ndarray
+    multiplier: float | np.ndarray
     predicted: CirculationResult
     calibrated: CirculationResult
     notes: tuple[Note, ...]
+
+
+def spp_deviation(predicted, measured):
+    """Deviation of the predicted standpipe pressure from the measured one [Pa].
+
+    Sign convention: **predicted − measured** (positive: the model predicts more than the gauge
+    reads).  The one definition used by the calibration, the report and the JSON output.
+
+    >>> spp_deviation(2.0e7, 1.9e7)
+    1000000.0
+    """
+    return float_or_array(np.asarray(predicted, dtype=float) - np.asarray(measured, dtype=float))
+
+
+def spp_deviation_percent(predicted, measured):
+    """Relative deviation of the predicted standpipe pressure [%]: 100·(predicted − measured) /
+    measured (positive: the model predicts more; relative to the measurement).
+
+    The one definition used by the calibration (its tolerance check), the report and the JSON.
+
+    >>> round(spp_deviation_percent(2.0e7, 1.9e7), 4)
+    5.2632
+    """
+    m = np.asarray(measured, dtype=float)
+    return float_or_array(100.0 * (np.asarray(predicted, dtype=float) - m) / m)
+
+
+def ecd_deviation(predicted, measured):
+    """Predicted − measured ECD (e.g. at a downhole gauge) [kg/m³] (positive: the model
+    predicts a heavier ECD than the gauge reads)."""
+    return float_or_array(np.asarray(predicted, dtype=float) - np.asarray(measured, dtype=float))
 
 
 def calibrate_friction(
@@ -137,12 +176,14 @@ def calibrate_friction(
         raise InputError(
             "measured standpipe pressure",
             float(mb.ravel()[i]),
-            f"> the fixed part of the prediction (back-pressure + bit + tools = "
-            f"{fixed.ravel()[i]:.6g} Pa), since only friction is calibrated",
+            "> the fixed part of the prediction (back-pressure + bit + tools = {fixed}), since "
+            "only friction is calibrated",
+            kind="pressure",
+            values=(Value("fixed", float(fixed.ravel()[i]), "pressure"),),
         )
     mult = (mb - fixed) / fric
-    dev = mb - spp
-    pct = 100.0 * dev / spp
+    dev = np.asarray(spp_deviation(spp, mb))
+    pct = np.asarray(spp_deviation_percent(spp, mb))
     calibrated = circulate(
         well, fluid, qb if shape else float(qb), friction_multiplier=float_or_array(mult),
         **circulate_options,
@@ -154,10 +195,14 @@ def calibrate_friction(
             Note(
                 "warning",
                 "spp_gap",
-                f"measured and predicted standpipe pressure differ by up to "
-                f"{np.max(np.abs(pct)):.1f} % (beyond ±{100 * tol:.0f} %): check the rate, pump "
-                "efficiency, nozzles, surface equipment and mud before trusting a calibration",
+                "measured and predicted standpipe pressure differ by up to {gap:.1f} % of the "
+                "measurement (beyond ±{tolerance:.0f} %): check the rate, pump efficiency, "
+                "nozzles, surface equipment and mud before trusting a calibration",
                 "standpipe",
+                values=(
+                    Value("gap", float(np.max(np.abs(pct)))),
+                    Value("tolerance", 100.0 * tol),
+                ),
             )
         )
     return FrictionCalibration(

@@ -1,34 +1,44 @@
 """The circulating system end to end: surface lines → string → tools → bit → annulus.
 
 One call evaluates every flow interval at every flow rate (and density) of a sweep in one numpy
-pass: rates run along the leading axes, intervals along the last axis.
+pass: rates run along the leading axes, intervals along the last axis.  :func:`circulate` runs
+the named steps: validation (:func:`_validate`), the loop pass (:func:`_loop_pass`), the flow
+notes (:func:`_flow_notes`), assembly of the result (:func:`_assemble`) and the margins.
 """
 
 from __future__ import annotations
 
+from dataclasses import dataclass
+
 import numpy as np
 
-from calc.circulation import _well_link as wl
+from calc.bit import BitHydraulics
+from calc.circulation import well_parts as wp
 from calc.circulation.checks import (
-    _dedupe,
-    _interval_note,
-    _margin_notes,
-    _margin_table,
-    _sweep_text,
+    dedupe_notes,
+    interval_note,
+    margin_notes,
+    margin_table,
+    sweep_part,
 )
 from calc.circulation.fluid import HydraulicsFluid
 from calc.circulation.hydrostatics import equivalent_circulating_density, hydrostatic_pressure
-from calc.circulation.pressure_window import Margins, PressureWindow, WeakPoint
+from calc.circulation.pore_fracture import Margins, PressureWindow, WeakPoint
 from calc.circulation.result import (
     MARGIN_STEP,
     CirculationResult,
+    LoopContext,
+    PathLosses,
     Profile,
-    _reshape_flow,
-    _scalar,
+    ToolLosses,
+    as_scalar,
+    reshape_flow,
 )
+from calc.circulation.well_parts import WellParts
 from calc.errors import InputError, check_choice, check_positive, check_range
+from calc.flow import FlowResult
 from calc.notes import Note
-from calc.units import from_si
+from calc.values import Value
 
 __all__ = ["CirculationResult", "Profile", "circulate"]
 
@@ -48,7 +58,6 @@ def circulate(
     margins: Margins | None = None,
     surface_rating: float | None = None,
     margin_step: float = MARGIN_STEP,
-    message_units: str = "oilfield",
 ) -> CirculationResult:
     """Pressure losses around the circulating system, ECD and margins, for one rate or a sweep.
 
@@ -94,13 +103,12 @@ def circulate(
         Surface-system pressure rating [Pa]; a note is given where the SPP exceeds it.
     margin_step : float
         Spacing of the margin check points from the last shoe to the bit [m].
-    message_units : str
-        Unit system of the depths in interval names and of the values in note messages
-        ("oilfield", "metric", "si").
 
     Returns
     -------
     CirculationResult
+        Losses grouped per flow path (``surface``, ``string``, ``tools``, ``bit``,
+        ``annulus``), each row with its :class:`~calc.span.Span`; notes carry SI values.
 
     Notes
     -----
@@ -110,8 +118,8 @@ def circulate(
     plus all interval boundaries), at the pressure-window stations, the shoe, the bit and the
     weak points above the bit.  A fixed tool drop whose ``components`` name string components
     (:class:`calc.geometry.ToolPressureDrop`: the supplier's figure includes their bore loss)
-    replaces their bore friction: those string intervals carry zero loss in ``string_losses``
-    (listed in ``CirculationResult.tool_covered``, with an info note); otherwise the drop is
+    replaces their bore friction: those string intervals carry zero loss in ``string.losses``
+    (listed in ``CirculationResult.tools.covered``, with an info note); otherwise the drop is
     added on top of the bore friction.
 
     References
@@ -120,11 +128,50 @@ def circulate(
     structure; from memory, unverified — METHODS §3, §6).  Bourgoyne et al. (1986) *Applied
     Drilling Engineering*, SPE Textbook Series 2, ch. 4.
     """
-    # ---------------------------------------------------------------- validation
+    inp = _validate(
+        fluid, q, method, eccentricity, back_pressure, friction_multiplier, hydrostatic,
+        window, weak_points, margins, surface_rating, margin_step,
+    )  # fmt: skip
+    parts = wp.parts(well)
+    lp = _loop_pass(well, fluid, parts, inp)
+    notes: list[Note] = [*fluid.notes, *lp.notes]
+    notes.extend(_flow_notes(lp, parts, inp))
+    res = _assemble(well, fluid, parts, inp, lp, margins=None, notes=())
+    table = None
+    if inp.window is not None or inp.weak_points or parts.shoe_test is not None:
+        table = margin_table(res, parts, inp.window, inp.weak_points, inp.margins, inp.step, notes)
+        margin_notes(table, inp.margins, inp.q, notes)
+    return _assemble(well, fluid, parts, inp, lp, margins=table, notes=tuple(dedupe_notes(notes)))
+
+
+@dataclass(frozen=True, eq=False)
+class _Inputs:
+    """Validated inputs; ``q``, ``rho``, ``mult`` flattened over the sweep ``shape``."""
+
+    q: np.ndarray
+    rho: np.ndarray
+    mult: np.ndarray
+    shape: tuple[int, ...]
+    method: str
+    hydrostatic: str
+    ecc: float
+    pb: float
+    step: float
+    margins: Margins
+    window: PressureWindow | None
+    weak_points: tuple[WeakPoint, ...]
+    surface_rating: float | None
+
+
+def _validate(
+    fluid, q, method, eccentricity, back_pressure, friction_multiplier, hydrostatic,
+    window, weak_points, margins, surface_rating, margin_step,
+) -> _Inputs:  # fmt: skip
+    """Check every input (InputError naming it) and broadcast rate, density and multiplier."""
     qv = check_positive("flow rate", q, "m³/s")
     if not isinstance(fluid, HydraulicsFluid):
         raise InputError("fluid", type(fluid).__name__, "a HydraulicsFluid")
-    method = wl.check_method(method)
+    method = wp.check_method(method)
     hydrostatic = check_choice("hydrostatic", hydrostatic, ("exact", "0.052"))
     ecc = float(check_range("eccentricity", eccentricity, 0.0, 1.0, hi_open=True))
     pb = float(check_range("back pressure", back_pressure, 0.0, np.inf, "Pa"))
@@ -134,12 +181,11 @@ def circulate(
     if window is not None and not isinstance(window, PressureWindow):
         raise InputError("window", type(window).__name__, "a PressureWindow or None")
     weak_points = tuple(weak_points)
-    for wp in weak_points:
-        if not isinstance(wp, WeakPoint):
-            raise InputError("weak point", type(wp).__name__, "a WeakPoint")
+    for w in weak_points:
+        if not isinstance(w, WeakPoint):
+            raise InputError("weak point", type(w).__name__, "a WeakPoint")
     if surface_rating is not None:
         surface_rating = float(check_positive("surface rating", surface_rating, "Pa"))
-
     rho_in = np.asarray(fluid.density, dtype=float)
     try:
         shape = np.broadcast_shapes(qv.shape, rho_in.shape, mult_in.shape)
@@ -149,38 +195,54 @@ def circulate(
             (qv.shape, rho_in.shape, mult_in.shape),
             "arrays that broadcast together",
         ) from exc
-    qf = np.broadcast_to(qv, shape).ravel()
-    rf = np.broadcast_to(rho_in, shape).ravel()
-    mf = np.broadcast_to(mult_in, shape).ravel()
-    Q = qf[:, None]
-    R = rf[:, None]
-    M = mf[:, None]
-    notes: list[Note] = list(fluid.notes)
+    return _Inputs(
+        q=np.broadcast_to(qv, shape).ravel(),
+        rho=np.broadcast_to(rho_in, shape).ravel(),
+        mult=np.broadcast_to(mult_in, shape).ravel(),
+        shape=shape,
+        method=method,
+        hydrostatic=hydrostatic,
+        ecc=ecc,
+        pb=pb,
+        step=step,
+        margins=margins,
+        window=window,
+        weak_points=weak_points,
+        surface_rating=surface_rating,
+    )
 
-    def fmt(v, kind):
-        u = wl.unit_text(kind, message_units)
-        x = float(from_si(v, u))
-        txt = f"{x:,.0f}" if abs(x) >= 1000 else (f"{x:.1f}" if kind == "depth" else f"{x:.3g}")
-        return f"{txt} {wl.label(u)}"
 
-    # ---------------------------------------------------------------- the well
-    parts = wl.parts(well, message_units)
-    pipe_args = fluid.pipe_parameters
-    ann_args = fluid.annulus_parameters
+@dataclass(frozen=True, eq=False)
+class _Pass:
+    """One numpy pass through the loop: (N, rows) losses [Pa] and flow results per path."""
 
-    def shaped(a):
-        return _scalar(np.asarray(a).reshape(shape + np.shape(a)[1:]))
+    sflow: FlowResult | None
+    s_losses: np.ndarray
+    pflow: FlowResult
+    p_losses: np.ndarray
+    covered: tuple[str, ...]
+    t_losses: np.ndarray
+    bit_loss: np.ndarray
+    aflow: FlowResult
+    a_losses: np.ndarray
+    spp: np.ndarray
+    bit: BitHydraulics
+    notes: tuple[Note, ...]
 
-    # surface lines
+
+def _loop_pass(well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs) -> _Pass:
+    """Surface lines, string, fixed tool drops, bit and annulus at every sweep point."""
+    Q, R, M = inp.q[:, None], inp.rho[:, None], inp.mult[:, None]
+    pipe_args, ann_args, method = fluid.pipe_parameters, fluid.annulus_parameters, inp.method
+    notes: list[Note] = []
     if parts.line_d.size:
-        sflow = wl.pipe(Q, parts.line_d[None, :], R, pipe_args, method)
+        sflow = wp.pipe(Q, parts.line_d[None, :], R, pipe_args, method)
         s_losses = sflow.gradient * parts.line_len[None, :] * M
     else:
-        sflow, s_losses = None, np.zeros((qf.size, 0))
-    # drill string
-    pflow = wl.pipe(Q, parts.string_d[None, :], R, pipe_args, method)
+        sflow, s_losses = None, np.zeros((inp.q.size, 0))
+    pflow = wp.pipe(Q, parts.string_d[None, :], R, pipe_args, method)
     p_losses = pflow.gradient * parts.string_len[None, :] * M
-    covered = tuple(getattr(well, "tool_covered", ()))
+    covered = tuple(well.tool_covered)
     if covered:
         skip = np.array([c in covered for c in parts.string_components])
         p_losses = np.where(skip[None, :], 0.0, p_losses)
@@ -188,135 +250,140 @@ def circulate(
             Note(
                 "info",
                 "bore_covered_by_tool_drop",
-                "bore friction not added for " + ", ".join(covered) + ": the supplier's fixed "
-                "tool drop includes it",
-                "; ".join(parts.tool_names),
+                "bore friction not added for {covered}: the supplier's fixed tool drop includes it",
+                "; ".join(s.item for s in parts.tool_spans),
+                values=(Value("covered", ", ".join(covered)),),
             )
         )
-    # fixed tool drops
-    t_losses = wl.tool_drops(parts.tools, Q, R)
+    t_losses = wp.tool_drops(parts.tools, Q, R)
     for tool in parts.tools:
-        notes.extend(tool.rate_notes(qf, message_units))
-    # bit
-    bit_loss = wl.bit_drop(well, qf, rf)
-    # annulus
-    aflow = wl.annulus(
-        Q, parts.ann_hole[None, :], parts.ann_pipe[None, :], R, ann_args, method, ecc
+        notes.extend(tool.rate_notes(inp.q))
+    bit_loss = wp.bit_drop(well, inp.q, inp.rho)
+    aflow = wp.annulus(
+        Q, parts.ann_hole[None, :], parts.ann_pipe[None, :], R, ann_args, method, inp.ecc
     )
     a_losses = aflow.gradient * parts.ann_len[None, :] * M
-
-    s_loss = s_losses.sum(axis=-1)
-    p_loss = p_losses.sum(axis=-1)
-    t_loss = t_losses.sum(axis=-1)
-    a_loss = a_losses.sum(axis=-1)
-    spp = pb + s_loss + p_loss + t_loss + bit_loss + a_loss
-    bit = wl.bit_hydraulics(well, qf, rf, spp)
+    spp = inp.pb + s_losses.sum(-1) + p_losses.sum(-1) + t_losses.sum(-1) + bit_loss
+    spp = spp + a_losses.sum(-1)
+    bit = wp.bit_hydraulics(well, inp.q, inp.rho, spp)
     notes.extend(bit.notes)
+    return _Pass(
+        sflow, s_losses, pflow, p_losses, covered, t_losses, bit_loss, aflow, a_losses, spp, bit,
+        tuple(notes),
+    )  # fmt: skip
 
-    # ---------------------------------------------------------------- hydrostatics and ECD
-    bit_md = parts.bit_md
-    bit_tvd = float(well.survey.tvd_at(bit_md))
-    static_bhp = np.asarray(hydrostatic_pressure(rf, bit_tvd, hydrostatic=hydrostatic))
-    circ_bhp = static_bhp + a_loss + pb
-    ecd_bit = equivalent_circulating_density(
-        rf, a_loss, bit_tvd, back_pressure=pb, hydrostatic=hydrostatic
-    )
 
-    # ---------------------------------------------------------------- notes on flow
-    for path, flow, names in (
-        ("surface lines", sflow, parts.line_names),
-        ("string", pflow, parts.string_components),
-        ("annulus", aflow, parts.ann_components),
+def _flow_notes(lp: _Pass, parts: WellParts, inp: _Inputs) -> list[Note]:
+    """Transitional flow per path, laminar annular flow, and the SPP above the rating."""
+    notes: list[Note] = []
+    for path, flow, spans in (
+        ("surface lines", lp.sflow, parts.line_spans),
+        ("string", lp.pflow, parts.string_spans),
+        ("annulus", lp.aflow, parts.ann_spans),
     ):
         if flow is None:
             continue
-        notes.extend(wl.flow_notes(flow))
-        trans = np.asarray(flow.regime) == 1
-        note = _interval_note(
+        notes.extend(wp.flow_notes(flow))
+        note = interval_note(
             "warning",
             "transitional_flow",
             f"transitional flow in the {path}",
             "friction there is blended between the laminar and turbulent laws",
-            trans,
-            names,
-            qf,
-            fmt,
+            np.asarray(flow.regime) == 1,
+            spans,
+            inp.q,
         )
         if note is not None:
             notes.append(note)
-    below = np.asarray(aflow.velocity) < np.asarray(aflow.critical_velocity)
-    note = _interval_note(
+    below = np.asarray(lp.aflow.velocity) < np.asarray(lp.aflow.critical_velocity)
+    note = interval_note(
         "info",
         "annular_velocity_below_critical",
         "annular velocity below the critical velocity",
         "laminar flow there",
         below,
-        parts.ann_components,
-        qf,
-        fmt,
+        parts.ann_spans,
+        inp.q,
     )
     if note is not None:
         notes.append(note)
-    if surface_rating is not None:
-        over = spp > surface_rating
+    if inp.surface_rating is not None:
+        over = lp.spp > inp.surface_rating
         if np.any(over):
+            where, sweep = sweep_part(over, inp.q)
             notes.append(
                 Note(
                     "warning",
                     "spp_above_rating",
-                    "standpipe pressure above the surface rating "
-                    f"({fmt(surface_rating, 'pressure')}){_sweep_text(over, qf, fmt)}: "
-                    "this rate is not achievable",
+                    "standpipe pressure above the surface rating ({rating})"
+                    + where
+                    + ": this rate is not achievable",
                     "standpipe",
+                    values=(Value("rating", inp.surface_rating, "pressure"), *sweep),
                 )
             )
+    return notes
 
-    # ---------------------------------------------------------------- margins
-    result_kwargs = dict(
-        method=f"{method}: {wl.method_label(pflow)}"
+
+def _assemble(
+    well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs, lp: _Pass, *, margins, notes
+) -> CirculationResult:
+    """The result: per-path losses in the sweep shape, bottom-hole pressures and ECD."""
+    shape = inp.shape
+
+    def shaped(a):
+        return as_scalar(np.asarray(a).reshape(shape + np.shape(a)[1:]))
+
+    def path(spans, losses, flow):
+        return PathLosses(
+            spans=spans,
+            losses=np.asarray(shaped(losses)),
+            total=shaped(losses.sum(axis=-1)),
+            flow=reshape_flow(flow, shape),
+        )
+
+    rf, pb = inp.rho, inp.pb
+    a_loss = lp.a_losses.sum(axis=-1)
+    bit_tvd = float(well.survey.tvd_at(parts.bit_md))
+    static_bhp = np.asarray(hydrostatic_pressure(rf, bit_tvd, hydrostatic=inp.hydrostatic))
+    ecd_bit = equivalent_circulating_density(
+        rf, a_loss, bit_tvd, back_pressure=pb, hydrostatic=inp.hydrostatic
+    )
+    return CirculationResult(
+        method=f"{inp.method}: {wp.method_label(lp.pflow)}"
         + (f"; fits: {fluid.fits}" if fluid.fits else ""),
         fluid_label=fluid.label,
-        hydrostatic=hydrostatic,
-        friction_multiplier=shaped(mf),
-        eccentricity=ecc,
+        hydrostatic=inp.hydrostatic,
+        friction_multiplier=shaped(inp.mult),
+        eccentricity=inp.ecc,
         back_pressure=pb,
-        q=shaped(qf),
+        q=shaped(inp.q),
         density=shaped(rf),
-        standpipe_pressure=shaped(spp),
-        surface_names=parts.line_names,
-        surface_losses=shaped(s_losses),
-        surface_loss=shaped(s_loss),
-        surface_flow=_reshape_flow(sflow, shape),
-        string_names=parts.string_names,
-        string_losses=shaped(p_losses),
-        string_loss=shaped(p_loss),
-        string_flow=_reshape_flow(pflow, shape),
-        tool_names=parts.tool_names,
-        tool_covered=covered,
-        tool_losses=shaped(t_losses),
-        tool_loss=shaped(t_loss),
-        bit=wl.reshape_bit(bit, shape),
-        bit_loss=shaped(bit_loss),
-        annulus_names=parts.ann_names,
-        annulus_losses=shaped(a_losses),
-        annulus_loss=shaped(a_loss),
-        annulus_flow=_reshape_flow(aflow, shape),
-        bit_md=bit_md,
+        standpipe_pressure=shaped(lp.spp),
+        surface=path(parts.line_spans, lp.s_losses, lp.sflow),
+        string=path(parts.string_spans, lp.p_losses, lp.pflow),
+        tools=ToolLosses(
+            spans=parts.tool_spans,
+            covered=lp.covered,
+            losses=np.asarray(shaped(lp.t_losses)),
+            total=shaped(lp.t_losses.sum(axis=-1)),
+        ),
+        bit=wp.reshape_bit(lp.bit, shape),
+        annulus=path(parts.ann_spans, lp.a_losses, lp.aflow),
+        bit_md=parts.bit_md,
         bit_tvd=bit_tvd,
         static_bhp=shaped(static_bhp),
-        circulating_bhp=shaped(circ_bhp),
+        circulating_bhp=shaped(static_bhp + a_loss + pb),
         esd_bit=shaped(rf),
         ecd_bit=shaped(ecd_bit),
-        pump_power=shaped(spp * qf),
-        _annulus_top=parts.ann_top,
-        _annulus_bottom=parts.ann_bottom,
-        _well=well,
-        _window=window,
-        _weak_points=weak_points,
+        pump_power=shaped(lp.spp * inp.q),
+        margins=margins,
+        context=LoopContext(
+            well=well,
+            window=inp.window,
+            weak_points=inp.weak_points,
+            annulus_top=parts.ann_top,
+            annulus_bottom=parts.ann_bottom,
+        ),
+        notes=notes,
     )
-    provisional = CirculationResult(margins=None, notes=(), **result_kwargs)
-    table = None
-    if window is not None or weak_points or parts.shoe_test is not None:
-        table = _margin_table(provisional, parts, window, weak_points, margins, step, notes, fmt)
-        _margin_notes(table, margins, qf, notes, fmt)
-    return CirculationResult(margins=table, notes=tuple(_dedupe(notes)), **result_kwargs)

@@ -1,24 +1,49 @@
-"""Result objects of the circulating-system calculation: breakdown, ECD/ESD queries, profile."""
+"""Result objects of the circulating-system calculation: losses per flow path, ECD/ESD queries,
+profile.
+
+Shapes: for one rate every per-rate quantity is a float and every per-row quantity a 1-d array
+over the rows; for a sweep the sweep's axes lead (shape of ``q`` broadcast with the density)
+and per-row quantities add a last axis over the rows.
+"""
 
 from __future__ import annotations
 
 import dataclasses
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 
 import numpy as np
 
+from calc.bit import BitHydraulics
 from calc.circulation.hydrostatics import equivalent_circulating_density, hydrostatic_pressure
-from calc.circulation.pressure_window import MarginTable, PressureWindow, WeakPoint, limits_at
+from calc.circulation.pore_fracture import MarginTable, PressureWindow, WeakPoint, limits_at
 from calc.errors import check_positive, check_range
+from calc.flow import FlowResult
+from calc.geometry import Well
 from calc.notes import Note
+from calc.span import Span
 
-__all__ = ["MARGIN_STEP", "CirculationResult", "Profile"]
+__all__ = [
+    "BREAKDOWN_KEYS",
+    "MARGIN_STEP",
+    "CirculationResult",
+    "LoopContext",
+    "PathLosses",
+    "Profile",
+    "ToolLosses",
+    "as_scalar",
+    "depth_weights",
+    "reshape_flow",
+]
 
 #: Default spacing of the margin check points and profile grid [m] (≈ 33 ft).
 MARGIN_STEP = 10.0
 
+#: Keys of :meth:`CirculationResult.breakdown`, in flow order.
+BREAKDOWN_KEYS = ("back_pressure", "surface", "string", "tools", "bit", "annulus")
 
-def _scalar(x):
+
+def as_scalar(x):
+    """A 0-d array as a Python scalar; other arrays unchanged."""
     x = np.asarray(x)
     return x.item() if x.ndim == 0 else x
 
@@ -42,121 +67,181 @@ class Profile:
 
 
 @dataclass(frozen=True, eq=False)
+class PathLosses:
+    """Friction along one flow path (surface lines, drill string or annulus), row by row.
+
+    Attributes
+    ----------
+    spans : tuple of Span
+        Where each row lies (string and annulus bit up; surface lines in flow order).
+    losses : ndarray
+        Friction loss of each row [Pa] (sweep axes + rows).
+    total : float or ndarray
+        Sum over the rows [Pa].
+    flow : FlowResult or None
+        :mod:`calc.flow` result per row (velocity, regime, Reynolds number, gradient …;
+        sweep axes + rows); None for a path without rows (no surface lines).
+    """
+
+    spans: tuple[Span, ...]
+    losses: np.ndarray
+    total: float | np.ndarray
+    flow: FlowResult | None
+
+    @property
+    def top_md(self) -> np.ndarray:
+        """Top MD of each row [m] (NaN for rows without depth)."""
+        return np.array([np.nan if s.top_md is None else s.top_md for s in self.spans])
+
+    @property
+    def bottom_md(self) -> np.ndarray:
+        """Bottom MD of each row [m] (NaN for rows without depth)."""
+        return np.array([np.nan if s.bottom_md is None else s.bottom_md for s in self.spans])
+
+
+@dataclass(frozen=True, eq=False)
+class ToolLosses:
+    """The suppliers' fixed tool drops (∝ ρQ²).
+
+    ``spans`` one per tool (path ``"tools"``, the tool's name); ``losses`` [Pa] per tool
+    (sweep axes + tools); ``total`` [Pa]; ``covered``: string components whose bore loss the
+    drops include (:attr:`calc.geometry.Well.tool_covered`; their rows of the string losses are
+    zero).
+    """
+
+    spans: tuple[Span, ...]
+    covered: tuple[str, ...]
+    losses: np.ndarray
+    total: float | np.ndarray
+
+
+@dataclass(frozen=True, eq=False)
+class LoopContext:
+    """What the ECD/ESD queries and the profile need besides the losses: the well, the
+    pore/fracture window (or None), the weak points checked, and the MD span of each annulus
+    row [m]."""
+
+    well: Well
+    window: PressureWindow | None
+    weak_points: tuple[WeakPoint, ...]
+    annulus_top: np.ndarray
+    annulus_bottom: np.ndarray
+
+
+@dataclass(frozen=True, eq=False)
 class CirculationResult:
     """Standpipe-pressure breakdown, bottom-hole pressures, ECD and margins.
 
-    Pressures [Pa], densities [kg/m³], depths [m], power [W], rates [m³/s].  For a sweep every
-    per-rate quantity has the sweep's leading axes (shape of ``q`` broadcast with the density);
-    per-interval quantities add a last axis over the intervals.
+    Pressures [Pa], densities [kg/m³], depths [m], power [W], rates [m³/s] (shapes: module
+    docstring).
 
     Attributes
     ----------
     method : str
-        Friction method (``calc.flow`` name) and the fluid's fits.
+        Friction method (``calc.flow`` name and label) and the fluid's fits.
+    fluid_label, hydrostatic : str
+        The fluid's label; the hydrostatic convention ("exact" or "0.052").
+    friction_multiplier : float or ndarray
+        Calibration factor applied to surface, string and annular friction [-].
+    eccentricity : float
+        Pipe offset in the annulus [-].
+    back_pressure : float
+        Surface annular back-pressure [Pa].
     q, density : float or ndarray
-        Flow rate and density of each sweep point.
+        Flow rate [m³/s] and density [kg/m³] of each sweep point.
     standpipe_pressure : float or ndarray
-        back_pressure + surface_loss + string_loss + tool_loss + bit_loss + annulus_loss.
-    surface_names, surface_losses, surface_loss
-        Each surface line and their sum.
-    string_names, string_losses, string_loss, string_flow
-        Each string interval (bit up), the sum and the per-interval ``FlowResult``.
-    tool_names, tool_losses, tool_loss
-        Fixed tool drops ∝ ρQ² and their sum.
-    tool_covered : tuple of str
-        String components whose bore loss the fixed tool drops include
-        (:attr:`calc.geometry.Well.tool_covered`); their rows of ``string_losses`` are zero.
+        back_pressure + surface.total + string.total + tools.total + bit.pressure_drop +
+        annulus.total [Pa].
+    surface, string, annulus : PathLosses
+        Friction per surface line, string interval and annular interval (bit up), their totals
+        and the per-row flow results.
+    tools : ToolLosses
+        Fixed tool drops and the string components they cover.
     bit : BitHydraulics
-        Bit result of :mod:`calc.bit`; ``bit_loss`` its pressure drop.
-    annulus_names, annulus_losses, annulus_loss, annulus_flow
-        Each annular interval (bit up), the sum and the per-interval ``FlowResult``.
+        Bit result of :mod:`calc.bit` (``bit.pressure_drop`` the bit's share of the SPP).
+    bit_md, bit_tvd : float
+        Bit depth [m].
     static_bhp, circulating_bhp : float or ndarray
-        ρ·g·TVD_bit and static_bhp + annulus_loss + back_pressure at the bit.
+        ρ·g·TVD_bit and static_bhp + annulus.total + back_pressure [Pa].
     esd_bit, ecd_bit : float or ndarray
-        Equivalent densities at the bit.
+        Equivalent densities at the bit [kg/m³].
     pump_power : float or ndarray
         Hydraulic power at the standpipe, SPP·Q [W].
     margins : MarginTable or None
         Margins at the check points (last shoe to bit and weak points) and the tightest point.
+    context : LoopContext
+        Well, window, weak points and annulus row depths (for :meth:`ecd_at`, :meth:`profile`).
     notes : tuple of Note
     """
 
     method: str
     fluid_label: str
     hydrostatic: str
-    friction_multiplier: object
+    friction_multiplier: float | np.ndarray
     eccentricity: float
     back_pressure: float
-    q: object
-    density: object
-    standpipe_pressure: object
-    surface_names: tuple[str, ...]
-    surface_losses: object
-    surface_loss: object
-    surface_flow: object
-    string_names: tuple[str, ...]
-    string_losses: object
-    string_loss: object
-    string_flow: object
-    tool_names: tuple[str, ...]
-    tool_covered: tuple[str, ...]
-    tool_losses: object
-    tool_loss: object
-    bit: object
-    bit_loss: object
-    annulus_names: tuple[str, ...]
-    annulus_losses: object
-    annulus_loss: object
-    annulus_flow: object
+    q: float | np.ndarray
+    density: float | np.ndarray
+    standpipe_pressure: float | np.ndarray
+    surface: PathLosses
+    string: PathLosses
+    tools: ToolLosses
+    bit: BitHydraulics
+    annulus: PathLosses
     bit_md: float
     bit_tvd: float
-    static_bhp: object
-    circulating_bhp: object
-    esd_bit: object
-    ecd_bit: object
-    pump_power: object
+    static_bhp: float | np.ndarray
+    circulating_bhp: float | np.ndarray
+    esd_bit: float | np.ndarray
+    ecd_bit: float | np.ndarray
+    pump_power: float | np.ndarray
     margins: MarginTable | None
+    context: LoopContext
     notes: tuple[Note, ...]
-    _annulus_top: np.ndarray = field(repr=False)
-    _annulus_bottom: np.ndarray = field(repr=False)
-    _well: object = field(repr=False)
-    _window: PressureWindow | None = field(repr=False)
-    _weak_points: tuple[WeakPoint, ...] = field(repr=False)
 
     # ------------------------------------------------------------------ derived quantities
     @property
-    def frictional_loss(self):
+    def frictional_loss(self) -> float | np.ndarray:
         """Surface + string + annulus friction [Pa] (what ``friction_multiplier`` scales)."""
-        return _scalar(
-            np.asarray(self.surface_loss) + self.string_loss + np.asarray(self.annulus_loss)
+        return as_scalar(
+            np.asarray(self.surface.total) + self.string.total + np.asarray(self.annulus.total)
         )
 
     @property
-    def bit_share(self):
+    def bit_share(self) -> float | np.ndarray:
         """Share of the standpipe pressure spent at the bit [-]."""
-        return _scalar(np.asarray(self.bit_loss) / self.standpipe_pressure)
+        return as_scalar(np.asarray(self.bit.pressure_drop) / self.standpipe_pressure)
 
-    def breakdown(self) -> dict[str, object]:
-        """Standpipe-pressure components [Pa], in flow order, summing to ``standpipe_pressure``."""
+    def breakdown(self) -> dict[str, float | np.ndarray]:
+        """Standpipe-pressure components [Pa], in flow order, summing to ``standpipe_pressure``.
+
+        Keys (:data:`BREAKDOWN_KEYS`): ``back_pressure``, ``surface``, ``string``, ``tools``,
+        ``bit``, ``annulus``.
+        """
         return {
-            "back pressure": self.back_pressure,
-            "surface lines": self.surface_loss,
-            "drill string": self.string_loss,
-            "fixed tool drops": self.tool_loss,
-            "bit": self.bit_loss,
-            "annulus": self.annulus_loss,
+            "back_pressure": self.back_pressure,
+            "surface": self.surface.total,
+            "string": self.string.total,
+            "tools": self.tools.total,
+            "bit": self.bit.pressure_drop,
+            "annulus": self.annulus.total,
         }
+
+    def shares(self) -> dict[str, float | np.ndarray]:
+        """Share of the standpipe pressure of each :meth:`breakdown` part [-] (same keys)."""
+        spp = np.asarray(self.standpipe_pressure, dtype=float)
+        return {k: as_scalar(np.asarray(v, dtype=float) / spp) for k, v in self.breakdown().items()}
 
     def annular_loss_above(self, md):
         """Annular friction between the surface and ``md`` [Pa] (linear within each interval)."""
         mdv = np.asarray(md, dtype=float)
-        w = _depth_weights(mdv.ravel(), self._annulus_top, self._annulus_bottom)
-        p = np.asarray(self.annulus_losses) @ w.T
-        return _scalar(p.reshape(np.shape(self.standpipe_pressure) + mdv.shape))
+        ctx = self.context
+        w = depth_weights(mdv.ravel(), ctx.annulus_top, ctx.annulus_bottom)
+        p = np.asarray(self.annulus.losses) @ w.T
+        return as_scalar(p.reshape(np.shape(self.standpipe_pressure) + mdv.shape))
 
     def _check_md(self, md):
-        mdv = check_range("MD", md, 0.0, self.bit_md, "m", lo_open=True)
-        return mdv
+        return check_range("MD", md, 0.0, self.bit_md, "m", lo_open=True)
 
     def ecd_at(self, md):
         """ECD [kg/m³] at measured depth(s) ``md`` [m], 0 < md ≤ bit depth.
@@ -164,11 +249,11 @@ class CirculationResult:
         ECD = ρ + (Δp_ann above md + p_back)/(g·TVD(md)).  Result shape: sweep axes + md axes.
         """
         mdv = self._check_md(md)
-        tvd = np.asarray(self._well.survey.tvd_at(mdv), dtype=float)
+        tvd = np.asarray(self.context.well.survey.tvd_at(mdv), dtype=float)
         rho = np.asarray(self.density, dtype=float).reshape(
             np.shape(self.density) + (1,) * mdv.ndim
         )
-        return _scalar(
+        return as_scalar(
             equivalent_circulating_density(
                 rho,
                 self.annular_loss_above(mdv),
@@ -184,7 +269,7 @@ class CirculationResult:
         rho = np.asarray(self.density, dtype=float).reshape(
             np.shape(self.density) + (1,) * mdv.ndim
         )
-        return _scalar(np.broadcast_to(rho, np.shape(self.density) + mdv.shape).copy())
+        return as_scalar(np.broadcast_to(rho, np.shape(self.density) + mdv.shape).copy())
 
     def profile(self, step: float = MARGIN_STEP) -> Profile:
         """ESD, ECD, pressure, pore and fracture on an MD grid from ``step`` to the bit [m].
@@ -193,13 +278,13 @@ class CirculationResult:
         so the piecewise-linear annular pressure is exact at the grid points.
         """
         step = float(check_positive("profile step", step, "m"))
-        grid = self._well.annulus_depth_grid(step)
+        grid = self.context.well.annulus_depth_grid(step)
         keep = grid.md > 0
         md = np.asarray(grid.md[keep], dtype=float)
         tvd = np.asarray(grid.tvd[keep], dtype=float)
         ecd = np.asarray(self.ecd_at(md))
         names = [""] * md.size
-        pore, frac = limits_at(md, tvd, names, self._window, ())
+        pore, frac = limits_at(md, tvd, names, self.context.window, ())
         return Profile(
             md=md,
             tvd=tvd,
@@ -211,13 +296,17 @@ class CirculationResult:
         )
 
 
-def _depth_weights(md, top, bottom):
-    """Fraction of each interval lying above each depth: W[j, i] ∈ [0, 1]."""
+def depth_weights(md, top, bottom) -> np.ndarray:
+    """Fraction of each interval [top, bottom] lying above each depth: W[j, i] ∈ [0, 1].
+
+    ``md`` (J,), ``top`` and ``bottom`` (I,) [m].  The annular pressure above a depth is
+    ``losses @ W.T`` (linear within each interval).
+    """
     span = bottom - top
     return np.clip((md[:, None] - top[None, :]) / span[None, :], 0.0, 1.0)
 
 
-def _reshape_flow(fr, shape):
+def reshape_flow(fr: FlowResult | None, shape) -> FlowResult | None:
     """Give every array field of a FlowResult computed on (N, I) the sweep shape + (I,)."""
     if fr is None:
         return None

@@ -12,8 +12,8 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.errors import InputError, check_choice, check_nonnegative, check_positive
-from calc.geometry._fmt import show
 from calc.notes import Note
+from calc.values import Value
 
 __all__ = ["HOLE_KINDS", "WASHOUT_WARN", "Hole", "HoleSection"]
 
@@ -63,7 +63,13 @@ class HoleSection:
         top = float(check_nonnegative(f"top of {who}", self.top, "m"))
         bottom = float(check_positive(f"bottom of {who}", self.bottom, "m"))
         if bottom <= top:
-            raise InputError(f"bottom of {who}", bottom, f"> top ({top:g} m)")
+            raise InputError(
+                f"bottom of {who}",
+                bottom,
+                "> top ({top})",
+                kind="depth",
+                values=(Value("top", top, "depth"),),
+            )
         dia = float(check_positive(f"inside diameter of {who}", self.diameter, "m"))
         object.__setattr__(self, "top", top)
         object.__setattr__(self, "bottom", bottom)
@@ -71,12 +77,24 @@ class HoleSection:
         if self.drift is not None:
             drift = float(check_positive(f"drift of {who}", self.drift, "m"))
             if drift > dia:
-                raise InputError(f"drift of {who}", drift, f"<= inside diameter {dia:g} m")
+                raise InputError(
+                    f"drift of {who}",
+                    drift,
+                    "<= inside diameter {id}",
+                    kind="diameter",
+                    values=(Value("id", dia, "diameter"),),
+                )
             object.__setattr__(self, "drift", drift)
         if self.od is not None:
             od = float(check_positive(f"OD of {who}", self.od, "m"))
             if od <= dia:
-                raise InputError(f"inside diameter of {who}", dia, f"< OD {od:g} m")
+                raise InputError(
+                    f"inside diameter of {who}",
+                    dia,
+                    "< OD {od}",
+                    kind="diameter",
+                    values=(Value("od", od, "diameter"),),
+                )
             object.__setattr__(self, "od", od)
         if self.shoe_test is not None:
             object.__setattr__(
@@ -108,8 +126,6 @@ class Hole:
         Casing, liner and open-hole sections; together they must cover MD 0 to ``depth``.
     depth : float, optional
         Hole depth (MD) [m]; default the deepest section bottom.  A shoe below it is an error.
-    message_units : str
-        Unit system for messages ("oilfield", "metric", "si").
 
     Notes
     -----
@@ -120,7 +136,6 @@ class Hole:
 
     sections: tuple[HoleSection, ...]
     depth: float | None = None
-    message_units: str = "oilfield"
     notes: tuple[Note, ...] = field(init=False, repr=False)
     _top: np.ndarray = field(init=False, repr=False)
     _bottom: np.ndarray = field(init=False, repr=False)
@@ -134,7 +149,6 @@ class Hole:
             if not isinstance(s, HoleSection):
                 raise InputError("hole section", s, "HoleSection objects")
         object.__setattr__(self, "sections", secs)
-        u = self.message_units
         deepest = max(s.bottom for s in secs)
         depth = deepest if self.depth is None else float(check_positive("hole depth", self.depth))
         object.__setattr__(self, "depth", depth)
@@ -143,9 +157,11 @@ class Hole:
                 what = "shoe" if not s.is_open_hole else "bottom"
                 raise InputError(
                     f"{what} of '{s.name}'",
-                    show(s.bottom, "depth", u),
-                    f"<= hole depth {show(depth, 'depth', u)}",
+                    s.bottom,
+                    "<= hole depth {depth}",
                     problem=f"{what} below the hole depth",
+                    kind="depth",
+                    values=(Value("depth", depth, "depth"),),
                 )
         top = np.array([s.top for s in secs])
         bottom = np.array([s.bottom for s in secs])
@@ -156,15 +172,22 @@ class Hole:
             if top[k] > reach + 1e-9:
                 raise InputError(
                     "hole sections",
-                    f"gap from {show(reach, 'depth', u)} to {show(top[k], 'depth', u)}",
-                    "sections covering every depth from surface to the hole depth",
+                    reach,
+                    "sections covering every depth from surface to the hole depth (the next "
+                    "section starts at {next_top})",
+                    problem="gap in the sections below this depth",
+                    kind="depth",
+                    values=(Value("next_top", float(top[k]), "depth"),),
                 )
             reach = max(reach, bottom[k])
         if reach < depth - 1e-9:
             raise InputError(
                 "hole sections",
-                f"nothing below {show(reach, 'depth', u)}",
-                f"sections down to the hole depth {show(depth, 'depth', u)}",
+                reach,
+                "sections down to the hole depth {depth}",
+                problem="nothing below this depth",
+                kind="depth",
+                values=(Value("depth", depth, "depth"),),
             )
         notes = []
         for s in secs:
@@ -175,10 +198,13 @@ class Hole:
                         Note(
                             "warning",
                             "open_hole_below_bit",
-                            f"open-hole diameter {show(s.diameter, 'diameter', u)} is below the "
-                            f"bit size {show(s.bit_size, 'diameter', u)}: under-gauge hole or a "
-                            "typing error?",
+                            "open-hole diameter {diameter} is below the bit size {bit_size}: "
+                            "under-gauge hole or a typing error?",
                             s.name,
+                            values=(
+                                Value("diameter", s.diameter, "diameter"),
+                                Value("bit_size", s.bit_size, "diameter"),
+                            ),
                         )
                     )
                 elif ratio > WASHOUT_WARN:
@@ -186,10 +212,13 @@ class Hole:
                         Note(
                             "warning",
                             "large_washout",
-                            f"effective diameter {show(s.diameter, 'diameter', u)} is "
-                            f"{ratio:.2f} × the bit size (above ~1.3, common practice): check "
-                            "the caliper or washout factor",
+                            "effective diameter {diameter} is {ratio:.2f} × the bit size (above "
+                            "~1.3, common practice): check the caliper or washout factor",
                             s.name,
+                            values=(
+                                Value("diameter", s.diameter, "diameter"),
+                                Value("ratio", float(ratio)),
+                            ),
                         )
                     )
         object.__setattr__(self, "notes", tuple(notes))
@@ -210,7 +239,6 @@ class Hole:
         diameter: float | None = None,
         washout_factor: float | None = None,
         name: str = "open hole",
-        message_units: str = "oilfield",
     ) -> Hole:
         """Casing/liner strings plus the open hole from the deepest shoe to ``depth`` [m].
 
@@ -233,7 +261,7 @@ class Hole:
         secs = list(casings)
         if depth > shoe:
             secs.append(HoleSection(name, shoe, depth, dia, "open_hole", bit_size=bit))
-        return cls(tuple(secs), depth=depth, message_units=message_units)
+        return cls(tuple(secs), depth=depth)
 
     # ------------------------------------------------------------------------- look-ups
     def section_index_at(self, md):
@@ -244,7 +272,13 @@ class Hole:
         mdv = np.asarray(md, dtype=float)
         if np.any((mdv < 0) | (mdv > self.depth + 1e-9)):
             bad = mdv[(mdv < 0) | (mdv > self.depth + 1e-9)].ravel()[0]
-            raise InputError("MD", float(bad), f"within the hole, 0 to {self.depth:g} m")
+            raise InputError(
+                "MD",
+                float(bad),
+                "within the hole, 0 to {depth}",
+                kind="depth",
+                values=(Value("depth", float(self.depth), "depth"),),
+            )
         cover = (mdv[..., None] >= self._top - 1e-12) & (mdv[..., None] <= self._bottom + 1e-12)
         dia = np.where(cover, self._dia, np.inf)
         idx = np.argmin(dia, axis=-1)

@@ -12,9 +12,9 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.errors import InputError, check_nonnegative, check_positive
-from calc.geometry._fmt import show
 from calc.notes import Note
 from calc.units import to_si
+from calc.values import Value
 
 __all__ = ["FILL", "DrillString", "StringComponent"]
 
@@ -79,9 +79,11 @@ class StringComponent:
         if idd >= od:
             raise InputError(
                 f"ID of {who}",
-                show(idd, "diameter"),
-                f"< OD {show(od, 'diameter')}",
+                idd,
+                "< OD {od}",
                 problem="ID at or above the OD",
+                kind="diameter",
+                values=(Value("od", od, "diameter"),),
             )
         object.__setattr__(self, "od", od)
         object.__setattr__(self, "id", idd)
@@ -108,16 +110,20 @@ class StringComponent:
             if tj_od < od:
                 raise InputError(
                     f"tool-joint OD of {who}",
-                    show(tj_od, "diameter"),
-                    f">= body OD {show(od, 'diameter')}",
+                    tj_od,
+                    ">= body OD {od}",
+                    kind="diameter",
+                    values=(Value("od", od, "diameter"),),
                 )
             tj_id = idd if self.tool_joint_id is None else self.tool_joint_id
             tj_id = float(check_nonnegative(f"tool-joint ID of {who}", tj_id, "m"))
             if tj_id >= tj_od:
                 raise InputError(
                     f"tool-joint ID of {who}",
-                    show(tj_id, "diameter"),
-                    f"< tool-joint OD {show(tj_od, 'diameter')}",
+                    tj_id,
+                    "< tool-joint OD {tj_od}",
+                    kind="diameter",
+                    values=(Value("tj_od", tj_od, "diameter"),),
                 )
             jl, tjl = self.joint_length, self.tool_joint_length
             if jl is None:
@@ -143,15 +149,22 @@ class StringComponent:
             jl = float(check_positive(f"joint length of {who}", jl, "m"))
             tjl = float(check_positive(f"tool-joint length of {who}", tjl, "m"))
             if tjl >= jl:
-                raise InputError(f"tool-joint length of {who}", tjl, f"< joint length {jl:g} m")
+                raise InputError(
+                    f"tool-joint length of {who}",
+                    tjl,
+                    "< joint length {joint}",
+                    kind="length",
+                    values=(Value("joint", jl, "length"),),
+                )
             if jl < to_si(15.0, "ft") or jl > to_si(50.0, "ft"):
                 notes.append(
                     Note(
                         "warning",
                         "odd_joint_length",
-                        f"joint length {show(jl, 'length')} is outside ~15–50 ft: "
-                        "metres typed as feet, or the reverse?",
+                        "joint length {length} is outside ~15–50 ft: metres typed as feet, or "
+                        "the reverse?",
                         self.name,
+                        values=(Value("length", jl, "length"),),
                     )
                 )
             for name, v in (
@@ -215,7 +228,7 @@ class DrillString:
         """Sum of the lengths of the components that are not ``"fill"`` [m]."""
         return float(sum(c.length for c in self.components if not c.is_fill))
 
-    def lengths_for(self, bit_depth: float, message_units: str = "oilfield") -> np.ndarray:
+    def lengths_for(self, bit_depth: float) -> np.ndarray:
         """Component lengths [m], bottom up, for the bit at MD ``bit_depth`` [m].
 
         Raises
@@ -226,39 +239,43 @@ class DrillString:
         """
         depth = float(check_positive("bit depth", bit_depth, "m"))
         fixed = self.fixed_length
-        u = message_units
         has_fill = any(c.is_fill for c in self.components)
         if fixed > depth + LENGTH_TOLERANCE or (has_fill and fixed >= depth):
             raise InputError(
                 "drill string length",
-                show(fixed, "depth", u),
-                f"< bit depth {show(depth, 'depth', u)}"
+                fixed,
+                "< bit depth {depth}"
                 + (
                     " (the rest of the string is filled by the 'fill' component)"
                     if has_fill
                     else ""
                 ),
                 problem="string longer than the bit depth",
+                kind="depth",
+                values=(Value("depth", depth, "depth"),),
             )
         if not has_fill and abs(fixed - depth) > LENGTH_TOLERANCE:
             raise InputError(
                 "drill string length",
-                show(fixed, "depth", u),
-                f"= bit depth {show(depth, 'depth', u)}, or one component with length 'fill'",
+                fixed,
+                "= bit depth {depth}, or one component with length 'fill'",
                 problem="string does not reach surface",
+                kind="depth",
+                values=(Value("depth", depth, "depth"),),
             )
         out = np.array([depth - fixed if c.is_fill else c.length for c in self.components])
         if not has_fill:
             out *= depth / fixed  # absorb the sub-centimetre mismatch
         return out
 
-    def fill_note(self, bit_depth: float, message_units: str = "oilfield") -> tuple[Note, ...]:
+    def fill_note(self, bit_depth: float) -> tuple[Note, ...]:
         """An info note stating the length given to the ``"fill"`` component, if any."""
-        lengths = self.lengths_for(bit_depth, message_units)
+        lengths = self.lengths_for(bit_depth)
         for c, length in zip(self.components, lengths, strict=True):
             if c.is_fill:
-                msg = f"'{c.name}' filled to surface: {show(length, 'length', message_units)}"
-                return (Note("info", "string_filled", msg, c.name),)
+                msg = "'{name}' filled to surface: {length}"
+                vals = (Value("name", c.name), Value("length", float(length), "length"))
+                return (Note("info", "string_filled", msg, c.name, values=vals),)
         return ()
 
     def component_names(self) -> Sequence[str]:

@@ -10,8 +10,8 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.errors import InputError, check_positive
-from calc.geometry._fmt import show
 from calc.notes import Note
+from calc.values import Value
 
 __all__ = ["SurfaceLine", "ToolPressureDrop"]
 
@@ -123,7 +123,7 @@ class ToolPressureDrop:
         out = self.reference_drop * (rho / self.reference_density) * (qv / self.reference_rate) ** 2
         return float(out) if np.ndim(out) == 0 else out
 
-    def rate_notes(self, q, message_units: str = "oilfield") -> tuple[Note, ...]:
+    def rate_notes(self, q) -> tuple[Note, ...]:
         """A warning note when any rate in ``q`` [m³/s] is outside the flow window."""
         if self.flow_window is None:
             return ()
@@ -133,14 +133,13 @@ class ToolPressureDrop:
         if not np.any(out):
             return ()
         bad = float(qv[out].ravel()[0]) if qv.ndim else float(qv)
-        u = message_units
         return (
             Note(
                 "warning",
                 "tool_flow_window",
-                f"flow rate {show(bad, 'flow_rate', u)} is outside the tool's window "
-                f"{show(lo, 'flow_rate', u)} – {show(hi, 'flow_rate', u)}: the scaled drop is an "
+                "flow rate {q} is outside the tool's window {window}: the scaled drop is an "
                 "extrapolation and the tool may not work",
                 self.name,
+                values=(Value("q", bad, "flow_rate"), Value("window", (lo, hi), "flow_rate")),
             ),
         )

@@ -12,9 +12,9 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.errors import InputError, check_finite, check_range
-from calc.geometry._fmt import show
 from calc.notes import Note
 from calc.units import to_si
+from calc.values import Value
 
 __all__ = ["Survey"]
 
@@ -121,7 +121,6 @@ class Survey:
     azimuth: np.ndarray
     tie_in_tvd: float | None = None
     reported_tvd: np.ndarray | None = None
-    message_units: str = "oilfield"
     tvd: np.ndarray = field(init=False, repr=False)
     north: np.ndarray = field(init=False, repr=False)
     east: np.ndarray = field(init=False, repr=False)
@@ -150,9 +149,10 @@ class Survey:
             k = int(np.flatnonzero(steps <= 0)[0])
             raise InputError(
                 f"survey MD at station {k + 2}",
-                show(md[k + 1], "depth", self.message_units),
-                "strictly increasing MD (previous station "
-                f"{show(md[k], 'depth', self.message_units)})",
+                float(md[k + 1]),
+                "strictly increasing MD (previous station {previous})",
+                kind="depth",
+                values=(Value("previous", float(md[k]), "depth"),),
             )
         check_range("survey inclination", inc, 0.0, 180.0, "degree")
         check_range("survey azimuth", azi, 0.0, 360.0, "degree", hi_open=True)
@@ -169,7 +169,13 @@ class Survey:
         d = steps[:, None] * (w1[:, None] * t[:-1] + w2[:, None] * t[1:])
         tvd0 = md[0] if self.tie_in_tvd is None else float(self.tie_in_tvd)
         if tvd0 > md[0] + 1e-9:
-            raise InputError("survey tie-in TVD", tvd0, f"<= first station MD {md[0]:g} m")
+            raise InputError(
+                "survey tie-in TVD",
+                tvd0,
+                "<= first station MD {md}",
+                kind="depth",
+                values=(Value("md", float(md[0]), "depth"),),
+            )
         pos = np.zeros((md.size, 3))
         pos[0, 2] = tvd0
         pos[1:] = pos[0] + np.cumsum(d, axis=0)
@@ -180,11 +186,15 @@ class Survey:
                 Note(
                     "warning",
                     "high_dogleg",
-                    f"dogleg {np.degrees(dls[k]) * 30.48:.1f}°/100 ft between "
-                    f"{show(md[k], 'depth', self.message_units)} and "
-                    f"{show(md[k + 1], 'depth', self.message_units)} exceeds 10°/100 ft "
+                    "dogleg {dls:.1f} between {top} and {bottom} exceeds {limit:.0f} "
                     "(common practice): check the survey",
                     "survey",
+                    values=(
+                        Value("dls", float(dls[k]), "dogleg"),
+                        Value("top", float(md[k]), "depth"),
+                        Value("bottom", float(md[k + 1]), "depth"),
+                        Value("limit", float(DOGLEG_WARN), "dogleg"),
+                    ),
                 )
             )
         for k in np.flatnonzero(inc > INCLINATION_WARN_DEG):
@@ -192,9 +202,10 @@ class Survey:
                 Note(
                     "warning",
                     "unusual_inclination",
-                    f"inclination {inc[k]:g}° at {show(md[k], 'depth', self.message_units)} is "
-                    "above 120°: check it is not an azimuth or a typing error",
+                    "inclination {inc:g}° at {md} is above 120°: check it is not an azimuth or "
+                    "a typing error",
                     "survey",
+                    values=(Value("inc", float(inc[k])), Value("md", float(md[k]), "depth")),
                 )
             )
         for name, value in (("md", md), ("inclination", inc), ("azimuth", azi)):
@@ -223,26 +234,30 @@ class Survey:
         over = tvd_rep > self.md + 1e-6
         if np.any(over):
             k = int(np.flatnonzero(over)[0])
-            u = self.message_units
             raise InputError(
                 "reported TVD",
-                show(tvd_rep[k], "depth", u),
-                f"<= MD ({show(self.md[k], 'depth', u)} at station {k + 1})",
+                float(tvd_rep[k]),
+                f"<= MD ({{md}} at station {k + 1})",
                 problem="TVD greater than MD",
+                kind="depth",
+                values=(Value("md", float(self.md[k]), "depth"),),
             )
         tol = np.maximum(0.3, 5e-4 * self.md)
         diff = np.abs(tvd_rep - self.tvd)
         out = []
         for k in np.flatnonzero(diff > tol):
-            u = self.message_units
             out.append(
                 Note(
                     "warning",
                     "tvd_mismatch",
-                    f"listed TVD {show(tvd_rep[k], 'depth', u)} at {show(self.md[k], 'depth', u)} "
-                    f"differs from minimum curvature ({show(self.tvd[k], 'depth', u)}): "
-                    "check the survey or the method used for the listing",
+                    "listed TVD {listed} at {md} differs from minimum curvature ({tvd}): check "
+                    "the survey or the method used for the listing",
                     "survey",
+                    values=(
+                        Value("listed", float(tvd_rep[k]), "depth"),
+                        Value("md", float(self.md[k]), "depth"),
+                        Value("tvd", float(self.tvd[k]), "depth"),
+                    ),
                 )
             )
         return out

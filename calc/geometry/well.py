@@ -22,12 +22,13 @@ import numpy as np
 from calc.bit import Bit
 from calc.errors import InputError, check_positive
 from calc.flow.area import cross_section_area
-from calc.geometry._fmt import show
 from calc.geometry.hole import Hole
 from calc.geometry.string import DrillString
 from calc.geometry.surface import SurfaceLine, ToolPressureDrop
 from calc.geometry.survey import Survey
 from calc.notes import Note
+from calc.span import Span
+from calc.values import Value
 
 __all__ = ["DepthGrid", "FlowIntervals", "Well"]
 
@@ -131,6 +132,39 @@ class FlowIntervals:
         """Vertical extent this row stands for, share × (bottom_tvd - top_tvd) [m]."""
         return self.share * (self.bottom_tvd - self.top_tvd)
 
+    def spans(self) -> tuple[Span, ...]:
+        """Where each row lies: a :class:`~calc.span.Span` per row (path, component, hole
+        section for annulus rows, tool-joint flag, MD and TVD span [m]).
+
+        >>> from tests.demo_well import demo_well
+        >>> s = demo_well().flow_intervals().annulus.spans()[-1]
+        >>> (s.path, s.top_md)
+        ('annulus', 0.0)
+        """
+        return tuple(
+            Span(
+                str(path),
+                str(comp),
+                str(sec) if path == "annulus" else "",
+                bool(tj),
+                float(top),
+                float(bot),
+                float(ttop),
+                float(tbot),
+            )
+            for path, comp, sec, tj, top, bot, ttop, tbot in zip(
+                self.path,
+                self.component,
+                self.section,
+                self.is_tool_joint,
+                self.top_md,
+                self.bottom_md,
+                self.top_tvd,
+                self.bottom_tvd,
+                strict=True,
+            )
+        )
+
     def to_records(self) -> list[dict]:
         """Rows as dictionaries (for tables and reports)."""
         names = [f.name for f in fields(self)]
@@ -167,8 +201,6 @@ class Well:
         names must be in ``string`` (see :attr:`tool_covered`).
     bit_depth : float
         Bit MD [m]; ≤ the hole depth.
-    message_units : str
-        Unit system for messages ("oilfield" default, "metric", "si").
     split_at_stations : bool
         Also split intervals at survey stations (better TVD and inclination per interval).
 
@@ -194,7 +226,6 @@ class Well:
     surface_lines: Sequence[SurfaceLine] = ()
     tool_drops: Sequence[ToolPressureDrop] = ()
     bit_depth: float = 0.0
-    message_units: str = "oilfield"
     split_at_stations: bool = True
     notes: tuple[Note, ...] = field(init=False, repr=False)
     component_lengths: np.ndarray = field(init=False, repr=False)
@@ -220,24 +251,25 @@ class Well:
         object.__setattr__(self, "surface_lines", lines)
         object.__setattr__(self, "tool_drops", drops)
         self._check_tool_components(drops)
-        u = self.message_units
         depth = float(check_positive("bit depth", self.bit_depth, "m"))
         object.__setattr__(self, "bit_depth", depth)
         if depth > self.hole.depth + 1e-6:
             raise InputError(
                 "bit depth",
-                show(depth, "depth", u),
-                f"<= hole depth {show(self.hole.depth, 'depth', u)}",
+                depth,
+                "<= hole depth {hole_depth}",
                 problem="string longer than the hole",
+                kind="depth",
+                values=(Value("hole_depth", float(self.hole.depth), "depth"),),
             )
-        lengths = _frozen(self.string.lengths_for(depth, u))
+        lengths = _frozen(self.string.lengths_for(depth))
         object.__setattr__(self, "component_lengths", lengths)
         notes: list[Note] = [
             *self.survey.notes,
             *self.hole.notes,
             *self.string.notes,
             *self.bit.notes,
-            *self.string.fill_note(depth, u),
+            *self.string.fill_note(depth),
         ]
         notes.extend(self._bit_notes())
         if depth > self.survey.md[-1] + 1e-6:
@@ -245,9 +277,13 @@ class Well:
                 Note(
                     "info",
                     "survey_projected",
-                    f"bit depth {show(depth, 'depth', u)} is below the last survey station "
-                    f"({show(self.survey.md[-1], 'depth', u)}): path projected along its tangent",
+                    "bit depth {depth} is below the last survey station ({last}): path "
+                    "projected along its tangent",
                     "survey",
+                    values=(
+                        Value("depth", depth, "depth"),
+                        Value("last", float(self.survey.md[-1]), "depth"),
+                    ),
                 )
             )
         intervals = self._build_intervals()
@@ -286,7 +322,6 @@ class Well:
         return tuple(c for c in dict.fromkeys(self.string.component_names()) if c in covered)
 
     def _bit_notes(self) -> list[Note]:
-        u = self.message_units
         out = []
         size = self.bit.size
         for s in self.hole.cased_above(self.bit_depth):
@@ -296,9 +331,14 @@ class Well:
                     Note(
                         "warning",
                         "bit_above_drift",
-                        f"{show(size, 'diameter', u)} bit will not pass the "
-                        f"{show(limit, 'diameter', u)} {what} of '{s.name}'",
+                        "{size} bit will not pass the {limit} {what} of '{section}'",
                         s.name,
+                        values=(
+                            Value("size", float(size), "diameter"),
+                            Value("limit", float(limit), "diameter"),
+                            Value("what", what),
+                            Value("section", s.name),
+                        ),
                     )
                 )
         k = self.hole.section_index_at(self.bit_depth)
@@ -308,9 +348,13 @@ class Well:
                 Note(
                     "info",
                     "bit_size_differs",
-                    f"bit size {show(size, 'diameter', u)} differs from the bit size of "
-                    f"'{sec.name}' ({show(sec.bit_size, 'diameter', u)})",
+                    "bit size {size} differs from the bit size of '{section}' ({section_bit})",
                     sec.name,
+                    values=(
+                        Value("size", float(size), "diameter"),
+                        Value("section", sec.name),
+                        Value("section_bit", float(sec.bit_size), "diameter"),
+                    ),
                 )
             )
         return out
@@ -322,16 +366,19 @@ class Well:
             return
         rows = np.flatnonzero(bad)
         k = rows[np.argmin(iv.top_md[rows])]
-        u = self.message_units
         sec = self.hole.sections[int(iv.section_index[k])]
-        hole_txt = f"{_KIND_LABEL[sec.kind]} ID {show(iv.outer_diameter[k], 'diameter', u)}"
         part = "tool joint" if iv.is_tool_joint[k] else "pipe OD"
-        od_txt = show(iv.inner_diameter[k], "diameter", u)
         raise InputError(
             f"{'tool-joint OD' if iv.is_tool_joint[k] else 'OD'} of '{iv.component[k]}'",
-            od_txt,
-            f"< {hole_txt} of '{sec.name}'",
-            problem=f"{part} {od_txt} ≥ {hole_txt} at {show(iv.top_md[k], 'depth', u)}",
+            float(iv.inner_diameter[k]),
+            f"< {_KIND_LABEL[sec.kind]} ID {{hole_id}} of '{{section}}' (at {{md}})",
+            problem=f"{part} at or above the {_KIND_LABEL[sec.kind]} ID",
+            kind="diameter",
+            values=(
+                Value("hole_id", float(iv.outer_diameter[k]), "diameter"),
+                Value("section", sec.name),
+                Value("md", float(iv.top_md[k]), "depth"),
+            ),
         )
 
     # ------------------------------------------------------------------------- intervals

@@ -19,7 +19,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT
-from calc.circulation.pressure_window import limits_at
+from calc.circulation.pore_fracture import limits_at
 from calc.errors import InputError, check_choice, check_finite, check_nonnegative, check_positive
 from calc.flow.solvers import itp_solve
 from calc.notes import Note

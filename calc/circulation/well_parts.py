@@ -1,5 +1,10 @@
 """Adapters between the circulation loop and :mod:`calc.geometry`, :mod:`calc.bit`,
-:mod:`calc.flow` — the one place that knows their attribute names."""
+:mod:`calc.flow` — the one place that knows their attribute names.
+
+:func:`parts` reads once from a :class:`~calc.geometry.Well` what the loop needs (diameters,
+lengths, the :class:`~calc.span.Span` of every row, the exposed-hole top); the other functions
+call the flow and bit layers in the loop's array layout (sweep points × rows).
+"""
 
 from __future__ import annotations
 
@@ -8,28 +13,49 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from calc.bit import bit_hydraulics as _bit_hydraulics
+from calc.bit import bit_pressure_drop
+from calc.bit.hydraulics import BitHydraulics
+from calc.flow import annulus_flow, pipe_flow
+from calc.geometry import ToolPressureDrop, Well
 from calc.hydraulics_method import resolve_method
-from calc.units import from_si, unit_for
-from calc.units import label as unit_label
+from calc.notes import Note
+from calc.span import Span
 
-__all__ = ["WellParts", "parts"]
+__all__ = [
+    "REISSUED_FLOW_NOTES",
+    "WellParts",
+    "annulus",
+    "bit_drop",
+    "bit_hydraulics",
+    "check_method",
+    "flow_notes",
+    "method_label",
+    "parts",
+    "pipe",
+    "reshape_bit",
+    "tool_drops",
+]
 
 
 @dataclass(frozen=True, eq=False)
 class WellParts:
-    """The arrays the loop needs, read once from a :class:`calc.geometry.Well`."""
+    """The arrays the loop needs, read once from a :class:`calc.geometry.Well`.
 
-    line_names: tuple[str, ...]
+    Diameters, lengths and depths [m]; ``*_spans`` say where each row lies (bit up in the
+    string and annulus); ``exposed_top`` is the deepest casing/liner shoe above the bit (0
+    without one), ``shoe_name`` its name + " shoe", ``shoe_test`` its shoe-test EMW [kg/m³].
+    """
+
+    line_spans: tuple[Span, ...]
     line_d: np.ndarray
     line_len: np.ndarray
-    string_names: tuple[str, ...]
-    string_components: tuple[str, ...]
+    string_spans: tuple[Span, ...]
     string_d: np.ndarray
     string_len: np.ndarray
-    tools: tuple
-    tool_names: tuple[str, ...]
-    ann_names: tuple[str, ...]
-    ann_components: tuple[str, ...]
+    tools: tuple[ToolPressureDrop, ...]
+    tool_spans: tuple[Span, ...]
+    ann_spans: tuple[Span, ...]
     ann_hole: np.ndarray
     ann_pipe: np.ndarray
     ann_len: np.ndarray
@@ -40,47 +66,14 @@ class WellParts:
     shoe_name: str
     shoe_test: float | None
 
-
-def depth_span(top: float, bottom: float, system: str = "oilfield") -> str:
-    """'MD 6,000-8,200 ft' (oilfield) / 'MD 1828.8-2499.4 m' (metric, si): an MD range [m]
-    in the unit system's depth unit.
-
-    >>> depth_span(1828.8, 2499.36)
-    'MD 6,000-8,200 ft'
-    >>> depth_span(1828.8, 2499.36, "metric")
-    'MD 1,828.8-2,499.4 m'
-    """
-    u = unit_for("depth", system)
-    a, b = (float(from_si(float(x), u)) for x in (top, bottom))
-    digits = 0 if u == "ft" else 1
-    return f"MD {a:,.{digits}f}-{b:,.{digits}f} {unit_label(u)}"
+    @property
+    def string_components(self) -> tuple[str, ...]:
+        """String component of each string row."""
+        return tuple(s.item for s in self.string_spans)
 
 
-def depth_point(md: float, system: str = "oilfield") -> str:
-    """'MD 10,680 ft' (oilfield) / 'MD 3,255.3 m' (metric, si): one MD [m] in the system's unit.
-
-    >>> depth_point(3255.264)
-    'MD 10,680 ft'
-    """
-    u = unit_for("depth", system)
-    digits = 0 if u == "ft" else 1
-    return f"MD {float(from_si(float(md), u)):,.{digits}f} {unit_label(u)}"
-
-
-def _row_names(iv, path: str, system: str = "oilfield") -> tuple[str, ...]:
-    out = []
-    for comp, sec, tj, top, bot in zip(
-        iv.component, iv.section, iv.is_tool_joint, iv.top_md, iv.bottom_md, strict=True
-    ):
-        part = f"{comp} tool joints" if tj else str(comp)
-        where = f"{part} in {sec}" if path == "annulus" else part
-        out.append(f"{where}, {depth_span(top, bot, system)}")
-    return tuple(out)
-
-
-def parts(well, system: str = "oilfield") -> WellParts:
-    """Surface lines, string and annulus rows, tools, bit depth and the exposed-hole top;
-    interval names carry their MD range in ``system``'s depth unit."""
+def parts(well: Well) -> WellParts:
+    """Surface lines, string and annulus rows, tools, bit depth and the exposed-hole top."""
     iv = well.flow_intervals()
     s = iv.select("string")
     a = iv.select("annulus")
@@ -94,17 +87,15 @@ def parts(well, system: str = "oilfield") -> WellParts:
     else:
         exposed_top, shoe_name, shoe_test = 0.0, "", None
     return WellParts(
-        line_names=tuple(x.name for x in lines),
+        line_spans=tuple(Span("surface", x.name) for x in lines),
         line_d=np.array([x.id for x in lines], dtype=float),
         line_len=np.array([x.length for x in lines], dtype=float),
-        string_names=_row_names(s, "string", system),
-        string_components=tuple(str(x) for x in s.component),
+        string_spans=s.spans(),
         string_d=np.asarray(s.outer_diameter, dtype=float),
         string_len=np.asarray(s.length, dtype=float),
         tools=tools,
-        tool_names=tuple(t.name for t in tools),
-        ann_names=_row_names(a, "annulus", system),
-        ann_components=tuple(f"{c} in {h}" for c, h in zip(a.component, a.section, strict=True)),
+        tool_spans=tuple(Span("tools", t.name) for t in tools),
+        ann_spans=a.spans(),
         ann_hole=np.asarray(a.outer_diameter, dtype=float),
         ann_pipe=np.asarray(a.inner_diameter, dtype=float),
         ann_len=np.asarray(a.length, dtype=float),
@@ -123,15 +114,13 @@ def check_method(method: str) -> str:
 
 
 def pipe(Q, d, R, params, method):
-    from calc.flow import pipe_flow
-
+    """:func:`calc.flow.pipe_flow` with the fluid's (τy, K, n)."""
     ty, k, n = params
     return pipe_flow(Q, d, density=R, tau_y=ty, k=k, n=n, method=method)
 
 
 def annulus(Q, d_hole, d_pipe, R, params, method, ecc):
-    from calc.flow import annulus_flow
-
+    """:func:`calc.flow.annulus_flow` with the fluid's (τy, K, n) and the eccentricity."""
     ty, k, n = params
     return annulus_flow(
         Q, d_hole, d_pipe, density=R, tau_y=ty, k=k, n=n, method=method, eccentricity=ecc
@@ -145,26 +134,18 @@ def tool_drops(tools, Q, R) -> np.ndarray:
     return np.concatenate([np.asarray(t.pressure_drop(Q, R), dtype=float) for t in tools], axis=1)
 
 
-def tool_window(tool):
-    w = getattr(tool, "flow_window", None)
-    return (None, None) if w is None else w
+def bit_hydraulics(well: Well, q, rho, spp=None) -> BitHydraulics:
+    """:func:`calc.bit.bit_hydraulics` of the well's bit."""
+    return _bit_hydraulics(q, rho, well.bit, standpipe_pressure=spp)
 
 
-def bit_hydraulics(well, q, rho, spp=None):
-    from calc.bit import bit_hydraulics as _bh
-
-    return _bh(q, rho, well.bit, standpipe_pressure=spp)
-
-
-def bit_drop(well, q, rho) -> np.ndarray:
+def bit_drop(well: Well, q, rho) -> np.ndarray:
     """Bit pressure drop [Pa] (:func:`calc.bit.bit_pressure_drop`)."""
-    from calc.bit import bit_pressure_drop
-
     b = well.bit
     return np.asarray(bit_pressure_drop(q, rho, b.tfa, b.discharge_coefficient), dtype=float)
 
 
-def reshape_bit(bit, shape):
+def reshape_bit(bit: BitHydraulics, shape) -> BitHydraulics:
     """Give the bit result's per-rate arrays the sweep shape (scalars for a single rate)."""
     changes = {}
     for f in dataclasses.fields(bit):
@@ -176,20 +157,14 @@ def reshape_bit(bit, shape):
 
 
 #: calc.flow note codes the loop re-issues per named interval (so they are not repeated).
-_REISSUED = {"transitional_flow", "below_critical_velocity"}
+REISSUED_FLOW_NOTES = frozenset({"transitional_flow", "below_critical_velocity"})
 
 
-def flow_notes(flow) -> tuple:
-    return tuple(n for n in (getattr(flow, "notes", ()) or ()) if n.code not in _REISSUED)
+def flow_notes(flow) -> tuple[Note, ...]:
+    """The notes of a flow result, less those the loop re-issues per interval."""
+    return tuple(n for n in (getattr(flow, "notes", ()) or ()) if n.code not in REISSUED_FLOW_NOTES)
 
 
 def method_label(flow) -> str:
+    """The flow method's label (its name when it has none)."""
     return str(getattr(flow, "method_label", "") or getattr(flow, "method", ""))
-
-
-def unit_text(kind: str, system: str) -> str:
-    return unit_for(kind, system)
-
-
-def label(unit: str) -> str:
-    return unit_label(unit)

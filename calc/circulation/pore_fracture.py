@@ -13,20 +13,31 @@ Not to be confused with :mod:`calc.window`, the operating window of *flow rates*
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from typing import Literal
 
 import numpy as np
 
 from calc.errors import InputError, check_nonnegative, check_positive
 from calc.numeric import float_or_array
+from calc.span import Span
+from calc.values import Value
 
 __all__ = [
+    "CHECK_POINT_ROLES",
+    "MARGIN_STATES",
+    "CheckPoint",
     "MarginTable",
     "Margins",
     "PressureWindow",
     "TightestPoint",
     "WeakPoint",
+    "as_plain",
+    "fracture_margin",
     "limits_at",
+    "margin_status",
+    "pore_margin",
     "tabulate_margins",
+    "worst_status",
 ]
 
 
@@ -78,9 +89,14 @@ class PressureWindow:
         if np.any(pore >= frac):
             i = int(np.flatnonzero(pore >= frac)[0])
             raise InputError(
-                f"pore EMW at TVD {tvd[i]:g} m",
+                f"pore EMW at TVD station {i + 1}",
                 float(pore[i]),
-                f"< fracture EMW there ({frac[i]:g} kg/m³)",
+                "< fracture EMW there ({fracture}; station TVD {tvd})",
+                kind="density",
+                values=(
+                    Value("fracture", float(frac[i]), "density"),
+                    Value("tvd", float(tvd[i]), "depth"),
+                ),
             )
         for name, arr in (("tvd", tvd), ("pore", pore), ("fracture", frac)):
             arr.setflags(write=False)
@@ -131,7 +147,13 @@ class WeakPoint:
         if self.pore is not None:
             pore = float(check_positive(f"{self.name}: pore EMW", self.pore, "kg/m³"))
             if pore >= frac:
-                raise InputError(f"{self.name}: pore EMW", pore, f"< fracture EMW ({frac:g} kg/m³)")
+                raise InputError(
+                    f"{self.name}: pore EMW",
+                    pore,
+                    "< fracture EMW ({fracture})",
+                    kind="density",
+                    values=(Value("fracture", frac, "density"),),
+                )
             object.__setattr__(self, "pore", pore)
 
 
@@ -160,34 +182,73 @@ class Margins:
         )
 
 
+#: Kinds of margin check point (:attr:`CheckPoint.role`).
+CHECK_POINT_ROLES = ("depth", "shoe", "bit", "window_station", "weak_point")
+
+
+@dataclass(frozen=True)
+class CheckPoint:
+    """One depth where the margins are checked.
+
+    ``role`` says what it is: ``"depth"`` (a point of the depth grid, no name), ``"shoe"``
+    (the last casing or liner shoe, or a weak point there), ``"bit"``, ``"window_station"``
+    (a station of the pressure window, at its TVD) or ``"weak_point"``; ``name`` is the
+    shoe's, weak point's or ``"bit"`` ("" for grid points and window stations); ``md``,
+    ``tvd`` [m].  The faces turn it into words (``addin.text.check_point``).
+    """
+
+    role: Literal["depth", "shoe", "bit", "window_station", "weak_point"]
+    name: str
+    md: float
+    tvd: float
+
+    def __post_init__(self):
+        if self.role not in CHECK_POINT_ROLES:
+            raise ValueError(f"check point role {self.role!r} not in {CHECK_POINT_ROLES}")
+
+    @property
+    def place(self) -> Span:
+        """The point as a :class:`~calc.span.Span` in the annulus (top = bottom), for notes."""
+        return Span(
+            "annulus",
+            self.name or ("window station" if self.role == "window_station" else ""),
+            top_md=self.md,
+            bottom_md=self.md,
+            top_tvd=self.tvd,
+            bottom_tvd=self.tvd,
+        )
+
+
 @dataclass(frozen=True)
 class TightestPoint:
     """Where the ECD comes closest to a limit.
 
-    ``name`` the depth's label (a weak point's name, "shoe", "bit" or "MD 1234.5 m"); ``md``,
-    ``tvd`` [m]; ``margin`` [kg/m³] (limit distance, fracture − ECD or ECD − pore); ``limit``
-    ``"fracture"`` or ``"pore"``; ``required`` the user's margin for that limit [kg/m³].
-    For a sweep every field is an array over the sweep.
+    ``point`` the :class:`CheckPoint`; ``md``, ``tvd`` its depths [m]; ``margin`` [kg/m³]
+    (limit distance, fracture − ECD or ECD − pore, :func:`fracture_margin` /
+    :func:`pore_margin`); ``limit`` ``"fracture"`` or ``"pore"``; ``required`` the user's margin
+    for that limit [kg/m³].  For a sweep every field is an array over the sweep (``point`` and
+    ``limit`` object arrays).
     """
 
-    name: object
-    md: object
-    tvd: object
-    margin: object
-    limit: object
-    required: object
+    point: CheckPoint | np.ndarray
+    md: float | np.ndarray
+    tvd: float | np.ndarray
+    margin: float | np.ndarray
+    limit: str | np.ndarray
+    required: float | np.ndarray
 
 
 @dataclass(frozen=True, eq=False)
 class MarginTable:
     """Margins at the check points (exposed formation: last shoe to the bit, weak points).
 
-    ``names``, ``md``, ``tvd``: the check points; ``pore``, ``fracture``: limits there [kg/m³];
-    ``ecd``, ``esd`` [kg/m³]; ``fracture_margin`` = fracture − ECD; ``pore_margin`` = ECD − pore;
-    ``static_pore_margin`` = ESD − pore (all [kg/m³], leading sweep axes, last axis the points).
+    ``points`` (:class:`CheckPoint`), ``md``, ``tvd`` [m]: the check points; ``pore``,
+    ``fracture``: limits there [kg/m³]; ``ecd``, ``esd`` [kg/m³]; ``fracture_margin`` =
+    fracture − ECD; ``pore_margin`` = ECD − pore; ``static_pore_margin`` = ESD − pore (all
+    [kg/m³], leading sweep axes, last axis the points).
     """
 
-    names: tuple[str, ...]
+    points: tuple[CheckPoint, ...]
     md: np.ndarray
     tvd: np.ndarray
     pore: np.ndarray
@@ -200,9 +261,50 @@ class MarginTable:
     tightest: TightestPoint
     margins: Margins = field(default_factory=Margins)
 
+    def index(self, role: str) -> int | None:
+        """Index of the first check point of ``role`` ("shoe", "bit" …), None if there is none."""
+        return next((i for i, p in enumerate(self.points) if p.role == role), None)
 
-def _plain(v):
-    """numpy scalars → Python scalars; arrays unchanged."""
+
+def fracture_margin(fracture, ecd):
+    """Margin to fracture [kg/m³]: fracture EMW − ECD (positive = below the fracture limit).
+
+    The one definition the results, the report and the operating window use.
+    """
+    return np.asarray(fracture, dtype=float) - np.asarray(ecd, dtype=float)
+
+
+def pore_margin(ecd, pore):
+    """Margin to pore pressure [kg/m³]: ECD (or ESD) − pore EMW (positive = above the pore
+    limit)."""
+    return np.asarray(ecd, dtype=float) - np.asarray(pore, dtype=float)
+
+
+#: Margin states, best first (:func:`margin_status`).
+MARGIN_STATES = ("ok", "near_limit", "exceeded")
+
+
+def margin_status(margin: float, required: float | None = None) -> str:
+    """State of a margin [kg/m³ or Pa]: ``"exceeded"`` below 0 (limit crossed),
+    ``"near_limit"`` below the required margin, else ``"ok"``.
+
+    >>> margin_status(-1.0), margin_status(20.0, 50.0), margin_status(80.0, 50.0)
+    ('exceeded', 'near_limit', 'ok')
+    """
+    if margin < 0:
+        return "exceeded"
+    if required is not None and margin < required:
+        return "near_limit"
+    return "ok"
+
+
+def worst_status(*states: str) -> str:
+    """The worst of several :func:`margin_status` states."""
+    return max(states, key=MARGIN_STATES.index)
+
+
+def as_plain(v):
+    """numpy scalars and 0-d arrays → Python scalars; other arrays unchanged."""
     if isinstance(v, np.ndarray):
         return v.item() if v.ndim == 0 else v
     return v.item() if isinstance(v, np.generic) else v
@@ -211,8 +313,9 @@ def _plain(v):
 def limits_at(md, tvd, names, window: PressureWindow | None, weak_points=()):
     """Pore and fracture EMW at check points; weak points override the window at their MD.
 
-    Returns ``(pore, fracture)`` arrays [kg/m³]; where neither a window nor a weak point gives a
-    value the entry is ``inf`` (fracture) / ``0`` (pore): no limit.
+    ``names`` are the check points' names (a weak point applies where its name is).  Returns
+    ``(pore, fracture)`` arrays [kg/m³]; where neither a window nor a weak point gives a value
+    the entry is ``inf`` (fracture) / ``0`` (pore): no limit.
     """
     md = np.asarray(md, dtype=float)
     tvd = np.asarray(tvd, dtype=float)
@@ -230,7 +333,7 @@ def limits_at(md, tvd, names, window: PressureWindow | None, weak_points=()):
     return pore, frac
 
 
-def tabulate_margins(names, md, tvd, pore, fracture, ecd, esd, margins: Margins) -> MarginTable:
+def tabulate_margins(points, md, tvd, pore, fracture, ecd, esd, margins: Margins) -> MarginTable:
     """Margins at every check point and the tightest one.
 
     .. math:: m_{frac} = \\rho_{frac} - \\mathrm{ECD},\\quad m_{pore} = \\mathrm{ECD} - \\rho_{pore}
@@ -241,32 +344,32 @@ def tabulate_margins(names, md, tvd, pore, fracture, ecd, esd, margins: Margins)
     """
     ecd = np.asarray(ecd, dtype=float)
     esd = np.asarray(esd, dtype=float)
-    fm = fracture - ecd
-    pm = ecd - pore
-    spm = esd - pore
+    fm = fracture_margin(fracture, ecd)
+    pm = pore_margin(ecd, pore)
+    spm = pore_margin(esd, pore)
     both = np.stack([fm, pm], axis=-2)  # (..., 2, P)
     flat = both.reshape((*both.shape[:-2], -1))
     idx = np.argmin(flat, axis=-1)
     which, point = np.divmod(idx, fm.shape[-1])
     margin = np.take_along_axis(flat, idx[..., None], axis=-1)[..., 0]
-    names_arr = np.array(names, dtype=object)
+    points_arr = np.empty(len(points), dtype=object)
+    points_arr[:] = list(points)
     limit_arr = np.array(["fracture", "pore"], dtype=object)
     req = np.array([margins.fracture, margins.pore])
 
     def pick(a, i):
-        v = np.asarray(a)[i]
-        return v.item() if isinstance(v, np.ndarray) and v.ndim == 0 else _plain(v)
+        return as_plain(np.asarray(a)[i])
 
     tight = TightestPoint(
-        name=pick(names_arr, point),
+        point=as_plain(points_arr[point]),
         md=pick(md, point),
         tvd=pick(tvd, point),
-        margin=_plain(margin),
+        margin=as_plain(margin),
         limit=pick(limit_arr, which),
         required=pick(req, which),
     )
     return MarginTable(
-        names=tuple(names),
+        points=tuple(points),
         md=md,
         tvd=tvd,
         pore=pore,

@@ -1,0 +1,259 @@
+"""ECD sheet: equivalent densities at the bit with live checks, margins at the exposed
+formation and weak points, and the ESD/ECD profile chart."""
+
+from __future__ import annotations
+
+import numpy as np
+from openpyxl.worksheet.pagebreak import Break
+
+from addin import text
+from addin.report.audit import Factors, checked_row, input_row
+from addin.report.charts import depth_profile, nice_axis
+from addin.report.style import (
+    heading,
+    note_row,
+    number_format,
+    put_number,
+    setup_print,
+    table_header,
+)
+from addin.text import display_number as _o
+from addin.text import unit_label as U
+from addin.xlsx_cells import put, set_widths
+from calc.circulation import ecd_deviation, margin_status, worst_status
+
+__all__ = ["write_ecd"]
+
+
+def write_ecd(wb, results, factors: Factors, title: str):
+    """The ECD sheet; returns the references the summary uses."""
+    ws = wb.create_sheet("ECD")
+    set_widths(ws, [34, 12, 12, 10, 11, 11, 11, 11, 11, 11])
+    row = heading(ws, 1, "Equivalent densities and margins", span=10, title=True)
+    row, refs = _bit_block(ws, row + 1, results, factors)
+    if results.circulation.margins is not None:
+        row = _margins_block(ws, row, results)
+        refs["tightest"] = results.circulation.margins.tightest
+        row += 1
+    refs.update(_profile_block(ws, row, results, title))
+    return refs
+
+
+def _bit_block(ws, row, results, factors):
+    """Inputs and live checks of the hydrostatic and circulating pressure and ECD at the bit,
+    and the ECD at the downhole gauge.  Returns the next row and the references."""
+    case, res, system = results.case, results.circulation, results.case.unit_system
+    rho = input_row(
+        ws, row, "mud density (static)", _o(res.density, "density", system), "density", system
+    )
+    tvd = input_row(ws, row + 1, "bit TVD", _o(res.bit_tvd, "depth", system), "depth", system)
+    ann = input_row(
+        ws,
+        row + 2,
+        "annular friction loss, surface to bit",
+        _o(res.annulus.total, "pressure", system),
+        "pressure",
+        system,
+    )
+    bp = input_row(
+        ws,
+        row + 3,
+        "surface back-pressure",
+        _o(res.back_pressure, "pressure", system),
+        "pressure",
+        system,
+    )
+    row += 5
+    fr, fdep, fp, g = (
+        factors.unit("density"),
+        factors.unit("depth"),
+        factors.unit("pressure"),
+        factors.g(),
+    )
+    g_note = "g = gₙ (exact)" if res.hydrostatic == "exact" else "0.052 convention"
+    row = table_header(
+        ws, row, 1, ["quantity", "boreflow", "live check", "agree?", "unit", "formula in words"]
+    )
+    hyd_v, hyd_f = checked_row(
+        ws,
+        row,
+        "hydrostatic pressure at the bit",
+        _o(res.static_bhp, "pressure", system),
+        f"{rho}*{fr}*{g}*{tvd}*{fdep}/{fp}",
+        "pressure",
+        system,
+        f"ρ·g·TVD ({g_note})",
+        note_end=10,
+    )
+    row += 1
+    bhp_v, _ = checked_row(
+        ws,
+        row,
+        "circulating pressure at the bit",
+        _o(res.circulating_bhp, "pressure", system),
+        f"{hyd_v}+{ann}+{bp}",
+        "pressure",
+        system,
+        "hydrostatic + annular friction + back-pressure",
+        note_end=10,
+    )
+    row += 1
+    ecd_v, ecd_f = checked_row(
+        ws,
+        row,
+        "ECD at the bit",
+        _o(res.ecd_bit, "density", system),
+        f"{rho}+({ann}+{bp})*{fp}/({g}*{tvd}*{fdep})/{fr}",
+        "density",
+        system,
+        "ρ + (Δp_ann + p_back)/(g·TVD)",
+        note_end=10,
+    )
+    row += 1
+    refs = {"ecd_bit": (ecd_v, ecd_f), "hydrostatic": (hyd_v, hyd_f), "bhp": bhp_v}
+    pwd = case.checks[-1].values.get("pwd", {})
+    pwd_md, pwd_ecd = pwd.get("md"), pwd.get("ecd")
+    if pwd_md is not None and pwd_ecd is not None and 0 < pwd_md <= res.bit_md:
+        pred = float(res.ecd_at(pwd_md))
+        put(
+            ws,
+            row,
+            1,
+            f"ECD at the downhole gauge (MD {_o(pwd_md, 'depth', system):,.0f} "
+            f"{U('depth', system)})",
+        )
+        put_number(ws, row, 2, _o(pred, "density", system), number_format("density", system))
+        put(ws, row, 5, U("density", system), "bf_unit")
+        put(
+            ws,
+            row,
+            6,
+            f"gauge reads {_o(pwd_ecd, 'density', system):.2f}; predicted − gauge "
+            f"{_o(ecd_deviation(pred, pwd_ecd), 'density', system):+.2f}",
+            "bf_note",
+        )
+        ws.merge_cells(start_row=row, start_column=6, end_row=row, end_column=10)
+        refs["pwd"] = (pred, pwd_ecd, pwd_md)
+        row += 1
+    return row + 1, refs
+
+
+def _margins_block(ws, row, results) -> int:
+    """Margins at the named check points (shoe, bit, window stations, weak points) with their
+    status, and the tightest point in words."""
+    mt, system = results.circulation.margins, results.case.unit_system
+    row = heading(ws, row, "Margins at the exposed formation and weak points", span=10)
+    du, dn = U("depth", system), U("density", system)
+    heads = ["check point", "MD", "TVD", "pore", "fracture", "ESD", "ECD", "frac − ECD",
+             "ECD − pore", "status"]  # fmt: skip
+    row = table_header(ws, row, 1, heads, ["", du, du, dn, dn, dn, dn, dn, dn, ""])
+    req_f, req_p = mt.margins.fracture, mt.margins.pore
+
+    def at(arr, i):
+        return np.asarray(arr).reshape(-1)[i]
+
+    for i, point in enumerate(mt.points):
+        if point.role == "depth":
+            continue
+        put(ws, row, 1, text.check_point(point, system))
+        put_number(ws, row, 2, _o(mt.md[i], "depth", system), number_format("depth", system))
+        put_number(ws, row, 3, _o(mt.tvd[i], "depth", system), number_format("depth", system))
+        for col, arr in ((4, mt.pore), (5, mt.fracture), (6, mt.esd), (7, mt.ecd)):
+            put_number(
+                ws, row, col, _o(at(arr, i), "density", system), number_format("density", system)
+            )
+        fm, pm = float(at(mt.fracture_margin, i)), float(at(mt.pore_margin, i))
+        for col, v in ((8, fm), (9, pm)):
+            put_number(ws, row, col, _o(v, "density", system) if np.isfinite(v) else None, "0.00")
+        status = worst_status(margin_status(fm, req_f), margin_status(pm, req_p))
+        put(ws, row, 10, text.STATUS_WORDS[status])
+        row += 1
+    t = mt.tightest
+    where = text.check_point(t.point, system)
+    return note_row(
+        ws,
+        row,
+        f"Tightest point: {where} (MD {_o(t.md, 'depth', system):,.0f} "
+        f"{du}), {t.limit} margin {_o(t.margin, 'density', system):.2f} {dn} against "
+        f"{_o(t.required, 'density', system):.2f} {dn} required. Margins: fracture − ECD "
+        "and ECD − pore; status NEAR LIMIT below the required margin.",
+        span=10,
+    )
+
+
+_PROFILE_COLUMNS = (
+    ("md", "depth"),
+    ("tvd", "depth"),
+    ("esd", "density"),
+    ("ecd", "density"),
+    ("pore", "density"),
+    ("fracture", "density"),
+)
+
+
+def _profile_block(ws, row, results, title) -> dict:
+    """The printed ESD/ECD/pore/fracture chart and its data rows below the print range."""
+    prof, system = results.profile, results.case.unit_system
+    du, dn = U("depth", system), U("density", system)
+    chart_row = row + 1
+    chart_rows = 28  # the 14-cm chart
+    data_row = chart_row + chart_rows + 2
+    put(
+        ws,
+        data_row - 1,
+        1,
+        f"Chart data: the profile along the annulus every "
+        f"{_o(results.profile_step, 'depth', system):,.0f} {du} (rows below; not printed).",
+        "bf_note",
+    )
+    ws.merge_cells(start_row=data_row - 1, start_column=1, end_row=data_row - 1, end_column=10)
+    put(ws, data_row, 1, "Profile along the annulus", "bf_section")
+    col0 = 1
+    r0 = table_header(
+        ws,
+        data_row + 1,
+        col0,
+        ["MD", "TVD", "ESD", "ECD", "pore", "fracture"],
+        [du, du, dn, dn, dn, dn],
+    )
+    n = len(prof.md)
+    for i in range(n):
+        for j, (attr, kind) in enumerate(_PROFILE_COLUMNS):
+            v = np.asarray(getattr(prof, attr)).reshape(-1)[i]
+            put_number(
+                ws,
+                r0 + i,
+                col0 + j,
+                _o(v, kind, system) if 0 < v < 1e9 else None,
+                number_format(kind, system),
+            )
+    r1 = r0 + n - 1
+    curves = [("ESD", (ws, col0 + 2, r0, r1), "esd"), ("ECD", (ws, col0 + 3, r0, r1), "ecd")]
+    if results.case.window is not None:
+        curves += [
+            ("pore pressure", (ws, col0 + 4, r0, r1), "pore"),
+            ("fracture pressure", (ws, col0 + 5, r0, r1), "fracture"),
+        ]
+    allv = [
+        _o(x, "density", system)
+        for x in np.concatenate(
+            [np.ravel(prof.esd), np.ravel(prof.ecd), np.ravel(prof.pore), np.ravel(prof.fracture)]
+        )
+        if 0 < x < 1e9
+    ]
+    lo, hi, step = nice_axis(min(allv), max(allv))
+    ch = depth_profile(
+        (ws, col0 + 1, r0, r1),
+        curves,
+        density_unit=dn,
+        depth_unit=du,
+        x_limits=(lo, hi),
+        title="ESD, ECD, pore and fracture EMW",
+    )
+    ch.x_axis.majorUnit = step
+    ch.width = 24.0
+    ws.add_chart(ch, f"A{chart_row}")
+    ws.row_breaks.append(Break(id=chart_row - 1))
+    setup_print(ws, title)
+    ws.print_area = f"A1:J{data_row - 2}"
+    return {"profile_rows": (r0, r1), "profile_head": data_row + 1}
