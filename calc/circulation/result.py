@@ -20,6 +20,7 @@ from calc.errors import check_positive, check_range
 from calc.flow import FlowResult
 from calc.geometry import Well
 from calc.notes import Note
+from calc.numeric import depth_weights
 from calc.span import Span
 
 __all__ = [
@@ -31,7 +32,6 @@ __all__ = [
     "Profile",
     "ToolLosses",
     "as_scalar",
-    "depth_weights",
     "reshape_flow",
 ]
 
@@ -294,16 +294,6 @@ class CirculationResult:
             pore=pore,
             fracture=frac,
         )
-
-
-def depth_weights(md, top, bottom) -> np.ndarray:
-    """Fraction of each interval [top, bottom] lying above each depth: W[j, i] ∈ [0, 1].
-
-    ``md`` (J,), ``top`` and ``bottom`` (I,) [m].  The annular pressure above a depth is
-    ``losses @ W.T`` (linear within each interval).
-    """
-    span = bottom - top
-    return np.clip((md[:, None] - top[None, :]) / span[None, :], 0.0, 1.0)
 
 
 def reshape_flow(fr: FlowResult | None, shape) -> FlowResult | None:

@@ -80,9 +80,8 @@ def parts(well: Well) -> WellParts:
     lines = tuple(well.surface_lines)
     tools = tuple(well.tool_drops)
     bit_md = float(well.bit_depth)
-    cased = [sec for sec in well.hole.sections if not sec.is_open_hole and sec.bottom <= bit_md]
-    if cased:
-        last = max(cased, key=lambda sec: sec.bottom)
+    last = well.last_shoe
+    if last is not None:
         exposed_top, shoe_name, shoe_test = float(last.bottom), f"{last.name} shoe", last.shoe_test
     else:
         exposed_top, shoe_name, shoe_test = 0.0, "", None

@@ -17,7 +17,6 @@ from calc.cleaning.indicators import (
     larsen_critical_velocity,
     verdict_levels,
 )
-from calc.cleaning.spans import interval_spans
 from calc.cleaning.transport import Cuttings, TransportResult, annular_transport
 from calc.errors import InputError, check_choice, check_nonnegative, check_positive
 from calc.notes import Note
@@ -287,7 +286,7 @@ def hole_cleaning(
     rho = float(rho)
     params = fluid.annulus_parameters
     a = well.flow_intervals().annulus
-    spans = interval_spans(a)
+    spans = a.spans()
     d2 = np.asarray(a.outer_diameter, dtype=float)
     d1 = np.asarray(a.inner_diameter, dtype=float)
     _check_cuttings_fit(cuttings, d2, d1, spans)

@@ -22,7 +22,7 @@ import numpy as np
 from calc.bit import Bit
 from calc.errors import InputError, check_positive
 from calc.flow.area import cross_section_area
-from calc.geometry.hole import Hole
+from calc.geometry.hole import Hole, HoleSection
 from calc.geometry.string import DrillString
 from calc.geometry.surface import SurfaceLine, ToolPressureDrop
 from calc.geometry.survey import Survey
@@ -473,6 +473,19 @@ class Well:
         return self._intervals
 
     # ------------------------------------------------------------------------- depth helpers
+    @property
+    def last_shoe(self) -> HoleSection | None:
+        """The deepest casing or liner whose shoe is at or above the bit (None in a well without
+        one): its ``bottom`` [m] is the top of the exposed formation.
+
+        >>> from tests.demo_well import demo_well
+        >>> demo_well().last_shoe.kind
+        'casing'
+        """
+        bit = float(self.bit_depth)
+        cased = [sec for sec in self.hole.sections if not sec.is_open_hole and sec.bottom <= bit]
+        return max(cased, key=lambda sec: sec.bottom) if cased else None
+
     @property
     def bit_tvd(self) -> float:
         """TVD of the bit [m]."""

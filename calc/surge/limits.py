@@ -184,12 +184,8 @@ class TripLimits:
 def _exposed_hole(well) -> tuple[float, str]:
     """Top of the exposed hole [m] (the deepest casing or liner shoe above the bit, 0 without
     one) and that shoe's name ("<section> shoe", "" without one)."""
-    bit = float(well.bit_depth)
-    cased = [sec for sec in well.hole.sections if not sec.is_open_hole and sec.bottom <= bit]
-    if not cased:
-        return 0.0, ""
-    last = max(cased, key=lambda sec: sec.bottom)
-    return float(last.bottom), f"{last.name} shoe"
+    last = well.last_shoe
+    return (0.0, "") if last is None else (float(last.bottom), f"{last.name} shoe")
 
 
 def _check_points(well, weak_points, step):

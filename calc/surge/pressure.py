@@ -18,7 +18,6 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT
-from calc.cleaning.spans import interval_spans
 from calc.errors import check_nonnegative, check_positive
 from calc.flow import mean_velocity
 from calc.geometry import Survey
@@ -160,7 +159,7 @@ def surge_pressure(
         peak_speed=scalar_or_array(vp),
         direction=direction,
         string_end=end,
-        spans=interval_spans(a),
+        spans=a.spans(),
         top_md=np.asarray(a.top_md),
         bottom_md=np.asarray(a.bottom_md),
         clinging=np.asarray(st.clinging),
