@@ -209,7 +209,7 @@ def operating_window(
     weak_points=(),
     margins=None,
     surface_rating: float | None = None,
-    method: str = "api13d_2010_hb",
+    method: str | None = None,
     rop: float = 0.0,
     cuttings: Cuttings | None = None,
     slip_method: str = "moore",
@@ -234,8 +234,8 @@ def operating_window(
         ECD margins to fracture and pore [kg/m³].
     surface_rating : float, optional
         Pump / surface-equipment rating [Pa]; None → no SPP limit.
-    method : str
-        Friction method (:mod:`calc.flow`).
+    method : str, optional
+        Hydraulics method (:func:`calc.hydraulics_method.resolve_method`; None: the default).
     rop : float
         Rate of penetration [m/s]; with ``cuttings`` it adds the cuttings load to the fracture
         check and the cleaning limit.

@@ -48,7 +48,7 @@ def circulate(
     fluid: HydraulicsFluid,
     q,
     *,
-    method: str = "api13d_2010_hb",
+    method: str | None = None,
     eccentricity: float = 0.0,
     back_pressure: float = 0.0,
     friction_multiplier: float = 1.0,
@@ -83,8 +83,9 @@ def circulate(
         Density [kg/m³] (scalar or array: a density sweep) and the pipe/annulus models.
     q : float or array_like
         Flow rate(s) [m³/s], > 0; broadcast against ``fluid.density``.
-    method : str
-        Friction method of :mod:`calc.flow` (default ``"api13d_2010_hb"``).
+    method : str, optional
+        Hydraulics method (:func:`calc.hydraulics_method.resolve_method`; None: the default,
+        API RP 13D 2010 Herschel-Bulkley); its friction law computes every gradient.
     eccentricity : float
         Pipe offset in the annulus, e = 2δ/(D_hole − D_pipe), 0 ≤ e < 1.
     back_pressure : float

@@ -107,7 +107,7 @@ def parts(well: Well) -> WellParts:
     )
 
 
-def check_method(method: str) -> str:
+def check_method(method: str | None) -> str:
     """The friction law of a hydraulics method (:func:`calc.hydraulics_method.resolve_method`)."""
     return resolve_method(method).friction
 

@@ -107,7 +107,7 @@ def surge_pressure(
     *,
     direction: str = "running",
     string_end: str = "auto",
-    method: str = "api13d_2010_hb",
+    method: str | None = None,
     clinging="burkhardt",
     peak_factor: float = PEAK_FACTOR,
     eccentricity: float = 0.0,
@@ -128,8 +128,9 @@ def surge_pressure(
     direction : {"running", "pulling"}
     string_end : {"auto", "closed", "open"}
         ``auto``: closed when the string has a float valve, else open.
-    method : str
-        Friction method of :mod:`calc.flow` (every rheological model/method it offers).
+    method : str, optional
+        Hydraulics method (:func:`calc.hydraulics_method.resolve_method`; None: the default);
+        its friction law computes the gradients.
     clinging : "burkhardt" or float or array
         Burkhardt fits (laminar/turbulent by the interval's regime) or given K_c per interval.
     peak_factor : float
@@ -170,7 +171,7 @@ def surge_pressure(
         interval_pressure=ip,
         pressure_bit=scalar_or_array(DIRECTION_SIGN[direction] * ip.sum(-1)),
         regime=st.regime,
-        method=method_text(clinging, method),
+        method=method_text(clinging, p.method),
         density=p.rho,
         survey=well.survey,
         notes=tuple(dict.fromkeys(notes)),
@@ -230,7 +231,7 @@ def interval_surge(
     bore_parameters=None,
     string_end: str = "closed",
     direction: str = "running",
-    method: str = "api13d_2010_hb",
+    method: str | None = None,
     clinging="burkhardt",
     peak_factor: float = PEAK_FACTOR,
     eccentricity=0.0,
@@ -267,8 +268,9 @@ def interval_surge(
     string_end : {"closed", "open"}
         Closed: float valve or plugged pipe, the full OD displaces mud.
     direction : {"running", "pulling"}
-    method : str
-        Friction method of :mod:`calc.flow`.
+    method : str, optional
+        Hydraulics method (:func:`calc.hydraulics_method.resolve_method`; None: the default);
+        its friction law computes the gradients.
     clinging : "burkhardt" or float or array
         Burkhardt fits (laminar/turbulent by the interval's regime) or given K_c.
     peak_factor : float
@@ -322,6 +324,6 @@ def interval_surge(
         gradient=per(st.gradient),
         pressure_change=per(dp),
         total_pressure_change=scalar_or_array(dp.sum(-1)),
-        method=method_text(clinging, method),
+        method=method_text(clinging, p.method),
         notes=tuple(dict.fromkeys(getattr(st.flow, "notes", ()))),
     )

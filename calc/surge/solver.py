@@ -33,6 +33,7 @@ from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT, bit_pressure_drop
 from calc.errors import InputError, check_choice, check_nonnegative, check_positive
 from calc.flow import FlowResult, annulus_flow, cross_section_area, pipe_flow
 from calc.flow.solvers import itp_solve
+from calc.hydraulics_method import resolve_method
 from calc.notes import Note
 from calc.surge.clinging import check_clinging, clinging_constant
 from calc.values import Value
@@ -151,8 +152,10 @@ def _one_density(rho) -> float:
     return float(check_positive("density", rho, "kg/m³"))
 
 
-def paths_from_well(well, fluid, method: str, eccentricity) -> SurgePaths:
-    """The solver's arrays from a well's annular and string intervals and its bit."""
+def paths_from_well(well, fluid, method: str | None, eccentricity) -> SurgePaths:
+    """The solver's arrays from a well's annular and string intervals and its bit; ``method``
+    a hydraulics method (None: the default), whose friction law the solver uses."""
+    method = resolve_method(method).friction
     iv = well.flow_intervals()
     a, s = iv.annulus, iv.string
     return SurgePaths(
@@ -266,7 +269,9 @@ def check_peak(peak_factor) -> float:
 
 def paths_flat(d_hole, d_pipe, length, *, density, tau_y, k, n, d_bore, tfa, cd,
                 bore_parameters, string_end, method, eccentricity):  # fmt: skip
-    """Flat arguments → (:class:`SurgePaths`, string end, geometry-was-scalar)."""
+    """Flat arguments → (:class:`SurgePaths`, string end, geometry-was-scalar); ``method`` a
+    hydraulics method (None: the default), whose friction law the solver uses."""
+    method = resolve_method(method).friction
     end = check_choice("string end", string_end, ("closed", "open"))
     geo = [
         check_positive("hole diameter d_hole", d_hole, "m"),
