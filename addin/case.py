@@ -211,6 +211,16 @@ def _value(val, fld: Field, system, source, path):
 # ------------------------------------------------------------------ schemas
 
 
+class CaseInputError(InputError):
+    """An input error found while building a case's calc inputs: it keeps the case's unit
+    system, so the faces can say the value and the limits in the units the case uses
+    (:func:`addin.text.error`)."""
+
+    def __init__(self, unit_system: str, *args, **kwargs):
+        super().__init__(*args, **kwargs)
+        self.unit_system = unit_system
+
+
 # ------------------------------------------------------------------ results
 @dataclass(frozen=True, eq=False)
 class CheckInput:
@@ -273,7 +283,8 @@ class Case:
         except InputError as exc:
             if exc.name.startswith(self.source):
                 raise
-            raise InputError(
+            raise CaseInputError(
+                self.unit_system,
                 f"{_where(self.source, path)}: {exc.name}",
                 exc.value,
                 exc.allowed,

@@ -54,6 +54,7 @@ from addin.commands.exit_codes import (
     EXIT_INTERRUPTED,
     EXIT_WRITE,
 )
+from addin.commands.output import error_text
 from calc.errors import InputError
 from calc.units import UNIT_SYSTEMS
 
@@ -243,7 +244,7 @@ def main(argv=None) -> int:
         print(f"boreflow: error: {exc}", file=sys.stderr)
         return EXIT_BAD_INPUT
     except InputError as exc:
-        print(f"boreflow: error: {exc}", file=sys.stderr)
+        print(f"boreflow: error: {error_text(exc)}", file=sys.stderr)
         return EXIT_BAD_INPUT
     except FileExistsError as exc:
         print(f"boreflow: error: {exc}", file=sys.stderr)

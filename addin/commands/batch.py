@@ -14,6 +14,7 @@ from pathlib import Path
 
 from addin import text
 from addin.commands.exit_codes import EXIT_BATCH_FAILED, EXIT_OK
+from addin.commands.output import error_text
 from addin.commands.report import run_one
 from addin.report.compute import scalar
 from addin.safe_io import atomic_write_bytes, csv_safe
@@ -127,7 +128,7 @@ def run(args) -> int:
                     "tightest_margin": "",
                     "cleaning": "",
                     "units": "",
-                    "message": str(exc),
+                    "message": error_text(exc) if isinstance(exc, InputError) else str(exc),
                 }
             )
     if not args.quiet:

@@ -6,7 +6,11 @@ import json
 
 import numpy as np
 
-__all__ = ["json_text"]
+from addin import text
+from addin.case import CaseInputError
+from calc.errors import InputError
+
+__all__ = ["error_text", "json_text"]
 
 
 def _default(o):
@@ -30,3 +34,11 @@ def json_text(obj) -> str:
     }
     """
     return json.dumps(obj, ensure_ascii=False, indent=2, default=_default)
+
+
+def error_text(exc: InputError) -> str:
+    """An input error in words: in the case's units where the error came from a case (the value
+    as the user wrote it), else as raised."""
+    if isinstance(exc, CaseInputError):
+        return text.error(exc, exc.unit_system)
+    return text.error(exc)
