@@ -34,6 +34,7 @@ normaliser can name them.
 """
 
 import functools
+import inspect
 import math
 import warnings
 from collections.abc import Callable
@@ -43,6 +44,8 @@ from typing import Annotated, Any
 import numpy as np
 import xlwings as xw
 
+from addin import text
+from addin.sheets.cells import unit_set
 from calc.errors import InputError
 
 __all__ = [
@@ -147,6 +150,16 @@ def clean_result(out):
     return _clean_scalar(out)
 
 
+def _units_of_call(raw, args, kwargs):
+    """The call's ``units`` argument as a unit set (oilfield, every function's default, where
+    the function has none or it cannot be read)."""
+    try:
+        bound = inspect.signature(raw).bind_partial(*args, **kwargs)
+        return unit_set(bound.arguments.get("units"))
+    except (TypeError, InputError):
+        return unit_set(None)
+
+
 def _call_guarded(raw, args, kwargs):
     try:
         with warnings.catch_warnings(), np.errstate(all="ignore"):
@@ -154,7 +167,7 @@ def _call_guarded(raw, args, kwargs):
             out = raw(*args, **kwargs)
         return clean_result(out)
     except InputError as exc:
-        return error_text(str(exc))
+        return error_text(text.error(exc, _units_of_call(raw, args, kwargs)))
     except Exception as exc:  # no exception may reach a cell
         try:
             message = str(exc)
