@@ -19,6 +19,7 @@ __all__ = [
     "check_choice",
     "check_finite",
     "check_nonnegative",
+    "check_order",
     "check_positive",
     "check_range",
 ]
@@ -142,3 +143,34 @@ def check_choice(name: str, value, choices) -> str:
     near = difflib.get_close_matches(str(value), choices, n=1)
     hint = f" (did you mean '{near[0]}'?)" if near else ""
     raise InputError(name, value, "one of " + ", ".join(choices) + hint, problem="unknown")
+
+
+_ORDER = {"<": np.less, "<=": np.less_equal, ">": np.greater, ">=": np.greater_equal}
+
+
+def check_order(
+    name: str, value: float, op: str, bound: float, what: str, kind: str, problem: str = ""
+) -> float:
+    """Require ``value op bound`` for two SI values of one quantity ``kind`` (``op`` one of
+    ``<``, ``<=``, ``>``, ``>=``); ``what`` names the bound ("the OD", "top").  The error
+    carries both values with their kind, so a face can say them in the user's units.
+
+    >>> check_order("drift", 0.2, "<=", 0.22, "the inside diameter", "diameter")
+    0.2
+    >>> try:
+    ...     check_order("ID", 0.13, "<", 0.127, "the OD", "diameter")
+    ... except InputError as e:
+    ...     print(e)
+    ID = 0.13 m: not allowed; allowed: < the OD 0.127 m
+    """
+    value, bound = float(value), float(bound)
+    if not _ORDER[op](value, bound):
+        raise InputError(
+            name,
+            value,
+            f"{op} {what} {{bound}}",
+            problem or "not allowed",
+            kind=kind,
+            values=(Value("bound", bound, kind),),
+        )
+    return value

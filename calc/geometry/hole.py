@@ -11,7 +11,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.errors import InputError, check_choice, check_nonnegative, check_positive
+from calc.errors import InputError, check_choice, check_nonnegative, check_order, check_positive
 from calc.notes import Note
 from calc.values import Value
 
@@ -62,39 +62,18 @@ class HoleSection:
         who = f"'{self.name}'"
         top = float(check_nonnegative(f"top of {who}", self.top, "m"))
         bottom = float(check_positive(f"bottom of {who}", self.bottom, "m"))
-        if bottom <= top:
-            raise InputError(
-                f"bottom of {who}",
-                bottom,
-                "> top ({top})",
-                kind="depth",
-                values=(Value("top", top, "depth"),),
-            )
+        check_order(f"bottom of {who}", bottom, ">", top, "top", "depth")
         dia = float(check_positive(f"inside diameter of {who}", self.diameter, "m"))
         object.__setattr__(self, "top", top)
         object.__setattr__(self, "bottom", bottom)
         object.__setattr__(self, "diameter", dia)
         if self.drift is not None:
             drift = float(check_positive(f"drift of {who}", self.drift, "m"))
-            if drift > dia:
-                raise InputError(
-                    f"drift of {who}",
-                    drift,
-                    "<= inside diameter {id}",
-                    kind="diameter",
-                    values=(Value("id", dia, "diameter"),),
-                )
+            check_order(f"drift of {who}", drift, "<=", dia, "inside diameter", "diameter")
             object.__setattr__(self, "drift", drift)
         if self.od is not None:
             od = float(check_positive(f"OD of {who}", self.od, "m"))
-            if od <= dia:
-                raise InputError(
-                    f"inside diameter of {who}",
-                    dia,
-                    "< OD {od}",
-                    kind="diameter",
-                    values=(Value("od", od, "diameter"),),
-                )
+            check_order(f"inside diameter of {who}", dia, "<", od, "OD", "diameter")
             object.__setattr__(self, "od", od)
         if self.shoe_test is not None:
             object.__setattr__(
@@ -152,76 +131,10 @@ class Hole:
         deepest = max(s.bottom for s in secs)
         depth = deepest if self.depth is None else float(check_positive("hole depth", self.depth))
         object.__setattr__(self, "depth", depth)
-        for s in secs:
-            if s.bottom > depth + 1e-9:
-                what = "shoe" if not s.is_open_hole else "bottom"
-                raise InputError(
-                    f"{what} of '{s.name}'",
-                    s.bottom,
-                    "<= hole depth {depth}",
-                    problem=f"{what} below the hole depth",
-                    kind="depth",
-                    values=(Value("depth", depth, "depth"),),
-                )
         top = np.array([s.top for s in secs])
         bottom = np.array([s.bottom for s in secs])
-        # coverage of [0, depth] by the union of sections
-        order = np.argsort(top)
-        reach = 0.0
-        for k in order:
-            if top[k] > reach + 1e-9:
-                raise InputError(
-                    "hole sections",
-                    reach,
-                    "sections covering every depth from surface to the hole depth (the next "
-                    "section starts at {next_top})",
-                    problem="gap in the sections below this depth",
-                    kind="depth",
-                    values=(Value("next_top", float(top[k]), "depth"),),
-                )
-            reach = max(reach, bottom[k])
-        if reach < depth - 1e-9:
-            raise InputError(
-                "hole sections",
-                reach,
-                "sections down to the hole depth {depth}",
-                problem="nothing below this depth",
-                kind="depth",
-                values=(Value("depth", depth, "depth"),),
-            )
-        notes = []
-        for s in secs:
-            if s.is_open_hole and s.bit_size is not None:
-                ratio = s.diameter / s.bit_size
-                if ratio < 1.0:
-                    notes.append(
-                        Note(
-                            "warning",
-                            "open_hole_below_bit",
-                            "open-hole diameter {diameter} is below the bit size {bit_size}: "
-                            "under-gauge hole or a typing error?",
-                            s.name,
-                            values=(
-                                Value("diameter", s.diameter, "diameter"),
-                                Value("bit_size", s.bit_size, "diameter"),
-                            ),
-                        )
-                    )
-                elif ratio > WASHOUT_WARN:
-                    notes.append(
-                        Note(
-                            "warning",
-                            "large_washout",
-                            "effective diameter {diameter} is {ratio:.2f} × the bit size (above "
-                            "~1.3, common practice): check the caliper or washout factor",
-                            s.name,
-                            values=(
-                                Value("diameter", s.diameter, "diameter"),
-                                Value("ratio", float(ratio)),
-                            ),
-                        )
-                    )
-        object.__setattr__(self, "notes", tuple(notes))
+        _check_coverage(secs, top, bottom, depth)
+        object.__setattr__(self, "notes", tuple(n for s in secs for n in _size_notes(s)))
         for name, arr in (
             ("_top", top),
             ("_bottom", bottom),
@@ -297,3 +210,73 @@ class Hole:
     def cased_above(self, md: float) -> Sequence[HoleSection]:
         """Casing and liner sections with their top above ``md`` (those a bit at ``md`` passed)."""
         return [s for s in self.sections if not s.is_open_hole and s.top < md]
+
+
+def _check_coverage(secs, top: np.ndarray, bottom: np.ndarray, depth: float) -> None:
+    """Every section ends at or above the hole depth, and together they cover 0 → depth."""
+    for s in secs:
+        if s.bottom > depth + 1e-9:
+            what = "shoe" if not s.is_open_hole else "bottom"
+            raise InputError(
+                f"{what} of '{s.name}'",
+                s.bottom,
+                "<= hole depth {depth}",
+                problem=f"{what} below the hole depth",
+                kind="depth",
+                values=(Value("depth", depth, "depth"),),
+            )
+    reach = 0.0
+    for k in np.argsort(top):
+        if top[k] > reach + 1e-9:
+            raise InputError(
+                "hole sections",
+                reach,
+                "sections covering every depth from surface to the hole depth (the next "
+                "section starts at {next_top})",
+                problem="gap in the sections below this depth",
+                kind="depth",
+                values=(Value("next_top", float(top[k]), "depth"),),
+            )
+        reach = max(reach, bottom[k])
+    if reach < depth - 1e-9:
+        raise InputError(
+            "hole sections",
+            reach,
+            "sections down to the hole depth {depth}",
+            problem="nothing below this depth",
+            kind="depth",
+            values=(Value("depth", depth, "depth"),),
+        )
+
+
+def _size_notes(s: HoleSection) -> list[Note]:
+    """Doubtful open-hole sizes: below the bit size, or washed out beyond WASHOUT_WARN."""
+    if not (s.is_open_hole and s.bit_size is not None):
+        return []
+    ratio = s.diameter / s.bit_size
+    if ratio < 1.0:
+        return [
+            Note(
+                "warning",
+                "open_hole_below_bit",
+                "open-hole diameter {diameter} is below the bit size {bit_size}: "
+                "under-gauge hole or a typing error?",
+                s.name,
+                values=(
+                    Value("diameter", s.diameter, "diameter"),
+                    Value("bit_size", s.bit_size, "diameter"),
+                ),
+            )
+        ]
+    if ratio > WASHOUT_WARN:
+        return [
+            Note(
+                "warning",
+                "large_washout",
+                "effective diameter {diameter} is {ratio:.2f} × the bit size (above "
+                "~1.3, common practice): check the caliper or washout factor",
+                s.name,
+                values=(Value("diameter", s.diameter, "diameter"), Value("ratio", float(ratio))),
+            )
+        ]
+    return []

@@ -11,7 +11,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.errors import InputError, check_nonnegative, check_positive
+from calc.errors import InputError, check_nonnegative, check_order, check_positive
 from calc.notes import Note
 from calc.units import to_si
 from calc.values import Value
@@ -76,15 +76,7 @@ class StringComponent:
         who = f"'{self.name}'"
         od = float(check_positive(f"OD of {who}", self.od, "m"))
         idd = float(check_nonnegative(f"ID of {who}", self.id, "m"))
-        if idd >= od:
-            raise InputError(
-                f"ID of {who}",
-                idd,
-                "< OD {od}",
-                problem="ID at or above the OD",
-                kind="diameter",
-                values=(Value("od", od, "diameter"),),
-            )
+        check_order(f"ID of {who}", idd, "<", od, "OD", "diameter", "ID at or above the OD")
         object.__setattr__(self, "od", od)
         object.__setattr__(self, "id", idd)
         if isinstance(self.length, str):
@@ -107,24 +99,10 @@ class StringComponent:
                     )
         else:
             tj_od = float(check_positive(f"tool-joint OD of {who}", self.tool_joint_od, "m"))
-            if tj_od < od:
-                raise InputError(
-                    f"tool-joint OD of {who}",
-                    tj_od,
-                    ">= body OD {od}",
-                    kind="diameter",
-                    values=(Value("od", od, "diameter"),),
-                )
+            check_order(f"tool-joint OD of {who}", tj_od, ">=", od, "body OD", "diameter")
             tj_id = idd if self.tool_joint_id is None else self.tool_joint_id
             tj_id = float(check_nonnegative(f"tool-joint ID of {who}", tj_id, "m"))
-            if tj_id >= tj_od:
-                raise InputError(
-                    f"tool-joint ID of {who}",
-                    tj_id,
-                    "< tool-joint OD {tj_od}",
-                    kind="diameter",
-                    values=(Value("tj_od", tj_od, "diameter"),),
-                )
+            check_order(f"tool-joint ID of {who}", tj_id, "<", tj_od, "tool-joint OD", "diameter")
             jl, tjl = self.joint_length, self.tool_joint_length
             if jl is None:
                 jl = DEFAULT_JOINT_LENGTH
@@ -148,14 +126,7 @@ class StringComponent:
                 )
             jl = float(check_positive(f"joint length of {who}", jl, "m"))
             tjl = float(check_positive(f"tool-joint length of {who}", tjl, "m"))
-            if tjl >= jl:
-                raise InputError(
-                    f"tool-joint length of {who}",
-                    tjl,
-                    "< joint length {joint}",
-                    kind="length",
-                    values=(Value("joint", jl, "length"),),
-                )
+            check_order(f"tool-joint length of {who}", tjl, "<", jl, "joint length", "length")
             if jl < to_si(15.0, "ft") or jl > to_si(50.0, "ft"):
                 notes.append(
                     Note(

@@ -129,33 +129,7 @@ class Survey:
     notes: tuple[Note, ...] = field(init=False, repr=False)
 
     def __post_init__(self):
-        md = check_finite("survey MD", self.md).astype(float).ravel()
-        inc = check_finite("survey inclination", self.inclination).astype(float).ravel()
-        azi = check_finite("survey azimuth", self.azimuth).astype(float).ravel()
-        if md.size == 0:
-            raise InputError(
-                "survey stations", 0, "at least one station (MD, inclination, azimuth)"
-            )
-        if not (md.size == inc.size == azi.size):
-            raise InputError(
-                "survey columns",
-                (md.size, inc.size, azi.size),
-                "MD, inclination and azimuth lists of the same length",
-            )
-        if md[0] < 0:
-            raise InputError("survey MD", float(md[0]), ">= 0 m")
-        steps = np.diff(md)
-        if np.any(steps <= 0):
-            k = int(np.flatnonzero(steps <= 0)[0])
-            raise InputError(
-                f"survey MD at station {k + 2}",
-                float(md[k + 1]),
-                "strictly increasing MD (previous station {previous})",
-                kind="depth",
-                values=(Value("previous", float(md[k]), "depth"),),
-            )
-        check_range("survey inclination", inc, 0.0, 180.0, "degree")
-        check_range("survey azimuth", azi, 0.0, 360.0, "degree", hi_open=True)
+        md, inc, azi = _stations(self.md, self.inclination, self.azimuth)
         t = _tangent(np.radians(inc), np.radians(azi))
         beta = _dogleg(t[:-1], t[1:])
         if np.any(beta > np.pi - 1e-6):
@@ -165,6 +139,7 @@ class Survey:
                 float(np.degrees(beta[k])),
                 "< 180° (the arc between opposite directions is undefined)",
             )
+        steps = np.diff(md)
         w1, w2 = _arc_weights(beta, 1.0)
         d = steps[:, None] * (w1[:, None] * t[:-1] + w2[:, None] * t[1:])
         tvd0 = md[0] if self.tie_in_tvd is None else float(self.tie_in_tvd)
@@ -180,34 +155,7 @@ class Survey:
         pos[0, 2] = tvd0
         pos[1:] = pos[0] + np.cumsum(d, axis=0)
         dls = beta / steps
-        notes: list[Note] = []
-        for k in np.flatnonzero(dls > DOGLEG_WARN):
-            notes.append(
-                Note(
-                    "warning",
-                    "high_dogleg",
-                    "dogleg {dls:.1f} between {top} and {bottom} exceeds {limit:.0f} "
-                    "(common practice): check the survey",
-                    "survey",
-                    values=(
-                        Value("dls", float(dls[k]), "dogleg"),
-                        Value("top", float(md[k]), "depth"),
-                        Value("bottom", float(md[k + 1]), "depth"),
-                        Value("limit", float(DOGLEG_WARN), "dogleg"),
-                    ),
-                )
-            )
-        for k in np.flatnonzero(inc > INCLINATION_WARN_DEG):
-            notes.append(
-                Note(
-                    "warning",
-                    "unusual_inclination",
-                    "inclination {inc:g}° at {md} is above 120°: check it is not an azimuth or "
-                    "a typing error",
-                    "survey",
-                    values=(Value("inc", float(inc[k])), Value("md", float(md[k]), "depth")),
-                )
-            )
+        notes = _station_notes(md, inc, dls)
         for name, value in (("md", md), ("inclination", inc), ("azimuth", azi)):
             value.setflags(write=False)
             object.__setattr__(self, name, value)
@@ -331,3 +279,67 @@ class Survey:
         out = np.where(mdv < self.md[0], 0.0, out)
         out = np.where(mdv > self.md[-1], self.inclination[-1], out)
         return float(out) if out.ndim == 0 else out
+
+
+def _stations(md, inclination, azimuth) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The survey columns as float arrays: finite, equally long, MD ≥ 0 and strictly
+    increasing, inclination in [0, 180]°, azimuth in [0, 360)°."""
+    md = check_finite("survey MD", md).astype(float).ravel()
+    inc = check_finite("survey inclination", inclination).astype(float).ravel()
+    azi = check_finite("survey azimuth", azimuth).astype(float).ravel()
+    if md.size == 0:
+        raise InputError("survey stations", 0, "at least one station (MD, inclination, azimuth)")
+    if not (md.size == inc.size == azi.size):
+        raise InputError(
+            "survey columns",
+            (md.size, inc.size, azi.size),
+            "MD, inclination and azimuth lists of the same length",
+        )
+    if md[0] < 0:
+        raise InputError("survey MD", float(md[0]), ">= 0 m")
+    steps = np.diff(md)
+    if np.any(steps <= 0):
+        k = int(np.flatnonzero(steps <= 0)[0])
+        raise InputError(
+            f"survey MD at station {k + 2}",
+            float(md[k + 1]),
+            "strictly increasing MD (previous station {previous})",
+            kind="depth",
+            values=(Value("previous", float(md[k]), "depth"),),
+        )
+    check_range("survey inclination", inc, 0.0, 180.0, "degree")
+    check_range("survey azimuth", azi, 0.0, 360.0, "degree", hi_open=True)
+    return md, inc, azi
+
+
+def _station_notes(md: np.ndarray, inc: np.ndarray, dls: np.ndarray) -> list[Note]:
+    """Doubtful stations: doglegs above DOGLEG_WARN, inclinations above INCLINATION_WARN_DEG."""
+    notes: list[Note] = []
+    for k in np.flatnonzero(dls > DOGLEG_WARN):
+        notes.append(
+            Note(
+                "warning",
+                "high_dogleg",
+                "dogleg {dls:.1f} between {top} and {bottom} exceeds {limit:.0f} "
+                "(common practice): check the survey",
+                "survey",
+                values=(
+                    Value("dls", float(dls[k]), "dogleg"),
+                    Value("top", float(md[k]), "depth"),
+                    Value("bottom", float(md[k + 1]), "depth"),
+                    Value("limit", float(DOGLEG_WARN), "dogleg"),
+                ),
+            )
+        )
+    for k in np.flatnonzero(inc > INCLINATION_WARN_DEG):
+        notes.append(
+            Note(
+                "warning",
+                "unusual_inclination",
+                "inclination {inc:g}° at {md} is above 120°: check it is not an azimuth or "
+                "a typing error",
+                "survey",
+                values=(Value("inc", float(inc[k])), Value("md", float(md[k]), "depth")),
+            )
+        )
+    return notes
