@@ -167,7 +167,6 @@ def cycles(modules, imports) -> list[list[str]]:
 MODULES, IMPORTS = graph()
 
 
-
 def _where(i: Import) -> str:
     return f"{MODULES[i.source].relative_to(ROOT)}:{i.line}"
 
