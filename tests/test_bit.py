@@ -59,8 +59,9 @@ def test_bit_pressure_drop_field_constant_from_bernoulli():
 
 
 def test_api_156_form_is_a_discharge_coefficient_of_0_951():
-    # API RP 13D (1995) ΔP = 156ρQ²/(ΣD_N²)², D_N in 32nds (seen second-hand — calc/METHODS.md
-    # §8.3); equating it with ρQ²/(2C_d²A²) gives C_d ≈ 0.951 (calc/METHODS.md §8.3, derived)
+    # API RP 13D (1995) ΔP = 156ρQ²/(ΣD_N²)², D_N in 32nds (seen second-hand —
+    # calc/METHODS.md §8.3); equating it with ρQ²/(2C_d²A²) gives C_d ≈ 0.951 (derived, same
+    # section)
     nozzles = [13, 13, 12, 12, 11]
     q, rho = to_si(480.0, "gpm"), to_si(12.5, "ppg")
     ours_cd1 = from_si(bit_pressure_drop(q, rho, total_flow_area(nozzles), 1.0), "psi")

@@ -134,8 +134,8 @@ def test_default_method_is_calc_default():
 
 
 def test_power_law_pair_external():
-    # External: API RP 13D (1995) pipe power law n = 3.32·log10(θ600/θ300) (calc/METHODS.md
-    # §3.2; 3.32 ≈ 1/log10 2): log2(56/37).
+    # External: API RP 13D (1995) pipe power law n = 3.32·log10(θ600/θ300)
+    # (calc/METHODS.md §3.2; 3.32 ≈ 1/log10 2): log2(56/37).
     assert close(BF_N(COLUMNS, "api13d_1995_pipe"), math.log2(56 / 37))
 
 
