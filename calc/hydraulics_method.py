@@ -109,7 +109,9 @@ _preset(
     "api13d_2010_hb",
     "api13d_2010_hb",
     "API Herschel-Bulkley estimate (τ_y from 3/6 rpm, n and K from 300/600 rpm), both paths",
-    "API RP 13D 6th ed. (2010); Zamora & Power (2002) AADE-02-DFWM-HO-13",
+    "API RP 13D 6th ed. (2010); Zamora & Power (2002) AADE-02-DFWM-HO-13 (factor 1.066, adoption "
+    "by API and the friction structure from memory, not yet checked against the standard; see "
+    "calc/METHODS.md §3.5, §7.1)",
 )
 _preset(
     "api13d_1995_power_law",
@@ -117,7 +119,8 @@ _preset(
     "api13d_1995_pipe",
     "api13d_1995_annulus",
     "power law from 600/300 rpm in pipe and from 100/3 rpm in the annulus",
-    "API RP 13D 3rd ed. (1995)",
+    "equations as published in API RP 13D, 3rd ed. (1995), taken from a secondary account; see "
+    "calc/METHODS.md §7.2",
 )
 _preset(
     "newtonian",
@@ -133,14 +136,14 @@ _preset(
     "bingham_least_squares",
     "bingham_least_squares",
     "Bingham plastic least-squares fit over all readings, both paths",
-    "Bingham (1922); least squares over the readings (API RP 10B-2 practice)",
+    "Bingham (1916); least squares over the readings (API RP 10B-2 practice)",
 )
 _preset(
     "power_law",
     "power_law",
     "power_law_least_squares",
     "power_law_least_squares",
-    "power-law least-squares fit (log-log) over all readings, both paths",
+    "power-law least-squares fit (residuals in stress, not in log) over all readings, both paths",
     "least squares over the readings (common practice)",
 )
 _preset(

@@ -66,7 +66,7 @@ def test_max_impact_bit_share_and_brute_force(m):
 
 
 def test_bit_shares_match_the_rules_of_thumb():
-    # PRACTICE §2.3 (common practice): bit share ~65 % for max HHP, ~48 % for max impact;
+    # common practice (calc/METHODS.md §16.4): bit share ~65 % for max HHP, ~48 % for max impact;
     # these correspond to m ≈ 1.86
     a = optimum_nozzles(P_MAX, _c(1.86), 1.86, "max_power", q_max=1.0, density=RHO)
     b = optimum_nozzles(P_MAX, _c(1.86), 1.86, "max_impact", q_max=1.0, density=RHO)
@@ -76,7 +76,7 @@ def test_bit_shares_match_the_rules_of_thumb():
 
 def test_tfa_field_form_0_00912():
     # Guo & Liu (2011) eqs. 4.15/4.19: A_T = 0.00912·Q·√(ρ/ΔP_b)/C_d (in², gpm, ppg, psi);
-    # 0.00912 = √8.311e-5 (METHODS §0.1)
+    # 0.00912 = √8.311e-5 (calc/METHODS.md §0.4)
     opt = optimum_nozzles(P_MAX, _c(1.75), 1.75, "max_power", q_max=1.0, density=RHO)
     q, dp = from_si(opt.flow_rate, "gpm"), from_si(opt.bit_drop, "psi")
     assert from_si(opt.tfa, "in**2") == pytest.approx(0.00912 * q * np.sqrt(11.0 / dp) / 0.95,
@@ -86,7 +86,7 @@ def test_tfa_field_form_0_00912():
 
 
 def test_impact_ratio_of_the_two_designs():
-    # exact consequence of G&L eqs. 4.16–4.21 (METHODS §5, derived):
+    # exact consequence of G&L eqs. 4.16–4.21 (calc/METHODS.md §8.9, derived):
     # F(max HHP)/F(max impact) = [(m+2)/(2(m+1))]^(1/m)·√[(m+2)/(m+1)]
     m = 1.75
     a = optimum_nozzles(P_MAX, _c(m), m, "max_power", q_max=1.0, density=RHO)
@@ -151,7 +151,8 @@ def test_two_rate_fit_recovers_exponent():
 
 def test_two_rate_fit_demo_slow_circulation_rates():
     # invented demo scenario: slow circulating rates 30 and 40 spm on pump 1 at 520 and 880 psi,
-    # 5.02 gal/stroke, 11.2 ppg, nozzles 3x12 3x11; PRACTICE §2.3 "two-rate exponent often ~1.8"
+    # 5.02 gal/stroke, 11.2 ppg, nozzles 3x12 3x11; common practice: two-rate exponent often ~1.8
+    # (calc/METHODS.md §16.4)
     q = to_si(np.array([30, 40]) * 5.02, "gpm")
     fit = fit_parasitic_loss(q, to_si([520.0, 880.0], "psi"), to_si(11.2, "ppg"),
                              total_flow_area("3x12 3x11"))  # fmt: skip

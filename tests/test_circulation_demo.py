@@ -115,11 +115,11 @@ def test_demo_exact_laminar_warns_that_the_string_is_not_laminar():
 
 
 def test_demo_api1995_spp_drops_only_where_the_annulus_switches_at_re_2100():
-    # API RP 13D (1995) as published switches from f = 24/Re to a/Re^b at Re = 2100 (METHODS
-    # §3.2); with the annulus pair n_a ≈ 0.3 the turbulent value is about half the laminar one
-    # there, so the annular loss — and the SPP — falls as the rate crosses the switch.  This is
-    # the published method's discontinuity, not a loop error: every fall coincides with an
-    # annular interval going laminar → turbulent.  (The other methods are monotone; see the
+    # API RP 13D (1995) as published switches from f = 24/Re to a/Re^b at Re = 2100
+    # (calc/METHODS.md §7.2); with the annulus pair n_a ≈ 0.3 the turbulent value is about half the
+    # laminar one there, so the annular loss — and the SPP — falls as the rate crosses the switch.
+    # This is the published method's discontinuity, not a loop error: every fall coincides with
+    # an annular interval going laminar → turbulent.  (The other methods are monotone; see the
     # property test in test_circulation_loop.py.)
     well = demo.demo_well(0)
     q = demo.to_si(np.linspace(50.0, 900.0, 400), "gpm")

@@ -1,8 +1,8 @@
 """Hydrostatics, ESD/ECD formulas, the pressure window and the margin logic.
 
 External references: the 0.052 psi/ft per ppg constant (common practice) and its exact form
-12/231 (METHODS §0.1, derived from NIST SP 811 App. B definitions); the ECD definition
-(METHODS §6); Bourgoyne et al. (1986) *Applied Drilling Engineering*, ch. 4.
+12/231 (calc/METHODS.md §0.4, derived from NIST SP 811 App. B definitions); the ECD definition
+(calc/METHODS.md §9.3); Bourgoyne et al. (1986) *Applied Drilling Engineering*, ch. 4.
 """
 
 import numpy as np
@@ -27,7 +27,7 @@ from calc.circulation.pore_fracture import (
 from calc.errors import InputError
 from calc.units import G_N, from_si, to_si
 
-densities = st.floats(6.5, 22.0)  # ppg, the usual mud range (PRACTICE §3.2, common practice)
+densities = st.floats(6.5, 22.0)  # ppg, usual mud range (common practice, calc/METHODS.md §16.2)
 depths = st.floats(1.0, 40000.0)  # ft
 
 
@@ -41,7 +41,7 @@ def test_052_option_equals_the_field_formula(rho_ppg, tvd_ft):
 
 @given(densities, depths)
 def test_exact_option_equals_12_over_231(rho_ppg, tvd_ft):
-    # Exact field constant 12/231 psi/ft per ppg (METHODS §0.1: lbf = lb·gₙ, gal = 231 in³).
+    # Exact field constant 12/231 psi/ft per ppg (calc/METHODS.md §0.4: lbf = lb·gₙ, gal = 231 in³).
     field = 12.0 / 231.0 * rho_ppg * tvd_ft
     si = hydrostatic_pressure(to_si(rho_ppg, "ppg"), to_si(tvd_ft, "ft"))
     assert from_si(si, "psi") == pytest.approx(field, rel=1e-12)
@@ -49,7 +49,7 @@ def test_exact_option_equals_12_over_231(rho_ppg, tvd_ft):
 
 def test_exact_is_rho_g_h_and_052_is_one_per_mille_high():
     # ρ·gₙ·h by definition (gₙ = 9.80665 m/s², CGPM 1901); 0.052/(12/231) − 1 = 0.10 %
-    # (METHODS §6: "0.1 % apart").
+    # (calc/METHODS.md §9.1: 0.10 % higher).
     assert hydrostatic_pressure(1200.0, 3000.0) == pytest.approx(1200.0 * G_N * 3000.0, rel=1e-15)
     ratio = hydrostatic_pressure(1200.0, 3000.0, hydrostatic="0.052") / hydrostatic_pressure(
         1200.0, 3000.0
@@ -60,14 +60,16 @@ def test_exact_is_rho_g_h_and_052_is_one_per_mille_high():
 
 def test_mud_weight_to_balance_pore_pressure_textbook_example():
     # Bourgoyne et al. (1986) ADE ch. 4, first worked example: pore pressure 8,500 psi at
-    # 12,200 ft needs 8,500/(0.052·12,200) = 13.4 ppg (from memory, unverified — METHODS §6).
+    # 12,200 ft needs 8,500/(0.052·12,200) = 13.4 ppg (from memory, not yet checked against the
+    # source — calc/METHODS.md §9.1).
     rho = equivalent_density(to_si(8500.0, "psi"), to_si(12200.0, "ft"), hydrostatic="0.052")
     assert from_si(rho, "ppg") == pytest.approx(13.4, abs=0.05)
 
 
 @given(densities, st.floats(0.0, 3000.0), depths, st.floats(0.0, 1000.0))
 def test_ecd_identity_field_form(rho_ppg, dp_psi, tvd_ft, ps_psi):
-    # ECD = ρ + (ΣΔp_ann + p_s)/(0.052·TVD) (METHODS §6, field units) with the 0.052 option.
+    # ECD = ρ + (ΣΔp_ann + p_s)/(0.052·TVD) (calc/METHODS.md §9.3, field units) with the 0.052
+    # option.
     field = rho_ppg + (dp_psi + ps_psi) / (0.052 * tvd_ft)
     si = equivalent_circulating_density(
         to_si(rho_ppg, "ppg"),
@@ -81,7 +83,7 @@ def test_ecd_identity_field_form(rho_ppg, dp_psi, tvd_ft, ps_psi):
 
 
 def test_ecd_identity_si_and_emw_round_trip():
-    # ECD = ρ + ΔP/(g·TVD) in SI (METHODS §6); EMW of ρ·g·h is ρ (exact identity).
+    # ECD = ρ + ΔP/(g·TVD) in SI (calc/METHODS.md §9.3); EMW of ρ·g·h is ρ (exact identity).
     rho, dp, h = 1318.0, 1.7e6, 3052.5
     assert equivalent_circulating_density(rho, dp, h) == pytest.approx(rho + dp / (G_N * h))
     for opt in ("exact", "0.052"):

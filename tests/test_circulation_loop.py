@@ -4,7 +4,7 @@ hydrostatics in a deviated well, ECD identities, sweeps, calibration, notes and 
 External references are named beside each check: Hagen-Poiseuille and Lamb's concentric-annulus
 solution (Bird, Stewart & Lightfoot (2002) *Transport Phenomena*, 2nd ed., §2.3-2.4), the
 Bernoulli nozzle equation with a discharge coefficient (Bourgoyne et al. (1986) ch. 4), the
-0.052 psi/ft per ppg constant (common practice) and ECD = ρ + Δp_ann/(g·TVD) (METHODS §6).
+0.052 psi/ft per ppg constant (common practice) and ECD = ρ + Δp_ann/(g·TVD) (calc/METHODS.md §9.3).
 """
 
 import numpy as np
@@ -147,7 +147,8 @@ def test_hydrostatics_in_a_slant_well():
 
 
 def test_ecd_identity_at_bit_and_along_the_annulus():
-    # ECD = ρ + Δp_ann(above)/(g·TVD) (METHODS §6); at the bit Δp_ann is the whole annulus.
+    # ECD = ρ + Δp_ann(above)/(g·TVD) (calc/METHODS.md §9.3); at the bit Δp_ann is the
+    # whole annulus.
     well = simple_well()
     rho = 1318.0
     pb = to_si(150.0, "psi")
@@ -277,7 +278,7 @@ def test_notes_margins_pore_rating_and_tool_window():
     assert {"ecd_near_fracture", "ecd_near_pore", "static_below_pore", "spp_above_rating"} <= codes
     assert "weak_point_not_reached" in codes
     wc = next(n for n in r.notes if n.code == "static_below_pore")
-    # wording required by PRACTICE §3.4
+    # wording required by common practice (calc/METHODS.md §16.5)
     assert "this tool does not assess well control; follow your procedures" in text.note(wc).lower()
     slow = circulate(well, hb_fluid(), to_si(300.0, "gpm"))
     assert "tool_flow_window" in {n.code for n in slow.notes}

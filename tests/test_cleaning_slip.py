@@ -46,14 +46,14 @@ def test_chien_reduces_to_stokes():
 
 
 def test_moore_viscous_branch_is_0_6_stokes():
-    # Moore's f = 40/Re gives exactly 24/40 of Stokes (Bourgoyne et al. 1986; METHODS §7.1)
+    # Moore's f = 40/Re gives exactly 24/40 of Stokes (Bourgoyne et al. 1986; calc/METHODS.md §10.3)
     r = slip_velocity(**SMALL, method="moore", **VA)
     assert r.regime == "viscous"
     assert r.velocity == pytest.approx(0.6 * stokes(1e-4, 1400.0, 1.0), rel=1e-9)
 
 
 def test_api13d_low_re_limit():
-    # printed API constants imply a/Re with a ≈ 30 (from memory — METHODS §7.1, §11 item 3)
+    # printed API constants imply a/Re with a ≈ 30 (from memory — calc/METHODS.md §10.6)
     r = slip_velocity(**SMALL, method="api13d")
     a, _ = API13D_DRAG
     assert r.velocity == pytest.approx(24.0 / a * stokes(1e-4, 1400.0, 1.0), rel=1e-3)
@@ -129,7 +129,8 @@ def test_bingham_annular_apparent_viscosity_field_form():
 @pytest.mark.parametrize(
     ("d_in", "mud_ppg", "mu_cp", "regime", "field"),
     [
-        # Moore's three branches, field forms (ft/s, in, ppg, cP) as printed in METHODS §7.1
+        # Moore's three branches, field forms (ft/s, in, ppg, cP) as in calc/METHODS.md §10.3
+        # (taken from a compilation)
         (0.5, 9.0, 1.0, "turbulent", lambda d, r, m: 1.54 * np.sqrt(d * (21.7 - r) / r)),
         (0.1, 10.0, 40.0, "intermediate",
          lambda d, r, m: 2.90 * d * (21.7 - r) ** 0.667 / (r**0.333 * m**0.333)),
@@ -155,7 +156,7 @@ def test_chien_field_form():
     r = slip_velocity(to_si(d, "in"), to_si(rhos, "ppg"), density=to_si(rho, "ppg"),
                       k=mu * 1e-3, method="chien", annular_velocity=1.0)  # fmt: skip
     assert from_si(r.velocity, "ft/s") == pytest.approx(v_field, rel=1e-9)
-    # high-Re limit 1.44√(dΔρ/ρ) ft/s (METHODS §7.1, derived)
+    # high-Re limit 1.44√(dΔρ/ρ) ft/s (calc/METHODS.md §10.4, derived)
     big = slip_velocity(to_si(2.0, "in"), to_si(rhos, "ppg"), density=to_si(8.4, "ppg"),
                         k=1e-4, method="chien", annular_velocity=1.0)  # fmt: skip
     assert from_si(big.velocity, "ft/s") == pytest.approx(
@@ -165,7 +166,8 @@ def test_chien_field_form():
 
 def test_api13d_field_form_newtonian():
     # API RP 13D slip: Vs = 0.01344(μ/(ρD))[√(1 + 16,465 D(ρp/ρ - 1)(ρD/μ)²) - 1] (ft/s, cP, ppg,
-    # in; from memory, unverified — METHODS §7.1, §11 item 3).  Newtonian: μes = μ.
+    # in; from memory, not yet checked against the source — calc/METHODS.md §10.6).
+    # Newtonian: μes = μ.
     d, rho, rhos, mu = 0.25, 11.0, 21.7, 25.0
     x = mu / (rho * d)
     v_field = 0.01344 * x * (np.sqrt(1 + 16_465 * d * (rhos / rho - 1) / x**2) - 1)
@@ -176,7 +178,8 @@ def test_api13d_field_form_newtonian():
 
 def test_walker_mayes_field_form():
     # Walker & Mayes (1975): τp = 7.9√(t(ρs - ρ)); γ̇p from the rheogram; Vs = 0.0203τp√(dγ̇p/√ρ)
-    # (lbf/100 ft², in, ppg, 1/s, ft/s; from memory, unverified — METHODS §7.1, §11 item 6)
+    # (lbf/100 ft², in, ppg, 1/s, ft/s; from memory, not yet checked against the source —
+    # calc/METHODS.md §10.5)
     t, d, rho, rhos = 0.1, 0.1, 11.0, 21.7
     ty_f, k_f, n = 5.0, 2.0, 0.5  # lbf/100 ft², lbf·sⁿ/100 ft²
     tau_p = 7.9 * np.sqrt(t * (rhos - rho))

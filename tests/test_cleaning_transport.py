@@ -32,27 +32,28 @@ from tests.cleaning_demo import (
 
 
 def test_annular_velocity_field_form():
-    # AV[ft/min] = 24.51 Q[gpm]/(D2² - D1²) (METHODS §3.1; 24.51 = 77/π, derived)
+    # AV[ft/min] = 24.51 Q[gpm]/(D2² - D1²) (calc/METHODS.md §10.9; 24.51 = 77/π, derived)
     v = annular_velocity(to_si(522.0, "gpm"), to_si(8.6, "in"), to_si(5.0, "in"))
     assert from_si(v, "ft/min") == pytest.approx(77 / np.pi * 522.0 / (8.6**2 - 25.0), rel=1e-12)
     assert from_si(v, "ft/min") == pytest.approx(24.51 * 522.0 / (8.6**2 - 25.0), rel=1e-4)
 
 
 def test_cuttings_rate_field_form():
-    # q_c[gpm] = d_b²·ROP/1470.6 (METHODS §6; 1470.6 = 4620/π)
+    # q_c[gpm] = d_b²·ROP/1470.6 (calc/METHODS.md §10.10; 1470.6 = 4620/π)
     qc = cuttings_volume_rate(to_si(58.0, "ft/hour"), to_si(8.5, "in"))
     assert from_si(qc, "gpm") == pytest.approx(8.5**2 * 58.0 / 1470.6, rel=1e-4)
 
 
 def test_concentration_limits():
-    # F_T = 1: the feed concentration; F_T → 0: the annulus fills (METHODS §6)
+    # F_T = 1: the feed concentration; F_T → 0: the annulus fills (calc/METHODS.md §10.10)
     assert in_situ_concentration(0.001, 0.03, 1.0) == pytest.approx(0.001 / 0.031)
     assert in_situ_concentration(0.001, 0.03, -0.2) == 1.0
     assert in_situ_concentration(0.0, 0.03, 0.5) == 0.0
 
 
 def test_cci_field_form():
-    # CCI = MW·AV·K/400,000 (ppg, ft/min, K eq. cP) — trade glossaries (METHODS §7.2, memory)
+    # CCI = MW·AV·K/400,000 (ppg, ft/min, K eq. cP) — trade glossaries (from memory,
+    # calc/METHODS.md §10.11)
     # Robinson K = 511^(1-n)(PV + YP), n = 3.322 log((2PV+YP)/(PV+YP)); PV 19 cP, YP 18 (dial).
     pv, yp, mw, av = 19.0, 18.0, 11.0, 250.0
     n_r = 3.322 * np.log10((2 * pv + yp) / (pv + yp))
@@ -79,7 +80,10 @@ def test_cci_note_above_35_degrees():
 
 
 def field_larsen(rop, d2, d1, mw, pv, yp, d50, theta, va):
-    """Larsen, Pilehvari & Azar (1997) in field units, constants from memory — METHODS §7.3."""
+    """Larsen, Pilehvari & Azar (1997) in field units (constants from memory).
+
+    calc/METHODS.md §10.12.
+    """
     c_conc = 0.64 + 18.16 / rop
     v_cut = rop / (36 * (1 - (d1 / d2) ** 2) * c_conc)
     mu = pv + 5 * yp * (d2 - d1) / va  # Bingham annular μa, cP (Bourgoyne et al. 1986)
@@ -184,7 +188,7 @@ def test_demo_table(demo):
     assert "intermediate casing" in demo.spans[slowest].section
     assert ft[slowest] == pytest.approx(ft[body].min())
     assert "intermediate casing" in demo.controlling_interval.section
-    # AV there, by hand: 24.51 × 522 / (8.835² − 5²) ft/min (METHODS §3.1)
+    # AV there, by hand: 24.51 × 522 / (8.835² − 5²) ft/min (calc/METHODS.md §10.9)
     assert from_si(va[slowest], "ft/min") == pytest.approx(24.51 * 522 / (8.835**2 - 25), rel=1e-3)
     assert set(demo.verdict) <= {"adequate", "marginal", "poor"}
     assert demo.controlling_rate < demo_rate()  # 522 gpm cleans every interval
@@ -213,7 +217,7 @@ def test_demo_rate_sweep_and_loaded_ecd(demo):
         cuttings_ecd_increment(w, demo.transport.loaded_density, demo_fluid().density, md)
     )
     # loaded ECD − clean ECD = (ρeff − ρ)·C-weighted column / TVD: positive, and at the bit equal
-    # to the TVD-weighted mean of (ρeff − ρ) (hand check of METHODS §6)
+    # to the TVD-weighted mean of (ρeff − ρ) (hand check of calc/METHODS.md §10.14)
     extra = np.asarray(demo.transport.loaded_density) - demo_fluid().density
     a = w.flow_intervals().annulus
     assert inc[-1] == pytest.approx(np.sum(extra * a.delta_tvd) / w.bit_tvd, rel=1e-9)

@@ -1,8 +1,8 @@
 """boreflow report / calc / batch: outputs, exit codes, one-line errors, nothing half-written.
 
-External references: hydrostatic 12/231 psi/ft per ppg (exact, METHODS §0.1); annular velocity
-AV[ft/min] = 24.51·Q[gpm]/(Dh² − Dp²) (PRACTICE §2.3, exact 77/π); TFA = Σ N²/1303.8 in²
-(PRACTICE §2.4).
+External references: hydrostatic 12/231 psi/ft per ppg (exact, calc/METHODS.md §0.4); annular
+velocity AV[ft/min] = 24.51·Q[gpm]/(Dh² − Dp²) (common practice, exact 77/π;
+calc/METHODS.md §0.4); TFA = Σ N²/1303.8 in² (common practice, calc/METHODS.md §8.1).
 """
 
 from __future__ import annotations

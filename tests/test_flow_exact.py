@@ -38,7 +38,8 @@ def test_hagen_poiseuille_pipe():
 
 def _lamb_q(g, d2, d1, mu):
     # Lamb's concentric annulus, Bird, Stewart & Lightfoot (2002) eq. 2.4-17 (from memory,
-    # unverified; METHODS §3.8): Q = (πGR⁴/(8μ))[(1 - κ⁴) - (1 - κ²)²/ln(1/κ)]
+    # not yet checked against the source; calc/METHODS.md §6.3):
+    # Q = (πGR⁴/(8μ))[(1 - κ⁴) - (1 - κ²)²/ln(1/κ)]
     r = d2 / 2
     kap = d1 / d2
     return np.pi * g * r**4 / (8 * mu) * ((1 - kap**4) - (1 - kap**2) ** 2 / np.log(1 / kap))
@@ -58,7 +59,7 @@ def test_lamb_annulus(kappa):
         r = annulus_flow(q, d2, d1, density=RHO, tau_y=0.0, k=mu, n=1.0, method=method)
         lam = r.regime == 0
         np.testing.assert_allclose(r.gradient[lam], g[lam], rtol=1e-9, err_msg=method)
-    # Lamb's diameter: V = G·D_L²/(32μ) (METHODS §3.1, derived)
+    # Lamb's diameter: V = G·D_L²/(32μ) (calc/METHODS.md §6.3, derived)
     v = q / (np.pi / 4 * (d2**2 - d1**2))
     np.testing.assert_allclose(v, g * lamb_diameter(d2, d1) ** 2 / (32 * mu), rtol=1e-9)
 
@@ -109,7 +110,8 @@ def test_herschel_bulkley_pipe_by_quadrature(ty, kk, n):
 
 
 def test_hb_identities():
-    # METHODS §10: HB(n = 1) ≡ Buckingham-Reiner, HB(τ_y = 0) ≡ power law (exact identities)
+    # calc/METHODS.md §2.4, §6.5: HB(n = 1) ≡ Buckingham-Reiner, HB(τ_y = 0) ≡ power law
+    # (exact identities)
     d, q = 0.1, np.geomspace(1e-4, 1e-2, 7)
     a = pipe_flow(q, d, density=RHO, tau_y=0.0, k=0.5, n=0.6, method="exact_laminar")
     b = pipe_flow(q, d, density=RHO, tau_y=0.0, k=0.5, n=0.6, method="power_law")
@@ -168,8 +170,9 @@ def test_hb_annulus_against_independent_quadrature(g, d2, d1, ty, kk, n):
 
 
 def test_annulus_tends_to_slot_as_gap_narrows():
-    # Exact plane-slot HB solution (METHODS §3.8, derived): V = (H/2)(τ_w/K)^(1/n)(1-φ)^(1+1/n)
-    # [(1-φ)/(2+1/n) + φ/(1+1/n)].  The annulus → slot as D1/D2 → 1; the error must shrink.
+    # Exact plane-slot HB solution (calc/METHODS.md §6.6, derived):
+    # V = (H/2)(τ_w/K)^(1/n)(1-φ)^(1+1/n)[(1-φ)/(2+1/n) + φ/(1+1/n)].  The annulus → slot as
+    # D1/D2 → 1; the error must shrink.
     d2, ty, kk, n = 0.2, 3.0, 0.3, 0.7
     errs = []
     for kappa in (0.5, 0.8, 0.95, 0.99):

@@ -186,8 +186,8 @@ def test_dodge_metzner_vectorised_solution_against_brent():
 
 
 def test_api_a_over_re_b_against_dodge_metzner():
-    # METHODS §3.2: a/Re^b (API RP 13D) is a fit to the Dodge-Metzner chart; METHODS [D]
-    # expects within ~4 % for 0.4 ≤ n ≤ 1, 5e3 ≤ Re ≤ 1e5.  Measured: max 3.83 %
+    # calc/METHODS.md §6.11: a/Re^b (API RP 13D) is a fit to the Dodge-Metzner chart, expected
+    # within ~4 % for 0.4 ≤ n ≤ 1, 5e3 ≤ Re ≤ 1e5.  Measured: max 3.83 %
     # (a/Re^b from -3.83 % to +2.11 % of Dodge-Metzner solved directly).
     n = np.linspace(0.4, 1.0, 61)[:, None]
     re = np.geomspace(5e3, 1e5, 80)[None, :]
@@ -242,7 +242,7 @@ def test_api95_as_published_jump_at_2100():
 
 
 def test_api95_effective_viscosity_reynolds():
-    # API RP 13D (1995), METHODS §3.1 field form: μ_e[cP] = 100K(96V/D)^(n-1)((3n+1)/(4n))^n
+    # API RP 13D (1995), calc/METHODS.md §7.2 field form: μ_e[cP] = 100K(96V/D)^(n-1)((3n+1)/(4n))^n
     # (K dyn·sⁿ/cm², V ft/s, D in) and Re = 928ρVD/μ_e (ρ ppg) equal the SI Re = ρVD/μ_e.
     n, k_si, d, q, rho = 0.62, 0.45, 0.1086, 0.03, 1400.0
     r = pipe_flow(q, d, density=rho, tau_y=0.0, k=k_si, n=n, method="api13d_1995_power_law")
@@ -258,8 +258,8 @@ def test_api95_effective_viscosity_reynolds():
 
 
 def test_hanks_criterion_limits():
-    # Hanks (1963) [METHODS §3.7, from memory]: He → 0 gives the Newtonian 2100 exactly; the
-    # critical Re rises monotonically with He.
+    # Hanks (1963) [calc/METHODS.md §6.14, from memory]: He → 0 gives the Newtonian 2100 exactly;
+    # the critical Re rises monotonically with He.
     assert float(hanks_critical_reynolds(0.0)) == pytest.approx(2100.0, rel=1e-12)
     he = np.geomspace(1e2, 1e8, 30)
     rc = hanks_critical_reynolds(he)
@@ -299,15 +299,16 @@ def test_bingham_pipe_laminar_is_buckingham_reiner():
 
 
 def test_api_geometry_factor_reduces_to_pipe_and_slot():
-    # METHODS §10: G(α = 0) ≡ (3n + 1)/(4n); G(α = 1) ≡ (3/2)(2n + 1)/(3n) (derived)
+    # calc/METHODS.md §7.1: G(α = 0) ≡ (3n + 1)/(4n); G(α = 1) ≡ (3/2)(2n + 1)/(3n) (derived)
     n = np.linspace(0.1, 1.5, 30)
     np.testing.assert_allclose(api_geometry_factor(n, 0.0), (3 * n + 1) / (4 * n), rtol=1e-14)
     np.testing.assert_allclose(api_geometry_factor(n, 1.0), 1.5 * (2 * n + 1) / (3 * n), rtol=1e-14)
 
 
 def test_api_hb_field_recipe_equals_si():
-    # API RP 13D (2006/2010) recipe in field units (METHODS §3.5): V ft/min = 24.51Q/(D2²-D1²),
-    # γ̇ = 1.6GV/D_h, τ_w = ((4-α)/(3-α))ⁿτ_y + Kγ̇ⁿ (lbf/100ft²), Re_G = ρV²/(19.36τ_w),
+    # API RP 13D (2006/2010) recipe in field units (calc/METHODS.md §7.1):
+    # V ft/min = 24.51Q/(D2²-D1²), γ̇ = 1.6GV/D_h, τ_w = ((4-α)/(3-α))ⁿτ_y + Kγ̇ⁿ (lbf/100ft²),
+    # Re_G = ρV²/(19.36τ_w),
     # dP/dL = 1.076e-5·fρV²/D_h psi/ft.  With the exact constants (77/π, 96/60, 77g/128,
     # 288/(3600·231g)) the field recipe must reproduce the SI result.
     q_gpm, d2, d1 = 450.0, 8.5, 5.0
@@ -332,13 +333,13 @@ def test_api_hb_field_recipe_equals_si():
     assert units.from_si(r.gradient, "psi/ft") == pytest.approx(grad, rel=1e-9)
 
 
-# ------------------------------------------------------------------ field constants (METHODS §0.1)
+# ------------------------------------------------- field constants (calc/METHODS.md §0.4)
 
 
 def test_field_constants_equal_si_forms():
     g_ft = units.G_N / 0.3048
     ppg = units.si_factor("ppg")
-    # each printed constant (METHODS §0.1, field formulas of API RP 13D and ADE) against the
+    # each printed constant (calc/METHODS.md §0.4, field formulas of API RP 13D and ADE) against the
     # value derived from SI unit definitions (NIST SP 811), to the printed precision
     assert 231 * g_ft / 288 == pytest.approx(25.81, abs=0.005)  # dp/dL = fρV²/(25.81D)
     assert 288 / (3600 * 231 * g_ft) == pytest.approx(1.076e-5, abs=5e-9)
@@ -355,12 +356,12 @@ def test_field_constants_equal_si_forms():
     assert (16 / 3) * yp == pytest.approx(1 / 225, rel=1e-3)  # τ_y/(225D)
     assert 6 * yp == pytest.approx(1 / 200, rel=1e-3)  # τ_y/(200(D2-D1))
     he = ppg * units.si_factor("lbf/100ft2") * 0.0254**2 / 1e-3**2
-    assert he == pytest.approx(37_015, rel=1e-4)  # METHODS §0.1: 37,100 printed, exact 37,015
+    assert he == pytest.approx(37_015, rel=1e-4)  # calc/METHODS.md §0.4: printed 37,100
 
 
 @pytest.mark.parametrize("method", ["newtonian", "bingham"])
 def test_field_gradient_formulas_equal_si_results(method):
-    # Laminar field formulas (METHODS §3.6-3.7; Bourgoyne et al. 1986, ch. 4, ADE) with the
+    # Laminar field formulas (calc/METHODS.md §0.4; Bourgoyne et al. 1986, ch. 4, ADE) with the
     # exact constants against our SI laminar gradient.  Pipe: exact (Buckingham-Reiner keeps the
     # φ⁴ term, so the Bingham check is at small φ where the field form holds within 0.3 %).
     ty = 0.0 if method == "newtonian" else 0.5  # lbf/100ft² (φ = τ_y/τ_w = 0.23)

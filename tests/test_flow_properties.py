@@ -219,7 +219,7 @@ def test_sweep_critical_velocity_equals_single_interval_call(method):
 
 
 def test_mean_velocity_equals_field_annular_velocity_formula():
-    # field form AV[ft/min] = 24.51·Q[gpm]/(D2² − D1²)[in²] (METHODS §3.1; common practice;
+    # field form AV[ft/min] = 24.51·Q[gpm]/(D2² − D1²)[in²] (calc/METHODS.md §6.1; common practice;
     # 24.51 is 77/π = 24.5099 rounded, hence rel 5e-5)
     q_gpm, d2_in, d1_in = np.array([300.0, 522.0, 700.0]), 8.5, np.array([5.0, 5.0, 6.75])
     av = mean_velocity(to_si(q_gpm, "gpm"), to_si(d2_in, "in"), to_si(d1_in, "in"))

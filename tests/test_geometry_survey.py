@@ -100,7 +100,7 @@ def test_tiny_doglegs_take_the_straight_limit_without_warnings():
 
 
 def test_high_dogleg_gives_note_only_above_10_deg_per_100ft():
-    # 10°/100 ft threshold: common practice (PRACTICE §3.3)
+    # 10°/100 ft threshold: common practice (calc/METHODS.md §16.3)
     ft = 0.3048
     steep = Survey(np.array([0, 1000, 1100]) * ft, [0.0, 0.0, 15.0], [0.0, 0.0, 0.0])
     mild = Survey(np.array([0, 1000, 1100]) * ft, [0.0, 0.0, 5.0], [0.0, 0.0, 0.0])
@@ -124,7 +124,8 @@ def test_high_dogleg_gives_note_only_above_10_deg_per_100ft():
     ],
 )
 def test_bad_survey_input(md, inc, azi, match):
-    # PRACTICE §3.3: survey MD increasing, inclination 0–180 (issue 3), azimuth 0–360
+    # common practice (calc/METHODS.md §16.3): survey MD increasing, inclination 0–180 (issue 3),
+    # azimuth 0–360
     with pytest.raises(InputError, match=match):
         Survey(md, inc, azi)
 
@@ -140,7 +141,7 @@ def test_reported_tvd_checks():
 
 
 def test_inclination_above_120_gets_note():
-    # PRACTICE §3.3: 0–~120° usual
+    # common practice (calc/METHODS.md §16.3): 0–~120° usual
     s = Survey([0, 100, 200], [0, 60, 130], [0, 0, 0])
     assert "unusual_inclination" in [n.code for n in s.notes]
 

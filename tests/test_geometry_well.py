@@ -1,6 +1,6 @@
-"""Hole, string and well: bad-input checks (PRACTICE §3.3) and interval properties.
+"""Hole, string and well: bad-input checks (calc/METHODS.md §16.3) and interval properties.
 
-Expected behaviour of each check comes from PRACTICE §3.3 (common practice rules) or the
+Expected behaviour of each check comes from common practice (calc/METHODS.md §16.3) or the
 invented demo scenario's [[bad_input_example]] list; property tests check exact bookkeeping
 (lengths add up to the bit depth, TVD ≤ MD).
 """
@@ -85,7 +85,7 @@ def _well(bit_depth=3800.0, hole=None, string=None, bit=None, **kw):
     ],
 )  # fmt: skip
 def test_component_bad_input(kwargs, match):
-    # PRACTICE §3.3 "Wall: 0 < ID < OD" and tool-joint consistency
+    # common practice (calc/METHODS.md §16.3): wall 0 < ID < OD and tool-joint consistency
     with pytest.raises(InputError, match=match):
         StringComponent("c", **kwargs)
 
@@ -93,13 +93,14 @@ def test_component_bad_input(kwargs, match):
 def test_component_defaults_are_noted():
     c = StringComponent("dp", 5 * IN, 4.276 * IN, 100.0, tool_joint_od=6.625 * IN)
     assert {n.code for n in c.notes} == {"default_joint_length", "default_tool_joint_length"}
-    # defaults: 30 ft joint (common practice), 1.5 ft tool joint (METHODS §4, from memory)
+    # defaults: 30 ft joint (common practice), 1.5 ft tool joint (from memory,
+    # calc/METHODS.md §13.2)
     assert c.tool_joint_fraction == pytest.approx(1.5 / 30.0)
     assert c.tool_joint_id == c.id
 
 
 def test_joint_length_in_metres_typed_as_feet_is_noted():
-    # PRACTICE §3.3: "a 9.4 'ft' joint suggests metres"
+    # common practice (calc/METHODS.md §16.3): a 9.4 'ft' joint suggests metres
     c = StringComponent("dp", 5 * IN, 4.276 * IN, 100.0, tool_joint_od=6.625 * IN,
                         joint_length=9.4 * FT, tool_joint_length=0.5 * FT)  # fmt: skip
     assert "odd_joint_length" in [n.code for n in c.notes]
@@ -112,7 +113,8 @@ def test_two_fill_components_refused():
 
 
 def test_string_longer_than_bit_depth():
-    # PRACTICE §3.3 "Length: components sum to bit MD, or pipe fills to surface; ERROR if too long"
+    # common practice (calc/METHODS.md §16.3): components sum to bit MD, or pipe fills to surface;
+    # ERROR if too long
     with pytest.raises(InputError, match="string longer than the bit depth"):
         _string().lengths_for(150.0)
     fixed = DrillString([StringComponent("a", 5 * IN, 4 * IN, 100.0)])
@@ -160,7 +162,7 @@ def test_hole_section_bad_input(kwargs, match):
 
 
 def test_open_hole_notes():
-    # PRACTICE §3.3 "Open hole: ≥ bit size; washout factor ≤ ~1.3" → WARN
+    # common practice (calc/METHODS.md §16.3): open hole ≥ bit size; washout factor ≤ ~1.3 → WARN
     under = _hole(diameter=8.4 * IN)
     assert [n.code for n in under.notes] == ["open_hole_below_bit"]
     washed = _hole(washout_factor=1.4)
@@ -176,7 +178,7 @@ def test_bit_below_hole_depth():
 
 
 def test_bit_larger_than_drift_is_a_warning():
-    # PRACTICE §3.3 example: "8.75 in bit will not pass 8.379 in drift"
+    # common practice (calc/METHODS.md §16.3): an 8.75 in bit will not pass an 8.379 in drift
     casing = HoleSection("casing", 0.0, 2500.0, 8.535 * IN, drift=8.379 * IN)
     hole = Hole.from_casing([casing], depth=4000.0, bit_size=8.75 * IN)
     w = _well(hole=hole, bit=Bit(8.75 * IN, nozzles=[12] * 6))
@@ -185,7 +187,8 @@ def test_bit_larger_than_drift_is_a_warning():
 
 
 def test_pipe_body_od_at_hole_id():
-    # PRACTICE §3.3 "every OD and tool joint < hole/casing ID over its interval" → ERROR
+    # common practice (calc/METHODS.md §16.3): every OD and tool joint < hole/casing ID over its
+    # interval → ERROR
     fat = DrillString([
         StringComponent("8-1/2 in sub", 8.5 * IN, 3 * IN, 10.0),
         StringComponent("pipe", 5 * IN, 4 * IN, "fill"),

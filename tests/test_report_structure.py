@@ -2,8 +2,8 @@
 
 External references: PV = θ600 − θ300 and YP = 2θ300 − θ600 (API RP 13B-1, field units, dial
 readings of the demo case D2: 68, 44); the hydrostatic constant 12/231 psi/ft per ppg (exact,
-METHODS §0.1 from lbf = lb·gₙ and gal = 231 in³); TFA = Σ N²/1303.8 in² (PRACTICE §2.4; exact
-π/4096·N² per nozzle).
+calc/METHODS.md §0.4, from lbf = lb·gₙ and gal = 231 in³); TFA = Σ N²/1303.8 in² (common
+practice, calc/METHODS.md §8.1; exact π/4096·N² per nozzle).
 """
 
 from __future__ import annotations
@@ -130,7 +130,7 @@ def test_summary_values_equal_calc_results(wb):
     hyd = _find_row(ws, "hydrostatic pressure at the bit")
     tvd_ft = from_si(res.bit_tvd, "ft")
     rho_ppg = from_si(float(res.density), "ppg")
-    # exact field constant 12/231 psi/ft per ppg (METHODS §0.1), hydrostatic="exact"
+    # exact field constant 12/231 psi/ft per ppg (calc/METHODS.md §0.4), hydrostatic="exact"
     assert hyd[1].value == pytest.approx(12 / 231 * rho_ppg * tvd_ft, rel=1e-9)
 
 

@@ -5,7 +5,7 @@ built by tests/demo_well.py straight from workbooks/demo-case.toml (invented dem
 through the report's case parser.  The demo window ends are fixed by the downhole tools' flow
 window of the case file ([tool_pressure] flow_window = 400-650 gpm, invented data); the sweep is
 the report's 200 rates from 0.3 to 1.8 × the check's 522 gpm.  Unit conversions: gpm, psi, ppg
-by calc.units (exact definitions, METHODS §0.1).
+by calc.units (exact definitions, calc/METHODS.md §0.1).
 """
 
 from __future__ import annotations

@@ -33,7 +33,7 @@ def readings(d, **kw):
 # ---------------------------------------------------------------- API RP 13D field formulas
 @pytest.mark.parametrize("d", [D1, D2])
 def test_api_1995_pipe_and_annulus_against_field_formulas(d):
-    # API RP 13D 3rd ed. (1995), second-hand (METHODS §2):
+    # API RP 13D 3rd ed. (1995), second-hand (calc/METHODS.md §3.2, §3.3):
     #   n_p = 3.32 log(θ600/θ300), K_p = 5.11 θ600 / 1022^n_p  dyn·sⁿ/cm²
     #   n_a = 0.657 log(θ100/θ3),  K_a = 5.11 θ100 / 170.2^n_a dyn·sⁿ/cm²
     # The code uses the exact geometry (1.7023 s⁻¹/rpm, 5.1068 dyn/cm² per degree), so it agrees
@@ -53,7 +53,8 @@ def test_api_1995_pipe_and_annulus_against_field_formulas(d):
     # (d ln K = −ln(1022)·dn), so the printed K_p agrees to about 0.3 %
     assert pipe.k == pytest.approx(k_p, rel=4e-3)
     assert ann.k == pytest.approx(k_a, rel=4e-3)
-    # exact constants: 3.32 → 1/log10(2), 0.657 → 1/log10(100/3) (METHODS §2 [D])
+    # exact constants: 3.32 → 1/log10(2), 0.657 → 1/log10(100/3) (derived,
+    # calc/METHODS.md §3.2, §3.3)
     assert pipe.n == pytest.approx(math.log10(d[600] / d[300]) / math.log10(2), rel=1e-12)
     assert ann.n == pytest.approx(math.log10(d[100] / d[3]) / math.log10(100 / 3), rel=1e-12)
 
@@ -61,8 +62,9 @@ def test_api_1995_pipe_and_annulus_against_field_formulas(d):
 @pytest.mark.parametrize("d", [D1, D2])
 def test_api_2010_hb_against_field_formulas(d):
     # Herschel-Bulkley field estimate (Zamora & Power 2002; API RP 13D 2006+; factor 1.066 and
-    # adoption from memory, unverified — METHODS §2): τy = 1.066(2θ3 − θ6),
-    # n = 3.32 log[(τ600 − τy)/(τ300 − τy)], K = (τ300 − τy)/511ⁿ lbf·sⁿ/100ft², τN = 1.066 θN.
+    # adoption from memory, not yet checked against the source — calc/METHODS.md §3.5):
+    # τy = 1.066(2θ3 − θ6), n = 3.32 log[(τ600 − τy)/(τ300 − τy)], K = (τ300 − τy)/511ⁿ
+    # lbf·sⁿ/100ft², τN = 1.066 θN.
     ty = 1.066 * (2 * d[3] - d[6])
     t600, t300 = 1.066 * d[600], 1.066 * d[300]
     n = 3.32 * math.log10((t600 - ty) / (t300 - ty))
@@ -81,7 +83,7 @@ def test_api_2010_hb_against_field_formulas(d):
 
 def test_bingham_two_speed_is_pv_yp():
     # PV = θ600 − θ300, YP = 2θ300 − θ600 (API RP 13B-1); the fit's τy is the same in
-    # instrument stress (×1.0666 lbf/100ft² per degree, METHODS §1).
+    # instrument stress (×1.0666 lbf/100ft² per degree, calc/METHODS.md §1.2, §1.7).
     f = fit(readings(D1), "bingham_two_speed")
     assert f.model.mu_p == pytest.approx(19e-3, rel=1e-4)
     assert f.model.tau_y == pytest.approx(18 * STANDARD_GEOMETRY.stress_per_degree, rel=1e-4)
@@ -101,7 +103,7 @@ def test_published_example_bourgoyne():
     assert r.yp / FIELD_STRESS == pytest.approx(4.0)
     pl = fit(r, "api13d_1995_pipe").model
     assert round(pl.n, 3) == 0.737
-    k_eq_cp = pl.k / DYN * 100  # eq. cP = 100 × dyn·sⁿ/cm² (METHODS §0)
+    k_eq_cp = pl.k / DYN * 100  # eq. cP = 100 × dyn·sⁿ/cm² (calc/METHODS.md §3.2)
     assert k_eq_cp == pytest.approx(62.0, abs=1.0)
 
 

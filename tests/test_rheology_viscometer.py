@@ -24,19 +24,21 @@ def codes(notes):
 
 # ---------------------------------------------------------------- geometry (API RP 13B-1)
 def test_shear_rate_factor_from_radii():
-    # γ̇ = 2ωRc²/(Rc² − Rb²) with Rc = 1.8415 cm, Rb = 1.7245 cm (radii from memory, unverified
-    # — METHODS §1).  Exact evaluation of the Couette formula:
+    # γ̇ = 2ωRc²/(Rc² − Rb²) with Rc = 1.8415 cm, Rb = 1.7245 cm (radii from memory, not yet
+    # checked against the source — calc/METHODS.md §1.1).  Exact evaluation of the Couette formula:
     rc, rb = 1.8415, 1.7245
     expected = (2 * math.pi / 60) * 2 * rc**2 / (rc**2 - rb**2)
     assert STANDARD_GEOMETRY.shear_rate_per_rpm == pytest.approx(expected, rel=1e-12)
-    assert expected == pytest.approx(1.7023, abs=5e-5)  # METHODS §1 [D]
-    # API RP 13B-1 / field texts print 1.703 s⁻¹ per rpm (from memory, unverified — METHODS §1);
-    # the radii give 1.70230, so the printed value agrees to 0.04 % (not to its last digit).
+    assert expected == pytest.approx(1.7023, abs=5e-5)  # derived, calc/METHODS.md §1.1
+    # API RP 13B-1 / field texts print 1.703 s⁻¹ per rpm (from memory, not yet checked
+    # against the source — calc/METHODS.md §1.1); the radii give 1.70230, so the printed value
+    # agrees to 0.04 % (not to its last digit).
     assert STANDARD_GEOMETRY.shear_rate_per_rpm == pytest.approx(1.703, rel=5e-4)
 
 
 def test_standard_shear_rates_match_trade_values():
-    # 600, 300 and 3 rpm are about 1022, 511 and 5.1 s⁻¹ (Saasen & Ytrehus 2020, via PRACTICE §2.1)
+    # 600, 300 and 3 rpm are about 1022, 511 and 5.1 s⁻¹ (common practice; Saasen & Ytrehus
+    # 2020, seen second-hand — calc/METHODS.md §16.1)
     r = ViscometerReadings(SPEEDS, D1)
     g = dict(zip(r.speeds, r.shear_rate, strict=True))
     assert g[600] == pytest.approx(1022, rel=1e-3)
@@ -45,9 +47,10 @@ def test_standard_shear_rates_match_trade_values():
 
 
 def test_stress_factor_k1_k2():
-    # τ = k1·k2·θ, k1 = 386 dyn·cm/deg, k2 = 0.01323 cm⁻³ (from memory, unverified — METHODS §1):
-    # 5.107 dyn/cm² = 0.5107 Pa per degree; 1.0666 lbf/100ft² (METHODS §1 [D]); API RP 13D (2010)
-    # uses 1.066 (from memory, unverified — METHODS §1).
+    # τ = k1·k2·θ, k1 = 386 dyn·cm/deg, k2 = 0.01323 cm⁻³ (from memory, not yet checked
+    # against the source — calc/METHODS.md §1.2): 5.107 dyn/cm² = 0.5107 Pa per degree; 1.0666
+    # lbf/100ft² (derived, calc/METHODS.md §1.2); API RP 13D (2010) uses 1.066 (from memory, not
+    # yet checked against the source — calc/METHODS.md §1.2).
     assert STANDARD_GEOMETRY.stress_per_degree == pytest.approx(386 * 0.01323 * 0.1, rel=1e-12)
     assert STANDARD_GEOMETRY.stress_per_degree == pytest.approx(0.5107, abs=5e-5)
     assert STANDARD_GEOMETRY.stress_per_degree / FIELD_STRESS == pytest.approx(1.0666, abs=5e-5)
@@ -55,8 +58,8 @@ def test_stress_factor_k1_k2():
 
 
 def test_newtonian_viscosity_equals_theta300():
-    # μ[cP] = θ300 for R1-B1-F1 (METHODS §1 [D]: 5.107/510.7 = 0.01 P), to the 0.003 % the
-    # rounded constants allow.
+    # μ[cP] = θ300 for R1-B1-F1 (derived, calc/METHODS.md §1.2: 5.107/510.7 = 0.01 P), to the
+    # 0.003 % the rounded constants allow.
     g300 = 300 * STANDARD_GEOMETRY.shear_rate_per_rpm
     mu = 20.0 * STANDARD_GEOMETRY.stress_per_degree / g300
     assert mu / CENTIPOISE == pytest.approx(20.0, rel=1e-3)
@@ -89,7 +92,7 @@ def test_pv_yp_lsyp_av_field_definitions():
     assert r.yp == pytest.approx(18 * FIELD_STRESS)
     assert r.av == pytest.approx(28 * 1e-3)
     assert r.lsyp == pytest.approx(6 * FIELD_STRESS)
-    # FIELD_STRESS is NIST SP 811: lbf/100ft² = 0.478802589803 Pa (METHODS §0.2)
+    # FIELD_STRESS is NIST SP 811: lbf/100ft² = 0.478802589803 Pa (calc/METHODS.md §0.1)
     assert FIELD_STRESS == pytest.approx(0.478802589803, rel=1e-11)
 
 
@@ -116,7 +119,8 @@ def test_cement_ramps_average_and_ratio():
     np.testing.assert_allclose(r.dial, (np.array(up) + np.array(down)) / 2)
     np.testing.assert_allclose(r.up_down_ratio, np.array(up) / np.array(down))
     assert r.mode == "cement"
-    # cement PV from 300/100 = 1.5(θ300 − θ100) (from memory — PRACTICE §2.2)
+    # cement PV from 300/100 = 1.5(θ300 − θ100) (cement practice, from memory —
+    # calc/METHODS.md §1.4)
     assert r.pv == pytest.approx(1.5 * (118 - 60) * 1e-3)
     assert "from memory" in r.pv_definition
 
@@ -128,7 +132,7 @@ def test_cement_above_300_note_and_two_speed_note():
     assert "no_low_shear" in codes(two.notes)
 
 
-# ------------------------------------------------------- bad input (issue 2; PRACTICE §3.1)
+# ------------------------------------------------------- bad input (issue 2; calc/METHODS.md §16.1)
 @pytest.mark.parametrize(
     ("speeds", "dial", "match"),
     [
@@ -157,7 +161,8 @@ def test_bad_readings_raise_input_error(speeds, dial, match):
 
 
 def test_doubtful_readings_are_notes():
-    # 3-rpm above 6-rpm within the ±0.5° resolution (PRACTICE §5.1) → note, not error
+    # 3-rpm above 6-rpm within the ±0.5° resolution (common practice, calc/METHODS.md §16.1):
+    # note, not error
     r = ViscometerReadings(SPEEDS, [56, 37, 29, 20, 8, 8.5])
     assert "low_shear_reversed" in codes(r.notes)
     same = ViscometerReadings([600, 300, 300, 3], [56, 37, 37, 7])

@@ -134,8 +134,8 @@ def test_default_method_is_calc_default():
 
 
 def test_power_law_pair_external():
-    # External: API RP 13D (1995) pipe power law n = 3.32·log10(θ600/θ300) (METHODS §2;
-    # 3.32 ≈ 1/log10 2): log2(56/37).
+    # External: API RP 13D (1995) pipe power law n = 3.32·log10(θ600/θ300)
+    # (calc/METHODS.md §3.2; 3.32 ≈ 1/log10 2): log2(56/37).
     assert close(BF_N(COLUMNS, "api13d_1995_pipe"), math.log2(56 / 37))
 
 
@@ -190,9 +190,9 @@ def test_bit_functions_match_calc():
 
 
 def test_bit_external_field_formulas():
-    # External: TFA[in²] = Σ N²/1303.8 (PRACTICE §2.4; 1303.8 = 4096/π) and the field nozzle
-    # loss ΔP = 8.311e-5·ρQ²/(Cd²·TFA²) psi (Bourgoyne et al. 1986, ch. 4; METHODS §5), whose
-    # printed constant is rounded to 4 figures.
+    # External: TFA[in²] = Σ N²/1303.8 (common practice, calc/METHODS.md §8.1; 1303.8 = 4096/π) and
+    # the field nozzle loss ΔP = 8.311e-5·ρQ²/(Cd²·TFA²) psi (Bourgoyne et al. 1986, ch. 4;
+    # calc/METHODS.md §8.3), whose printed constant is rounded to 4 figures.
     tfa_in2 = (3 * 12**2 + 3 * 11**2) / 1303.8
     assert BF_TFA(NOZZLES) == pytest.approx(tfa_in2, rel=1e-4)
     expected = 8.311e-5 * 11.0 * 522**2 / (0.95**2 * tfa_in2**2)
@@ -226,7 +226,7 @@ def test_pressure_functions_match_calc():
 
 def test_pressure_external_field_constant():
     # External: p[psi] = 0.052·ρ[ppg]·TVD[ft] (Bourgoyne et al. 1986, ch. 4; common practice),
-    # and ECD = ρ + ΔP/(0.052·TVD) (METHODS §6).
+    # and ECD = ρ + ΔP/(0.052·TVD) (calc/METHODS.md §9.3).
     assert BF_HYDROSTATIC(10.0, 10000.0, "0.052") == pytest.approx(5200.0, rel=1e-12)
     assert BF_ECD(11.0, 10000.0, 312.0, None, "0.052") == pytest.approx(11.6, rel=1e-12)
     assert BF_EMW(5200.0, 10000.0, "0.052") == pytest.approx(10.0, rel=1e-12)
@@ -272,8 +272,8 @@ def test_cleaning_functions_match_calc():
 
 
 def test_annular_velocity_external():
-    # External: AV[ft/min] = 24.51·Q[gpm]/(Dh² − Dp²)[in²] (PRACTICE §2.3; 24.51 ≈ 77/π,
-    # METHODS §0.1).
+    # External: AV[ft/min] = 24.51·Q[gpm]/(Dh² − Dp²)[in²] (common practice; 24.51 ≈ 77/π,
+    # calc/METHODS.md §0.4).
     assert BF_ANN_VEL(8.5, 5.0, 500) == pytest.approx(24.51 * 500 / (8.5**2 - 5.0**2), rel=1e-4)
     assert "pipe diameter" in BF_ANN_VEL(5.0, 8.5, 500)
 

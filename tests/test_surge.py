@@ -109,7 +109,7 @@ def test_swab_is_negative_mirror_and_emw():
     run = surge_pressure(w, f, 0.5, direction="running")
     pull = surge_pressure(w, f, 0.5, direction="pulling")
     assert pull.pressure_bit == pytest.approx(-run.pressure_bit)
-    # EMW = ρ ± Δp/(g·TVD) at the bit (METHODS §6/§8)
+    # EMW = ρ ± Δp/(g·TVD) at the bit (calc/METHODS.md §11.6)
     assert run.emw_at(L) == pytest.approx(1200.0 + run.pressure_bit / (9.80665 * L))
     # pressure at half depth: half the (uniform) friction
     assert run.pressure_at(L / 2) == pytest.approx(run.pressure_bit / 2, rel=1e-9)
@@ -322,7 +322,7 @@ def test_flat_intervals_of_one_string_and_shapes():
 
 
 def test_trip_allowance_and_emw_field_forms():
-    # field form (METHODS §8, from memory): ΔP_max = 0.052·TVD·(ρ_limit − ρ) psi, ppg, ft
+    # field form (from memory, calc/METHODS.md §11.6): ΔP_max = 0.052·TVD·(ρ_limit − ρ) psi, ppg, ft
     tvd, rho, lim = 10000.0, 11.0, 12.4
     got = trip_allowance(ppg(lim), ppg(rho), to_si(tvd, "ft"), hydrostatic="0.052")
     assert from_si(got, "psi") == pytest.approx(0.052 * tvd * (lim - rho), rel=1e-12)
@@ -334,7 +334,8 @@ def test_trip_allowance_and_emw_field_forms():
 
 
 def test_gel_break_field_form():
-    # field form (Bourgoyne et al. 1986, ch. 4, from memory, unverified — METHODS §8):
+    # field form (Bourgoyne et al. 1986, ch. 4, from memory, not yet checked against the source —
+    # calc/METHODS.md §11.8):
     # Δp = τ_g·L/(300·d) psi (τ_g lbf/100 ft², L ft, d in) in pipe, d2 − d1 in the annulus.
     tau = to_si(12.0, "lbf_per_100ft_sq")
     pipe = gel_break_pressure(tau, to_si(4.276, "in"), to_si(10000.0, "ft"))

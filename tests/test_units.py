@@ -59,7 +59,7 @@ def test_redefinition_refused():
 
 
 def test_hydrostatic_constant_0052():
-    # 0.052 psi/ft per ppg (common practice) is 12/231 exactly (METHODS §0.1, derived).
+    # 0.052 psi/ft per ppg (common practice) is 12/231 exactly (calc/METHODS.md §0.4, derived).
     g = units.G_N * units.si_factor("ppg") * units.si_factor("ft") / units.si_factor("psi")
     assert g == pytest.approx(12 / 231, rel=1e-9)
     assert g == pytest.approx(0.052, rel=2e-3)

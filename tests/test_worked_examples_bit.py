@@ -9,7 +9,7 @@ Source
       optimisation steps are not; see tests/WORKED_EXAMPLES.md).
 
 [LAP] writes P_b = Q²·MW/(10,858·A²) (psi, gpm, ppg, in²); 10,858 = 12,032·0.95² to 4 figures,
-i.e. our ρQ²/(2C_d²A²) with C_d = 0.95 (12,032 being 1/8.311e-5, METHODS §0.1).
+i.e. our ρQ²/(2C_d²A²) with C_d = 0.95 (12,032 being 1/8.311e-5, calc/METHODS.md §0.4).
 """
 
 import pytest
@@ -28,7 +28,8 @@ def test_lap_tfa_three_17s():
 
 def test_lap_constant_10858_is_cd_095():
     """[LAP]: 10,858 in P_b = Q²MW/(10,858A²) is C_d = 0.95 in our Bernoulli form: the exact
-    field constant is 0.95²/8.30984e-5 = 10,860.6 (METHODS §0.1), 0.024 % from the printed one."""
+    field constant is 0.95²/8.30984e-5 = 10,860.6 (calc/METHODS.md §0.4), 0.024 % from the printed
+    one."""
     q, mw, a = 400.0, 12.0, 0.5  # any values: the identity is exact up to the printed constant
     ours = from_si(
         bit_pressure_drop(to_si(q, "gpm"), to_si(mw, "ppg"), to_si(a, "in**2"), 0.95), "psi"

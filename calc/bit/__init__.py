@@ -9,7 +9,7 @@ importable from :mod:`calc.bit`.
 SI throughout (m, m², m³/s, kg/m³, Pa, W, N).  Nozzle sizes are given as the trade designates
 them, in whole 32nds of an inch ("12" = 12/32 in); they are converted to metres here.
 
-The governing relations (METHODS §5; SI forms derived from Bernoulli with a discharge
+The governing relations (calc/METHODS.md §8.1–§8.6; SI forms derived from Bernoulli with a discharge
 coefficient C_d):
 
 * TFA  A = Σ (π/4)·d_i²

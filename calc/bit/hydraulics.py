@@ -42,12 +42,15 @@ __all__ = [
     "nozzle_velocity",
 ]
 
-#: Default nozzle discharge coefficient (METHODS §5; field data suggest up to ≈ 1.03,
+#: Default nozzle discharge coefficient (calc/METHODS.md §8.3; field data suggest up to
+#: ≈ 1.03,
 #: Robinson 2010, AADE-10-DF-HO-26).
 DEFAULT_DISCHARGE_COEFFICIENT = 0.95
-#: Nozzle velocity above which a note warns: ~450 ft/s (PRACTICE §3.4, from memory).
+#: Nozzle velocity above which a note warns: ~450 ft/s (common practice, from memory —
+#: calc/METHODS.md §16.4).
 JET_VELOCITY_WARN = to_si(450.0, "ft/s")
-#: HSI below which a note warns: ~1 hp/in² (PRACTICE §2.3/§3.4, from memory).
+#: HSI below which a note warns: ~1 hp/in² (common practice, from memory —
+#: calc/METHODS.md §16.4).
 HSI_WARN = to_si(1.0, "hp/in**2")
 
 
@@ -77,7 +80,7 @@ def bit_pressure_drop(q, density, tfa, discharge_coefficient=DEFAULT_DISCHARGE_C
     -----
     Bernoulli across the nozzle with the jet velocity v = C_d·√(2ΔP/ρ) and continuity
     v = Q/A.  The field form 8.311e-5·ρQ²/(C_d²A²) (psi, ppg, gpm, in²) is this equation in
-    field units (Bourgoyne et al. 1986, ch. 4; METHODS §0.1, §5).
+    field units (Bourgoyne et al. 1986, ch. 4; calc/METHODS.md §0.4, §8.3).
 
     Examples
     --------
@@ -133,7 +136,8 @@ class Bit:
         Nozzle sizes in 32nds of an inch (see :func:`parse_nozzles`).
     tfa : float, optional
         Total flow area [m²], when nozzles are not listed (or to cross-check them: a given TFA
-        more than 2 % from the nozzles' gives a warning, PRACTICE §3.4).
+        more than 2 % from the nozzles' gives a warning, common practice —
+        calc/METHODS.md §16.4).
     discharge_coefficient : float
         Nozzle discharge coefficient [-], default 0.95.
     ports : int, optional
@@ -212,7 +216,8 @@ def bit_hydraulics(q, density, bit: Bit, standpipe_pressure=None) -> BitHydrauli
     """All bit-hydraulics quantities for ``bit`` at flow rate(s) ``q`` [m³/s], ``density`` [kg/m³].
 
     ``standpipe_pressure`` [Pa], if given, yields the bit's share ΔP_b/p_sp.  Notes warn of a
-    nozzle velocity above ~450 ft/s or an HSI below ~1 hp/in² (PRACTICE §3.4, from memory).
+    nozzle velocity above ~450 ft/s or an HSI below ~1 hp/in² (common practice, from
+    memory — calc/METHODS.md §16.4).
     """
     qv = check_positive("flow rate", q, "m3/s")
     rho = check_positive("density", density, "kg/m3")

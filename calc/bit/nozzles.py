@@ -24,7 +24,7 @@ __all__ = ["NOZZLE_RANGE", "NOZZLE_UNIT", "NozzleSet", "parse_nozzles", "total_f
 
 #: One 32nd of an inch [m] (in = 0.0254 m exactly, NIST SP 811 via calc.units).
 NOZZLE_UNIT = si_factor("in") / 32.0
-#: Usual nozzle sizes, 6/32 to 32/32 in (PRACTICE §2.4, common practice).
+#: Usual nozzle sizes, 6/32 to 32/32 in (common practice, calc/METHODS.md §16.4).
 NOZZLE_RANGE = (6, 32)
 
 
@@ -76,8 +76,8 @@ def parse_nozzles(nozzles, ports: int | None = None) -> NozzleSet:
 
     Notes
     -----
-    Sizes must be whole 32nds (PRACTICE §3.4): ``0.375`` is refused with the hint "12/32?".
-    Sizes outside 6–32 and fewer nozzles than ports give notes.
+    Sizes must be whole 32nds (common practice, calc/METHODS.md §16.4): ``0.375`` is refused with
+    the hint "12/32?". Sizes outside 6–32 and fewer nozzles than ports give notes.
 
     Examples
     --------

@@ -56,7 +56,7 @@ class ParasiticLoss:
         Coefficient [Pa/(m³/s)^m].
     m : float
         Flow exponent [-]; theory for turbulent flow 1.75 (Blasius), field values ~1.4–1.9
-        (from memory, unverified — METHODS §5).
+        (from memory, not yet checked against the source — calc/METHODS.md §8.7).
     method : str
         How ``m`` was obtained.
     rates, losses : tuple of float
@@ -121,7 +121,7 @@ def fit_parasitic_loss(
     """Fit ΔP_d = c·Q^m to two measured (rate, pump pressure) pairs with the same nozzles and mud.
 
     ΔP_d,i = p_i - ΔP_b(Q_i);  m = ln(ΔP_d,2/ΔP_d,1)/ln(Q₂/Q₁);  c = ΔP_d,1/Q₁^m
-    (Bourgoyne et al. 1986, ch. 4; METHODS §5).
+    (Bourgoyne et al. 1986, ch. 4; calc/METHODS.md §8.7).
 
     Parameters
     ----------

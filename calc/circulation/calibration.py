@@ -43,7 +43,8 @@ CALIBRATION_LABEL = (
     "conditions only"
 )
 
-#: Relative SPP gap above which a note is given (PRACTICE §3.4: beyond ±10 %; user-settable).
+#: Relative SPP gap above which a note is given (beyond ±10 %: common practice,
+#: calc/METHODS.md §16.5; user-settable).
 DEFAULT_TOLERANCE = 0.10
 
 
@@ -134,7 +135,8 @@ def calibrate_friction(
     measured_spp : float or array_like
         Measured standpipe pressure(s) [Pa], > 0, broadcast with ``q``.
     tolerance : float
-        Relative gap above which a note is added (default 0.10, PRACTICE §3.4).
+        Relative gap above which a note is added (default 0.10, common practice —
+        calc/METHODS.md §16.5).
     **circulate_options
         Any keyword of :func:`~calc.circulation.circulate` except ``friction_multiplier``.
 

@@ -14,7 +14,7 @@ Two values of *g* are offered (``hydrostatic=``):
 
 ``"exact"`` (default)
     :math:`g = g_n = 9.80665` m/s² (CGPM 1901), i.e. the field constant
-    12/231 = 0.0519481 psi/ft per ppg (METHODS §0.1, derived from lbf = lb·gₙ and
+    12/231 = 0.0519481 psi/ft per ppg (calc/METHODS.md §0.4, derived from lbf = lb·gₙ and
     US gal = 231 in³).
 ``"0.052"``
     the rounded field constant 0.052 psi/ft per ppg (common practice), i.e.
@@ -43,8 +43,8 @@ __all__ = [
 #: The rounded oilfield hydrostatic constant [psi/ft per ppg] (common practice; exact 12/231).
 FIELD_HYDROSTATIC_CONSTANT = 0.052
 
-#: Exact oilfield hydrostatic constant 12/231 psi/ft per ppg (METHODS §0.1: lbf = lb·gₙ,
-#: gal = 231 in³, 12 in/ft).
+#: Exact oilfield hydrostatic constant 12/231 psi/ft per ppg (calc/METHODS.md §0.4:
+#: lbf = lb·gₙ, gal = 231 in³, 12 in/ft).
 _EXACT_FIELD_CONSTANT = 12.0 / 231.0
 
 #: ``hydrostatic=`` option → gravitational acceleration used for columns and EMWs [m/s²].
@@ -150,13 +150,14 @@ def equivalent_circulating_density(
 
     Notes
     -----
-    Field form ECD = ρ + ΣΔp_ann/(0.052·TVD) (ppg, psi, ft; METHODS §6) is this equation with
-    the ``"0.052"`` convention.
+    Field form ECD = ρ + ΣΔp_ann/(0.052·TVD) (ppg, psi, ft; calc/METHODS.md §9.3) is this equation
+    with the ``"0.052"`` convention.
 
     References
     ----------
     API RP 13D, *Rheology and Hydraulics of Oil-well Drilling Fluids*, 6th ed. (2010),
-    section on equivalent circulating density (from memory, unverified — METHODS §6).
+    section on equivalent circulating density (from memory, not yet checked against the source —
+    calc/METHODS.md §9.3).
 
     Examples
     --------

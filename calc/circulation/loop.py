@@ -126,8 +126,8 @@ def circulate(
     References
     ----------
     API RP 13D, *Rheology and Hydraulics of Oil-well Drilling Fluids*, 6th ed. (2010) (method
-    structure; from memory, unverified — METHODS §3, §6).  Bourgoyne et al. (1986) *Applied
-    Drilling Engineering*, SPE Textbook Series 2, ch. 4.
+    structure; from memory, not yet checked against the source — calc/METHODS.md §7, §9.4).
+    Bourgoyne et al. (1986) *Applied Drilling Engineering*, SPE Textbook Series 2, ch. 4.
     """
     inp = _validate(
         fluid, q, method, eccentricity, back_pressure, friction_multiplier, hydrostatic,

@@ -165,7 +165,8 @@ class Margins:
     ----------
     fracture : float
         ECD must stay at least this far below the fracture EMW (0.5 ppg ≈ 59.9 kg/m³ is a
-        customary value, PRACTICE §2.3 citing 30 CFR 250; default 0: only crossing is flagged).
+        customary value, common practice — calc/METHODS.md §16.5; default 0: only crossing is
+        flagged).
     pore : float
         ECD must stay at least this far above the pore EMW (default 0).
     """

@@ -46,7 +46,7 @@ _G300, _G600 = 511.0, 1022.0
 
 def robinson_power_law(tau_y, k, n):
     """(K, n) of the power law through the mud's stresses at 511 and 1022 1/s (Robinson's CCI
-    convention, METHODS §2: n = 3.322 log(θ600/θ300), K = 511^(1-n)·θ300 eq. cP).
+    convention, calc/METHODS.md §10.11: n = 3.322 log(θ600/θ300), K = 511^(1-n)·θ300 eq. cP).
 
     Returns K [Pa·sⁿ] and n [-].
 
@@ -96,7 +96,8 @@ def carrying_capacity_index(
     Notes
     -----
     Empirical; CCI ≥ 1 adequate, ≤ 0.5 poor, for holes below ~35° (trade glossaries, common
-    practice; formula and limits from memory, unverified — METHODS §7.2, §11 item 13).
+    practice; formula and limits from memory, not yet checked against the source —
+    calc/METHODS.md §10.11).
 
     References
     ----------
@@ -134,7 +135,7 @@ def carrying_capacity_index(
 
 
 # Larsen, Pilehvari & Azar (1997) constants, field units (ft/s, cP, in, ppg, ft/h, degree);
-# all from memory, unverified — METHODS §7.3, §11 item 4.  SI forms below.
+# all from memory, not yet checked against the source — calc/METHODS.md §10.12.  SI forms below.
 _LPA_MU_BREAK = 53.0 * _CP
 _LPA_A1, _LPA_B1 = 0.00516 * _FT / _CP, 3.006 * _FT
 _LPA_A2, _LPA_B2 = 0.02554 * _FT / _CP, 3.28 * _FT
@@ -204,8 +205,8 @@ def larsen_critical_velocity(
 
     Notes
     -----
-    All constants from memory, unverified (METHODS §7.3, §11 item 4).  45-60° is the hardest
-    range for cleaning (Amanna & Khorsand Movaghar 2016).
+    All constants from memory, not yet checked against the source (calc/METHODS.md §10.12).  45-60°
+    is the hardest range for cleaning (Amanna & Khorsand Movaghar 2016).
 
     References
     ----------
@@ -266,7 +267,7 @@ def larsen_critical_velocity(
         size_factor=scalar_or_array(np.broadcast_to(c_size, np.shape(v))),
         mud_weight_factor=scalar_or_array(np.broadcast_to(c_mw, np.shape(v))),
         method="larsen_1997: Larsen, Pilehvari & Azar (1997) SPE Drill. & Compl. 12(2):129-135 "
-        "(constants from memory, METHODS §7.3)",
+        "(constants from memory, not yet checked against the source; see calc/METHODS.md §10.12)",
         notes=tuple(notes),
     )
 
@@ -275,7 +276,7 @@ def larsen_critical_velocity(
 class CleaningCriteria:
     """Thresholds for the per-interval verdict (all user-settable).
 
-    Defaults are common practice (PRACTICE §2.3) unless said otherwise:
+    Defaults are common practice (calc/METHODS.md §10.13, §16.6) unless said otherwise:
 
     transport_ratio_adequate / _poor   F_T ≥ 0.7 adequate, < 0.5 poor
     concentration_adequate / _poor     C_a ≤ 4 % adequate, > 5 % poor (by volume)

@@ -15,7 +15,7 @@ Methods (``method=``, resolved through :data:`SLIP_METHODS`):
                    μ_a at γ̇ = 8V_a/d_s.  Needs the annular velocity.
 ``walker_mayes``   Walker & Mayes (1975): particle shear stress from cuttings thickness, shear rate
                    read from the rheogram; transitional regime, disc drag when turbulent.
-``api13d``         API RP 13D slip-velocity formula (as remembered, METHODS §7.1, §11 item 3):
+``api13d``         API RP 13D slip-velocity formula (as remembered, calc/METHODS.md §10.6):
                    μ_a at γ̇ = 12V_s/d_s; iterated.
 ``drag_balance``   Sphere-equivalent drag balance with the Haider & Levenspiel (1989) drag law for
                    non-spherical particles (sphericity ψ); μ_a at γ̇ = V_s/d_s.
@@ -72,24 +72,27 @@ def _quadratic_drag(c1: float, c2: float) -> tuple[float, float]:
 
 
 #: Chien's drag law (a, b) implied by V_s = 0.0075(μ_a/(ρd))[√(36,800·d(Δρ/ρ)(ρd/μ_a)² + 1) - 1]
-#: ft/s (constants from memory, unverified — METHODS §7.1); works out to ≈ (24.0, 1.72).
+#: ft/s (constants from memory, not yet checked against the source — calc/METHODS.md §10.4); works
+#: out to ≈ (24.0, 1.72).
 CHIEN_DRAG = _quadratic_drag(0.0075, 36_800.0)
 #: API RP 13D slip formula V_s = 0.01344(μ/(ρd))[√(1 + 16,465·d(ρ_p/ρ - 1)(ρd/μ)²) - 1], read as
-#: ft/s, cP, ppg, in (constants, units and grouping from memory, unverified — METHODS §7.1 and
-#: §11 item 3); works out to ≈ (30.0, 1.20).
+#: ft/s, cP, ppg, in (constants, units and grouping from memory, not yet checked against the
+#: source — calc/METHODS.md §10.6); works out to ≈ (30.0, 1.20).
 API13D_DRAG = _quadratic_drag(0.01344, 16_465.0)
 
 # Moore (1974) drag coefficients and regime bounds, dimensionless (Bourgoyne et al. 1986, §4.13;
-# from memory, unverified — METHODS §7.1).
+# from memory, not yet checked against the source — calc/METHODS.md §10.3).
 _MOORE_RE_LOW, _MOORE_RE_HIGH = 3.0, 300.0
 _MOORE_F_VISCOUS, _MOORE_F_INTER, _MOORE_F_TURB = 40.0, 22.0, 1.5
 
 # Walker & Mayes (1975) constants, field units (lbf/100 ft², in, ppg, ft/s, 1/s); from memory,
-# unverified — METHODS §7.1, §11 item 6.  τ_p = 7.9√(t·Δρ); V_s = 0.0203·τ_p·√(d·γ̇/√ρ).
+# not yet checked against the source — calc/METHODS.md §10.5.
+# τ_p = 7.9√(t·Δρ); V_s = 0.0203·τ_p·√(d·γ̇/√ρ).
 _WM_TAU = 7.9 * _LBF100 / np.sqrt(_IN * _PPG)
 _WM_VEL = 0.0203 * _FT / _LBF100 / np.sqrt(_IN) * _PPG**0.25
 #: Particle Reynolds number above which the Walker-Mayes transitional form is replaced by the
-#: turbulent (constant-drag) settling law: 100 (from memory, unverified — METHODS §11 item 6).
+#: turbulent (constant-drag) settling law: 100 (from memory, not yet checked against the source —
+#: calc/METHODS.md §10.5).
 WM_TURBULENT_RE = 100.0
 #: Drag coefficient of a thin disc broadside to the flow at high Re, 1.17 (White, *Fluid
 #: Mechanics*, Table 7.3; from memory) — our completion of the Walker-Mayes turbulent branch.
@@ -146,9 +149,9 @@ def annular_apparent_viscosity(annular_velocity, d_hole, d_pipe, tau_y, k, n):
 
     .. math:: \\tau_w = (3/2)^n\\tau_y + K\\left(\\frac{2n+1}{3n}\\frac{12V_a}{D_2-D_1}\\right)^n
 
-    The wall stress is the API RP 13D (2006+) annular laminar form (METHODS §3.5, α = 1),
-    computed by :func:`calc.flow.api_wall_shear`.  For a
-    power-law fluid this is exactly Moore's μ_a = (K/144)[(D2-D1)/V_a]^(1-n)[(2+1/n)/0.0208]ⁿ
+    The wall stress is the API RP 13D (2006+) annular laminar form (calc/METHODS.md §7.1, α = 1;
+    §10.1), computed by :func:`calc.flow.api_wall_shear`.  For a power-law fluid this is exactly
+    Moore's μ_a = (K/144)[(D2-D1)/V_a]^(1-n)[(2+1/n)/0.0208]ⁿ
     (Bourgoyne et al. 1986; field units, K eq. cP, ft/s, in; 0.0208 ≈ 1/48) and for a Bingham
     fluid exactly the Bingham annular μ_a = PV + 5·YP·(D2-D1)/V_a (cP, lbf/100 ft², in, ft/s).
 
@@ -332,7 +335,8 @@ def _held_note(held, method):
     "moore",
     "Moore: drag 40/Re (Re<3), 22/√Re (3-300), 1.5 (>300); μ_a at the annular wall shear rate",
     "Moore, P.L. (1974) Drilling Practices Manual; as in Bourgoyne et al. (1986) Applied Drilling "
-    "Engineering, SPE Textbook Series 2, §4.13 (constants from memory, METHODS §7.1)",
+    "Engineering, SPE Textbook Series 2, §4.13 (constants from memory, not yet checked against the "
+    "source); see calc/METHODS.md §10.3",
 )
 def _moore(c):
     mu = annular_apparent_viscosity(c.v_a, c.d_hole, c.d_pipe, c.tau_y, c.k, c.n)
@@ -351,7 +355,7 @@ def _moore(c):
     "chien",
     "Chien: drag 24/Re + 1.72 (from the printed field form); μ_a at γ̇ = 8V_a/d_s",
     "Chien, S.F. (1971) SPE 3505; Chien, S.F. (1994) SPE Drilling & Completion 9(4) "
-    "(constants from memory, METHODS §7.1, §11 item 6)",
+    "(constants from memory, not yet checked against the source; see calc/METHODS.md §10.4)",
 )
 def _chien(c):
     a, b = CHIEN_DRAG
@@ -372,8 +376,8 @@ def _chien(c):
     "walker_mayes",
     "Walker-Mayes: particle shear stress from thickness, shear rate from the rheogram",
     "Walker, R.E. & Mayes, T.M. (1975) Design of muds for carrying capacity, JPT 27(7), SPE 4975 "
-    "(constants from memory, METHODS §7.1, §11 item 6); turbulent branch: disc drag 1.17 "
-    "(White, Fluid Mechanics, Table 7.3)",
+    "(constants from memory, not yet checked against the source); turbulent branch: disc drag "
+    "1.17 (White, Fluid Mechanics, Table 7.3, from memory); see calc/METHODS.md §10.5",
 )
 def _walker_mayes(c):
     tau_p = _WM_TAU * np.sqrt(c.t * c.drho)
@@ -408,7 +412,8 @@ def _walker_mayes(c):
     "api13d",
     "API RP 13D slip formula: drag ≈ 30/Re + 1.2 (from the printed form); μ_a at 12V_s/d_s",
     "API RP 13D, Rheology and Hydraulics of Oil-well Drilling Fluids, 3rd ed. (1995) "
-    "(formula seen second-hand; constants, units, grouping from memory — METHODS §7.1, §11 item 3)",
+    "(formula seen second-hand; constants, units, grouping from memory, not yet checked against "
+    "the source); see calc/METHODS.md §10.6",
 )
 def _api13d(c):
     a, b = API13D_DRAG
@@ -528,9 +533,9 @@ def slip_velocity(
         Flow-behaviour index [-], default 1.
     method : str
         One of :data:`SLIP_METHODS` (``"moore"``, ``"chien"``, ``"walker_mayes"``, ``"api13d"``,
-        ``"drag_balance"``).
+        ``"drag_balance"``, ``"fang_2008"``).
     sphericity : array_like, optional
-        Wadell sphericity ψ in (0, 1] (``drag_balance`` only).
+        Wadell sphericity ψ in (0, 1] (used by ``drag_balance`` and ``fang_2008``).
     thickness : array_like, optional
         Cuttings thickness [m] (``walker_mayes``; defaults to ``size``).
     annular_velocity : array_like, optional

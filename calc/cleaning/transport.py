@@ -5,9 +5,9 @@
     q_c = \\frac{\\pi}{4} d_b^2 \\cdot ROP,\\quad
     C_a = \\frac{q_c}{q_c + F_T Q},\\quad \\rho_{eff} = \\rho(1 - C_a) + \\rho_s C_a
 
-(METHODS §6, §7.2; the in-situ concentration from the transport ratio is from memory,
-unverified.)  The feed concentration C_f = q_c/(Q + q_c) is what the annulus would hold if the
-cuttings rose at the mud's mean velocity.
+(calc/METHODS.md §10.9, §10.10; the in-situ concentration from the transport ratio is from
+memory, not yet checked against the source.)  The feed concentration C_f = q_c/(Q + q_c) is what the
+annulus would hold if the cuttings rose at the mud's mean velocity.
 """
 
 from __future__ import annotations
@@ -48,7 +48,7 @@ class Cuttings:
     sphericity  Wadell sphericity ψ in (0, 1] (0.8 a conservative cuttings value, Guo & Liu 2011)
     thickness   thickness of platy cuttings [m] (Walker-Mayes); None → ``size``
     notes       doubtful-but-possible inputs (size outside 0.05-1 in, SG outside 2.0-2.8:
-                PRACTICE §3 input checks, common practice)
+                common practice, calc/METHODS.md §16.6)
     """
 
     size: float
@@ -99,7 +99,8 @@ def annular_velocity(q, d_hole, d_pipe):
 
     Notes
     -----
-    Field form AV[ft/min] = 24.51·Q[gpm]/(D2² - D1²)[in²] (METHODS §3.1; 24.51 = 77/π exactly);
+    Field form AV[ft/min] = 24.51·Q[gpm]/(D2² - D1²)[in²] (calc/METHODS.md §10.9; 24.51 = 77/π
+    exactly);
     computed by :func:`calc.flow.mean_velocity`.
 
     >>> round(annular_velocity(0.01, 0.2, 0.1), 6)
@@ -120,7 +121,8 @@ def cuttings_volume_rate(rop, bit_diameter):
 
     Notes
     -----
-    Field form q_c[gpm] = d_b²[in]·ROP[ft/h]/1470.6 (METHODS §6; 1470.6 = 4620/π exactly).
+    Field form q_c[gpm] = d_b²[in]·ROP[ft/h]/1470.6 (calc/METHODS.md §10.10; 1470.6 = 4620/π
+    exactly).
     Solid rock volume, no porosity correction.
 
     >>> round(cuttings_volume_rate(0.01, 0.2), 8)
@@ -224,7 +226,7 @@ def annular_transport(
     Notes
     -----
     Transport ratio ≥ 0.5 is the common-practice minimum for vertical holes; cuttings
-    concentration up to ~4-5 % by volume (common practice, PRACTICE §2.3).
+    concentration up to ~4-5 % by volume (common practice, calc/METHODS.md §16.6).
 
     References
     ----------

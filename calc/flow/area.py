@@ -34,8 +34,8 @@ def cross_section_area(d_outer, d_inner=0.0):
 def mean_velocity(q, d_outer, d_inner=0.0):
     """Mean velocity V = Q/A [m/s] in a pipe (``d_inner`` = 0) or concentric annulus.
 
-    Field form for the annulus AV[ft/min] = 24.51·Q[gpm]/(D2² − D1²)[in²] (METHODS §3.1;
-    24.51 = 77/π exactly); the tests prove it equals this SI form.
+    Field form for the annulus AV[ft/min] = 24.51·Q[gpm]/(D2² − D1²)[in²]
+    (calc/METHODS.md §6.1; 24.51 = 77/π exactly); the tests prove it equals this SI form.
 
     Parameters
     ----------

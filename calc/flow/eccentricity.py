@@ -7,9 +7,9 @@ ratio k = D1/D2 and the flow index n, one form for laminar and one for turbulent
 References
 ----------
 Haciislamoglu, M. & Langlinais, J. (1990). Non-Newtonian flow in eccentric annuli.
-J. Energy Resour. Technol. 112(3), 163-169.  Coefficients from METHODS §4, from memory,
-unverified (METHODS §11 item 5); the turbulent form is often credited to Haciislamoglu &
-Cartalos (1994), SPE 28304.
+J. Energy Resour. Technol. 112(3), 163-169.  Coefficients from memory, not yet
+checked against the source (calc/METHODS.md §6.17); the turbulent form is often credited to
+Haciislamoglu & Cartalos (1994), SPE 28304.
 """
 
 from __future__ import annotations
@@ -23,7 +23,8 @@ __all__ = [
     "eccentricity_factor_turbulent",
 ]
 
-#: Validity ranges of the correlation (METHODS §4, from memory, unverified).
+#: Validity ranges of the correlation (from memory, not yet checked against the
+#: source — calc/METHODS.md §6.17).
 VALIDITY = {"eccentricity": (0.0, 0.95), "diameter_ratio": (0.3, 0.9), "n": (0.4, 1.0)}
 
 

@@ -39,7 +39,8 @@ __all__ = [
 
 LN10 = np.log(10.0)
 
-#: Hanks (1963) constant in x_c/(1 - x_c)³ = He/16,800 (METHODS §3.7, from memory, unverified).
+#: Hanks (1963) constant in x_c/(1 - x_c)³ = He/16,800 (from memory, not yet checked against
+#: the source — calc/METHODS.md §6.14).
 HANKS_CONSTANT = 16_800.0
 
 
@@ -90,7 +91,8 @@ def colebrook_fanning(reynolds, relative_roughness=0.0):
 def api_turbulent_coefficients(n):
     """``a, b`` of the API RP 13D turbulent correlation f = a/Re^b (fit to Dodge-Metzner).
 
-    a = (log₁₀n + 3.93)/50, b = (1.75 - log₁₀n)/7 (API RP 13D 1995, METHODS §3.2; the same
+    a = (log₁₀n + 3.93)/50, b = (1.75 - log₁₀n)/7 (API RP 13D 1995, seen second-hand —
+    calc/METHODS.md §6.11; the same
     pair is used by the 2006/2010 yield-power-law method).
 
     >>> a, b = api_turbulent_coefficients(1.0)
@@ -102,7 +104,7 @@ def api_turbulent_coefficients(n):
 
 
 def api_turbulent_fanning(reynolds, n):
-    """Explicit API RP 13D turbulent Fanning factor ``f = a/Re^b`` [-] (METHODS §3.2).
+    """Explicit API RP 13D turbulent Fanning factor ``f = a/Re^b`` [-] (calc/METHODS.md §6.11).
 
     Parameters
     ----------
@@ -164,8 +166,9 @@ def dodge_metzner_fanning(reynolds, n):
 def n_dependent_bounds(n):
     """Laminar and turbulent Reynolds bounds ``3470 - 1370n`` and ``4270 - 1370n`` [-].
 
-    From Guo & Liu (2011) eq. 2.35 (METHODS §3.2); used by API RP 13D (2006/2010) for the
-    yield-power-law method [from memory, unverified — METHODS §11 item 2].
+    From Guo & Liu (2011) eq. 2.35 (calc/METHODS.md §6.12); used by API RP 13D (2006/2010) for
+    the yield-power-law method [from memory, not yet checked against the source —
+    calc/METHODS.md §6.12].
 
     >>> lam, turb = n_dependent_bounds(1.0)
     >>> float(lam), float(turb)
@@ -176,7 +179,7 @@ def n_dependent_bounds(n):
 
 
 def api_hb_blend_fanning(reynolds, n):
-    """API RP 13D (2006/2010) blended Fanning factor over all regimes (METHODS §3.2).
+    """API RP 13D (2006/2010) blended Fanning factor over all regimes (calc/METHODS.md §6.13).
 
     .. math::
         f_{lam} = 16/Re_G,\\; f_{trans} = 16 Re_G/(3470 - 1370n)^2,\\; f_{turb} = a/Re_G^b
@@ -184,7 +187,8 @@ def api_hb_blend_fanning(reynolds, n):
         f_{int} = (f_{trans}^{-8} + f_{turb}^{-8})^{-1/8},\\;
         f = (f_{int}^{12} + f_{lam}^{12})^{1/12}
 
-    Structure and exponents as in METHODS §3.2 [M], pending verification against the standard.
+    Structure and exponents from memory, pending verification against the standard
+    (calc/METHODS.md §6.13).
 
     Parameters
     ----------
@@ -204,7 +208,7 @@ def api_hb_blend_fanning(reynolds, n):
 
 
 def hedstrom_number(density, tau_y, mu_p, d):
-    """Hedström (1952) number He = ρτ_yD²/μ_p² [-] (METHODS §3.7).
+    """Hedström (1952) number He = ρτ_yD²/μ_p² [-] (calc/METHODS.md §6.14).
 
     Parameters: density [kg/m³], tau_y [Pa], mu_p [Pa·s], d characteristic diameter [m].
     """
@@ -220,7 +224,8 @@ def hanks_critical_reynolds(hedstrom):
                 = \\frac{2100(1 - \\tfrac43 x_c + \\tfrac13 x_c^4)}{(1 - x_c)^3}
 
     x_c = τ_y/τ_w at the transition; the second form (ours, algebra) has no 0/0 at He = 0,
-    where it gives 2100.  Constants from memory, unverified (METHODS §3.7).
+    where it gives 2100.  Constants from memory, not yet checked against the source
+    (calc/METHODS.md §6.14).
 
     Parameters
     ----------
@@ -268,8 +273,8 @@ def darby_bingham_fanning(reynolds_b, hedstrom, f_laminar):
 
     Notes
     -----
-    Coefficients from METHODS §3.7 [M], Darby et al. (1992) seen second-hand.  The turbulent
-    branch does not reduce to the Newtonian smooth-pipe law at He → 0 (it was fitted to
+    Coefficients from memory, Darby et al. (1992) seen second-hand (calc/METHODS.md §6.15).  The
+    turbulent branch does not reduce to the Newtonian smooth-pipe law at He → 0 (it was fitted to
     slurries with large He); see the tests for the measured gap.
     """
     re = np.asarray(reynolds_b, dtype=float)

@@ -203,7 +203,7 @@ def lamb_diameter(d_hole, d_pipe):
     """Lamb's equivalent diameter D_L = √(D2² + D1² - (D2² - D1²)/ln(D2/D1)) [m].
 
     Exact for Newtonian laminar flow in a concentric annulus: V = G·D_L²/(32μ)
-    (Lamb 1932; Bird, Stewart & Lightfoot 2002, eq. 2.4-17 rearranged; METHODS §3.1).
+    (Lamb 1932; Bird, Stewart & Lightfoot 2002, eq. 2.4-17 rearranged; calc/METHODS.md §6.3).
     """
     d2 = np.asarray(d_hole, dtype=float)
     d1 = np.asarray(d_pipe, dtype=float)

@@ -3,9 +3,10 @@
 References
 ----------
 API RP 13D, Rheology and Hydraulics of Oil-well Drilling Fluids. American Petroleum
-Institute: 3rd ed. (June 1995); 5th ed. (2006); 6th ed. (May 2010).  Equations as compiled in
-METHODS §3.1-3.5: the 1995 recipe seen second-hand; the 2006/2010 yield-power-law structure
-from memory — "as in METHODS, pending verification against the standard".
+Institute: 3rd ed. (June 1995); 5th ed. (2006); 6th ed. (May 2010).  The 1995 recipe: equations as
+published in the 3rd ed. (1995), taken from a secondary account (calc/METHODS.md §7.2, §6.11);
+the 2006/2010 yield-power-law structure from memory, pending verification against the standard
+(calc/METHODS.md §7.1, §6.12, §6.13).
 """
 
 from __future__ import annotations
@@ -31,14 +32,14 @@ from calc.flow.result import (
 
 __all__ = ["api13d_1995_state", "api13d_2010_state", "api_geometry_factor", "api_wall_shear"]
 
-#: Laminar/turbulent boundary of the 1995 method (API RP 13D 1995; METHODS §3.2).
+#: Laminar/turbulent boundary of the 1995 method (API RP 13D 1995; calc/METHODS.md §7.2).
 API95_RE_LIMIT = 2100.0
 
 
 def api_geometry_factor(n, alpha):
     """API RP 13D (2006/2010) geometry factor G = [((3-α)n + 1)/((4-α)n)]·(1 + α/2) [-].
 
-    α = 0 pipe, 1 annulus (METHODS §3.1, from memory; reduces to (3n+1)/(4n) for a pipe and
+    α = 0 pipe, 1 annulus (calc/METHODS.md §7.1, from memory; reduces to (3n+1)/(4n) for a pipe and
     to the slot factor (2n+1)/(3n)·3/2 for the annulus [D]).
 
     >>> float(api_geometry_factor(1.0, 0.0)), float(api_geometry_factor(1.0, 1.0))
@@ -73,8 +74,8 @@ def api_wall_shear(velocity, d_h, tau_y, k, n, alpha):
     Notes
     -----
     The geometry factor G is :func:`api_geometry_factor`; for the annulus γ̇_w is
-    (2n+1)/(3n)·12V/(D2 - D1) and τ_w = (3/2)ⁿτ_y + Kγ̇_wⁿ (METHODS §3.5, from memory, pending
-    verification against the standard).
+    (2n+1)/(3n)·12V/(D2 - D1) and τ_w = (3/2)ⁿτ_y + Kγ̇_wⁿ (calc/METHODS.md §7.1, from memory,
+    pending verification against the standard).
 
     References
     ----------
@@ -102,7 +103,7 @@ def _api10_re(case: FlowCase, v):
 
 
 def api13d_2010_state(case: FlowCase) -> MethodState:
-    """API RP 13D (2006/2010) Herschel-Bulkley state (METHODS §3.5).
+    """API RP 13D (2006/2010) Herschel-Bulkley state (calc/METHODS.md §7.1).
 
     γ̇_w = G·8V/D_h; τ_w = [(4-α)/(3-α)]ⁿτ_y + Kγ̇_wⁿ; Re_G = 8ρV²/τ_w; f from the blend of
     :func:`calc.flow.friction.api_hb_blend_fanning`; laminar below 3470 - 1370n, turbulent
@@ -142,12 +143,12 @@ def _check_api10(case: FlowCase) -> None:
 FRICTION_LAWS.register(
     "api13d_2010_hb",
     "API RP 13D (2006/2010) Herschel-Bulkley: G factor, tau_w, Re_G, blended friction factor",
-    "API RP 13D 5th ed. (2006) / 6th ed. (2010); as in METHODS §3.2, §3.5, pending "
-    "verification against the standard",
+    "API RP 13D 5th ed. (2006) / 6th ed. (2010); structure from memory, pending verification "
+    "against the standard (calc/METHODS.md §7.1)",
 )(
     FlowMethod(
-        label="API RP 13D (2006/2010 editions) Herschel-Bulkley — as in METHODS, pending "
-        "verification against the standard",
+        label="API RP 13D (2006/2010 editions) Herschel-Bulkley — structure from memory, pending "
+        "verification against the standard (calc/METHODS.md §7.1)",
         evaluate=api13d_2010_state,
         reynolds=_api10_re,
         laminar_limit=lambda case: n_dependent_bounds(case.n)[0],
@@ -172,7 +173,9 @@ def _api95_re(case: FlowCase, v):
 
 
 def api13d_1995_state(case: FlowCase) -> MethodState:
-    """API RP 13D (1995) power-law state, exactly as published (METHODS §3.4).
+    """API RP 13D (1995) power-law state (calc/METHODS.md §7.2).
+
+    Equations as published in API RP 13D (1995), taken from a secondary account.
 
     μ_e from K, n (pipe: 600/300 pair; annulus: 100/3 pair — the caller passes the pair);
     Re = ρVD_h/μ_e; Re < 2100: f = 16/Re (pipe), 24/Re (annulus); else f = a/Re^b.
@@ -216,7 +219,8 @@ def _check_api95(case: FlowCase) -> None:
 FRICTION_LAWS.register(
     "api13d_1995_power_law",
     "API RP 13D (1995) power law: mu_e, Re, 16/Re or 24/Re below 2100, a/Re^b above",
-    "API RP 13D 3rd ed. (1995), as compiled in METHODS §3.2, §3.4 (second-hand)",
+    "equations as published in API RP 13D, 3rd ed. (1995), taken from a secondary account; "
+    "see calc/METHODS.md §7.2",
 )(
     FlowMethod(
         label="API RP 13D (1995, 3rd ed.) power law",

@@ -171,7 +171,8 @@ FRICTION_LAWS.register(
     "bingham",
     "Bingham plastic: Buckingham-Reiner (pipe) / plane slot (annulus) laminar, Hanks "
     "transition, Darby-Mun-Boger turbulent and blend",
-    "Buckingham (1921); Hanks (1963); Darby, Mun & Boger (1992); METHODS §3.7 (from memory)",
+    "Buckingham (1921); Hanks (1963); Darby, Mun & Boger (1992) (coefficients from memory, not "
+    "yet checked against the source); see calc/METHODS.md §6.14, §6.15, §7.4",
 )(
     FlowMethod(
         label="Bingham plastic: Buckingham-Reiner / slot laminar, Hanks (1963) transition, "
@@ -208,7 +209,8 @@ def power_law_state(case: FlowCase) -> MethodState:
     Re_MR = 8ρV²/τ_w,lam with τ_w,lam = K[(3n+1)/(4n)·8V/D]ⁿ (pipe) or K[(2n+1)/(3n)·12V/D_h]ⁿ
     (annulus, slot basis); laminar f = 16/Re_MR (exact pipe, slot annulus); bounds
     Re1 = 3470 - 1370n, Re2 = 4270 - 1370n; between them f = 16/Re1 + (Re - Re1)/(Re2 - Re1)·
-    [f_DM(Re2) - 16/Re1] (METHODS §3.2, with Dodge-Metzner at Re2 in place of a/Re2^b).
+    [f_DM(Re2) - 16/Re1] (calc/METHODS.md §7.5; bounds §6.12, with Dodge-Metzner at Re2 in
+    place of a/Re2^b).
     """
     v = case.velocity
     n = case.n

@@ -18,8 +18,8 @@ from calc.values import Value
 __all__ = ["HOLE_KINDS", "WASHOUT_WARN", "Hole", "HoleSection"]
 
 HOLE_KINDS = ("casing", "liner", "open_hole")
-#: Effective-to-bit diameter ratio above which a note is given (~1.3, PRACTICE §3.3, common
-#: practice).
+#: Effective-to-bit diameter ratio above which a note is given (~1.3, common practice —
+#: calc/METHODS.md §16.3).
 WASHOUT_WARN = 1.3
 
 

@@ -22,8 +22,8 @@ FILL = "fill"
 #: Default joint length when tool joints are given without one: 30 ft, API range 2 (common
 #: practice).
 DEFAULT_JOINT_LENGTH = to_si(30.0, "ft")
-#: Default tool-joint (upset) length per joint: 1.5 ft (METHODS §4 "~1.5–3 ft per 30 ft
-#: joint"; from memory, unverified — METHODS §4).
+#: Default tool-joint (upset) length per joint: 1.5 ft (a tool joint is about 1.5–3 ft
+#: per 30 ft joint; from memory, not yet checked against the source — calc/METHODS.md §13.2).
 DEFAULT_TOOL_JOINT_LENGTH = to_si(1.5, "ft")
 #: Tolerance when the component lengths must add up to the bit depth [m].
 LENGTH_TOLERANCE = 0.01
@@ -47,7 +47,7 @@ class StringComponent:
         Length of one joint, tool joint included [m]; default 30 ft (range 2, common practice).
     tool_joint_length : float, optional
         Length of the tool joint (box + pin upset) per joint [m]; default 1.5 ft (from memory,
-        unverified — METHODS §4).
+        not yet checked against the source — calc/METHODS.md §13.2).
     float_valve : bool
         The component carries a float (non-return) valve.
 
@@ -55,7 +55,7 @@ class StringComponent:
     ----------
     tool_joint_fraction : float
         ``tool_joint_length / joint_length`` (0 without tool joints): the share of the
-        component's length given to tool-joint sub-intervals (METHODS §4, from memory).
+        component's length given to tool-joint sub-intervals (calc/METHODS.md §13.2).
     notes : tuple of Note
         Interpretations made (defaulted joint or tool-joint length).
     """

@@ -19,9 +19,10 @@ from calc.values import Value
 __all__ = ["Survey"]
 
 #: Dogleg severity above which a survey gets a warning note: 10°/100 ft (common practice,
-#: PRACTICE §3.3), stored in rad/m.
+#: calc/METHODS.md §16.3), stored in rad/m.
 DOGLEG_WARN = to_si(10.0, "deg_per_100ft")
-#: Inclination above which a note says the value is unusual (PRACTICE §3.3: 0–~120°).
+#: Inclination above which a note says the value is unusual (0–~120° usual: common
+#: practice, calc/METHODS.md §16.3).
 INCLINATION_WARN_DEG = 120.0
 #: Below this dogleg angle [rad] the arc formulas use their straight-line limits.
 _SMALL = 1e-12

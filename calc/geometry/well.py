@@ -5,10 +5,11 @@ SI throughout (m; angles in degrees).  :meth:`Well.flow_intervals` returns a fro
 struct-of-arrays, one row per interval: the string from surface down to the bit, then the
 annulus from the bit up to surface.
 
-Tool joints (METHODS §4, from memory, unverified): each stretch of a component with tool joints
-is given as two sub-intervals over the same MD span, a *body* share (1 - f) and a *tool-joint*
-share f of its length, f = tool-joint length / joint length.  Summing ``length`` (or
-``delta_tvd``) over the rows of one path therefore covers each metre of the well exactly once.
+Tool joints (calc/METHODS.md §13.2; default tool-joint length from memory, not yet checked): each
+stretch of a component with tool joints is given as two sub-intervals over the same MD span, a
+*body* share (1 - f) and a *tool-joint* share f of its length, f = tool-joint length / joint
+length.  Summing ``length`` (or ``delta_tvd``) over the rows of one path therefore covers each
+metre of the well exactly once.
 """
 
 from __future__ import annotations

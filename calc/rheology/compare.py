@@ -23,7 +23,8 @@ K           0                            15 %
 Flow curves: the two fitted curves are evaluated on 200 log-spaced shear rates over the
 measured range, and their stress difference is expressed in dial degrees of check ``a``'s
 instrument.  They "differ" when the largest difference exceeds the combined resolution of two
-readings, 2 × ±0.5° (PRACTICE §5.1: low-shear tolerance ~±½ dial unit).  The measured
+readings, 2 × ±0.5° (common practice: a reading is good to about ±½ dial unit;
+calc/METHODS.md §16.1).  The measured
 differences at the speeds both checks share are reported too.
 """
 
@@ -51,7 +52,8 @@ __all__ = [
     "compare_series",
 ]
 
-#: Temperature difference [K] above which two checks are not like for like (10 °F; PRACTICE §3.1).
+#: Temperature difference [K] above which two checks are not like for like (10 °F;
+#: common practice, calc/METHODS.md §16.1).
 TEMPERATURE_TOLERANCE = 10.0 * 5.0 / 9.0
 
 

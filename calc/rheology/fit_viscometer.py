@@ -12,13 +12,14 @@ Two-speed (any two speeds N₁ > N₂; 600/300 rpm when present):
   field YP, which reads a degree as 1 lbf/100 ft²).
 * Power law: n = ln(τ₁/τ₂)/ln(γ̇₁/γ̇₂), K = τ₁/γ̇₁ⁿ.  API RP 13D (3rd ed., 1995) uses the 600/300
   pair for pipe flow (n_p = 3.32 log(θ600/θ300), K_p = 5.11θ600/1022^n_p dyn·sⁿ/cm²) and the
-  100/3 pair for the annulus (n_a = 0.657 log(θ100/θ3), K_a = 5.11θ100/170.2^n_a) — API95
-  second-hand, METHODS §2.
+  100/3 pair for the annulus (n_a = 0.657 log(θ100/θ3), K_a = 5.11θ100/170.2^n_a) — the 1995
+  equations as published, taken from a secondary account (calc/METHODS.md §3.2, §3.3).
 
 Herschel–Bulkley field estimate (Zamora & Power 2002, adopted by API RP 13D from the 5th ed.
 (2006); registered as ``api13d_2010_hb`` for the 6th ed. (2010); factor and adoption from memory,
-unverified — METHODS §2): τy = 2τ3 − τ6, n = log₂[(τ600 − τy)/(τ300 − τy)],
-K = (τ300 − τy)/γ̇300ⁿ (field form τy = 1.066(2θ3 − θ6) lbf/100 ft²).  Guo & Liu (2011) warn
+not yet checked against the source — calc/METHODS.md §3.5): τy = 2τ3 − τ6, n = log₂[(τ600 −
+τy)/(τ300 − τy)], K = (τ300 − τy)/γ̇300ⁿ (field form τy = 1.066(2θ3 − θ6) lbf/100 ft²).  Guo & Liu
+(2011) warn
 that 2θ3 − θ6 can overstate τy in polymer-rich water-based muds; compare ``hb_least_squares``.
 
 Least squares over all readings (``*_least_squares``): unweighted residuals in stress (see
@@ -49,10 +50,14 @@ from calc.values import Value
 __all__ = ["fit_hb_stress", "n_notes", "profile_fit"]
 
 _N_GRID = np.linspace(0.02, 2.5, 249)
-_API95 = "API RP 13D, 3rd ed. (1995), power law (second-hand, METHODS §2)"
+_API95 = (
+    "API RP 13D, 3rd ed. (1995), power law: equations as published, taken from a secondary "
+    "account (calc/METHODS.md §3.1–§3.3)"
+)
 _API10 = (
     "API RP 13D, 6th ed. (2010), Herschel-Bulkley field estimate after Zamora & Power (2002); "
-    "from memory, unverified (METHODS §2)"
+    "factor and adoption from memory, not yet checked against the source; see calc/METHODS.md "
+    "§3.5"
 )
 _LSQ = "least squares, " + STRESS_SPACE
 
@@ -64,7 +69,7 @@ def _readings(data) -> ViscometerReadings:
 
 
 def n_notes(n: float, method: str) -> list[Note]:
-    """A warning when n is outside the usual 0.2–1 range (PRACTICE §2.1, common practice)."""
+    """Warning when n is outside the usual 0.2–1 range (common practice, calc/METHODS.md §16.1)."""
     if 0.2 <= n <= 1.0:
         return []
     return [

@@ -8,9 +8,10 @@ engineer checks by hand.
 Quality spaces
 --------------
 * Viscometer readings: residuals in shear stress [Pa], unweighted (:data:`STRESS_SPACE`).  The
-  dial's reading error is an absolute ±½ degree at every speed (PRACTICE §5.1), so equal
-  weights in stress are the least-squares choice for equal, independent reading errors;
-  relative weights would hand the most weight to the least precise readings (3 and 6 rpm).
+  dial's reading error is an absolute ±½ degree at every speed (common practice,
+  calc/METHODS.md §16.1), so equal weights in stress are the least-squares choice for equal,
+  independent reading errors; relative weights would hand the most weight to the least precise
+  readings (3 and 6 rpm).
 * Rheometer tables: residuals in log₁₀ stress, unweighted (:data:`LOG_SPACE`).  Tables span
   decades and rheometer error is roughly a fixed fraction of the torque; log residuals weight
   every decade alike.  Residuals in log τ equal residuals in log η (log τ − log η = log γ̇).

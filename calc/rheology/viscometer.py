@@ -8,7 +8,8 @@ F1 torsion spring ("R1-B1-F1").  For a Newtonian fluid the shear rate at the bob
 and the shear stress at the bob is τ = k₁k₂θ·f, with θ the dial reading [degree], k₁ the spring
 constant [N·m/degree], k₂ the bob constant [m⁻³] and f the spring factor (1 for F1).
 
-Constants (METHODS §1; all from memory, unverified against the printed standard):
+Constants (calc/METHODS.md §1.1, §1.2; all from memory, not yet checked against the printed
+standard):
 R_c = 1.8415 cm (rotor inner radius), R_b = 1.7245 cm (bob radius), bob height 3.8 cm,
 k₁ = 386 dyn·cm/degree, k₂ = 0.01323 cm⁻³.  Derived here: γ̇/N = 1.7023 s⁻¹ per rpm (texts
 print 1.703), τ/θ = 0.51068 Pa per degree (texts print 0.511 Pa, 1.065–1.067 lbf/100 ft²).
@@ -176,15 +177,16 @@ class ViscometerGeometry:
         return self.stress_per_degree * self.spring_factor
 
 
-#: R1-B1-F1: radii 1.8415/1.7245 cm, k₁ = 386 dyn·cm/degree, k₂ = 0.01323 cm⁻³ (METHODS §1,
-#: from memory, unverified against API RP 13B-1 / ISO 10414-1).
+#: R1-B1-F1: radii 1.8415/1.7245 cm, k₁ = 386 dyn·cm/degree, k₂ = 0.01323 cm⁻³ (from memory,
+#: not yet checked against API RP 13B-1 / ISO 10414-1 — calc/METHODS.md §1.1, §1.2).
 STANDARD_GEOMETRY = ViscometerGeometry.from_dimensions(
     rotor_radius=0.018415,
     bob_radius=0.017245,
     spring_constant=386e-7,  # 386 dyn·cm = 386e-7 N·m
     bob_constant=0.01323e6,  # 0.01323 cm⁻³ = 13 230 m⁻³
     name="R1-B1-F1",
-    source="API RP 13B-1 standard rotor/bob/spring; dimensions from memory (METHODS §1)",
+    source="API RP 13B-1 (ISO 10414-1) standard rotor/bob/spring; dimensions from memory, not "
+    "yet checked against the standard (calc/METHODS.md §1.1, §1.2)",
 )
 
 _MODES = ("mud", "cement")
@@ -234,7 +236,7 @@ class ViscometerReadings:
     temperature : float, optional
         Cup temperature [K].
     resolution : float
-        Reading resolution [degree] (±0.5° — PRACTICE §5.1, common practice).
+        Reading resolution [degree] (±0.5° — common practice, calc/METHODS.md §16.1).
 
     Raises
     ------
@@ -617,7 +619,7 @@ class ViscometerReadings:
             return "PV needs 600/300 rpm (or 300/100 rpm for cement)"
         if pair[0] == 1.0:
             return "PV = θ600 − θ300 (API RP 13B-1)"
-        return "PV = 1.5(θ300 − θ100) (cement practice, from memory — PRACTICE §2.2)"
+        return "PV = 1.5(θ300 − θ100) (cement practice, from memory — calc/METHODS.md §1.4)"
 
     def _pv_dial(self) -> float:
         pair = self._pv_pair()

@@ -36,7 +36,8 @@ def clinging_constant(d_pipe, d_hole, regime="laminar"):
 
     References
     ----------
-    Guo & Liu (2011), eqs. 2.81-2.82 (placement of D1/D2 inferred; METHODS §8, §11 item 10).
+    Guo & Liu (2011), eqs. 2.81-2.82 (placement of D1/D2 inferred, not checked against the source;
+    calc/METHODS.md §11.2).
 
     >>> round(clinging_constant(0.5, 1.0), 4)
     0.3875

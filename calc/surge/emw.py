@@ -40,8 +40,9 @@ def trip_allowance(limit_emw, density, tvd, direction: str = "running", *, hydro
 
     Notes
     -----
-    A negative allowance means the static mud already breaks the limit (METHODS §8, from
-    memory: ΔP_surge,max = 0.052·TVD(ρ_frac − ρ − margin) in field units).
+    A negative allowance means the static mud already breaks the limit
+    (calc/METHODS.md §11.6; field form from memory: ΔP_surge,max = 0.052·TVD(ρ_frac − ρ − margin)
+    in field units).
 
     >>> round(trip_allowance(1100.0, 1000.0, 100.0), 1)  # 100 kg/m³ · g · 100 m
     98066.5

@@ -9,7 +9,8 @@ the limit is the speed just below the jump, on the safe side.
 References
 ----------
 Burkhardt, J.A. (1961) Wellbore pressure surges produced by pipe movement. JPT 13(6), 595-605,
-SPE-1546-G.  Trip margins: METHODS §8 (from memory, unverified).
+SPE-1546-G.  Trip margins and limits: calc/METHODS.md §11.6, §11.7 (field form from memory, not yet
+checked against the source).
 """
 
 from __future__ import annotations
@@ -256,9 +257,9 @@ def trip_speed_limits(
 
     Notes
     -----
-    Limits are average stand speeds (the surge uses ``peak_factor`` × speed).  Rules:
-    METHODS §8 (from memory) — the tightest point is often the last shoe for surge, the
-    deepest permeable zone for swab.
+    Limits are average stand speeds (the surge uses ``peak_factor`` × speed).  Rules
+    (from memory, not yet checked against a source; calc/METHODS.md §11.7) — the tightest point is
+    often the last shoe for surge, the deepest permeable zone for swab.
     """
     mf = float(check_nonnegative("fracture margin", fracture_margin, "kg/m³"))
     mp = float(check_nonnegative("pore margin", pore_margin, "kg/m³"))

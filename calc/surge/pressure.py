@@ -134,7 +134,7 @@ def surge_pressure(
     clinging : "burkhardt" or float or array
         Burkhardt fits (laminar/turbulent by the interval's regime) or given K_c per interval.
     peak_factor : float
-        Peak/average speed ratio, default 1.5 (METHODS §8, from memory).
+        Peak/average speed ratio, default 1.5 (from memory; calc/METHODS.md §11.5).
     eccentricity : float
         Passed to :func:`calc.flow.annulus_flow` (ignoring it is conservative).
 
@@ -274,7 +274,7 @@ def interval_surge(
     clinging : "burkhardt" or float or array
         Burkhardt fits (laminar/turbulent by the interval's regime) or given K_c.
     peak_factor : float
-        Peak/average speed ratio ≥ 1 (default 1.5, METHODS §8, from memory).
+        Peak/average speed ratio ≥ 1 (default 1.5, from memory; calc/METHODS.md §11.5).
     eccentricity : float or array_like
         Passed to :func:`calc.flow.annulus_flow`.
 

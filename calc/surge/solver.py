@@ -54,8 +54,9 @@ __all__ = [
     "string_end_for",
 ]
 
-#: Ratio of peak to average stand speed used by default, 1.5 (from memory, unverified —
-#: METHODS §8).  Set ``peak_factor=1`` when the speed given is already the peak speed.
+#: Ratio of peak to average stand speed used by default, 1.5 (from memory, not yet checked
+#: against the source — calc/METHODS.md §11.5).  Set ``peak_factor=1`` when the speed given is
+#: already the peak speed.
 PEAK_FACTOR = 1.5
 
 #: Sign of the pressure change per trip direction: surge (+) running in, swab (−) pulling out.
