@@ -23,6 +23,12 @@ kept on the result, so a variant is never mistaken for the published preset.
 True
 >>> resolve_method("bingham", friction="newtonian").label
 'bingham (friction=newtonian)'
+
+The other fits stay one override away, e.g. the Bingham least-squares fit over all readings:
+
+>>> lsq = "bingham_least_squares"
+>>> resolve_method("bingham", pipe_fit=lsq, annulus_fit=lsq).fits
+'bingham_least_squares'
 """
 
 from __future__ import annotations
@@ -133,18 +139,27 @@ _preset(
 _preset(
     "bingham",
     "bingham",
-    "bingham_least_squares",
-    "bingham_least_squares",
-    "Bingham plastic least-squares fit over all readings, both paths",
-    "Bingham (1916); least squares over the readings (API RP 10B-2 practice)",
+    "bingham_two_speed",
+    "bingham_two_speed",
+    "Bingham plastic with the field PV/YP from 600/300 rpm, Colebrook on PV turbulent, both paths",
+    "Bingham (1916); API RP 13B-1 (PV/YP); Hanks (1963); Bourgoyne et al. (1986) ch. 4",
+)
+_preset(
+    "bingham_darby_1992",
+    "bingham_darby_1992",
+    "bingham_two_speed",
+    "bingham_two_speed",
+    "Bingham plastic (PV/YP from 600/300 rpm) with the Darby, Mun & Boger slurry friction "
+    "factor; caveat: it reads 0.45 × the Newtonian law at He → 0, Re 10⁴ (fitted to large He)",
+    "Darby, Mun & Boger (1992) Chem. Eng. 99(9); Hanks (1963); API RP 13B-1",
 )
 _preset(
     "power_law",
     "power_law",
-    "power_law_least_squares",
-    "power_law_least_squares",
-    "power-law least-squares fit (residuals in stress, not in log) over all readings, both paths",
-    "least squares over the readings (common practice)",
+    "power_law_loglog",
+    "power_law_loglog",
+    "power law by log-log regression over all readings, both paths",
+    "Ostwald–de Waele power law; log-log least squares (common practice); Dodge & Metzner (1959)",
 )
 _preset(
     "exact_laminar",

@@ -59,6 +59,22 @@ def test_report_json_carries_every_section(tmp_path, capsys):
 
 
 @pytest.mark.parametrize(
+    ("method", "fits"), [("bingham", "bingham_two_speed"), ("power_law", "power_law_loglog")]
+)
+def test_report_names_the_fit_of_the_method(tmp_path, capsys, method, fits):
+    # The fit a hydraulics method used is named in the JSON run block and on the Hydraulics
+    # sheet's method line, and its parameters are among the JSON fits of every check.
+    out = tmp_path / "r.xlsx"
+    assert run("report", DEMO, "-o", out, "--json", "--method", method) == 0
+    data = json.loads(capsys.readouterr().out)
+    assert (data["run"]["method"], data["run"]["fluid_fits"]) == (method, fits)
+    for check in data["rheology"]["checks"]:
+        assert fits in [f["method"] for f in check["fits"]]
+    line = openpyxl.load_workbook(out)["Hydraulics"]["A2"].value
+    assert f"Method: {method}:" in line and f"fits: {fits};" in line
+
+
+@pytest.mark.parametrize(
     "content, needle",
     [
         ("[case\nunits = 'oilfield'", "syntax error"),

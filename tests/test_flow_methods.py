@@ -3,6 +3,8 @@
 import fluids.friction
 import numpy as np
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 from scipy import optimize
 
 from calc import units
@@ -29,6 +31,7 @@ def fluid_for(method):
         "api13d_1995_power_law": (0.0, 0.4, 0.6),
         "power_law": (0.0, 0.4, 0.6),
         "bingham": (6.0, 0.025, 1.0),
+        "bingham_darby_1992": (6.0, 0.025, 1.0),
         "newtonian": (0.0, 0.02, 1.0),
     }[method]
 
@@ -43,7 +46,7 @@ def _laminar_errors(method, geometry, kappa=None, re_fraction=1.0):
         for ty in (0.0, 1.0, 4.0, 10.0, 20.0):
             if method in ("api13d_1995_power_law", "power_law") and ty > 0:
                 continue
-            if method in ("bingham", "newtonian") and n != 1.0:
+            if method in ("bingham", "bingham_darby_1992", "newtonian") and n != 1.0:
                 continue
             if method == "newtonian" and ty > 0:
                 continue
@@ -75,10 +78,14 @@ LAMINAR_COST = [
     ("api13d_1995_power_law", "annulus", 0.3, 1.0, 0.025, 0.0230),
     ("api13d_1995_power_law", "annulus", 0.5, 1.0, 0.009, 0.0079),
     ("power_law", "annulus", 0.7, 1.0, 0.004, None),
-    # Bingham: Buckingham-Reiner exact in pipes; the Darby blend adds up to ~0.7 % near Re_Bc
-    ("bingham", "pipe", None, 1.0, 0.007, 0.0066),
-    ("bingham", "pipe", None, 0.5, 1e-3, None),
+    # Bingham: Buckingham-Reiner exact in pipes (the same closed form as exact_laminar; the
+    # external check is test_bingham_laminar_is_buckingham_reiner_closed_form); slot annulus
+    ("bingham", "pipe", None, 1.0, 1e-12, 0.0),
     ("bingham", "annulus", 0.3, 1.0, 0.025, 0.0230),
+    # Darby, Mun & Boger (1992): the blend adds up to ~0.7 % near Re_Bc
+    ("bingham_darby_1992", "pipe", None, 1.0, 0.007, 0.0068),
+    ("bingham_darby_1992", "pipe", None, 0.5, 1e-3, None),
+    ("bingham_darby_1992", "annulus", 0.3, 1.0, 0.025, 0.0230),
     # API RP 13D (2006/2010) HB: blend overshoot near the limit (f_trans = f_lam there, so the
     # 12th-power blend gives 2^(1/12) = +5.9 %) plus the (4/3)ⁿ, (3/2)ⁿ yield approximations,
     # which reach +30 % (pipe) and +48 % (annulus) in plug-dominated flow (τ_y/τ_w → 1)
@@ -283,12 +290,111 @@ def test_darby_blend_limits():
     assert float(darby_bingham_fanning(re, he, 16 / re)) == pytest.approx(f_t, rel=1e-3)
 
 
-def test_bingham_pipe_laminar_is_buckingham_reiner():
-    # Buckingham-Reiner exact (see test_flow_exact); the bingham method must match it where the
+def _bingham_pipe(method, re, he, d=0.1, rho=1000.0, mu=0.02, relative_roughness=0.0):
+    """pipe_flow at a given Bingham Reynolds number ρVD/μ_p and Hedström number ρτ_yD²/μ_p²."""
+    tau_y = he * mu**2 / (rho * d**2)
+    v = re * mu / (rho * d)
+    q = v * np.pi * d**2 / 4
+    return pipe_flow(
+        q,
+        d,
+        density=rho,
+        tau_y=tau_y,
+        k=mu,
+        n=1.0,
+        method=method,
+        roughness=relative_roughness * d,
+    )
+
+
+def test_darby_caveat_is_the_measured_gap_to_colebrook():
+    # The caveat stated for bingham_darby_1992, measured against the reference library fluids
+    # (fluids.friction.Colebrook, Darcy factor, smooth pipe): at Re_B = 10⁴ and He → 0 the Darby,
+    # Mun & Boger (1992) factor is 0.4535 × Colebrook, i.e. it does not reduce to the Newtonian
+    # law; the default bingham law does (test_bingham_turbulent_tends_to_colebrook).
+    r = _bingham_pipe("bingham_darby_1992", 1e4, 1e-6)
+    assert r.regime_label == "turbulent"
+    ratio = 4 * float(r.friction_factor) / fluids.friction.Colebrook(1e4, 0.0)
+    assert ratio == pytest.approx(0.4535, abs=5e-4)
+
+
+@settings(max_examples=60, deadline=None)
+@given(
+    re=st.floats(6_100.0, 1e7),
+    he=st.one_of(st.just(0.0), st.floats(1e-9, 100.0)),
+    rr=st.one_of(st.just(0.0), st.floats(1e-6, 0.01)),
+    rho=st.floats(800.0, 2200.0),
+    mu=st.floats(5e-3, 0.08),
+)
+def test_bingham_turbulent_tends_to_colebrook(re, he, rr, rho, mu):
+    # He → 0: the Bingham friction factor must reduce to the Newtonian one.  Reference library
+    # fluids (fluids.friction.Colebrook: Colebrook 1939, Darcy λ = 4f, solved independently);
+    # the textbook convention (Bourgoyne et al. 1986, Applied Drilling Engineering, ch. 4) reads
+    # the Newtonian chart at the Reynolds number on μ_p.  Re from 6100 ≥ Hanks' Re_Bc(He ≤ 100)
+    # + 1900, so fully turbulent.
+    r = _bingham_pipe("bingham", re, he, rho=rho, mu=mu, relative_roughness=rr)
+    assert r.regime_label == "turbulent"
+    assert float(r.reynolds) == pytest.approx(re, rel=1e-12)
+    expected = fluids.friction.Colebrook(re, rr) / 4
+    assert float(r.friction_factor) == pytest.approx(expected, rel=1e-9)
+
+
+@settings(max_examples=60, deadline=None)
+@given(
+    he=st.one_of(st.just(0.0), st.floats(1e-6, 1e7)),
+    frac=st.floats(0.01, 0.999),
+    d=st.floats(0.02, 0.35),
+    mu=st.floats(5e-3, 0.08),
+)
+def test_bingham_laminar_is_buckingham_reiner_closed_form(he, frac, d, mu):
+    # Laminar branch (Re_B below Hanks' Re_Bc): the wall stress must satisfy the exact
+    # Buckingham (1921)-Reiner pipe solution Q = πR³τ_w/(4μ_p)·(1 - 4φ/3 + φ⁴/3), φ = τ_y/τ_w,
+    # written out here, independent of the solver in calc/flow/laminar_exact.py.
+    rho = 1200.0
+    re_c = float(hanks_critical_reynolds(he))
+    r = _bingham_pipe("bingham", frac * re_c, he, d=d, rho=rho, mu=mu)
+    assert r.regime_label == "laminar"
+    tau_y = he * mu**2 / (rho * d**2)
+    tw = float(r.wall_shear_stress)
+    phi = tau_y / tw
+    q = np.pi * (d / 2) ** 3 * tw / (4 * mu) * (1 - 4 * phi / 3 + phi**4 / 3)
+    v = float(r.velocity)
+    assert q == pytest.approx(v * np.pi * d**2 / 4, rel=1e-9)
+    assert float(r.gradient) == pytest.approx(4 * tw / d, rel=1e-12)  # force balance
+
+
+def test_bingham_turbulent_is_newtonian_on_pv():
+    # At τ_y = 0 the bingham law's turbulent branch is the newtonian law (Colebrook 1939 with
+    # roughness) with μ = μ_p: same friction factor to rounding, pipe and annulus.
+    q = np.geomspace(0.01, 0.08, 6)
+    a = dict(density=1300.0, tau_y=0.0, k=0.02, n=1.0, roughness=4.6e-5)
+    for flow, geo in ((pipe_flow, (0.1,)), (annulus_flow, (0.2159, 0.127))):
+        b = flow(q, *geo, method="bingham", **a)
+        nw = flow(q, *geo, method="newtonian", **a)
+        turb = b.regime == 2
+        assert turb.sum() >= 3 and np.array_equal(turb, nw.regime == 2)
+        np.testing.assert_allclose(b.friction_factor[turb], nw.friction_factor[turb], rtol=1e-12)
+
+
+def test_bingham_turbulent_never_below_laminar():
+    # Our stated choice: at a large Hedström number the Colebrook-on-μ_p estimate near the
+    # transition falls below the laminar (Buckingham-Reiner) loss at the same rate; the law
+    # takes the larger, so the loss keeps rising with the rate (see the property tests).
+    he = 1e8
+    re_c = float(hanks_critical_reynolds(he))
+    r = _bingham_pipe("bingham", 1.5 * (re_c + 1900), he)
+    ex = _bingham_pipe("exact_laminar", 1.5 * (re_c + 1900), he)
+    assert r.regime_label == "turbulent"
+    assert float(r.gradient) == pytest.approx(float(ex.gradient), rel=1e-9)
+    assert 4 * float(r.friction_factor) > fluids.friction.Colebrook(float(r.reynolds), 0.0)
+
+
+def test_bingham_darby_pipe_laminar_is_buckingham_reiner():
+    # Buckingham-Reiner exact (see test_flow_exact); bingham_darby_1992 must match it where the
     # Darby turbulent term is negligible (Re ≤ 0.5 Re_Bc): measured < 1e-6
     q = np.geomspace(1e-4, 5e-3, 10)
     a = dict(density=RHO, tau_y=8.0, k=0.03, n=1.0)
-    r = pipe_flow(q, 0.1, method="bingham", **a)
+    r = pipe_flow(q, 0.1, method="bingham_darby_1992", **a)
     ex = pipe_flow(q, 0.1, method="exact_laminar", **a)
     m = r.reynolds < 0.5 * r.reynolds_laminar_limit
     assert m.sum() >= 5

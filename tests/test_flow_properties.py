@@ -31,7 +31,7 @@ def fluid(draw, method):
     """(tau_y, k, n) within what ``method`` accepts."""
     if method == "newtonian":
         return 0.0, draw(st.floats(5e-4, 0.1)), 1.0
-    if method == "bingham":
+    if method in ("bingham", "bingham_darby_1992"):
         return draw(st.floats(0.0, 20.0)), draw(st.floats(5e-3, 0.08)), 1.0
     n = draw(n_index)
     k = draw(st.floats(0.02, 2.0))
@@ -203,9 +203,11 @@ def test_distinct_combinations_rebuild_the_broadcast_inputs(a, b):
 def test_sweep_critical_velocity_equals_single_interval_call(method):
     # the sweep solves the critical velocity once per interval; it must equal the one-rate
     # call's value for that interval (same solve, so to rounding)
-    fl = {"newtonian": (0.0, 0.02, 1.0), "bingham": (7.0, 0.025, 1.0)}.get(
-        method, (0.0 if method in ("power_law", "api13d_1995_power_law") else 5.0, 0.4, 0.65)
-    )
+    fl = {
+        "newtonian": (0.0, 0.02, 1.0),
+        "bingham": (7.0, 0.025, 1.0),
+        "bingham_darby_1992": (7.0, 0.025, 1.0),
+    }.get(method, (0.0 if method in ("power_law", "api13d_1995_power_law") else 5.0, 0.4, 0.65))
     ty, k, n = fl
     q = np.linspace(0.005, 0.06, 7)[:, None]
     d_hole = np.array([0.2159, 0.2159, 0.3112])[None, :]

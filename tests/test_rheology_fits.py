@@ -6,6 +6,7 @@ import numpy as np
 import pytest
 from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
+from scipy import stats
 from scipy.optimize import curve_fit
 
 from calc.errors import InputError
@@ -213,6 +214,27 @@ def test_fit_all_ranking_and_skips():
     with pytest.raises(InputError, match="did you mean"):
         fit(readings(D1), "hb_least_square")
     assert all(m.source for m in VISCOMETER_FITS.describe())
+
+
+@pytest.mark.parametrize("d", [D1, D2])
+def test_power_law_loglog_is_the_log_log_regression_line(d):
+    # Reference library scipy (scipy.stats.linregress): the straight line of log τ on log γ̇
+    # through every reading; quality in stress over all readings like every viscometer fit.
+    r = readings(d)
+    f = fit(r, "power_law_loglog")
+    line = stats.linregress(np.log10(r.shear_rate), np.log10(r.shear_stress))
+    assert f.model.n == pytest.approx(line.slope, rel=1e-10)
+    assert f.model.k == pytest.approx(10**line.intercept, rel=1e-10)
+    pred = f.model.stress(r.shear_rate)
+    assert f.quality.space == fit(r, "power_law_least_squares").quality.space
+    assert f.quality.rmse == pytest.approx(np.sqrt(np.mean((pred - r.shear_stress) ** 2)))
+    resid_log = line.intercept + line.slope * np.log10(r.shear_rate) - np.log10(r.shear_stress)
+    rmse_log = np.sqrt(np.mean(resid_log**2))
+    assert f.intermediates["rmse_log10_stress"] == pytest.approx(rmse_log, rel=1e-9)
+    # least squares in stress minimises the stress residuals; the log-log line cannot beat it
+    assert f.quality.rmse >= fit(r, "power_law_least_squares").quality.rmse
+    with pytest.raises(InputError, match="all > 0"):
+        fit(readings({**d, 3: 0}), "power_law_loglog")
 
 
 def test_extrapolation_note():

@@ -83,8 +83,9 @@ def test_gl_2_5_bingham_pipe_turbulent_loss(name, printed_psi):
     Convention: [GL] eq. 2.60 (after ADE) is the Newtonian Blasius law with μ = PV; the yield
     point does not enter.  Our ``newtonian`` method with k = PV is that same model with
     Colebrook (smooth) in place of Blasius, so the printed value is our gradient times
-    f_Blasius/f_ours at our own Re = ρvd/μ_p.  (Our ``bingham`` method, Darby, Mun & Boger 1992,
-    gives much less here — see tests/WORKED_EXAMPLES.md.)
+    f_Blasius/f_ours at our own Re = ρvd/μ_p.  Our ``bingham`` method follows the same
+    convention in turbulent flow (Colebrook on μ_p), so with the yield point it gives the
+    ``newtonian`` gradient here; ``bingham_darby_1992`` (Darby, Mun & Boger 1992) gives less.
     """
     d, length = GL_PIPE[name]
     r = pipe_flow(
@@ -93,6 +94,21 @@ def test_gl_2_5_bingham_pipe_turbulent_loss(name, printed_psi):
     assert r.regime_label == "turbulent"
     as_printed = _psi(r.gradient, length) * blasius(r.reynolds) / r.friction_factor
     assert as_printed == pytest.approx(printed_psi, abs=0.5)  # printed to 1 psi
+    b = pipe_flow(
+        GL_Q, to_si(d, "in"), density=GL_RHO, tau_y=GL25_YP, k=GL25_PV, n=1.0, method="bingham"
+    )
+    assert b.regime_label == "turbulent"
+    assert b.gradient == pytest.approx(r.gradient, rel=1e-12)  # the book's convention (ADE)
+    darby = pipe_flow(
+        GL_Q,
+        to_si(d, "in"),
+        density=GL_RHO,
+        tau_y=GL25_YP,
+        k=GL25_PV,
+        n=1.0,
+        method="bingham_darby_1992",
+    )
+    assert darby.gradient < 0.8 * r.gradient  # the caveat in bingham_darby_state's docstring
 
 
 @pytest.mark.parametrize(

@@ -341,7 +341,7 @@ def build(out: Path = OUT, check_label: str = "D1") -> Layout:
         put(f"A{22 + i}", label)
         put(f"B{22 + i}", formula, name=name, fmt="0.000")
     put("D21", "All fits, best first (array formula)", bold=True)
-    fits_rows = 10
+    fits_rows = 11  # header + one row per registered viscometer fit
     ws["D22"] = _array(f"D22:K{21 + fits_rows}", f"=BF_FITS({readings},{u})")
     lay.cells["fits"] = f"D22:K{21 + fits_rows}"
 

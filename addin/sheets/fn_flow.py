@@ -40,7 +40,7 @@ _DENSITY = "Mud density (ppg in oilfield units; or with its unit, '1.32 sg')"
 _READINGS = "Viscometer readings: two columns rpm and dial, or one column of 6 dial readings"
 _METHOD = (
     "Hydraulics method: 'api13d_2010_hb' (blank), 'api13d_1995_power_law', 'bingham', "
-    "'power_law', 'newtonian', 'exact_laminar'"
+    "'bingham_darby_1992', 'power_law', 'newtonian', 'exact_laminar'"
 )
 _RATE = "Flow rate (gpm); a range gives a range of results"
 _D_IN = "Pipe inside diameter (in)"

@@ -2,6 +2,8 @@
 
 References
 ----------
+Bourgoyne, A. T., Millheim, K. K., Chenevert, M. E. & Young, F. S. (1986). Applied Drilling
+Engineering. SPE Textbook Series 2, ch. 4.
 Colebrook, C. F. (1939). J. Inst. Civil Eng. 11(4), 133-156.
 Bird, R. B., Stewart, W. E. & Lightfoot, E. N. (2002). Transport Phenomena, 2nd ed., §2.3-2.4.
 Buckingham, E. (1921). Proc. ASTM 21, 1154-1156.
@@ -35,7 +37,7 @@ from calc.flow.result import (
     count_note,
 )
 
-__all__ = ["bingham_state", "newtonian_state", "power_law_state"]
+__all__ = ["bingham_darby_state", "bingham_state", "newtonian_state", "power_law_state"]
 
 #: Newtonian bounds: laminar below 2100, turbulent from 4000 (common practice; our choice of
 #: the common textbook pair, stated in the method description).
@@ -43,7 +45,7 @@ NEWTONIAN_RE_LAMINAR = 2100.0
 NEWTONIAN_RE_TURBULENT = 4000.0
 
 #: Width of the Bingham transitional band above Hanks' critical Re: 1900, the Newtonian
-#: 2100-4000 band (our choice; the Darby et al. friction factor is continuous regardless).
+#: 2100-4000 band (our choice), so at τ_y = 0 the Bingham regimes are the Newtonian ones.
 BINGHAM_BAND = NEWTONIAN_RE_TURBULENT - NEWTONIAN_RE_LAMINAR
 
 
@@ -141,20 +143,77 @@ def _bingham_laminar_tw(case: FlowCase, v):
     return hb_pipe_wall_stress(v * case.area, case.d_h, case.tau_y, case.k, ones)
 
 
+def _bingham_laminar_f(case: FlowCase, v):
+    return 2.0 * _bingham_laminar_tw(case, v) / (case.density * v**2)
+
+
+def _bingham_velocity(case: FlowCase, re):
+    """The mean velocity [m/s] at which the Bingham Reynolds number ρVD_h/μ_p equals ``re``."""
+    return re * case.k / (case.density * case.d_h)
+
+
 def bingham_state(case: FlowCase, laminar_limit=None) -> MethodState:
+    """Bingham plastic: exact laminar, Hanks (1963) regimes, Colebrook (1939) on μ_p turbulent.
+
+    f_L: Buckingham-Reiner exact in pipes; the exact plane-slot Bingham solution in annuli
+    (slot of gap (D2 - D1)/2, width π(D1 + D2)/2).  Turbulent (Re_B = ρVD_h/μ_p from Hanks'
+    Re_Bc + 1900): the Newtonian friction law with the plastic viscosity, as the drilling
+    textbooks do (Bourgoyne et al. 1986, ch. 4: the Newtonian friction chart with the
+    "apparent" Reynolds number on μ_p), i.e. Colebrook at Re_B with the wall roughness, so at
+    τ_y = 0 the turbulent branch is the ``newtonian`` law; τ_w,T = max(τ_w,L, ½ρV²f_C) (our
+    choice: at a large Hedström number the Newtonian estimate near the transition lies below
+    the laminar loss at the same rate, and turbulent flow does not lose less than laminar).
+    Between Re_Bc and Re_Bc + 1900 the wall stress runs linearly in Re_B from τ_w,L(Re_Bc) to
+    τ_w,T(Re_Bc + 1900): continuous at both ends and rising with the rate.  ``laminar_limit``:
+    Hanks' Re_Bc per element when already known (the flow functions solve it once per distinct
+    geometry and fluid; it does not depend on the rate).
+    """
+    v = case.velocity
+    re = _bingham_re(case, v)
+    rr = case.roughness / case.d_h
+    lam = hanks_critical_reynolds(_bingham_he(case)) if laminar_limit is None else laminar_limit
+    turb = lam + BINGHAM_BAND
+    half_rho_v2 = 0.5 * case.density * v**2
+    tw_lam = _bingham_laminar_tw(case, v)
+    f_turb = np.maximum(tw_lam / half_rho_v2, colebrook_fanning(np.maximum(re, turb), rr))
+    v_lo, v_hi = _bingham_velocity(case, lam), _bingham_velocity(case, turb)
+    tw_lo = _bingham_laminar_tw(case, v_lo)
+    f_hi = np.maximum(_bingham_laminar_f(case, v_hi), colebrook_fanning(turb, rr))
+    tw_hi = 0.5 * case.density * v_hi**2 * f_hi
+    tw_tr = tw_lo + (re - lam) / (turb - lam) * (tw_hi - tw_lo)
+    tw = np.where(re < lam, tw_lam, np.where(re < turb, tw_tr, half_rho_v2 * f_turb))
+    f = tw / half_rho_v2
+    gw = np.maximum(tw - case.tau_y, 0.0) / case.k
+    notes = (
+        count_note(
+            (re >= lam) & (rr > 0.05),
+            "warning",
+            "roughness_outside_colebrook",
+            "relative roughness above 0.05, beyond the range of the Colebrook/Moody chart",
+            case.geometry,
+        ),
+    )
+    return MethodState(re, lam, turb, classify_regime(re, lam, turb), f, gw, tw, _tidy(notes))
+
+
+def bingham_darby_state(case: FlowCase, laminar_limit=None) -> MethodState:
     """Bingham plastic after Darby, Mun & Boger (1992), regimes by Hanks (1963).
 
     f_L: Buckingham-Reiner exact in pipes; the exact plane-slot Bingham solution in annuli
     (slot of gap (D2 - D1)/2, width π(D1 + D2)/2).  f = (f_L^m + f_T^m)^(1/m) over all Re.
     Laminar below Hanks' Re_Bc (He on D_h); turbulent from Re_Bc + 1900.  ``laminar_limit``:
-    Hanks' Re_Bc per element when already known (the flow functions solve it once per
-    distinct geometry and fluid; it does not depend on the rate).
+    Hanks' Re_Bc per element when already known.
+
+    Caveat: the Darby turbulent term was fitted to slurries of large Hedström number and does
+    not reduce to the Newtonian law as He → 0: at Re_B = 10⁴ and He → 0 it gives 0.45 times
+    the smooth-pipe Colebrook factor (measured in the tests against ``fluids``).  Drilling
+    muds (He ~ 10⁴-10⁶) lie where it reads 23-62 % below the Newtonian law on μ_p; the
+    ``bingham`` law is the default for that reason.
     """
     v = case.velocity
     re = _bingham_re(case, v)
     he = _bingham_he(case)
-    tw_lam = _bingham_laminar_tw(case, v)
-    f_l = 2.0 * tw_lam / (case.density * v**2)
+    f_l = _bingham_laminar_f(case, v)
     f = darby_bingham_fanning(re, he, f_l)
     lam = hanks_critical_reynolds(he) if laminar_limit is None else laminar_limit
     turb = lam + BINGHAM_BAND
@@ -167,20 +226,42 @@ def _check_bingham(case: FlowCase) -> None:
     require_n_one(case, "bingham")
 
 
+def _check_bingham_darby(case: FlowCase) -> None:
+    require_n_one(case, "bingham_darby_1992")
+
+
 FRICTION_LAWS.register(
     "bingham",
     "Bingham plastic: Buckingham-Reiner (pipe) / plane slot (annulus) laminar, Hanks "
-    "transition, Darby-Mun-Boger turbulent and blend",
-    "Buckingham (1921); Hanks (1963); Darby, Mun & Boger (1992) (coefficients from memory, not "
-    "yet checked against the source); see calc/METHODS.md §6.14, §6.15, §7.4",
+    "transition, Colebrook on the plastic viscosity turbulent (the Newtonian law at τy = 0)",
+    "Buckingham (1921); Hanks (1963); Colebrook (1939); Bourgoyne et al. (1986) ch. 4",
 )(
     FlowMethod(
         label="Bingham plastic: Buckingham-Reiner / slot laminar, Hanks (1963) transition, "
-        "Darby, Mun & Boger (1992) friction factor",
+        "Colebrook (1939) turbulent on μ_p",
         evaluate=bingham_state,
         reynolds=_bingham_re,
         laminar_limit=lambda case: hanks_critical_reynolds(_bingham_he(case)),
         check=_check_bingham,
+        uses_roughness=True,
+        limit_from_distinct=True,
+    )
+)
+
+FRICTION_LAWS.register(
+    "bingham_darby_1992",
+    "Bingham plastic after Darby, Mun & Boger (1992): exact laminar, Hanks transition, "
+    "slurry correlation turbulent and blend (caveat: 0.45 × Colebrook at He → 0, Re 10⁴)",
+    "Buckingham (1921); Hanks (1963); Darby, Mun & Boger (1992) (coefficients from memory, not "
+    "yet checked against the source); see calc/METHODS.md §6.14, §6.15",
+)(
+    FlowMethod(
+        label="Bingham plastic: Buckingham-Reiner / slot laminar, Hanks (1963) transition, "
+        "Darby, Mun & Boger (1992) friction factor",
+        evaluate=bingham_darby_state,
+        reynolds=_bingham_re,
+        laminar_limit=lambda case: hanks_critical_reynolds(_bingham_he(case)),
+        check=_check_bingham_darby,
         limit_from_distinct=True,
     )
 )

@@ -577,3 +577,61 @@ def newtonian_least_squares(data) -> FitResult:
         1,
         {"mu_cP": model.mu / CENTIPOISE},
     )
+
+
+@VISCOMETER_FITS.register(
+    "power_law_loglog",
+    "power law by straight-line regression of log τ on log γ̇ over all readings",
+    "Ostwald–de Waele power law; linear least squares on log-log axes (common practice)",
+)
+def power_law_loglog(data) -> FitResult:
+    """Power law log₁₀τ = log₁₀K + n·log₁₀γ̇, least squares over all readings on log-log axes.
+
+    The straight line of the log-log plot: equal weights in log stress, i.e. in relative
+    stress, so the low-speed readings count as much as the high ones (the stress fits let the
+    600/300 readings dominate).  Quality is reported in stress over all readings, as for every
+    viscometer fit, so the ranking compares like with like; the RMSE in log₁₀ stress is an
+    intermediate.
+
+    >>> r = ViscometerReadings([600, 300, 200, 100, 6, 3], [68, 44, 35, 25, 10, 9])
+    >>> f = power_law_loglog(r)
+    >>> round(f.model.n, 4), f.quality.space
+    (0.3684, 'shear stress [Pa], unweighted')
+    """
+    r = _readings(data)
+    method = "power_law_loglog"
+    if np.any(r.dial <= 0):
+        raise InputError("dial readings for a log-log power-law fit", r.dial.tolist(), "all > 0")
+    x, y = np.log10(r.shear_rate), np.log10(r.shear_stress)
+    n, logk = (float(c) for c in np.polyfit(x, y, 1))
+    if not n > 0:
+        raise InputError(
+            "dial readings for a log-log power-law fit",
+            r.dial.tolist(),
+            "readings that rise with speed (a log-log slope n > 0)",
+        )
+    model = PowerLaw(10.0**logk, n)
+    q = quality_of(model, r.shear_rate, r.shear_stress, STRESS_SPACE, 2)
+    rmse_log = float(np.sqrt(np.mean((logk + n * x - y) ** 2)))
+    notes = n_notes(n, method)
+    if r.speeds.size <= 2:
+        notes.append(
+            Note(
+                "info",
+                "exact_fit",
+                "{readings:.0f} readings for {parameters:.0f} parameters: the fit passes "
+                "through every reading",
+                method,
+                (Value("readings", float(r.speeds.size)), Value("parameters", 2.0)),
+            )
+        )
+    return FitResult(
+        model,
+        method,
+        q,
+        tuple(notes),
+        r.shear_rate_range,
+        "power law, log-log regression over all readings",
+        "Ostwald–de Waele power law; linear least squares in log10 stress on log10 shear rate",
+        {"n": n, "K_lbf_s^n_100ft2": model.k / FIELD_STRESS, "rmse_log10_stress": rmse_log},
+    )
