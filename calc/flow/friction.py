@@ -275,8 +275,9 @@ def darby_bingham_fanning(reynolds_b, hedstrom, f_laminar):
     -----
     Coefficients from memory, Darby et al. (1992) seen second-hand (calc/METHODS.md §6.15).
     The turbulent branch does not reduce to the Newtonian smooth-pipe law at He → 0 (it was
-    fitted to slurries with large He): 0.45 × smooth-pipe Colebrook at Re_B = 10⁴, He → 0 (measured in
-    the tests against ``fluids``).  Registered as the friction law ``bingham_darby_1992``.
+    fitted to slurries with large He): 0.45 × smooth-pipe Colebrook at Re_B = 10⁴, He → 0
+    (measured in the tests against ``fluids``).  Registered as the friction law
+    ``bingham_darby_1992``.
     """
     re = np.asarray(reynolds_b, dtype=float)
     he = np.asarray(hedstrom, dtype=float)
