@@ -8,6 +8,8 @@ written as text, never as a formula (:func:`addin.xlsx_cells.put`).
 
 from __future__ import annotations
 
+from typing import NamedTuple
+
 from addin.workbook_layout import BLOCKS, MARK, Block, unit_labels
 from addin.xlsx_cells import add_styles, put, set_widths
 
@@ -36,102 +38,142 @@ def _split_unit(v):
     return v, None
 
 
+class _Styles(NamedTuple):
+    """The cell styles of a block's rows."""
+
+    head: str
+    unit: str
+    cell: str
+    input: str
+    note: str
+
+
+_STYLED = _Styles("bf_head", "bf_unit", "bf_cell", "bf_input", "bf_note")
+_PLAIN = _Styles(*("Normal",) * 5)
+
+
 def write_block(ws, row: int, block: Block, data, unit_of, *, styles=True) -> int:
     """Write one block at ``row`` (title, rows); returns the row after the block's blank line.
 
     ``data`` is the block's part of a case document (dict, list of dicts, or dict of arrays).
     Text is written as text (never a formula).
     """
-    s_head, s_unit, s_cell, s_in, s_note = (
-        ("bf_head", "bf_unit", "bf_cell", "bf_input", "bf_note") if styles else ("Normal",) * 5
-    )
+    st = _STYLED if styles else _PLAIN
     put(ws, row, 1, f"{MARK} {block.key}  {block.title}", "bf_section" if styles else "Normal")
     row += 1
     if block.kind == "values":
-        data = data or {}
-        items = _flatten(data)
-        known = [f.key for f in block.fields if "*" not in f.key]
-        order = [k for k in known if any(i[0] == k for i in items)]
-        order += [k for k, _ in items if k not in order]
-        flat = dict(items)
-        for key in order:
-            f = block.lookup(key, f"{block.key}.{key}")
-            val = flat[key]
-            vals = val if isinstance(val, list) else [val]
-            unit = unit_of(f.kind) or ""
-            split = [_split_unit(v) for v in vals]
-            own = {u for _, u in split if u}
-            if len(own) == 1:
-                unit = own.pop()
-                vals = [v for v, _ in split]
-            put(ws, row, 1, f.label, s_cell)
-            put(ws, row, 2, key, s_note)
-            put(ws, row, 3, unit, s_unit)
-            for j, v in enumerate(vals):
-                _put_value(ws, row, 4 + j, v, s_in)
-            row += 1
+        row = _values_rows(ws, row, block, data, unit_of, st)
     elif block.kind == "table":
-        if block.arrays:
-            keys = [f.key for f in block.fields if f.key in (data or {})]
-            n = max((len(data[k]) for k in keys), default=0)
-            records = [
-                {k: data[k][i] if i < len(data[k]) else None for k in keys} for i in range(n)
-            ]
-        elif block.rows_key:
-            keys = [f.key for f in block.fields]
-            records = [
-                dict(zip(keys, r, strict=False)) for r in (data or {}).get(block.rows_key, [])
-            ]
-        else:
-            records = [dict(_flatten(r)) for r in (data or [])]
-            keys = [f.key for f in block.fields if any(f.key in r for r in records)]
-            keys += [k for r in records for k in r if k not in keys]
-        for j, k in enumerate(keys):
-            f = block.lookup(k, f"{block.key}.{k}")
-            put(ws, row, 1 + j, k, s_head)
-            put(ws, row + 1, 1 + j, unit_of(f.kind) or "", s_unit)
-        row += 2
-        for rec in records:
-            for j, k in enumerate(keys):
-                v, u = _split_unit(rec.get(k))
-                if u:  # a per-value unit that differs from the column's: keep it as text
-                    v = rec.get(k)
-                _put_value(ws, row, 1 + j, v, s_in)
-            row += 1
+        row = _table_rows(ws, row, block, data, unit_of, st)
     elif block.kind == "columns":
-        records = [dict(_flatten(r)) for r in (data or [])]
-        known = [f.key for f in block.fields if "*" not in f.key]
-        order = []
-        for k in known:
-            if any(k in r for r in records):
-                order.append(k)
-            elif k.endswith("]") and any(isinstance(r.get(k.split("[")[0]), list) for r in records):
-                order.append(k)
-        extra = [
-            k
-            for r in records
-            for k in r
-            if k not in order and k.split("[")[0] not in {o.split("[")[0] for o in order}
-        ]
-        for k in extra:
-            if k not in order:
-                order.append(k)
-        for key in order:
-            f = block.lookup(key, f"{block.key}.{key}")
-            base, idx = key[:-1].split("[", 1) if key.endswith("]") else (key, None)
-            put(ws, row, 1, f.label, s_cell)
-            put(ws, row, 2, key, s_note)
-            put(ws, row, 3, unit_of(f.kind) or "", s_unit)
-            for j, rec in enumerate(records):
-                v = rec.get(base)
-                if idx is not None:
-                    v = v[int(idx)] if isinstance(v, list) and int(idx) < len(v) else None
-                _put_value(ws, row, 4 + j, v, s_in)
-            row += 1
+        row = _columns_rows(ws, row, block, data, unit_of, st)
     if block.note:
-        put(ws, row, 1, block.note, s_note)
+        put(ws, row, 1, block.note, st.note)
         row += 1
     return row + 1
+
+
+def _values_rows(ws, row, block, data, unit_of, st: _Styles) -> int:
+    """A values block: one row per key (label, key, unit, value or values); the known keys
+    first in the layout's order, then any others.  Returns the next row."""
+    items = _flatten(data or {})
+    known = [f.key for f in block.fields if "*" not in f.key]
+    order = [k for k in known if any(i[0] == k for i in items)]
+    order += [k for k, _ in items if k not in order]
+    flat = dict(items)
+    for key in order:
+        f = block.lookup(key, f"{block.key}.{key}")
+        val = flat[key]
+        vals = val if isinstance(val, list) else [val]
+        unit = unit_of(f.kind) or ""
+        split = [_split_unit(v) for v in vals]
+        own = {u for _, u in split if u}
+        if len(own) == 1:
+            unit = own.pop()
+            vals = [v for v, _ in split]
+        put(ws, row, 1, f.label, st.cell)
+        put(ws, row, 2, key, st.note)
+        put(ws, row, 3, unit, st.unit)
+        for j, v in enumerate(vals):
+            _put_value(ws, row, 4 + j, v, st.input)
+        row += 1
+    return row
+
+
+def _table_records(block, data) -> tuple[list[str], list[dict]]:
+    """A table block's column keys and its rows as records, from any of its three shapes: a
+    dict of arrays, a dict holding a list of rows (``block.rows_key``), or a list of dicts."""
+    if block.arrays:
+        keys = [f.key for f in block.fields if f.key in (data or {})]
+        n = max((len(data[k]) for k in keys), default=0)
+        records = [{k: data[k][i] if i < len(data[k]) else None for k in keys} for i in range(n)]
+    elif block.rows_key:
+        keys = [f.key for f in block.fields]
+        records = [dict(zip(keys, r, strict=False)) for r in (data or {}).get(block.rows_key, [])]
+    else:
+        records = [dict(_flatten(r)) for r in (data or [])]
+        keys = [f.key for f in block.fields if any(f.key in r for r in records)]
+        keys += [k for r in records for k in r if k not in keys]
+    return keys, records
+
+
+def _table_rows(ws, row, block, data, unit_of, st: _Styles) -> int:
+    """A table block: a key row, a unit row, then one row per item.  Returns the next row."""
+    keys, records = _table_records(block, data)
+    for j, k in enumerate(keys):
+        f = block.lookup(k, f"{block.key}.{k}")
+        put(ws, row, 1 + j, k, st.head)
+        put(ws, row + 1, 1 + j, unit_of(f.kind) or "", st.unit)
+    row += 2
+    for rec in records:
+        for j, k in enumerate(keys):
+            v, u = _split_unit(rec.get(k))
+            if u:  # a per-value unit that differs from the column's: keep it as text
+                v = rec.get(k)
+            _put_value(ws, row, 1 + j, v, st.input)
+        row += 1
+    return row
+
+
+def _column_keys(block, records) -> list[str]:
+    """The row keys of a columns block: the layout's known keys that any record has (an
+    indexed key ``name[i]`` when a record holds a list ``name``), then the records' others."""
+    known = [f.key for f in block.fields if "*" not in f.key]
+    order = []
+    for k in known:
+        if any(k in r for r in records):
+            order.append(k)
+        elif k.endswith("]") and any(isinstance(r.get(k.split("[")[0]), list) for r in records):
+            order.append(k)
+    extra = [
+        k
+        for r in records
+        for k in r
+        if k not in order and k.split("[")[0] not in {o.split("[")[0] for o in order}
+    ]
+    for k in extra:
+        if k not in order:
+            order.append(k)
+    return order
+
+
+def _columns_rows(ws, row, block, data, unit_of, st: _Styles) -> int:
+    """A columns block: one row per key (label, key, unit), one column per record (D, E, ...).
+    Returns the next row."""
+    records = [dict(_flatten(r)) for r in (data or [])]
+    for key in _column_keys(block, records):
+        f = block.lookup(key, f"{block.key}.{key}")
+        base, idx = key[:-1].split("[", 1) if key.endswith("]") else (key, None)
+        put(ws, row, 1, f.label, st.cell)
+        put(ws, row, 2, key, st.note)
+        put(ws, row, 3, unit_of(f.kind) or "", st.unit)
+        for j, rec in enumerate(records):
+            v = rec.get(base)
+            if idx is not None:
+                v = v[int(idx)] if isinstance(v, list) and int(idx) < len(v) else None
+            _put_value(ws, row, 4 + j, v, st.input)
+        row += 1
+    return row
 
 
 def _put_value(ws, row, col, v, style):

@@ -42,7 +42,18 @@ def write_ecd(wb, results, factors: Factors, title: str):
 def _bit_block(ws, row, results, factors):
     """Inputs and live checks of the hydrostatic and circulating pressure and ECD at the bit,
     and the ECD at the downhole gauge.  Returns the next row and the references."""
-    case, res, system = results.case, results.circulation, results.case.unit_system
+    row, inputs = _ecd_inputs(ws, row, results)
+    row, refs = _ecd_checks(ws, row, results, factors, inputs)
+    row, pwd = _gauge_row(ws, row, results)
+    if pwd is not None:
+        refs["pwd"] = pwd
+    return row + 1, refs
+
+
+def _ecd_inputs(ws, row, results):
+    """Static density, bit TVD, annular friction and back-pressure cells; returns the next row
+    and their references."""
+    res, system = results.circulation, results.case.unit_system
     rho = input_row(
         ws, row, "mud density (static)", _o(res.density, "density", system), "density", system
     )
@@ -63,7 +74,14 @@ def _bit_block(ws, row, results, factors):
         "pressure",
         system,
     )
-    row += 5
+    return row + 5, (rho, tvd, ann, bp)
+
+
+def _ecd_checks(ws, row, results, factors, inputs):
+    """The checked rows at the bit: hydrostatic pressure, circulating pressure and ECD.
+    Returns the next row and the references the summary uses."""
+    res, system = results.circulation, results.case.unit_system
+    rho, tvd, ann, bp = inputs
     fr, fdep, fp, g = (
         factors.unit("density"),
         factors.unit("depth"),
@@ -85,10 +103,9 @@ def _bit_block(ws, row, results, factors):
         f"ρ·g·TVD ({g_note})",
         note_end=10,
     )
-    row += 1
     bhp_v, _ = checked_row(
         ws,
-        row,
+        row + 1,
         "circulating pressure at the bit",
         _o(res.circulating_bhp, "pressure", system),
         f"{hyd_v}+{ann}+{bp}",
@@ -97,10 +114,9 @@ def _bit_block(ws, row, results, factors):
         "hydrostatic + annular friction + back-pressure",
         note_end=10,
     )
-    row += 1
     ecd_v, ecd_f = checked_row(
         ws,
-        row,
+        row + 2,
         "ECD at the bit",
         _o(res.ecd_bit, "density", system),
         f"{rho}+({ann}+{bp})*{fp}/({g}*{tvd}*{fdep})/{fr}",
@@ -109,33 +125,37 @@ def _bit_block(ws, row, results, factors):
         "ρ + (Δp_ann + p_back)/(g·TVD)",
         note_end=10,
     )
-    row += 1
-    refs = {"ecd_bit": (ecd_v, ecd_f), "hydrostatic": (hyd_v, hyd_f), "bhp": bhp_v}
-    pwd = case.checks[-1].values.get("pwd", {})
+    return row + 3, {"ecd_bit": (ecd_v, ecd_f), "hydrostatic": (hyd_v, hyd_f), "bhp": bhp_v}
+
+
+def _gauge_row(ws, row, results):
+    """The predicted ECD at the downhole gauge of the latest mud check beside the gauge's
+    reading, when the check has one inside the hole.  Returns the next row and
+    (predicted, gauge, gauge MD), or None when no row was written."""
+    res, system = results.circulation, results.case.unit_system
+    pwd = results.case.checks[-1].values.get("pwd", {})
     pwd_md, pwd_ecd = pwd.get("md"), pwd.get("ecd")
-    if pwd_md is not None and pwd_ecd is not None and 0 < pwd_md <= res.bit_md:
-        pred = float(res.ecd_at(pwd_md))
-        put(
-            ws,
-            row,
-            1,
-            f"ECD at the downhole gauge (MD {_o(pwd_md, 'depth', system):,.0f} "
-            f"{U('depth', system)})",
-        )
-        put_number(ws, row, 2, _o(pred, "density", system), number_format("density", system))
-        put(ws, row, 5, U("density", system), "bf_unit")
-        put(
-            ws,
-            row,
-            6,
-            f"gauge reads {_o(pwd_ecd, 'density', system):.2f}; predicted − gauge "
-            f"{_o(ecd_deviation(pred, pwd_ecd), 'density', system):+.2f}",
-            "bf_note",
-        )
-        ws.merge_cells(start_row=row, start_column=6, end_row=row, end_column=10)
-        refs["pwd"] = (pred, pwd_ecd, pwd_md)
-        row += 1
-    return row + 1, refs
+    if pwd_md is None or pwd_ecd is None or not 0 < pwd_md <= res.bit_md:
+        return row, None
+    pred = float(res.ecd_at(pwd_md))
+    put(
+        ws,
+        row,
+        1,
+        f"ECD at the downhole gauge (MD {_o(pwd_md, 'depth', system):,.0f} {U('depth', system)})",
+    )
+    put_number(ws, row, 2, _o(pred, "density", system), number_format("density", system))
+    put(ws, row, 5, U("density", system), "bf_unit")
+    put(
+        ws,
+        row,
+        6,
+        f"gauge reads {_o(pwd_ecd, 'density', system):.2f}; predicted − gauge "
+        f"{_o(ecd_deviation(pred, pwd_ecd), 'density', system):+.2f}",
+        "bf_note",
+    )
+    ws.merge_cells(start_row=row, start_column=6, end_row=row, end_column=10)
+    return row + 1, (pred, pwd_ecd, pwd_md)
 
 
 def _margins_block(ws, row, results) -> int:

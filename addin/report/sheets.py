@@ -147,17 +147,51 @@ def _status(ws, row, col, status):
 
 def write_summary(ws, results, refs, title):
     """The summary page: header, key results against limits, run information."""
-    case = results.case
-    system = case.unit_system
-    res = results.circulation
-    chk = case.checks[-1]
+    system = results.case.unit_system
     set_widths(ws, [42, 12, 12, 9, 11, 12, 12, 12, 12, 10, 10, 11])
     row = heading(ws, 1, f"Daily hydraulics report: {title}", span=12, title=True)
     c = put(ws, row, 1, cautions.CELL, "bf_note")
     c.font = Font(name="Arial", size=8, italic=True, color=PALETTE["bad"])
     ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=12)
-    row += 2
-    # ---- header block (two label/value column pairs)
+    row = _header_block(ws, row + 2, results)
+    row = _key_results(ws, row, results, refs, system)
+    row += 1
+    if len(results.trend) > 1:
+        row = _trend_table(ws, row, results, system) + 1
+    row = _run_block(ws, row, results)
+    put(
+        ws,
+        row + 1,
+        1,
+        "Detail on the following sheets; every caution and note on 'Cautions'; "
+        "units follow the case (" + system + ").",
+        "bf_note",
+    )
+    ws.merge_cells(start_row=row + 1, start_column=1, end_row=row + 1, end_column=12)
+    setup_print(ws, title, fit_height=1)
+    ws.freeze_panes = None
+    return ws
+
+
+def _header_block(ws, row, results) -> int:
+    """The header: the well and the report on the left, the hole and the operation on the right (two
+    label/value column pairs).  Returns the row after the block's blank line."""
+    left, right = _header_pairs(results)
+    for i, ((lk, lv), (rk, rv)) in enumerate(zip(left, right, strict=True)):
+        put(ws, row + i, 1, lk, "bf_note")
+        put(ws, row + i, 2, str(lv), "bf_cell")
+        ws.merge_cells(start_row=row + i, start_column=2, end_row=row + i, end_column=5)
+        put(ws, row + i, 6, rk, "bf_note")
+        put(ws, row + i, 7, str(rv), "bf_cell")
+        ws.merge_cells(start_row=row + i, start_column=7, end_row=row + i, end_column=12)
+    return row + len(left) + 1
+
+
+def _header_pairs(results):
+    """The header's (label, value) pairs: left column (well, operator, rig, location, period,
+    mud check) and right column (depths, hole, last shoe, density, rate, method)."""
+    case, system = results.case, results.case.unit_system
+    chk = case.checks[-1]
     m = case.meta
     last_shoe = max(case.casings, key=lambda s: s.bottom) if case.casings else None
     left = [
@@ -168,7 +202,7 @@ def write_summary(ws, results, refs, title):
         ("report period", m.get("report_period", "")),
         ("mud check", f"{chk.label}  ({chk.values.get('fluid', '')})"),
     ]
-    bit_tvd = res.bit_tvd
+    bit_tvd = results.circulation.bit_tvd
     oh_d = case.open_hole.get("diameter") or case.open_hole["bit_size"]
     right = [
         (
@@ -194,41 +228,23 @@ def write_summary(ws, results, refs, title):
         ),
         ("hydraulics method", results.method),
     ]
-    for i, ((lk, lv), (rk, rv)) in enumerate(zip(left, right, strict=True)):
-        put(ws, row + i, 1, lk, "bf_note")
-        put(ws, row + i, 2, str(lv), "bf_cell")
-        ws.merge_cells(start_row=row + i, start_column=2, end_row=row + i, end_column=5)
-        put(ws, row + i, 6, rk, "bf_note")
-        put(ws, row + i, 7, str(rv), "bf_cell")
-        ws.merge_cells(start_row=row + i, start_column=7, end_row=row + i, end_column=12)
-    row += len(left) + 1
-    row = _key_results(ws, row, results, refs, system)
-    row += 1
-    if len(results.trend) > 1:
-        row = _trend_table(ws, row, results, system) + 1
+    return left, right
+
+
+def _run_block(ws, row, results) -> int:
+    """The run information: version, run time, inputs hash and case source."""
     row = heading(ws, row, "Run", span=12)
     for k, v in (
         ("boreflow version", results.version),
         ("run time", results.run_time),
-        ("inputs hash (SHA-256)", case.hash),
-        ("case source", case.source),
+        ("inputs hash (SHA-256)", results.case.hash),
+        ("case source", results.case.source),
     ):
         put(ws, row, 1, k, "bf_note")
         put(ws, row, 2, str(v), "bf_cell")
         ws.merge_cells(start_row=row, start_column=2, end_row=row, end_column=12)
         row += 1
-    put(
-        ws,
-        row + 1,
-        1,
-        "Detail on the following sheets; every caution and note on 'Cautions'; "
-        "units follow the case (" + system + ").",
-        "bf_note",
-    )
-    ws.merge_cells(start_row=row + 1, start_column=1, end_row=row + 1, end_column=12)
-    setup_print(ws, title, fit_height=1)
-    ws.freeze_panes = None
-    return ws
+    return row
 
 
 def _key_results(ws, row, results, refs, system) -> int:
