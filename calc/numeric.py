@@ -4,7 +4,14 @@ from __future__ import annotations
 
 import numpy as np
 
-__all__ = ["bisect_increasing", "depth_weights", "float_or_array", "scalar_or_array"]
+__all__ = [
+    "bisect_increasing",
+    "depth_weights",
+    "first_positive",
+    "float_or_array",
+    "grid_with_switches",
+    "scalar_or_array",
+]
 
 
 def bisect_increasing(fun, lo, hi, *, iterations: int = 64, log: bool = False):
@@ -29,6 +36,51 @@ def bisect_increasing(fun, lo, hi, *, iterations: int = 64, log: bool = False):
         a = np.where(up, a, m)
     m = 0.5 * (a + b)
     return np.exp(m) if log else m
+
+
+def grid_with_switches(regime_of, grid, *, iterations: int = 48, passes: int = 3):
+    """``grid`` (> 0, increasing) with both ends of a tight bracket around every point where a
+    column of ``regime_of`` changes: the scan on which a piecewise-increasing curve with jumps
+    at regime changes shows its every local maximum (the left limit at each jump).
+
+    ``regime_of(x)`` maps a 1-D array of points to an integer array ``(len(x), columns)`` (the
+    flow regime of each interval).  Each cell of the grid in which a column changes is bisected
+    in ``log(x)`` for that column's first change (``iterations`` steps, all cells and columns
+    at once); ``passes`` repeats catch a second change of one column inside one cell.
+
+    >>> g = grid_with_switches(lambda x: (x[:, None] > 2.5).astype(int), np.array([1.0, 4.0]))
+    >>> g.size, bool(g[1] <= 2.5 < g[2]), bool(g[2] / g[1] - 1.0 < 1e-12)
+    (4, True, True)
+    """
+    g = np.asarray(grid, dtype=float)
+    r = np.asarray(regime_of(g))
+    for _ in range(passes):
+        k, col = np.nonzero(r[1:] != r[:-1])
+        wide = g[k + 1] / g[k] > 1.0 + 1e-12
+        k, col = k[wide], col[wide]
+        if not k.size:
+            break
+        a, b = np.log(g[k]), np.log(g[k + 1])
+        ra = r[k, col]
+        rows = np.arange(k.size)
+        for _ in range(iterations):
+            m = 0.5 * (a + b)
+            same = np.asarray(regime_of(np.exp(m)))[rows, col] == ra
+            a = np.where(same, m, a)
+            b = np.where(same, b, m)
+        g = np.unique(np.concatenate([g, np.exp(a), np.exp(b)]))
+        r = np.asarray(regime_of(g))
+    return g
+
+
+def first_positive(values):
+    """Index along axis 0 of the first value > 0 in each column, and whether there is one.
+
+    >>> first_positive(np.array([[-1.0, -1.0], [2.0, -1.0], [-1.0, -1.0]]))
+    (array([1, 0]), array([ True, False]))
+    """
+    pos = np.asarray(values) > 0.0
+    return np.argmax(pos, axis=0), pos.any(axis=0)
 
 
 def scalar_or_array(x):
