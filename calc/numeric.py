@@ -7,6 +7,7 @@ import numpy as np
 __all__ = [
     "bisect_increasing",
     "depth_weights",
+    "first_change",
     "first_positive",
     "float_or_array",
     "grid_with_switches",
@@ -38,14 +39,41 @@ def bisect_increasing(fun, lo, hi, *, iterations: int = 64, log: bool = False):
     return np.exp(m) if log else m
 
 
-def grid_with_switches(regime_of, grid, *, iterations: int = 48, passes: int = 3):
+def first_change(changed, a, b, *, iterations: int, points: int = 1, log: bool = False):
+    """Narrow brackets ``[a, b]`` onto the first point where ``changed`` turns True.
+
+    ``changed(x)`` maps an array ``(len(a), points)`` of trial points (row i inside bracket i)
+    to booleans; it is False at ``a`` and True at ``b``.  Each step tries ``points`` equally
+    spaced interior points of every bracket at once (``points=1``: bisection) and keeps the
+    sub-bracket before the first True, so the bracket shrinks by ``points + 1`` per step.
+    ``log=True`` spaces the points in ``log(x)`` (``a, b > 0``).  Returns the final (a, b).
+
+    >>> a, b = first_change(lambda x: x > 0.3, np.array([0.0]), np.array([1.0]), iterations=20)
+    >>> bool(a[0] <= 0.3 < b[0]), bool(b[0] - a[0] < 1e-6)
+    (True, True)
+    """
+    a = np.log(np.asarray(a, dtype=float)) if log else np.asarray(a, dtype=float).copy()
+    b = np.log(np.asarray(b, dtype=float)) if log else np.asarray(b, dtype=float).copy()
+    frac = np.arange(1, points + 1) / (points + 1.0)
+    rows = np.arange(a.size)
+    for _ in range(iterations):
+        x = a[:, None] + (b - a)[:, None] * frac[None, :]
+        hit = np.asarray(changed(np.exp(x) if log else x), dtype=bool)
+        j = np.where(hit.any(axis=1), np.argmax(hit, axis=1), points)  # first True (or b)
+        ext = np.concatenate([a[:, None], x, b[:, None]], axis=1)
+        a, b = ext[rows, j], ext[rows, j + 1]
+    return (np.exp(a), np.exp(b)) if log else (a, b)
+
+
+def grid_with_switches(regime_of, grid, *, iterations: int = 48, points: int = 1,
+                       passes: int = 3):  # fmt: skip
     """``grid`` (> 0, increasing) with both ends of a tight bracket around every point where a
     column of ``regime_of`` changes: the scan on which a piecewise-increasing curve with jumps
     at regime changes shows its every local maximum (the left limit at each jump).
 
     ``regime_of(x)`` maps a 1-D array of points to an integer array ``(len(x), columns)`` (the
-    flow regime of each interval).  Each cell of the grid in which a column changes is bisected
-    in ``log(x)`` for that column's first change (``iterations`` steps, all cells and columns
+    flow regime of each interval).  Each cell of the grid in which a column changes is narrowed
+    in ``log(x)`` onto that column's first change (:func:`first_change`, all cells and columns
     at once); ``passes`` repeats catch a second change of one column inside one cell.
 
     >>> g = grid_with_switches(lambda x: (x[:, None] > 2.5).astype(int), np.array([1.0, 4.0]))
@@ -60,15 +88,15 @@ def grid_with_switches(regime_of, grid, *, iterations: int = 48, passes: int = 3
         k, col = k[wide], col[wide]
         if not k.size:
             break
-        a, b = np.log(g[k]), np.log(g[k + 1])
         ra = r[k, col]
-        rows = np.arange(k.size)
-        for _ in range(iterations):
-            m = 0.5 * (a + b)
-            same = np.asarray(regime_of(np.exp(m)))[rows, col] == ra
-            a = np.where(same, m, a)
-            b = np.where(same, b, m)
-        g = np.unique(np.concatenate([g, np.exp(a), np.exp(b)]))
+
+        def changed(x, col=col, ra=ra):
+            reg = np.asarray(regime_of(x.reshape(-1))).reshape((*x.shape, -1))
+            return np.take_along_axis(reg, col[:, None, None], axis=2)[..., 0] != ra[:, None]
+
+        a, b = first_change(changed, g[k], g[k + 1], iterations=iterations, points=points,
+                            log=True)  # fmt: skip
+        g = np.unique(np.concatenate([g, a, b]))
         r = np.asarray(regime_of(g))
     return g
 
