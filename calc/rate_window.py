@@ -16,6 +16,13 @@ q, fracture (loaded with cuttings at low rates) and SPP usually fall, but no mon
 The window is the widest run of sweep rates meeting every limit; each end is refined by linear
 interpolation of the limit that fails just outside it, and that limit is named as binding.
 One vectorised :func:`calc.circulation.circulate` call over all rates gives ECD and SPP.
+
+A friction law without a transitional zone makes the margins jump where a row of the loop
+changes regime, so a limit may fail between two sweep rates that both meet it, or an end may
+lie elsewhere than interpolation says.  Every regime change is therefore added to the sweep as
+a tight bracket; where a margin is not monotone over an end's sweep cell, or a limit fails at an
+added rate, the window is taken on that finer scan and the end is the first failing rate going
+outward from inside it (a ``non_monotone_curve`` note).  Monotone curves keep the sweep's ends.
 """
 
 from __future__ import annotations
@@ -322,8 +329,10 @@ def _first_crossings(well, fluid, qv, limits, old, run, kw):
     ):
         if outside < 0 or outside >= g.size:  # the window reaches the sweep's first/last rate
             if side == "low" and si != run[0]:
+                notes.append(_non_monotone_note(side, "lowest rate swept", qv[0], q_lo))
                 q_lo, b_lo, moved = float(qv[0]), "lowest rate swept", True
             if side == "high" and si != run[1]:
+                notes.append(_non_monotone_note(side, "highest rate swept", qv[-1], q_hi))
                 q_hi, b_hi, moved = float(qv[-1]), "highest rate swept", True
             continue
         if (si, so) == ((run[0], run[0] - 1) if side == "low" else (run[1], run[1] + 1)):
@@ -335,7 +344,7 @@ def _first_crossings(well, fluid, qv, limits, old, run, kw):
         return old
     n_runs = int((counts > 0).sum())
     notes = [n for n in notes if n.code != "window_split"]
-    notes += [_split_note(n_runs)] if n_runs > 1 else []
+    notes[:0] = [_split_note(n_runs)] if n_runs > 1 else []
     q_in, q_out = _bisect_ends(well, fluid, todo, names, kw) if todo else ((), ())
     for (_, _, side), k_in, k_out in zip(todo, q_in, q_out, strict=True):
         mi = _sweep(well, fluid, np.array([k_in, k_out]), **kw).limits
@@ -343,12 +352,15 @@ def _first_crossings(well, fluid, qv, limits, old, run, kw):
             np.array([k_in, k_out]), np.stack([mi[k] for k in names]), names, 0, 1, ""
         )
         q_old = q_lo if side == "low" else q_hi
+        if abs(q_end - q_old) <= 1e-9 * q_old:
+            continue  # the sweep's end was right after all (to the rounding of its search)
         notes.append(_non_monotone_note(side, name, q_end, q_old))
+        moved = True
         if side == "low":
             q_lo, b_lo = q_end, name
         else:
             q_hi, b_hi = q_end, name
-    return q_lo, q_hi, b_lo, b_hi, feasible, notes
+    return (q_lo, q_hi, b_lo, b_hi, feasible, notes) if moved else old
 
 
 def _bisect_ends(well, fluid, todo, names, kw):
@@ -380,10 +392,10 @@ def _non_monotone_note(side: str, name: str, q_end: float, q_old: float) -> Note
     return Note(
         "warning",
         "non_monotone_curve",
-        f"a limit does not change steadily with the flow rate (friction jumps where the flow "
-        f"regime changes): the window's {side} end is the first rate at which a limit fails "
-        f"going outward from inside the window, {{rate}} ({{limit}}), not {{interpolated}} "
-        f"from the sweep rates alone.",
+        f"a limit does not change steadily with the flow rate (it jumps where part of the "
+        f"loop changes flow regime): the window's {side} end is the first rate at which a "
+        f"limit fails going outward from inside the window, {{rate}} ({{limit}}), not "
+        f"{{interpolated}} from the sweep rates alone.",
         "operating window",
         values=(
             Value("rate", float(q_end), "flow_rate"),

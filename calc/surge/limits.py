@@ -1,10 +1,14 @@
 """Trip-speed limits: the highest running and pulling speeds keeping surge and swab inside the
 pore/fracture window (whole well) or an allowed pressure change (flat intervals).
 
-Δp rises monotonically with the pipe speed, so each limit is a vectorised bisection in ln V
-over every allowance at once (``_speed_limit``; open string with the allowance at the bit:
-``_open_speed_limit``).  Where Δp(V) jumps (the Burkhardt fit changes K_c with the regime)
-the limit is the speed just below the jump, on the safe side.
+Each limit is a vectorised bisection in ln V over every allowance at once (``_speed_limit``;
+open string with the allowance at the bit: ``_open_speed_limit``).  Δp rises with the pipe
+speed within each flow regime but may fall where an interval changes regime (a friction law
+without a transitional zone, e.g. API RP 13D 1995 at Re = 2100; the Burkhardt K_c switch): a
+scan of speeds with every regime change bracketed checks that no speed below the bisected limit
+exceeds the allowance, and where one does the limit is the first crossing, re-bisected in the
+first bracketing cell (a ``non_monotone_curve`` note).  Where Δp(V) jumps up through the
+allowance the limit is the speed just below the jump, on the safe side.
 
 References
 ----------
@@ -345,8 +349,9 @@ def trip_speed_limits(
     .. math:: \\Delta p_{surge}(z) \\le (\\rho_{frac}(z) - m_f - \\rho)\\,g\\,TVD(z),\\quad
               \\Delta p_{swab}(z) \\le (\\rho - \\rho_{pore}(z) - m_p)\\,g\\,TVD(z)
 
-    Δp rises monotonically with the speed, so each depth's limit is found by vectorised
-    bisection (all depths at once); the smallest governs and its depth is named.
+    Each depth's limit is the first speed at which Δp reaches the allowance: vectorised
+    bisection (all depths at once), checked on a speed scan with every regime change bracketed
+    where Δp falls as a regime changes; the smallest governs and its depth is named.
 
     Parameters
     ----------
@@ -503,8 +508,9 @@ def trip_speed_limit(
     .. math:: \\sum_i \\left(\\frac{dp}{dL}\\right)_i\\!(V_{e,i}(f_{peak}V))\\,L_i
               = \\Delta p_{allowed}
 
-    Solved for V by vectorised bisection in ln V over every allowance at once (Δp rises
-    monotonically with V).  The intervals are those from surface down to the depth whose
+    Solved for V by vectorised bisection in ln V over every allowance at once, checked for an
+    earlier crossing where Δp falls as a regime changes (the limit is the first crossing).
+    The intervals are those from surface down to the depth whose
     allowance is given (:func:`trip_allowance`); with an open string they must reach the bit.
 
     Parameters
