@@ -31,7 +31,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.circulation import Margins, circulate
+from calc.circulation import CirculationResult, Margins, circulate
 from calc.circulation import well_parts as wp
 from calc.cleaning import Cuttings, cuttings_ecd_increment, hole_cleaning
 from calc.cleaning.indicators import cleaning_score
@@ -205,7 +205,7 @@ def _window_ends(qv, limits: dict[str, np.ndarray]):
 class _Sweep:
     """Every limit of the window at a set of rates, with what the result reports."""
 
-    result: object
+    result: CirculationResult
     limits: dict[str, np.ndarray]
     cleaning: _Cleaning
     loaded: np.ndarray
