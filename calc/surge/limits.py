@@ -86,11 +86,15 @@ def _first_crossing(evaluate, excess_at, allow, lim, speed_bracket):
 
     evaluate(v) → (Δp per allowance (len(v), M) [Pa], regimes (len(v), columns)) for a 1-D
     array of speeds; excess_at(v, idx) → Δp − allowance of the entries ``idx`` at speeds ``v``.
-    Returns (limits, moved): ``moved`` where the first crossing replaced the bisected limit.
+    Returns (limits, moved, ambiguous, below): ``moved`` where the first crossing replaced
+    the bisected limit; ``ambiguous`` where a regime falls back as the speed rises (an open
+    string whose split has several solutions) and the limit is held at ``below`` [m/s], the
+    speed just under the first regime change (None where no regime falls back).
     """
     grid = np.geomspace(speed_bracket[0], speed_bracket[1], SCAN_POINTS)
     grid = grid_with_switches(lambda v: evaluate(v)[1], grid)
-    first, found = first_positive(evaluate(grid)[0] - allow[None, :])
+    dp, reg = evaluate(grid)
+    first, found = first_positive(dp - allow[None, :])
     moved = found & (first > 0) & (grid[first] < lim)
     out = lim.copy()
     if moved.any():
@@ -98,7 +102,22 @@ def _first_crossing(evaluate, excess_at, allow, lim, speed_bracket):
         a, b = grid[first[idx] - 1], grid[first[idx]]
         v = bisect_increasing(lambda x: excess_at(x, idx), a, b, iterations=50, log=True)
         out[idx] = _safe_side(v, a, b, 50)
-    return out, moved
+    # a regime that falls back as the speed rises (an open string's bore/annulus split with
+    # more than one solution) leaves Δp(V) undefined between its branches: no limit above the
+    # first regime change is guaranteed, so the limit is kept below it
+    # (flips narrower than the scan spacing can hide inside one bracketed regime change: an
+    # open-string limit is then not guaranteed beyond the scan's resolution)
+    back = np.any(np.diff(reg, axis=0) < 0, axis=-1)
+    ambiguous = np.zeros(out.shape, dtype=bool)
+    change = np.flatnonzero(np.any(np.diff(reg, axis=0) != 0, axis=-1))
+    if not change.size:
+        return out, moved, ambiguous, None
+    below = float(grid[change[0]])
+    if back.any():
+        ambiguous = out > below
+    if not ambiguous.any():
+        return out, moved, ambiguous, None
+    return np.where(ambiguous, below, out), moved & ~ambiguous, ambiguous, below
 
 
 def _regimes(p: SurgePaths, st, end):
@@ -147,10 +166,13 @@ def _speed_limit(p: SurgePaths, allow, weights, end, clinging, pf, speed_bracket
         wi = wf[idx] if wf.ndim else wf
         return np.sum(grad * p.length * wi, axis=-1) - flat[idx]
 
-    checked, moved = _first_crossing(evaluate, excess_at, flat, lim.reshape(-1), speed_bracket)
+    checked, moved, amb, below = _first_crossing(
+        evaluate, excess_at, flat, lim.reshape(-1), speed_bracket
+    )
     off = (allow <= 0) | stuck
     moved = moved.reshape(allow.shape) & ~off
-    return np.where(off, 0.0, checked.reshape(allow.shape)), stuck, moved, lim
+    amb = amb.reshape(allow.shape) & ~off
+    return np.where(off, 0.0, checked.reshape(allow.shape)), stuck, moved, lim, (amb, below)
 
 
 def _open_speed_limit(p: SurgePaths, allow, clinging, pf, speed_bracket):
@@ -158,8 +180,10 @@ def _open_speed_limit(p: SurgePaths, allow, clinging, pf, speed_bracket):
 
     At the limit both paths carry the allowed pressure change: the bore gives q_rel from
     bore(q_rel) = allow (ITP search to double precision), then the annulus gives V from
-    annulus(V, q_rel) = allow (log-bisection, safe side, checked for an earlier crossing) —
-    two sequential searches on the same equations instead of one nested in the other."""
+    annulus(V, q_rel) = allow (log-bisection, safe side) — two sequential searches on the same
+    equations instead of one nested in the other.  The result is checked for an earlier
+    crossing of the surge solver's own Δp(V) (:func:`_first_crossing`), and re-bisected on it
+    where one exists (a bore or annulus loss that falls at a regime change)."""
     allow = np.asarray(allow, dtype=float)
     lo = np.full(allow.shape, float(speed_bracket[0]))
     hi = np.full(allow.shape, float(speed_bracket[1]))
@@ -175,23 +199,26 @@ def _open_speed_limit(p: SurgePaths, allow, clinging, pf, speed_bracket):
 
     stuck = (allow > 0) & (np.asarray(excess(lo)) >= 0)
     lim = _safe_side(bisect_increasing(excess, lo, hi, iterations=50, log=True), lo, hi, 50)
-    flat, qf = allow.reshape(-1), np.asarray(q_rel).reshape(-1)
+    flat = allow.reshape(-1)
 
+    # the check runs on the pressure change the surge solver gives at each speed (q_rel from
+    # the bore/annulus balance at that speed): the split found above assumes one q_rel per
+    # allowance, which a bore loss that falls at a regime change need not give
     def evaluate(v):
-        vp = v[:, None] * pf
-        st = annulus_state(p, vp, np.minimum(qf[None, :], vp * a_min), clinging)
-        reg = np.asarray(st.regime)
-        return np.sum(st.gradient * p.length, axis=-1), reg.reshape(v.size, -1)
+        st = solve(p, v * pf, "open", clinging)
+        dp = np.sum(st.gradient * p.length, axis=-1)
+        return dp[:, None] * np.ones(flat.size), _regimes(p, st, "open")
 
     def excess_at(v, idx):
-        vp = v * pf
-        grad = annulus_state(p, vp, np.minimum(qf[idx], vp * a_min), clinging).gradient
-        return np.sum(grad * p.length, axis=-1) - flat[idx]
+        return np.sum(solve(p, v * pf, "open", clinging).gradient * p.length, axis=-1) - flat[idx]
 
-    checked, moved = _first_crossing(evaluate, excess_at, flat, lim.reshape(-1), speed_bracket)
+    checked, moved, amb, below = _first_crossing(
+        evaluate, excess_at, flat, lim.reshape(-1), speed_bracket
+    )
     off = (allow <= 0) | stuck
     moved = moved.reshape(allow.shape) & ~off
-    return np.where(off, 0.0, checked.reshape(allow.shape)), stuck, moved, lim
+    amb = amb.reshape(allow.shape) & ~off
+    return np.where(off, 0.0, checked.reshape(allow.shape)), stuck, moved, lim, (amb, below)
 
 
 def _non_monotone_note(what: str, moved, first, later) -> Note | None:
@@ -215,6 +242,24 @@ def _non_monotone_note(what: str, moved, first, later) -> Note | None:
             Value("later", float(later[j]), "trip_speed"),
         ),
     )
+
+
+def _split_note(what: str, ambiguous, below) -> list[Note]:
+    """Caution where an open string's split is not unique and the limit is held below it."""
+    if not np.any(ambiguous):
+        return []
+    return [
+        Note(
+            "caution",
+            "open_split_not_unique",
+            f"the {what} of the open string is not unique above {{below}}: the split between "
+            f"bore and annulus has more than one solution there (the flow regime flips back as "
+            f"the speed rises), so no higher limit can be guaranteed; at {{count}} point(s) the "
+            f"limit is held at {{below}}, just below the first regime change.",
+            "trip speed",
+            values=(Value("count", float(np.sum(ambiguous))), Value("below", below, "trip_speed")),
+        )
+    ]
 
 
 def _allowance_notes(what: str, allow, stuck, slowest: float) -> list[Note]:
@@ -399,7 +444,7 @@ def trip_speed_limits(
     # surge and swab have the same magnitude in the steady model: bisect both sets of depths in
     # one vectorised pass (running limits first, pulling limits second)
     allow = np.concatenate([allow_surge, allow_swab])
-    lim, stuck, moved, later = _speed_limit(
+    lim, stuck, moved, later, amb = _speed_limit(
         p, allow, np.concatenate([w, w]), end, clinging, pf, bracket
     )
     limits = [lim[: md.size], lim[md.size :]]
@@ -407,6 +452,7 @@ def trip_speed_limits(
         notes += _allowance_notes(what, allow[part], stuck[part], bracket[0])
         nm = _non_monotone_note(what, moved[part], lim[part], later[part])
         notes += [nm] if nm else []
+        notes += _split_note(what, amb[0][part], amb[1])
     run, pull = limits
     ir, ip = int(np.argmin(run)), int(np.argmin(pull))
     for lim, what in ((run, "running"), (pull, "pulling")):
@@ -544,9 +590,9 @@ def trip_speed_limit(
         string_end=string_end, method=method, eccentricity=eccentricity,
     )  # fmt: skip
     if end == "open":
-        lim, stuck, moved, later = _open_speed_limit(p, allow, clinging, pf, bracket)
+        lim, stuck, moved, later, amb = _open_speed_limit(p, allow, clinging, pf, bracket)
     else:
-        lim, stuck, moved, later = _speed_limit(p, allow, 1.0, end, clinging, pf, bracket)
+        lim, stuck, moved, later, amb = _speed_limit(p, allow, 1.0, end, clinging, pf, bracket)
     grad = solve(p, lim * pf, end, clinging).gradient
     at = DIRECTION_SIGN[direction] * np.sum(grad * p.length, axis=-1)
     limited = lim < 0.999 * bracket[1]
@@ -554,6 +600,7 @@ def trip_speed_limit(
     notes = _allowance_notes(what, allow, stuck, bracket[0])
     nm = _non_monotone_note(what, moved, lim, later)
     notes += [nm] if nm else []
+    notes += _split_note(what, amb[0], amb[1])
     if not np.all(limited):
         notes.append(_not_limiting_note(direction, bracket[1]))
     return IntervalTripLimit(
