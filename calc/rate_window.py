@@ -16,6 +16,13 @@ q, fracture (loaded with cuttings at low rates) and SPP usually fall, but no mon
 The window is the widest run of sweep rates meeting every limit; each end is refined by linear
 interpolation of the limit that fails just outside it, and that limit is named as binding.
 One vectorised :func:`calc.circulation.circulate` call over all rates gives ECD and SPP.
+
+A friction law without a transitional zone makes the margins jump where a row of the loop
+changes regime, so a limit may fail between two sweep rates that both meet it, or an end may
+lie elsewhere than interpolation says.  Every regime change is therefore added to the sweep as
+a tight bracket; where a margin is not monotone over an end's sweep cell, or a limit fails at an
+added rate, the window is taken on that finer scan and the end is the first failing rate going
+outward from inside it (a ``non_monotone_curve`` note).  Monotone curves keep the sweep's ends.
 """
 
 from __future__ import annotations
@@ -24,11 +31,13 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.circulation import Margins, circulate
+from calc.circulation import CirculationResult, Margins, circulate
+from calc.circulation import well_parts as wp
 from calc.cleaning import Cuttings, cuttings_ecd_increment, hole_cleaning
 from calc.cleaning.indicators import cleaning_score
 from calc.errors import InputError, check_positive
 from calc.notes import Note
+from calc.numeric import first_change, grid_with_switches
 from calc.span import Span
 from calc.values import Value
 
@@ -159,8 +168,9 @@ def _tool_limits(well, qv) -> dict[str, np.ndarray]:
 
 
 def _window_ends(qv, limits: dict[str, np.ndarray]):
-    """(q_low, q_high, binding_low, binding_high, feasible, notes) of the widest run of sweep
-    rates meeting every limit; each end refined between sweep points (:func:`_end`)."""
+    """(q_low, q_high, binding_low, binding_high, feasible, notes, run) of the widest run of
+    sweep rates meeting every limit (``run``: its first and last sweep index, None when no rate
+    is feasible); each end refined between sweep points (:func:`_end`)."""
     names_all = list(limits)
     m_all = np.stack([limits[k] for k in names_all])  # (L, N)
     ok = np.all(m_all >= 0, axis=0)
@@ -179,25 +189,220 @@ def _window_ends(qv, limits: dict[str, np.ndarray]):
             )
         )
         both = " and ".join(failing)
-        return float(qv[0]), float(qv[-1]), both, both, False, notes
+        return float(qv[0]), float(qv[-1]), both, both, False, notes, None
     edges = np.diff(np.concatenate([[0], ok.astype(int), [0]]))
     starts, stops = np.flatnonzero(edges == 1), np.flatnonzero(edges == -1) - 1
     j = int(np.argmax(stops - starts))
     a, b = int(starts[j]), int(stops[j])
     if starts.size > 1:
-        notes.append(
-            Note(
-                "warning",
-                "window_split",
-                "the rates meeting every limit form {count} separate ranges; the widest is "
-                "reported.",
-                "operating window",
-                values=(Value("count", float(starts.size)),),
-            )
-        )
+        notes.append(_split_note(int(starts.size)))
     q_lo, b_lo = _end(qv, m_all, names_all, a, a - 1, "lowest rate swept")
     q_hi, b_hi = _end(qv, m_all, names_all, b, b + 1, "highest rate swept")
-    return q_lo, q_hi, b_lo, b_hi, True, notes
+    return q_lo, q_hi, b_lo, b_hi, True, notes, (a, b)
+
+
+@dataclass(frozen=True, eq=False)
+class _Sweep:
+    """Every limit of the window at a set of rates, with what the result reports."""
+
+    result: CirculationResult
+    limits: dict[str, np.ndarray]
+    cleaning: _Cleaning
+    loaded: np.ndarray
+    ecd: np.ndarray
+    fracture: np.ndarray
+    pore: np.ndarray
+    spp: np.ndarray
+
+
+def _sweep(
+    well,
+    fluid,
+    qv,
+    *,
+    rop,
+    cuttings,
+    slip_method,
+    criteria,
+    require,
+    method,
+    eccentricity,
+    hydrostatic,
+    window,
+    weak_points,
+    margins,
+    surface_rating,
+) -> _Sweep:
+    """The margin curve of every limit at the rates ``qv`` (one vectorised circulate call)."""
+    res = circulate(
+        well, fluid, qv, method=method, eccentricity=eccentricity, hydrostatic=hydrostatic,
+        window=window, weak_points=weak_points, margins=margins, surface_rating=surface_rating,
+    )  # fmt: skip
+    mt = res.margins
+    ecd = np.asarray(mt.ecd, dtype=float)  # (N, P)
+    limits = {}
+    cl = _cleaning_side(
+        well, fluid, qv, rop=rop, cuttings=cuttings, slip_method=slip_method, criteria=criteria,
+        require=require,
+    )  # fmt: skip
+    loaded = ecd
+    if cuttings is not None:
+        limits["hole cleaning"] = cl.indicator
+        if rop > 0:
+            loaded = ecd + np.asarray(
+                cuttings_ecd_increment(well, cl.loaded_density, float(fluid.density), mt.md)
+            )
+    frac_m = np.asarray(mt.fracture)[None, :] - loaded - margins.fracture
+    pore_m = ecd - np.asarray(mt.pore)[None, :] - margins.pore
+    limits["fracture"] = frac_m.min(axis=-1)
+    limits["pore"] = pore_m.min(axis=-1)
+    spp = np.asarray(res.standpipe_pressure, dtype=float)
+    if surface_rating is not None:
+        limits["surface rating"] = float(surface_rating) - spp
+    limits.update(_tool_limits(well, qv))
+    return _Sweep(res, limits, cl, loaded, ecd, frac_m, pore_m, spp)
+
+
+def _regime_function(well, fluid, method, eccentricity):
+    """``regimes(q)``: the flow regime of every row of the loop (surface lines, string,
+    annulus) at the rates ``q`` — the flow layer's calls of :func:`calc.circulation.circulate`
+    without the rest of the loop (one density, the fluid's pipe and annulus parameters)."""
+    pa = wp.parts(well)
+    law = wp.check_method(method)
+    rho = float(np.asarray(fluid.density, dtype=float).reshape(-1)[0])
+    pipe_d = np.concatenate([pa.line_d, pa.string_d])
+
+    def regimes(q):
+        qq = np.asarray(q, dtype=float)[:, None]
+        pf = wp.pipe(qq, pipe_d[None, :], rho, fluid.pipe_parameters, law)
+        af = wp.annulus(qq, pa.ann_hole[None, :], pa.ann_pipe[None, :], rho,
+                        fluid.annulus_parameters, law, eccentricity)  # fmt: skip
+        return np.concatenate([np.asarray(pf.regime), np.asarray(af.regime)], axis=-1)
+
+    return regimes
+
+
+def _monotone(m):
+    """Whether every row of ``m`` (limits × points) is monotone along the points."""
+    d = np.diff(m, axis=-1)
+    return bool(np.all(np.all(d >= 0, axis=-1) | np.all(d <= 0, axis=-1)))
+
+
+def _first_crossings(well, fluid, qv, limits, old, run, kw):
+    """The window's ends as the first failing rate going outward from its inside, where a
+    limit curve is not monotone between sweep rates.
+
+    Friction may jump where a row of the loop changes regime (a law without a transitional
+    zone), so ECD and SPP can fall as the rate rises; linear interpolation between sweep rates
+    then misplaces an end, and a limit may fail between two sweep rates that both meet it.
+    Every regime change is added to the sweep as a tight bracket
+    (:func:`calc.numeric.grid_with_switches`), so each local extreme of a margin is a scan
+    rate.  An end of the sweep's window (``old``, from sweep indices ``run``) stands where the
+    window on the scan has the same sweep rates and every margin is monotone over the scan rates
+    of that end's sweep cell; otherwise the end is bisected between the last rate meeting every
+    limit and the first failing one (a ``non_monotone_curve`` note gives both rates).
+    """
+    method, ecc = kw["method"], kw["eccentricity"]
+    regimes = _regime_function(well, fluid, method, ecc)
+    g = grid_with_switches(regimes, qv, iterations=10, points=15)
+    orig = np.isin(g, qv)
+    if orig.all():
+        return old
+    names = list(limits)
+    extra = _sweep(well, fluid, g[~orig], **kw).limits
+    m = np.empty((len(names), g.size))
+    m[:, orig] = np.stack([limits[k] for k in names])
+    m[:, ~orig] = np.stack([extra[k] for k in names])
+    ok = np.all(m >= 0, axis=0)
+    edges = np.diff(np.concatenate([[0], ok.astype(int), [0]]))
+    starts, stops = np.flatnonzero(edges == 1), np.flatnonzero(edges == -1) - 1
+    counts = np.array([orig[i : k + 1].sum() for i, k in zip(starts, stops, strict=True)])
+    j = int(np.argmax(counts))  # the widest run by sweep rates (≥ 1: old run is feasible)
+    sweep_at = np.searchsorted(qv, g)  # sweep index of each scan rate that is a sweep rate
+    in_run = np.flatnonzero(orig[starts[j] : stops[j] + 1]) + starts[j]
+    ia, ib = int(sweep_at[in_run[0]]), int(sweep_at[in_run[-1]])
+    q_lo, q_hi, b_lo, b_hi, feasible, notes = old
+    todo, moved = [], False
+    for inside, outside, si, so, side in (
+        (starts[j], starts[j] - 1, ia, ia - 1, "low"),
+        (stops[j], stops[j] + 1, ib, ib + 1, "high"),
+    ):
+        if outside < 0 or outside >= g.size:  # the window reaches the sweep's first/last rate
+            if side == "low" and si != run[0]:
+                notes.append(_non_monotone_note(side, "lowest rate swept", qv[0], q_lo))
+                q_lo, b_lo, moved = float(qv[0]), "lowest rate swept", True
+            if side == "high" and si != run[1]:
+                notes.append(_non_monotone_note(side, "highest rate swept", qv[-1], q_hi))
+                q_hi, b_hi, moved = float(qv[-1]), "highest rate swept", True
+            continue
+        if (si, so) == ((run[0], run[0] - 1) if side == "low" else (run[1], run[1] + 1)):
+            lo_q, hi_q = sorted((qv[si], qv[so]))
+            if _monotone(m[:, (g >= lo_q) & (g <= hi_q)]):
+                continue  # the sweep's end (linear interpolation on a monotone cell) stands
+        todo.append((float(g[inside]), float(g[outside]), side))
+    if not todo and not moved:
+        return old
+    n_runs = int((counts > 0).sum())
+    notes = [n for n in notes if n.code != "window_split"]
+    notes[:0] = [_split_note(n_runs)] if n_runs > 1 else []
+    q_in, q_out = _bisect_ends(well, fluid, todo, names, kw) if todo else ((), ())
+    for (_, _, side), k_in, k_out in zip(todo, q_in, q_out, strict=True):
+        mi = _sweep(well, fluid, np.array([k_in, k_out]), **kw).limits
+        q_end, name = _end(
+            np.array([k_in, k_out]), np.stack([mi[k] for k in names]), names, 0, 1, ""
+        )
+        q_old = q_lo if side == "low" else q_hi
+        if abs(q_end - q_old) <= 1e-9 * q_old:
+            continue  # the sweep's end was right after all (to the rounding of its search)
+        notes.append(_non_monotone_note(side, name, q_end, q_old))
+        moved = True
+        if side == "low":
+            q_lo, b_lo = q_end, name
+        else:
+            q_hi, b_hi = q_end, name
+    return (q_lo, q_hi, b_lo, b_hi, feasible, notes) if moved else old
+
+
+def _bisect_ends(well, fluid, todo, names, kw):
+    """Narrow each (inside rate, outside rate) bracket onto the first rate failing a limit
+    going outward (:func:`calc.numeric.first_change`, 15 rates per bracket and step, all ends
+    in one sweep call per step; 10 steps: 16⁻¹⁰ ≈ 1e-12 of the scan cell)."""
+    q_in = np.array([t[0] for t in todo])
+    q_out = np.array([t[1] for t in todo])
+
+    def fails(x):
+        lim = _sweep(well, fluid, x.reshape(-1), **kw).limits
+        bad = np.any(np.stack([lim[k] for k in names]) < 0, axis=0)
+        return bad.reshape(x.shape)
+
+    return first_change(fails, q_in, q_out, iterations=10, points=15)
+
+
+def _split_note(count: int) -> Note:
+    return Note(
+        "warning",
+        "window_split",
+        "the rates meeting every limit form {count} separate ranges; the widest is reported.",
+        "operating window",
+        values=(Value("count", float(count)),),
+    )
+
+
+def _non_monotone_note(side: str, name: str, q_end: float, q_old: float) -> Note:
+    return Note(
+        "warning",
+        "non_monotone_curve",
+        f"a limit does not change steadily with the flow rate (it jumps where part of the "
+        f"loop changes flow regime): the window's {side} end is the first rate at which a "
+        f"limit fails going outward from inside the window, {{rate}} ({{limit}}), not "
+        f"{{interpolated}} from the sweep rates alone.",
+        "operating window",
+        values=(
+            Value("rate", float(q_end), "flow_rate"),
+            Value("limit", name),
+            Value("interpolated", float(q_old), "flow_rate"),
+        ),
+    )
 
 
 def operating_window(
@@ -260,39 +465,24 @@ def operating_window(
     if qv.ndim != 1 or qv.size < 2 or np.any(np.diff(qv) <= 0):
         raise InputError("flow rate sweep", qv.tolist() if qv.size < 7 else qv, "increasing, ≥ 2")
     margins = Margins() if margins is None else margins
-    res = circulate(
-        well, fluid, qv, method=method, eccentricity=eccentricity, hydrostatic=hydrostatic,
-        window=window, weak_points=tuple(weak_points), margins=margins,
-        surface_rating=surface_rating,
+    kw = dict(
+        rop=rop, cuttings=cuttings, slip_method=slip_method, criteria=criteria, require=require,
+        method=method, eccentricity=eccentricity, hydrostatic=hydrostatic, window=window,
+        weak_points=tuple(weak_points), margins=margins, surface_rating=surface_rating,
     )  # fmt: skip
-    mt = res.margins
-    ecd = np.asarray(mt.ecd, dtype=float)  # (N, P)
+    sw = _sweep(well, fluid, qv, **kw)
+    res, mt, limits, cl, loaded = sw.result, sw.result.margins, sw.limits, sw.cleaning, sw.loaded
+    ecd = sw.ecd
     notes = []
-    limits = {}
-    cl = _cleaning_side(
-        well, fluid, qv, rop=rop, cuttings=cuttings, slip_method=slip_method, criteria=criteria,
-        require=require,
-    )  # fmt: skip
-    loaded = ecd
-    if cuttings is not None:
-        limits["hole cleaning"] = cl.indicator
-        if rop > 0:
-            loaded = ecd + np.asarray(
-                cuttings_ecd_increment(well, cl.loaded_density, float(fluid.density), mt.md)
-            )
-    else:
+    if cuttings is None:
         notes.append(
             Note("info", "no_cleaning_limit", "no cuttings given: cleaning not limited", "window")
         )
-    frac_m = np.asarray(mt.fracture)[None, :] - loaded - margins.fracture
-    pore_m = ecd - np.asarray(mt.pore)[None, :] - margins.pore
-    limits["fracture"] = frac_m.min(axis=-1)
-    limits["pore"] = pore_m.min(axis=-1)
-    spp = np.asarray(res.standpipe_pressure, dtype=float)
-    if surface_rating is not None:
-        limits["surface rating"] = float(surface_rating) - spp
-    limits.update(_tool_limits(well, qv))
-    q_lo, q_hi, b_lo, b_hi, feasible, end_notes = _window_ends(qv, limits)
+    frac_m, pore_m, spp = sw.fracture, sw.pore, sw.spp
+    *old, run = _window_ends(qv, limits)
+    q_lo, q_hi, b_lo, b_hi, feasible, end_notes = (
+        old if run is None else _first_crossings(well, fluid, qv, limits, old, run, kw)
+    )
     notes += end_notes
     fi = np.argmin(frac_m, axis=-1)
     pi = np.argmin(pore_m, axis=-1)

@@ -1,10 +1,14 @@
 """Trip-speed limits: the highest running and pulling speeds keeping surge and swab inside the
 pore/fracture window (whole well) or an allowed pressure change (flat intervals).
 
-Δp rises monotonically with the pipe speed, so each limit is a vectorised bisection in ln V
-over every allowance at once (``_speed_limit``; open string with the allowance at the bit:
-``_open_speed_limit``).  Where Δp(V) jumps (the Burkhardt fit changes K_c with the regime)
-the limit is the speed just below the jump, on the safe side.
+Each limit is a vectorised bisection in ln V over every allowance at once (``_speed_limit``;
+open string with the allowance at the bit: ``_open_speed_limit``).  Δp rises with the pipe
+speed within each flow regime but may fall where an interval changes regime (a friction law
+without a transitional zone, e.g. API RP 13D 1995 at Re = 2100; the Burkhardt K_c switch): a
+scan of speeds with every regime change bracketed checks that no speed below the bisected limit
+exceeds the allowance, and where one does the limit is the first crossing, re-bisected in the
+first bracketing cell (a ``non_monotone_curve`` note).  Where Δp(V) jumps up through the
+allowance the limit is the speed just below the jump, on the safe side.
 
 References
 ----------
@@ -22,9 +26,16 @@ import numpy as np
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT
 from calc.circulation.pore_fracture import limits_at
 from calc.errors import InputError, check_choice, check_finite, check_nonnegative, check_positive
+from calc.flow import pipe_flow
 from calc.flow.solvers import itp_solve
 from calc.notes import Note
-from calc.numeric import bisect_increasing, depth_weights, scalar_or_array
+from calc.numeric import (
+    bisect_increasing,
+    depth_weights,
+    first_positive,
+    grid_with_switches,
+    scalar_or_array,
+)
 from calc.surge.clinging import check_clinging
 from calc.surge.emw import trip_allowance
 from calc.surge.solver import (
@@ -50,6 +61,12 @@ __all__ = [
 ]
 
 
+#: Speeds of the scan that checks each bisected limit for an earlier crossing: a log grid over
+#: the search bracket (≈ 4 % apart over the default five decades), to which every regime change
+#: of an interval is added as a tight bracket (:func:`calc.numeric.grid_with_switches`).
+SCAN_POINTS = 289
+
+
 def _safe_side(mid, lo, hi, iterations):
     """Step a log-bisection midpoint down by its final bracket width: the result lies below
     the last bracket's lower end, where the excess is ≤ 0.  Where Δp(V) jumps (the Burkhardt
@@ -57,14 +74,76 @@ def _safe_side(mid, lo, hi, iterations):
     return mid * np.exp(-np.log(hi / lo) / 2.0**iterations)
 
 
-def _speed_limit(p: SurgePaths, allow, weights, end, clinging, pf, speed_bracket):
-    """Average speed at which Σ gradient·length·weights reaches ``allow`` [m/s] (vectorised
-    bisection in ln V over every entry of ``allow`` at once).
+def _first_crossing(evaluate, excess_at, allow, lim, speed_bracket):
+    """The first crossing of the allowance where the bisected ``lim`` is a later one.
 
-    Returns (speeds, stuck): 0 where ``allow`` ≤ 0, and 0 where even the slowest speed of the
-    bracket exceeds the allowance (``stuck``: a yield stress gives a finite pressure change at
-    any motion in the steady model)."""
+    Δp(V) rises with V within each flow regime but may fall where an interval changes regime
+    (a friction law without a transitional zone, or the Burkhardt K_c switch): bisection over
+    the whole bracket then finds *a* crossing, not necessarily the first.  The check scans a
+    log grid of speeds plus both sides of every regime change, so that every local maximum of
+    Δp (the left limit at a jump) is a grid point; where some grid speed below ``lim`` already
+    exceeds the allowance, the limit is re-bisected in the first cell that brackets a crossing
+    (within a regime, so on a rising curve) and stepped to its safe side.
+
+    evaluate(v) → (Δp per allowance (len(v), M) [Pa], regimes (len(v), columns)) for a 1-D
+    array of speeds; excess_at(v, idx) → Δp − allowance of the entries ``idx`` at speeds ``v``.
+    Returns (limits, moved, ambiguous, below): ``moved`` where the first crossing replaced
+    the bisected limit; ``ambiguous`` where a regime falls back as the speed rises (an open
+    string whose split has several solutions) and the limit is held at ``below`` [m/s], the
+    speed just under the first regime change (None where no regime falls back).
+    """
+    grid = np.geomspace(speed_bracket[0], speed_bracket[1], SCAN_POINTS)
+    grid = grid_with_switches(lambda v: evaluate(v)[1], grid)
+    dp, reg = evaluate(grid)
+    first, found = first_positive(dp - allow[None, :])
+    moved = found & (first > 0) & (grid[first] < lim)
+    out = lim.copy()
+    if moved.any():
+        idx = np.flatnonzero(moved)
+        a, b = grid[first[idx] - 1], grid[first[idx]]
+        v = bisect_increasing(lambda x: excess_at(x, idx), a, b, iterations=50, log=True)
+        out[idx] = _safe_side(v, a, b, 50)
+    # a regime that falls back as the speed rises (an open string's bore/annulus split with
+    # more than one solution) leaves Δp(V) undefined between its branches: no limit above the
+    # first regime change is guaranteed, so the limit is kept below it
+    # (flips narrower than the scan spacing can hide inside one bracketed regime change: an
+    # open-string limit is then not guaranteed beyond the scan's resolution)
+    back = np.any(np.diff(reg, axis=0) < 0, axis=-1)
+    ambiguous = np.zeros(out.shape, dtype=bool)
+    change = np.flatnonzero(np.any(np.diff(reg, axis=0) != 0, axis=-1))
+    if not change.size:
+        return out, moved, ambiguous, None
+    below = float(grid[change[0]])
+    if back.any():
+        ambiguous = out > below
+    if not ambiguous.any():
+        return out, moved, ambiguous, None
+    return np.where(ambiguous, below, out), moved & ~ambiguous, ambiguous, below
+
+
+def _regimes(p: SurgePaths, st, end):
+    """Regime of every annular interval and, for an open string, of every bore interval at
+    the relative inflow (speeds axis + columns)."""
+    if end == "closed":
+        return np.asarray(st.regime)
+    ty, k, n = p.pipe_params
+    q = np.maximum(np.asarray(st.relative_inflow, dtype=float), 1e-12)
+    bore = pipe_flow(q[..., None], p.bore_d, density=p.rho, tau_y=ty, k=k, n=n, method=p.method)
+    return np.concatenate([np.asarray(st.regime), np.asarray(bore.regime)], axis=-1)
+
+
+def _speed_limit(p: SurgePaths, allow, weights, end, clinging, pf, speed_bracket):
+    """Average speed at which Σ gradient·length·weights first reaches ``allow`` [m/s]
+    (vectorised bisection in ln V over every entry of ``allow`` at once, checked for an
+    earlier crossing by :func:`_first_crossing`).
+
+    Returns (speeds, stuck, moved, bisected): 0 where ``allow`` ≤ 0, and 0 where even the
+    slowest speed of the bracket exceeds the allowance (``stuck``: a yield stress gives a finite
+    pressure change at any motion in the steady model); ``moved`` where the curve is not
+    monotone and the first crossing lies below the bisected one (``bisected``: the crossing
+    that bisection over the whole bracket found)."""
     allow = np.asarray(allow, dtype=float)
+    w = np.asarray(weights, dtype=float)
 
     def excess(v_avg):
         grad = solve(p, v_avg * pf, end, clinging, iterations=30).gradient
@@ -74,7 +153,27 @@ def _speed_limit(p: SurgePaths, allow, weights, end, clinging, pf, speed_bracket
     hi = np.full(allow.shape, float(speed_bracket[1]))
     stuck = (allow > 0) & (np.asarray(excess(lo)) >= 0)
     lim = _safe_side(bisect_increasing(excess, lo, hi, iterations=32, log=True), lo, hi, 32)
-    return np.where((allow <= 0) | stuck, 0.0, lim), stuck
+    flat = allow.reshape(-1)
+    wf = w.reshape(-1, w.shape[-1]) if w.ndim else w
+
+    def evaluate(v):
+        st = solve(p, v * pf, end, clinging, iterations=30)
+        dp = st.gradient * p.length
+        per = dp @ wf.T if wf.ndim else np.sum(dp, axis=-1)[:, None] * np.ones(flat.size)
+        return per, _regimes(p, st, end)
+
+    def excess_at(v, idx):
+        grad = solve(p, v * pf, end, clinging, iterations=30).gradient
+        wi = wf[idx] if wf.ndim else wf
+        return np.sum(grad * p.length * wi, axis=-1) - flat[idx]
+
+    checked, moved, amb, below = _first_crossing(
+        evaluate, excess_at, flat, lim.reshape(-1), speed_bracket
+    )
+    off = (allow <= 0) | stuck
+    moved = moved.reshape(allow.shape) & ~off
+    amb = amb.reshape(allow.shape) & ~off
+    return np.where(off, 0.0, checked.reshape(allow.shape)), stuck, moved, lim, (amb, below)
 
 
 def _open_speed_limit(p: SurgePaths, allow, clinging, pf, speed_bracket):
@@ -82,23 +181,86 @@ def _open_speed_limit(p: SurgePaths, allow, clinging, pf, speed_bracket):
 
     At the limit both paths carry the allowed pressure change: the bore gives q_rel from
     bore(q_rel) = allow (ITP search to double precision), then the annulus gives V from
-    annulus(V, q_rel) = allow (log-bisection, safe side) — two sequential searches on the
-    same equations instead of one nested in the other."""
+    annulus(V, q_rel) = allow (log-bisection, safe side) — two sequential searches on the same
+    equations instead of one nested in the other.  The result is checked for an earlier
+    crossing of the surge solver's own Δp(V) (:func:`_first_crossing`), and re-bisected on it
+    where one exists (a bore or annulus loss that falls at a regime change)."""
     allow = np.asarray(allow, dtype=float)
     lo = np.full(allow.shape, float(speed_bracket[0]))
     hi = np.full(allow.shape, float(speed_bracket[1]))
-    q_hi = hi * pf * float(np.min(p.area_o))
+    a_min = float(np.min(p.area_o))
+    q_hi = hi * pf * a_min
     q_rel = itp_solve(lambda q: bore_pressure(p, q) - allow, np.zeros_like(allow), q_hi, rtol=2e-16)
 
     def excess(v_avg):
         vp = v_avg * pf
-        qr = np.minimum(q_rel, vp * float(np.min(p.area_o)))
+        qr = np.minimum(q_rel, vp * a_min)
         grad = annulus_state(p, vp, qr, clinging).gradient
         return np.sum(grad * p.length, axis=-1) - allow
 
     stuck = (allow > 0) & (np.asarray(excess(lo)) >= 0)
     lim = _safe_side(bisect_increasing(excess, lo, hi, iterations=50, log=True), lo, hi, 50)
-    return np.where((allow <= 0) | stuck, 0.0, lim), stuck
+    flat = allow.reshape(-1)
+
+    # the check runs on the pressure change the surge solver gives at each speed (q_rel from
+    # the bore/annulus balance at that speed): the split found above assumes one q_rel per
+    # allowance, which a bore loss that falls at a regime change need not give
+    def evaluate(v):
+        st = solve(p, v * pf, "open", clinging)
+        dp = np.sum(st.gradient * p.length, axis=-1)
+        return dp[:, None] * np.ones(flat.size), _regimes(p, st, "open")
+
+    def excess_at(v, idx):
+        return np.sum(solve(p, v * pf, "open", clinging).gradient * p.length, axis=-1) - flat[idx]
+
+    checked, moved, amb, below = _first_crossing(
+        evaluate, excess_at, flat, lim.reshape(-1), speed_bracket
+    )
+    off = (allow <= 0) | stuck
+    moved = moved.reshape(allow.shape) & ~off
+    amb = amb.reshape(allow.shape) & ~off
+    return np.where(off, 0.0, checked.reshape(allow.shape)), stuck, moved, lim, (amb, below)
+
+
+def _non_monotone_note(what: str, moved, first, later) -> Note | None:
+    """Warning where Δp(V) falls at a regime change and the first crossing was taken."""
+    if not np.any(moved):
+        return None
+    first, later = np.asarray(first).reshape(-1), np.asarray(later).reshape(-1)
+    i = np.flatnonzero(np.asarray(moved).reshape(-1))
+    j = i[int(np.argmin(first[i]))]
+    return Note(
+        "warning",
+        "non_monotone_curve",
+        f"the {what} does not rise steadily with the trip speed (it falls where the flow "
+        f"regime changes): at {{count}} point(s) the allowance is first reached at a lower "
+        f"speed than the next crossing; the limit is the first crossing ({{first}}, not "
+        f"{{later}}).",
+        "trip speed",
+        values=(
+            Value("count", float(i.size)),
+            Value("first", float(first[j]), "trip_speed"),
+            Value("later", float(later[j]), "trip_speed"),
+        ),
+    )
+
+
+def _split_note(what: str, ambiguous, below) -> list[Note]:
+    """Caution where an open string's split is not unique and the limit is held below it."""
+    if not np.any(ambiguous):
+        return []
+    return [
+        Note(
+            "caution",
+            "open_split_not_unique",
+            f"the {what} of the open string is not unique above {{below}}: the split between "
+            f"bore and annulus has more than one solution there (the flow regime flips back as "
+            f"the speed rises), so no higher limit can be guaranteed; at {{count}} point(s) the "
+            f"limit is held at {{below}}, just below the first regime change.",
+            "trip speed",
+            values=(Value("count", float(np.sum(ambiguous))), Value("below", below, "trip_speed")),
+        )
+    ]
 
 
 def _allowance_notes(what: str, allow, stuck, slowest: float) -> list[Note]:
@@ -233,8 +395,9 @@ def trip_speed_limits(
     .. math:: \\Delta p_{surge}(z) \\le (\\rho_{frac}(z) - m_f - \\rho)\\,g\\,TVD(z),\\quad
               \\Delta p_{swab}(z) \\le (\\rho - \\rho_{pore}(z) - m_p)\\,g\\,TVD(z)
 
-    Δp rises monotonically with the speed, so each depth's limit is found by vectorised
-    bisection (all depths at once); the smallest governs and its depth is named.
+    Each depth's limit is the first speed at which Δp reaches the allowance: vectorised
+    bisection (all depths at once), checked on a speed scan with every regime change bracketed
+    where Δp falls as a regime changes; the smallest governs and its depth is named.
 
     Parameters
     ----------
@@ -282,13 +445,15 @@ def trip_speed_limits(
     # surge and swab have the same magnitude in the steady model: bisect both sets of depths in
     # one vectorised pass (running limits first, pulling limits second)
     allow = np.concatenate([allow_surge, allow_swab])
-    lim, stuck = _speed_limit(p, allow, np.concatenate([w, w]), end, clinging, pf, bracket)
+    lim, stuck, moved, later, amb = _speed_limit(
+        p, allow, np.concatenate([w, w]), end, clinging, pf, bracket
+    )
     limits = [lim[: md.size], lim[md.size :]]
-    for al, st, what in (
-        (allow_surge, stuck[: md.size], "surge"),
-        (allow_swab, stuck[md.size :], "swab"),
-    ):
-        notes += _allowance_notes(what, al, st, bracket[0])
+    for part, what in ((slice(None, md.size), "surge"), (slice(md.size, None), "swab")):
+        notes += _allowance_notes(what, allow[part], stuck[part], bracket[0])
+        nm = _non_monotone_note(what, moved[part], lim[part], later[part])
+        notes += [nm] if nm else []
+        notes += _split_note(what, amb[0][part], amb[1])
     run, pull = limits
     ir, ip = int(np.argmin(run)), int(np.argmin(pull))
     for lim, what in ((run, "running"), (pull, "pulling")):
@@ -390,8 +555,9 @@ def trip_speed_limit(
     .. math:: \\sum_i \\left(\\frac{dp}{dL}\\right)_i\\!(V_{e,i}(f_{peak}V))\\,L_i
               = \\Delta p_{allowed}
 
-    Solved for V by vectorised bisection in ln V over every allowance at once (Δp rises
-    monotonically with V).  The intervals are those from surface down to the depth whose
+    Solved for V by vectorised bisection in ln V over every allowance at once, checked for an
+    earlier crossing where Δp falls as a regime changes (the limit is the first crossing).
+    The intervals are those from surface down to the depth whose
     allowance is given (:func:`trip_allowance`); with an open string they must reach the bit.
 
     Parameters
@@ -425,14 +591,17 @@ def trip_speed_limit(
         string_end=string_end, method=method, eccentricity=eccentricity,
     )  # fmt: skip
     if end == "open":
-        lim, stuck = _open_speed_limit(p, allow, clinging, pf, bracket)
+        lim, stuck, moved, later, amb = _open_speed_limit(p, allow, clinging, pf, bracket)
     else:
-        lim, stuck = _speed_limit(p, allow, 1.0, end, clinging, pf, bracket)
+        lim, stuck, moved, later, amb = _speed_limit(p, allow, 1.0, end, clinging, pf, bracket)
     grad = solve(p, lim * pf, end, clinging).gradient
     at = DIRECTION_SIGN[direction] * np.sum(grad * p.length, axis=-1)
     limited = lim < 0.999 * bracket[1]
     what = "surge" if direction == "running" else "swab"
     notes = _allowance_notes(what, allow, stuck, bracket[0])
+    nm = _non_monotone_note(what, moved, lim, later)
+    notes += [nm] if nm else []
+    notes += _split_note(what, amb[0], amb[1])
     if not np.all(limited):
         notes.append(_not_limiting_note(direction, bracket[1]))
     return IntervalTripLimit(
