@@ -141,11 +141,12 @@ def _jump_tolerance(method, geometry, r, q, kappa, n, e):
     Δ ln g = 2Δln V + Δln f + Δln R, and by the mean-value theorem
     |Δ ln f| ≤ S_f·|Δ ln Re| with S_f the largest |d ln f/d ln Re| over the step:
 
-    * power-mean blends (api13d_2010_hb, bingham): S_f ≤ COMPONENT_SLOPE (+ the Darby exponent
-      term DARBY_EXPONENT_SLOPE for bingham), since a power mean's log-slope is a weighted
-      mean of its components' slopes;
+    * power-mean blends (api13d_2010_hb, bingham_darby_1992): S_f ≤ COMPONENT_SLOPE (+ the
+      Darby exponent term DARBY_EXPONENT_SLOPE for bingham_darby_1992), since a power mean's
+      log-slope is a weighted mean of its components' slopes;
     * linear interpolation in Re between the band-end values f_l = f(Re_l), f_t = f(Re_t)
-      (newtonian, power_law): inside the band d ln f/d ln Re = Re(f_t − f_l)/((Re_t − Re_l)f),
+      (newtonian, power_law; bingham interpolates the wall stress, the same bound with τ_w in
+      place of f): inside the band d ln f/d ln Re = Re(f_t − f_l)/((Re_t − Re_l)f),
       so S_f ≤ max(COMPONENT_SLOPE, |f_t − f_l|/min(f_l, f_t)·Re_t/(Re_t − Re_l)); f_l, f_t are
       the method's own values at the sweep rates nearest the band ends (within one step,
       which moves each by ≤ COMPONENT_SLOPE·step relatively, added to the ratio);
@@ -166,10 +167,16 @@ def _jump_tolerance(method, geometry, r, q, kappa, n, e):
     d_ln_v = np.abs(np.diff(np.log(q)))
     d_ln_re = np.abs(np.diff(np.log(re)))
     s_f = COMPONENT_SLOPE
-    if method == "bingham":
+    if method == "bingham_darby_1992":
         s_f += DARBY_EXPONENT_SLOPE
-    elif method in ("newtonian", "power_law"):
-        f = np.asarray(r.friction_factor, dtype=float)
+    elif method in ("newtonian", "power_law", "bingham"):
+        # linear interpolation in Re across the band: of f (newtonian, power_law) or of the
+        # wall stress (bingham, τ_w = τ_L + w(τ_T − τ_L)); for τ_w the same bound holds with
+        # the stresses at the band ends (τ_L rises and τ_T stays ≤ its band-end value inside
+        # the band, and Δ ln g = Δ ln τ_w)
+        f = np.asarray(
+            r.wall_shear_stress if method == "bingham" else r.friction_factor, dtype=float
+        )
         f_l, f_t = f[np.argmin(np.abs(re - lam))], f[np.argmin(np.abs(re - turb))]
         ratio = abs(f_t - f_l) / min(f_l, f_t) + 2 * COMPONENT_SLOPE * JUMP_STEP
         s_f = max(s_f, ratio * turb / (turb - lam))
@@ -187,7 +194,7 @@ def _continuity_fluid(method, u_ty, u_k, u_n):
     of :func:`fluid`; plain floats so that found cases can be kept as @example)."""
     if method == "newtonian":
         return 0.0, 5e-4 + u_k * (0.1 - 5e-4), 1.0
-    if method == "bingham":
+    if method in ("bingham", "bingham_darby_1992"):
         return 20.0 * u_ty, 5e-3 + u_k * (0.08 - 5e-3), 1.0
     n = 0.25 + 0.75 * u_n
     k = 0.02 + u_k * (2.0 - 0.02)

@@ -241,8 +241,14 @@ def test_flat_equals_whole_well_for_the_same_interval(end, method):
         lim.max_speed, d2, d1, L, density=f.density, tau_y=ty, k=k, n=n, d_bore=di,
         tfa=w.bit.tfa, string_end=end, method=method,
     )  # fmt: skip
-    assert np.allclose(at.total_pressure_change, allow, rtol=1e-6)
-    assert np.allclose(lim.pressure_at_limit, allow, rtol=1e-6)
+    capped = ~np.isclose(at.total_pressure_change, allow, rtol=1e-6)
+    if np.any(capped):
+        # an open string whose bore/annulus split is not unique above a regime change is held
+        # just below that change (safe side), and says so
+        assert end == "open" and any(n.code == "open_split_not_unique" for n in lim.notes)
+    assert not capped[0]  # the lower allowance lies below every regime change: inverted exactly
+    assert np.allclose(at.total_pressure_change[~capped], allow[~capped], rtol=1e-6)
+    assert np.allclose(lim.pressure_at_limit, at.total_pressure_change, rtol=1e-6)
     assert np.all(lim.pressure_at_limit <= allow * (1 + 1e-9))  # on the safe side
 
 
