@@ -16,14 +16,6 @@ from calc.units import from_si, label, unit_for
 __all__ = ["rheology_data"]
 
 
-def _unit(kind: str, system: str) -> tuple[str, str]:
-    unit = unit_for(kind, system)
-    text = label(unit)
-    if kind == "consistency":
-        text = text.replace("/", "·sⁿ/", 1) if "/" in text else text + "·sⁿ"
-    return unit, text
-
-
 def _conv(value, kind, system):
     if kind == "dimensionless":
         return value
@@ -31,7 +23,7 @@ def _conv(value, kind, system):
 
 
 def _fit_dict(f, system):
-    _, su = _unit("stress", system)
+    su = text.parameter_unit("stress", system)
     q = f.quality
     lo, hi = f.shear_rate_range
     return {
@@ -65,8 +57,8 @@ def _field(r, attr):
 
 def _fluid_dict(name, r, system):
     fits = fit_all(r)
-    _, su = _unit("stress", system)
-    _, vu = _unit("viscosity", system)
+    su = text.parameter_unit("stress", system)
+    vu = text.parameter_unit("viscosity", system)
     out = {
         "label": name,
         "mode": r.mode,
@@ -116,7 +108,7 @@ def _comparison_dict(c, system):
                 if ch.kind == "dimensionless"
                 else _conv(ch.change, ch.kind, system) - _conv(0.0, ch.kind, system),
                 "relative": ch.relative,
-                "unit": "" if ch.kind == "dimensionless" else _unit(ch.kind, system)[1],
+                "unit": text.parameter_unit(ch.kind, system),
                 "flagged": ch.flagged,
             }
         )

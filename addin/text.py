@@ -85,16 +85,20 @@ def display_number(v, kind: str, system: str) -> float | None:
 
 
 def display_values(v, kind: str, system: str):
-    """SI → the system's unit, arrays too (a list); None and non-finite values → None.
+    """SI → the system's unit, arrays too (a flat list); None and non-finite values → None;
+    a pure number (``kind`` None, "" or "dimensionless") as it is.
 
     >>> display_values([1318.0907, float("nan")], "density", "oilfield")[1] is None
     True
+    >>> display_values(None, "density", "oilfield") is None, display_values(0.7, None, "si")
+    (True, 0.7)
     """
-    a = np.asarray(v, dtype=float)
-    out = np.asarray(from_si(a, _unit(kind, system), kind), dtype=float)
+    a = np.asarray(np.nan if v is None else v, dtype=float)
+    plain = kind in (None, "", "dimensionless")
+    out = a if plain else np.asarray(from_si(a, _unit(kind, system), kind), dtype=float)
     if out.ndim == 0:
         return float(out) if np.isfinite(out) else None
-    return [float(x) if np.isfinite(x) else None for x in out]
+    return [float(x) if np.isfinite(x) else None for x in out.ravel()]
 
 
 def number_text(x: float, kind: str = "", spec: str = "") -> str:

@@ -9,24 +9,14 @@ from addin.report.compute import scalar
 from addin.report.sheet_cleaning import short_name
 from addin.report.sheet_window import allowed_ecd, binding_words
 from addin.rheology_data import rheology_data
-from calc.units import from_si, label, unit_for
+from calc.units import label, unit_for
 
 __all__ = ["results_data"]
 
 
 def _c(v, kind, system):
-    if v is None:
-        return None
-    a = np.asarray(v, dtype=float)
-    if kind in (None, "dimensionless"):
-        out = a
-    else:
-        out = np.asarray(from_si(a, unit_for(kind, system), kind))
-    out = np.where(np.isfinite(out), out, np.nan)
-    if out.ndim == 0:
-        x = float(out)
-        return None if np.isnan(x) else x
-    return [None if np.isnan(x) else float(x) for x in out.ravel()]
+    """SI → the case's unit (JSON numbers; non-finite → null): :func:`addin.text.display_values`."""
+    return text.display_values(v, kind, system)
 
 
 def results_data(results) -> dict:
