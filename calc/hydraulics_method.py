@@ -35,12 +35,13 @@ from __future__ import annotations
 
 from dataclasses import dataclass, replace
 
-from calc.errors import InputError
+from calc.errors import InputError, check_choice
 from calc.flow import FRICTION_LAWS
-from calc.registry import MethodRegistry
+from calc.registry import NOT_ASSESSED, MethodRegistry, Verification
 from calc.rheology import VISCOMETER_FITS
 
 __all__ = [
+    "CONSTANT_SETS",
     "DEFAULT_METHOD",
     "HYDRAULICS_METHODS",
     "HydraulicsMethod",
@@ -50,6 +51,11 @@ __all__ = [
 
 #: The hydraulics method used when none is named: API RP 13D (2010) Herschel-Bulkley.
 DEFAULT_METHOD = "api13d_2010_hb"
+
+#: Constant sets a method may be computed with: ``"exact"`` (field constants derived from SI,
+#: the default) or ``"as_printed"`` (the rounded constants printed in the published method, so
+#: an auditor can reproduce a printed worked example to its last digit).
+CONSTANT_SETS = ("exact", "as_printed")
 
 #: Registered hydraulics methods (presets), by name.
 HYDRAULICS_METHODS = MethodRegistry("hydraulics method")
@@ -73,6 +79,8 @@ class HydraulicsMethod:
     annulus_fit  viscometer fit for the annulus
     description  one line for users choosing a method
     source       the published method
+    constants    ``"exact"`` or ``"as_printed"`` (:data:`CONSTANT_SETS`)
+    status       how the method has been checked (:class:`calc.registry.Verification`)
     overrides    ``(field, value)`` pairs that replaced the preset's own choices (empty for
                  the preset as registered)
     """
@@ -83,11 +91,14 @@ class HydraulicsMethod:
     annulus_fit: str
     description: str = ""
     source: str = ""
+    constants: str = "exact"
+    status: Verification = NOT_ASSESSED
     overrides: tuple[tuple[str, str], ...] = ()
 
     def __post_init__(self):
         for key, registry in _OVERRIDABLE.items():
             registry.get(getattr(self, key))  # InputError naming the registry if unknown
+        check_choice("constants", self.constants, CONSTANT_SETS)
 
     @property
     def fits(self) -> str:
@@ -104,9 +115,12 @@ class HydraulicsMethod:
         return f"{self.name} (" + ", ".join(f"{k}={v}" for k, v in self.overrides) + ")"
 
 
-def _preset(name, friction, pipe_fit, annulus_fit, description, source) -> None:
-    preset = HydraulicsMethod(name, friction, pipe_fit, annulus_fit, description, source)
-    HYDRAULICS_METHODS.register(name, description, source)(preset)
+def _preset(name, friction, pipe_fit, annulus_fit, description, source, status=None) -> None:
+    status = status or NOT_ASSESSED
+    preset = HydraulicsMethod(
+        name, friction, pipe_fit, annulus_fit, description, source, status=status
+    )
+    HYDRAULICS_METHODS.register(name, description, source, status)(preset)
 
 
 _preset(
@@ -190,7 +204,8 @@ def resolve_method(method: str | HydraulicsMethod | None = None, **overrides) ->
         ``None`` for the default.
     **overrides : str
         ``friction=``, ``pipe_fit=``, ``annulus_fit=``: replace the preset's choice (each
-        checked against its registry); recorded in :attr:`HydraulicsMethod.overrides`.
+        checked against its registry); ``constants=`` one of :data:`CONSTANT_SETS`; recorded
+        in :attr:`HydraulicsMethod.overrides`.
 
     Raises
     ------
@@ -205,10 +220,12 @@ def resolve_method(method: str | HydraulicsMethod | None = None, **overrides) ->
     if not overrides:
         return preset
     for key, value in overrides.items():
+        if key == "constants":
+            check_choice("constants", value, CONSTANT_SETS)
+            continue
         if key not in _OVERRIDABLE:
-            raise InputError(
-                "hydraulics method override", key, ", ".join(_OVERRIDABLE), problem="unknown"
-            )
+            allowed = ", ".join([*_OVERRIDABLE, "constants"])
+            raise InputError("hydraulics method override", key, allowed, problem="unknown")
         _OVERRIDABLE[key].get(value)
     changed = tuple((k, v) for k, v in overrides.items() if getattr(preset, k) != v)
     return replace(preset, **overrides, overrides=preset.overrides + changed)

@@ -18,7 +18,42 @@ from typing import Any
 
 from calc.errors import check_choice
 
-__all__ = ["MethodInfo", "MethodRegistry"]
+__all__ = ["NOT_ASSESSED", "STATUS_KINDS", "MethodInfo", "MethodRegistry", "Verification"]
+
+#: How a method's implementation has been checked, strongest first.  ``kind`` of
+#: :class:`Verification` is one of these words; the faces word them for users.
+STATUS_KINDS = (
+    "exact_solution",  # agrees with an exact analytical solution
+    "published_example",  # reproduces a published worked example, table or chart
+    "reference_library",  # agrees with a general-purpose reference library (e.g. fluids)
+    "independent_reimplementation",  # agrees with a second implementation written apart
+    "common_practice",  # a fact of the trade with no single published source
+    "from_memory",  # coefficients or structure recalled, not yet checked against the source
+    "not_assessed",  # nobody has said yet
+)
+
+
+@dataclass(frozen=True)
+class Verification:
+    """How one registered method has been checked.
+
+    kind      one of :data:`STATUS_KINDS`
+    evidence  what was compared, against what, and how close (one or two sentences; names the
+              published source, example or test)
+    caveats   limits a user must know (validity ranges, unchecked constants), one text each
+    """
+
+    kind: str = "not_assessed"
+    evidence: str = ""
+    caveats: tuple[str, ...] = ()
+
+    def __post_init__(self):
+        if self.kind not in STATUS_KINDS:
+            raise ValueError(f"verification kind '{self.kind}' is not one of {STATUS_KINDS}")
+
+
+#: The status of an entry nobody has assessed yet.
+NOT_ASSESSED = Verification()
 
 
 @dataclass(frozen=True)
@@ -27,6 +62,7 @@ class MethodInfo:
     func: Callable[..., Any]
     description: str
     source: str
+    status: Verification = NOT_ASSESSED
 
 
 class MethodRegistry:
@@ -44,14 +80,24 @@ class MethodRegistry:
         self.what = what
         self._entries: dict[str, MethodInfo] = {}
 
-    def register(self, name: str, description: str, source: str):
+    def register(
+        self, name: str, description: str, source: str, status: Verification | None = None
+    ):
         def deco(func):
             if name in self._entries:
                 raise ValueError(f"{self.what} '{name}' registered twice")
-            self._entries[name] = MethodInfo(name, func, description, source)
+            info = MethodInfo(name, func, description, source, status or NOT_ASSESSED)
+            self._entries[name] = info
             return func
 
         return deco
+
+    def set_status(self, name: str, status: Verification) -> None:
+        """Record how ``name`` has been checked (for entries registered before the evidence)."""
+        info = self.get(name)
+        self._entries[info.name] = MethodInfo(
+            info.name, info.func, info.description, info.source, status
+        )
 
     def get(self, name: str) -> MethodInfo:
         return self._entries[check_choice(self.what, name, self._entries)]
