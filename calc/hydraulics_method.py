@@ -188,6 +188,8 @@ _preset(
 def list_hydraulics_methods() -> list[HydraulicsMethod]:
     """The registered hydraulics methods, default first.
 
+    Examples
+    --------
     >>> [m.name for m in list_hydraulics_methods()][:2]
     ['api13d_2010_hb', 'api13d_1995_power_law']
     """

@@ -93,6 +93,8 @@ def spp_deviation(predicted, measured):
     Sign convention: **predicted − measured** (positive: the model predicts more than the gauge
     reads).  The one definition used by the calibration, the report and the JSON output.
 
+    Examples
+    --------
     >>> spp_deviation(2.0e7, 1.9e7)
     1000000.0
     """
@@ -105,6 +107,8 @@ def spp_deviation_percent(predicted, measured):
 
     The one definition used by the calibration (its tolerance check), the report and the JSON.
 
+    Examples
+    --------
     >>> round(spp_deviation_percent(2.0e7, 1.9e7), 4)
     5.2632
     """

@@ -289,6 +289,8 @@ def margin_status(margin: float, required: float | None = None) -> str:
     """State of a margin [kg/m³ or Pa]: ``"exceeded"`` below 0 (limit crossed),
     ``"near_limit"`` below the required margin, else ``"ok"``.
 
+    Examples
+    --------
     >>> margin_status(-1.0), margin_status(20.0, 50.0), margin_status(80.0, 50.0)
     ('exceeded', 'near_limit', 'ok')
     """

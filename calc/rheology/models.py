@@ -130,6 +130,8 @@ class _YieldPowerLaw(Model):
 class Newtonian(_YieldPowerLaw):
     """Newtonian fluid, τ = μγ̇.  ``mu`` [Pa·s] > 0.
 
+    Examples
+    --------
     >>> Newtonian(0.02).stress(100.0)
     2.0
     """
@@ -268,6 +270,8 @@ class CarreauYasuda(_Plateau):
     ``eta0`` > ``eta_inf`` ≥ 0 [Pa·s], ``lam`` [s] > 0, ``n`` [-] > 0, ``a`` [-] > 0.  At high
     shear d ln η / d ln γ̇ → n − 1 while η ≫ η∞.
 
+    Examples
+    --------
     >>> round(CarreauYasuda(1.0, 0.0, 1.0, 0.5).apparent_viscosity(0.0), 6)
     1.0
     """

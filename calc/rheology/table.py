@@ -55,6 +55,8 @@ class Plateau:
 def find_plateau(shear_rate, viscosity, tol: float = 0.1) -> Plateau:
     """Identify the zero-shear plateau of a sorted table (see the module docstring).
 
+    Examples
+    --------
     >>> g = np.logspace(-2, 2, 9)
     >>> p = find_plateau(g, 1.0 / (1.0 + g))
     >>> p.found, p.n_points, round(p.onset_rate, 3)
