@@ -90,6 +90,16 @@ NOT_TRADE = {
     "calc.circulation.result.as_scalar": _PLUMBING,
     "calc.circulation.result.reshape_flow": _PLUMBING,
     "calc.circulation.pore_fracture.as_plain": _PLUMBING,
+    "calc.circulation.well_parts.WellParts": _LOOP_STEP,
+    "calc.circulation.result.PathLosses": (
+        "result record (losses of one flow path) inside circulate()'s result; its Examples"
+    ),
+    "calc.circulation.pore_fracture.MarginTable": (
+        "result record returned by tabulate_margins(); index() is in its Examples"
+    ),
+    "calc.geometry.well.FlowIntervals": (
+        "record returned by Well.flow_intervals(); string/annulus are in Well's Examples"
+    ),
     "calc.circulation.result.CirculationResult": (
         "result record returned by circulate(); breakdown/ecd_at/profile are in circulate's "
         "Examples"
