@@ -10,7 +10,7 @@ import tomllib
 import pytest
 from _report_demo import ROOT
 
-from addin.case import parse_case
+from addin.case import parse_case, parse_quantity
 from addin.case_schema import SECTIONS
 from addin.workbook_input import Limits
 from calc.bit import total_flow_area
@@ -138,3 +138,30 @@ def test_minimal_example_builds_a_well():
     assert label(unit_for("depth", "metric")) == "m"
     assert label(unit_for("density", "metric")) == "kg/m³"
     assert label(unit_for("flow_rate", "metric")) == "L/min"
+
+
+def test_values_with_their_own_unit_parse():
+    """The bullet 'A value may carry its own unit' quotes values the parser reads in the unit
+    they name (checked against calc.units.to_si)."""
+    start = DOC.index("**A value may carry its own unit**")
+    bullet = DOC[start : DOC.index("\n*", start)]
+    quoted = re.findall(r'`"([\d.]+) ([^"]+)"`', bullet)
+    assert len(quoted) >= 4, f"CASE-FORMAT.md line {_line(start)}: examples not found"
+    kinds = ("density", "diameter", "flow_rate", "depth", "pressure")
+    for number, unit in quoted:
+        parsed = []
+        for kind in kinds:
+            try:
+                parsed.append(parse_quantity(f"{number} {unit}", kind, "oilfield"))
+            except InputError:
+                continue
+        assert parsed, f"CASE-FORMAT.md line {_line(start)}: '{number} {unit}' does not parse"
+        assert parsed[0] == pytest.approx(to_si(float(number), unit), rel=1e-12)
+
+
+def test_covers_example_names_demo_components():
+    """The `covers` example names two components of the demo case's string."""
+    m = re.search(r"\(e\.g\. `(\[.+?\])`\)", DOC)
+    names = tomllib.loads(f"x = {m.group(1)}")["x"]
+    demo = {c["name"] for c in DEMO["string"]}
+    assert set(names) <= demo, f"CASE-FORMAT.md line {_line(m.start())}: {names} not in the demo"

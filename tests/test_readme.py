@@ -71,7 +71,7 @@ class _Tour:
     def __init__(self):
         self.namespace: dict = {"__name__": "readme"}
         self.failures: list[str] = []
-        self.plain_output: list[tuple[int, str]] = []  # (block's first line, its stdout)
+        self.plain_output: list[tuple[int, str, str]] = []  # (first line, code, stdout)
         parser = doctest.DocTestParser()
         flags = doctest.ELLIPSIS | doctest.NORMALIZE_WHITESPACE
         for first_line, code in _python_blocks():
@@ -79,7 +79,7 @@ class _Tour:
                 buf = io.StringIO()
                 with contextlib.redirect_stdout(buf):
                     exec(compile(code, "README.md", "exec"), self.namespace)
-                self.plain_output.append((first_line, buf.getvalue()))
+                self.plain_output.append((first_line, code, buf.getvalue()))
                 continue
             test = parser.get_doctest(code, self.namespace, "README", "README.md", first_line - 1)
             report = io.StringIO()
@@ -112,7 +112,9 @@ _SNIPPET_LINE = re.compile(r"^(\w+) (\d+) (\{.*\}) ([\d.]+)$")
 
 def _snippet_rows(tour) -> dict[str, dict[str, float]]:
     """The methods snippet's fresh output: method → {"spp": psi, part: psi, …, "ecd": ppg}."""
-    (first_line, out) = next((f, o) for f, o in tour.plain_output if "circulate(" in README)
+    snippets = [(f, o) for f, code, o in tour.plain_output if "circulate(" in code]
+    assert len(snippets) == 1, "README: one plain python block (the methods loop) expected"
+    first_line, out = snippets[0]
     rows = {}
     for line in out.strip().splitlines():
         m = _SNIPPET_LINE.match(line.strip())
