@@ -113,8 +113,8 @@ def bit_hydraulic_power(q, pressure_drop):
 
     Examples
     --------
-    Lyons' 1714 is psi·gpm per hydraulic horsepower (1714.2 exactly from the unit
-    definitions), so 1,714 psi at 500 gpm is 500 hp to 4 figures:
+    Lyons' 1714 is psi·gpm per hydraulic horsepower (1,714.25 from the unit definitions),
+    so 1,714 psi at 500 gpm is 500·1714/1714.25 = 499.9 hp:
 
     >>> from calc.units import from_si, to_si
     >>> p = bit_hydraulic_power(to_si(500.0, "gpm"), to_si(1714.0, "psi"))

@@ -94,8 +94,8 @@ def shear_thinning_region(shear_rate, viscosity) -> np.ndarray:
     (its zero-shear plateau is left out):
 
     >>> g = np.logspace(-2, 2, 9)
-    >>> shear_thinning_region(g, np.full(9, 0.02)).all()
-    np.True_
+    >>> bool(shear_thinning_region(g, np.full(9, 0.02)).all())
+    True
     >>> shear_thinning_region(g, 1.0 / (1.0 + g)).astype(int).tolist()
     [0, 0, 0, 0, 1, 1, 1, 1, 1]
     """
