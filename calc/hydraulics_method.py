@@ -83,6 +83,14 @@ class HydraulicsMethod:
     status       how the method has been checked (:class:`calc.registry.Verification`)
     overrides    ``(field, value)`` pairs that replaced the preset's own choices (empty for
                  the preset as registered)
+
+    Examples
+    --------
+    >>> m = resolve_method("api13d_1995_power_law")
+    >>> m.fits, m.friction
+    ('api13d_1995_pipe | api13d_1995_annulus', 'api13d_1995_power_law')
+    >>> resolve_method("newtonian", friction="bingham").label
+    'newtonian (friction=bingham)'
     """
 
     name: str
@@ -188,6 +196,8 @@ _preset(
 def list_hydraulics_methods() -> list[HydraulicsMethod]:
     """The registered hydraulics methods, default first.
 
+    Examples
+    --------
     >>> [m.name for m in list_hydraulics_methods()][:2]
     ['api13d_2010_hb', 'api13d_1995_power_law']
     """
@@ -212,6 +222,14 @@ def resolve_method(method: str | HydraulicsMethod | None = None, **overrides) ->
     calc.errors.InputError
         An unknown method name (listing the registered names, with the nearest one), an
         unknown override field, or an override naming no registered fit or friction law.
+
+    Examples
+    --------
+    >>> resolve_method().name == DEFAULT_METHOD == "api13d_2010_hb"
+    True
+    >>> m = resolve_method("bingham", friction="newtonian")
+    >>> m.friction, m.overrides
+    ('newtonian', (('friction', 'newtonian'),))
     """
     if isinstance(method, HydraulicsMethod):
         preset = method

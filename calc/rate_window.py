@@ -460,6 +460,38 @@ def operating_window(
     Steady circulation; the margins shrink as the required margins grow (the window can only
     get narrower).  Cuttings load raises ECD by ΔECD of :func:`calc.cleaning.cuttings_ecd_increment`
     (friction of the laden mud neglected).
+
+    Examples
+    --------
+    A vertical 3,000 m well (9-5/8 in casing to 1,500 m, 8-1/2 in open hole, 150 m of
+    6-1/2 in collars under 5 in drill pipe, bit with 3x12 3x11 nozzles), 11.0 ppg mud, pore
+    9.0 → 10.5 ppg and fracture 14.0 → 12.0 ppg from surface to TD, a 3,000 psi surface
+    rating, no cuttings (so no cleaning limit):
+
+    >>> from calc.bit import Bit
+    >>> from calc.circulation import PressureWindow, circulate, hydraulics_fluid_from_readings
+    >>> from calc.geometry import DrillString, Hole, HoleSection, StringComponent, Survey, Well
+    >>> from calc.rheology import ViscometerReadings
+    >>> from calc.units import from_si, to_si
+    >>> casing = HoleSection("9-5/8 in casing", 0.0, 1500.0, to_si(8.681, "in"))
+    >>> pipe = [StringComponent("collars", to_si(6.5, "in"), to_si(2.8125, "in"), 150.0),
+    ...         StringComponent("drill pipe", to_si(5.0, "in"), to_si(4.276, "in"), "fill")]
+    >>> well = Well(Survey([0.0, 3000.0], [0.0, 0.0], [0.0, 0.0]),
+    ...             Hole.from_casing([casing], 3000.0, bit_size=to_si(8.5, "in")),
+    ...             DrillString(pipe), Bit(to_si(8.5, "in"), "3x12 3x11"), bit_depth=3000.0)
+    >>> mud = ViscometerReadings.from_mapping({600: 56, 300: 37, 200: 29, 100: 20, 6: 8, 3: 7})
+    >>> fluid = hydraulics_fluid_from_readings(mud, density=to_si(11.0, "ppg"))
+    >>> import numpy as np
+    >>> w = PressureWindow([0.0, 3000.0], to_si([9.0, 10.5], "ppg"), to_si([14.0, 12.0], "ppg"))
+    >>> win = operating_window(well, fluid, to_si(np.linspace(200, 900, 141), "gpm"), window=w,
+    ...                        surface_rating=to_si(3000.0, "psi"))
+    >>> round(from_si(win.q_low, "gpm")), round(from_si(win.q_high, "gpm")), win.binding_high
+    (200, 656, 'surface rating')
+
+    At the upper end the standpipe pressure is the rating:
+
+    >>> round(from_si(circulate(well, fluid, win.q_high).standpipe_pressure, "psi"))
+    3000
     """
     qv = np.atleast_1d(check_positive("flow rate", q, "m³/s")).astype(float)
     if qv.ndim != 1 or qv.size < 2 or np.any(np.diff(qv) <= 0):

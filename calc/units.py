@@ -105,7 +105,13 @@ _SUPER = {"²": "**2", "³": "**3", "·": "*", "⋅": "*", "μ": "u", "µ": "u"}
 
 
 def label(unit: str) -> str:
-    """Display label for a unit text, e.g. ``label("lbf_per_100ft_sq") == "lbf/100ft²"``."""
+    """Display label for a unit text, e.g. ``label("lbf_per_100ft_sq") == "lbf/100ft²"``.
+
+    Examples
+    --------
+    >>> label("lbf_per_100ft_sq"), label(unit_for("density", "metric"))
+    ('lbf/100ft²', 'kg/m³')
+    """
     return LABELS.get(unit, unit)
 
 
@@ -177,7 +183,18 @@ def _affine(text: str, kind: str | None) -> tuple[float, float]:
 
 
 def si_factor(unit: str, kind: str | None = None) -> float:
-    """Multiplier that takes a value in ``unit`` to SI base units (non-offset units only)."""
+    """Multiplier that takes a value in ``unit`` to SI base units (non-offset units only).
+
+    Examples
+    --------
+    The gallon is exactly 231 in³ and the inch 0.0254 m (international yard and pound, 1959),
+    so 1 gpm = 231·0.0254³/60 m³/s and the oil barrel is 42 gallons:
+
+    >>> round(si_factor("gpm") / (231 * 0.0254**3 / 60), 12)
+    1.0
+    >>> round(si_factor("bbl") / si_factor("gal"), 12)
+    42.0
+    """
     scale, offset = _affine(unit, kind)
     if offset != 0.0:
         raise InputError("unit", unit, "a unit without an offset (use to_si for temperatures)")
@@ -195,6 +212,11 @@ def _as_values(value, name: str):
 def to_si(value, unit: str, kind: str | None = None, name: str = "value"):
     """Convert ``value`` (scalar or array) from ``unit`` to SI base units.
 
+    Examples
+    --------
+    1 psi = 0.45359237 kg · 9.80665 m/s² / (0.0254 m)² exactly; 1 ppg = 0.45359237 kg per
+    231·0.0254³ m³ (119.826 kg/m³):
+
     >>> round(to_si(1.0, "psi"), 9)
     6894.757293168
     >>> round(to_si(11.0, "ppg", kind="density"), 4)
@@ -207,7 +229,17 @@ def to_si(value, unit: str, kind: str | None = None, name: str = "value"):
 
 
 def from_si(value, unit: str, kind: str | None = None, name: str = "value"):
-    """Convert ``value`` from SI base units to ``unit`` (inverse of :func:`to_si`)."""
+    """Convert ``value`` from SI base units to ``unit`` (inverse of :func:`to_si`).
+
+    Examples
+    --------
+    Water at 1000 kg/m³ is 8.345 ppg and 1.0 sg; 1 bar is 14.504 psi:
+
+    >>> round(from_si(1000.0, "ppg"), 3), round(from_si(1000.0, "sg"), 3)
+    (8.345, 1.0)
+    >>> round(from_si(1e5, "psi"), 3)
+    14.504
+    """
     scale, offset = _affine(unit, kind)
     arr = _as_values(value, name)
     out = (arr - offset) / scale
@@ -217,8 +249,14 @@ def from_si(value, unit: str, kind: str | None = None, name: str = "value"):
 def convert(value, from_unit: str, to_unit: str, kind: str | None = None):
     """Convert between two units of the same dimension.
 
+    Examples
+    --------
+    12.43 bbl/min is 12.43·42 = 522.06 gpm (42 US gallons to the oil barrel):
+
     >>> round(convert(12.43, "bbl/min", "gpm"), 6)
     522.06
+    >>> round(convert(68, "cP", "Pa*s"), 6)
+    0.068
     """
     si = to_si(value, from_unit, kind)
     if kind is None:
@@ -232,8 +270,12 @@ def convert(value, from_unit: str, to_unit: str, kind: str | None = None):
 def unit_for(kind: str, system: str = "oilfield") -> str:
     """Unit text for a quantity kind in a named unit system.
 
+    Examples
+    --------
     >>> unit_for("pressure", "metric")
     'bar'
+    >>> [label(unit_for("density", s)) for s in ("oilfield", "metric", "si")]
+    ['ppg', 'kg/m³', 'kg/m³']
     """
     sys_ = system.strip().lower() if isinstance(system, str) else system
     if sys_ not in UNIT_SYSTEMS:

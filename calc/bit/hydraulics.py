@@ -58,6 +58,18 @@ def nozzle_velocity(q, tfa):
     """Mean nozzle (jet) velocity v_n = Q/A [m/s]; ``q`` [m³/s], ``tfa`` [m²].
 
     Field form v_n[ft/s] = Q[gpm]/(3.117·A[in²]) (Lyons 1996, eq. 4-81).
+
+    Examples
+    --------
+    0.03 m³/s through 2 cm² is 150 m/s; in field units the SI form reproduces Lyons' 3.117
+    (522 gpm through 0.6098 in², six nozzles 3x12 3x11):
+
+    >>> nozzle_velocity(0.03, 2e-4)
+    150.0
+    >>> from calc.units import from_si, to_si
+    >>> v = from_si(nozzle_velocity(to_si(522.0, "gpm"), to_si(0.6098, "in**2")), "ft/s")
+    >>> round(v, 1), round(522.0 / (3.117 * 0.6098), 1)
+    (274.6, 274.6)
     """
     return float_or_array(np.asarray(q, dtype=float) / check_positive("TFA", tfa, "m2"))
 
@@ -98,6 +110,16 @@ def bit_hydraulic_power(q, pressure_drop):
     """Hydraulic power spent at the bit P_b = ΔP_b·Q [W] (field: HHP = ΔP·Q/1714, Lyons eq. 4-77).
 
     ``q`` [m³/s], ``pressure_drop`` [Pa].
+
+    Examples
+    --------
+    Lyons' 1714 is psi·gpm per hydraulic horsepower (1,714.25 from the unit definitions),
+    so 1,714 psi at 500 gpm is 500·1714/1714.25 = 499.9 hp:
+
+    >>> from calc.units import from_si, to_si
+    >>> p = bit_hydraulic_power(to_si(500.0, "gpm"), to_si(1714.0, "psi"))
+    >>> round(from_si(p, "hp"), 1)
+    499.9
     """
     return float_or_array(np.asarray(pressure_drop, dtype=float) * np.asarray(q, dtype=float))
 
@@ -106,6 +128,16 @@ def hsi(power, bit_size):
     """Hydraulic power per bit area HSI = P_b/(π d_bit²/4) [W/m²].
 
     ``power`` [W], ``bit_size`` [m].  Field: hp/in².
+
+    Examples
+    --------
+    An 8-1/2 in bit has a face of π·8.5²/4 = 56.75 in², so 56.75 hp at the bit is 1 hp/in²:
+
+    >>> import math
+    >>> from calc.units import from_si, to_si
+    >>> power = to_si(math.pi * 8.5**2 / 4, "hp")
+    >>> round(from_si(hsi(power, to_si(8.5, "in")), "hp/in**2"), 6)
+    1.0
     """
     d = check_positive("bit size", bit_size, "m")
     return float_or_array(np.asarray(power, dtype=float) / cross_section_area(d))
@@ -116,6 +148,14 @@ def impact_force(q, density, pressure_drop, discharge_coefficient=DEFAULT_DISCHA
 
     ``q`` [m³/s], ``density`` [kg/m³], ``pressure_drop`` [Pa].  Field form
     0.01823·C_d·Q·√(ρΔP_b) lbf (Lyons 1996, eq. 4-78; Guo & Liu 2011, eq. 2.89).
+
+    Examples
+    --------
+    With C_d = 1, 11.25 MPa across the nozzles of water (1000 kg/m³) gives a jet of
+    √(2ΔP/ρ) = 150 m/s, so at 0.03 m³/s the momentum flux is ρQv = 4,500 N:
+
+    >>> round(impact_force(0.03, 1000.0, 11.25e6, 1.0), 6)
+    4500.0
     """
     cd = np.asarray(discharge_coefficient, dtype=float)
     q = np.asarray(q, dtype=float)
@@ -143,6 +183,16 @@ class Bit:
     ports : int, optional
         Number of nozzle ports.
     name : str
+
+    Examples
+    --------
+    An 8-1/2 in bit with 3x12 3x11 nozzles: TFA = (π/4)·(3·(12/32)² + 3·(11/32)²) in² and a
+    face of π·8.5²/4 in²:
+
+    >>> from calc.units import from_si, to_si
+    >>> b = Bit(size=to_si(8.5, "in"), nozzles="3x12 3x11")
+    >>> b.nozzles, round(from_si(b.tfa, "in**2"), 4), round(from_si(b.area, "in**2"), 2)
+    ((12, 12, 12, 11, 11, 11), 0.6098, 56.75)
     """
 
     size: float
@@ -218,6 +268,21 @@ def bit_hydraulics(q, density, bit: Bit, standpipe_pressure=None) -> BitHydrauli
     ``standpipe_pressure`` [Pa], if given, yields the bit's share ΔP_b/p_sp.  Notes warn of a
     nozzle velocity above ~450 ft/s or an HSI below ~1 hp/in² (common practice, from
     memory — calc/METHODS.md §16.4).
+
+    Examples
+    --------
+    Lapeyrouse (2002), "Bit nozzle selection — optimized hydraulics" example, impact-force
+    branch: 297 gpm of 13.0 ppg mud through 0.26632 in² gives P_b = 1,489 psi (printed; its
+    constant 10,858 is C_d = 0.95, 0.024 % from the exact 10,860.6, see
+    tests/test_worked_examples_bit.py).  The bit size is not part of that step; 8-1/2 in here:
+
+    >>> from calc.units import from_si, to_si
+    >>> bit = Bit(size=to_si(8.5, "in"), tfa=to_si(0.26632, "in**2"))
+    >>> h = bit_hydraulics(to_si(297.0, "gpm"), to_si(13.0, "ppg"), bit, to_si(2500.0, "psi"))
+    >>> round(from_si(h.pressure_drop, "psi")), round(h.share_of_standpipe, 3)
+    (1489, 0.595)
+    >>> round(from_si(h.nozzle_velocity, "ft/s")), round(from_si(h.hydraulic_power, "hp"))
+    (358, 258)
     """
     qv = check_positive("flow rate", q, "m3/s")
     rho = check_positive("density", density, "kg/m3")

@@ -30,7 +30,17 @@ NOZZLE_RANGE = (6, 32)
 
 @dataclass(frozen=True)
 class NozzleSet:
-    """Parsed nozzle sizes (32nds of an inch; 0 = blanked) with their port count and notes."""
+    """Parsed nozzle sizes (32nds of an inch; 0 = blanked) with their port count and notes.
+
+    Examples
+    --------
+    Lapeyrouse (2002), "Bit nozzle selection" example: three 17/32 in jets, 0.664979 in²
+    (printed; exact 3·(π/4)·(17/32)² = 0.6649807 in²):
+
+    >>> from calc.units import from_si
+    >>> round(from_si(parse_nozzles("3x17").tfa, "in**2"), 6)
+    0.664981
+    """
 
     sizes: tuple[int, ...]
     ports: int | None

@@ -93,6 +93,8 @@ def spp_deviation(predicted, measured):
     Sign convention: **predicted − measured** (positive: the model predicts more than the gauge
     reads).  The one definition used by the calibration, the report and the JSON output.
 
+    Examples
+    --------
     >>> spp_deviation(2.0e7, 1.9e7)
     1000000.0
     """
@@ -105,6 +107,8 @@ def spp_deviation_percent(predicted, measured):
 
     The one definition used by the calibration (its tolerance check), the report and the JSON.
 
+    Examples
+    --------
     >>> round(spp_deviation_percent(2.0e7, 1.9e7), 4)
     5.2632
     """
@@ -114,7 +118,16 @@ def spp_deviation_percent(predicted, measured):
 
 def ecd_deviation(predicted, measured):
     """Predicted − measured ECD (e.g. at a downhole gauge) [kg/m³] (positive: the model
-    predicts a heavier ECD than the gauge reads)."""
+    predicts a heavier ECD than the gauge reads).
+
+    Examples
+    --------
+    Predicted 11.82 ppg against a gauge reading 11.75 ppg: 0.07 ppg heavier:
+
+    >>> from calc.units import from_si, to_si
+    >>> round(from_si(ecd_deviation(to_si(11.82, "ppg"), to_si(11.75, "ppg")), "ppg"), 6)
+    0.07
+    """
     return float_or_array(np.asarray(predicted, dtype=float) - np.asarray(measured, dtype=float))
 
 
@@ -155,6 +168,37 @@ def calibrate_friction(
     Exact for the model: the frictional losses are proportional to the multiplier, so the
     calibrated result reproduces ``measured_spp`` to rounding.  The deviation is also reported
     as a percentage of the prediction.
+
+    Examples
+    --------
+    A vertical 3,000 m well (9-5/8 in casing to 1,500 m, 8-1/2 in open hole, 150 m of
+    6-1/2 in collars under 5 in drill pipe, bit with 3x12 3x11 nozzles), 11.0 ppg mud:
+
+    >>> from calc.bit import Bit
+    >>> from calc.circulation import hydraulics_fluid_from_readings
+    >>> from calc.geometry import DrillString, Hole, HoleSection, StringComponent, Survey, Well
+    >>> from calc.rheology import ViscometerReadings
+    >>> from calc.units import from_si, to_si
+    >>> casing = HoleSection("9-5/8 in casing", 0.0, 1500.0, to_si(8.681, "in"))
+    >>> pipe = [StringComponent("collars", to_si(6.5, "in"), to_si(2.8125, "in"), 150.0),
+    ...         StringComponent("drill pipe", to_si(5.0, "in"), to_si(4.276, "in"), "fill")]
+    >>> well = Well(Survey([0.0, 3000.0], [0.0, 0.0], [0.0, 0.0]),
+    ...             Hole.from_casing([casing], 3000.0, bit_size=to_si(8.5, "in")),
+    ...             DrillString(pipe), Bit(to_si(8.5, "in"), "3x12 3x11"), bit_depth=3000.0)
+    >>> mud = ViscometerReadings.from_mapping({600: 56, 300: 37, 200: 29, 100: 20, 6: 8, 3: 7})
+    >>> fluid = hydraulics_fluid_from_readings(mud, density=to_si(11.0, "ppg"))
+    >>> q = to_si(500.0, "gpm")
+    >>> cal = calibrate_friction(well, fluid, q, to_si(2000.0, "psi"))
+    >>> round(from_si(cal.predicted_spp, "psi")), round(cal.multiplier, 3)
+    (1917, 1.067)
+
+    The multiplier is (measured − bit)/(string + annulus) and reproduces the gauge:
+
+    >>> fixed, friction = cal.fixed_loss, cal.frictional_loss
+    >>> bool(np.isclose(cal.multiplier, (to_si(2000.0, "psi") - fixed) / friction, rtol=1e-12))
+    True
+    >>> round(from_si(cal.calibrated.standpipe_pressure, "psi"), 6)
+    2000.0
     """
     if "friction_multiplier" in circulate_options:
         raise InputError(

@@ -75,6 +75,15 @@ class HydraulicsFluid:
         The fits themselves (quality, intermediates), when built from readings.
     notes : tuple of Note
         The fits' notes; :func:`~calc.circulation.circulate` passes them on.
+
+    Examples
+    --------
+    A Bingham fluid in the pipe, a power law in the annulus, read as (τ_y, K, n):
+
+    >>> from calc.rheology import Bingham, PowerLaw
+    >>> f = HydraulicsFluid(1318.0, Bingham(9.0, 0.019), PowerLaw(0.9, 0.55))
+    >>> f.pipe_parameters, f.annulus_parameters
+    ((9.0, 0.019, 1.0), (0.0, 0.9, 0.55))
     """
 
     density: float | np.ndarray
@@ -151,6 +160,23 @@ def hydraulics_fluid_from_readings(
     ============================  =========================  =========================
 
     The fit names are those of :data:`calc.rheology.VISCOMETER_FITS`.
+
+    Examples
+    --------
+    The API RP 13D (1995) method fits the power law through 600/300 rpm for the pipe
+    (n = 3.32·log₁₀(θ600/θ300)) and through 100/3 rpm for the annulus
+    (n = 0.657·log₁₀(θ100/θ3)):
+
+    >>> import math
+    >>> from calc.rheology import ViscometerReadings
+    >>> mud = ViscometerReadings.from_mapping({600: 56, 300: 37, 200: 29, 100: 20, 6: 8, 3: 7})
+    >>> f = hydraulics_fluid_from_readings(mud, "api13d_1995_power_law", density=1318.0)
+    >>> f.fits
+    'api13d_1995_pipe | api13d_1995_annulus'
+    >>> round(f.pipe_parameters[2], 3), round(3.32 * math.log10(56 / 37), 3)
+    (0.598, 0.598)
+    >>> round(f.annulus_parameters[2], 3), round(0.657 * math.log10(20 / 7), 3)
+    (0.3, 0.3)
     """
     preset = resolve_method(method)
     if density is None:

@@ -123,6 +123,47 @@ def circulate(
     (listed in ``CirculationResult.tools.covered``, with an info note); otherwise the drop is
     added on top of the bore friction.
 
+    Examples
+    --------
+    A vertical 3,000 m well (9-5/8 in casing to 1,500 m, 8-1/2 in open hole, 150 m of
+    6-1/2 in collars under 5 in drill pipe, bit with 3x12 3x11 nozzles), 11.0 ppg mud:
+
+    >>> from calc.bit import Bit
+    >>> from calc.circulation import hydraulics_fluid_from_readings
+    >>> from calc.geometry import DrillString, Hole, HoleSection, StringComponent, Survey, Well
+    >>> from calc.rheology import ViscometerReadings
+    >>> from calc.units import from_si, to_si
+    >>> casing = HoleSection("9-5/8 in casing", 0.0, 1500.0, to_si(8.681, "in"))
+    >>> pipe = [StringComponent("collars", to_si(6.5, "in"), to_si(2.8125, "in"), 150.0),
+    ...         StringComponent("drill pipe", to_si(5.0, "in"), to_si(4.276, "in"), "fill")]
+    >>> well = Well(Survey([0.0, 3000.0], [0.0, 0.0], [0.0, 0.0]),
+    ...             Hole.from_casing([casing], 3000.0, bit_size=to_si(8.5, "in")),
+    ...             DrillString(pipe), Bit(to_si(8.5, "in"), "3x12 3x11"), bit_depth=3000.0)
+    >>> mud = ViscometerReadings.from_mapping({600: 56, 300: 37, 200: 29, 100: 20, 6: 8, 3: 7})
+    >>> fluid = hydraulics_fluid_from_readings(mud, density=to_si(11.0, "ppg"))
+    >>> r = circulate(well, fluid, to_si(500.0, "gpm"))
+    >>> {k: round(from_si(v, "psi")) for k, v in r.breakdown().items() if v}
+    {'string': 980, 'bit': 681, 'annulus': 256}
+    >>> round(from_si(r.standpipe_pressure, "psi")), round(from_si(r.ecd_bit, "ppg"), 2)
+    (1917, 11.5)
+
+    The parts add up to the standpipe pressure; the bit's 681 psi is the field form
+    8.311e-5·11·500²/(0.95²·0.6098²) (Bourgoyne et al. 1986, ch. 4); the ECD at the bit is
+    ρ + Δp_ann/(g·TVD) (:func:`~calc.circulation.hydrostatics.equivalent_circulating_density`):
+
+    >>> bool(np.isclose(sum(r.breakdown().values()), r.standpipe_pressure, rtol=1e-12))
+    True
+    >>> round(8.311e-5 * 11.0 * 500.0**2 / (0.95**2 * 0.6098**2))
+    681
+    >>> ecd = equivalent_circulating_density(fluid.density, r.annulus.total, 3000.0)
+    >>> bool(np.isclose(r.ecd_bit, ecd, rtol=1e-12))
+    True
+
+    At the shoe (1,500 m) less annular loss lies above, so the ECD is lower:
+
+    >>> round(from_si(r.ecd_at(1500.0), "ppg"), 2)
+    11.43
+
     References
     ----------
     API RP 13D, *Rheology and Hydraulics of Oil-well Drilling Fluids*, 6th ed. (2010) (method

@@ -196,6 +196,12 @@ class CheckPoint:
     (a station of the pressure window, at its TVD) or ``"weak_point"``; ``name`` is the
     shoe's, weak point's or ``"bit"`` ("" for grid points and window stations); ``md``,
     ``tvd`` [m].  The faces turn it into words (``addin.text.check_point``).
+
+    Examples
+    --------
+    >>> p = CheckPoint("shoe", "9-5/8 in shoe", 1500.0, 1480.0).place
+    >>> p.path, p.item, p.top_md, p.bottom_md
+    ('annulus', '9-5/8 in shoe', 1500.0, 1500.0)
     """
 
     role: Literal["depth", "shoe", "bit", "window_station", "weak_point"]
@@ -271,13 +277,30 @@ def fracture_margin(fracture, ecd):
     """Margin to fracture [kg/m³]: fracture EMW − ECD (positive = below the fracture limit).
 
     The one definition the results, the report and the operating window use.
+
+    Examples
+    --------
+    ECD 11.8 ppg under a 13.0 ppg fracture gradient: 1.2 ppg of margin:
+
+    >>> from calc.units import from_si, to_si
+    >>> round(float(from_si(fracture_margin(to_si(13.0, "ppg"), to_si(11.8, "ppg")), "ppg")), 6)
+    1.2
     """
     return np.asarray(fracture, dtype=float) - np.asarray(ecd, dtype=float)
 
 
 def pore_margin(ecd, pore):
     """Margin to pore pressure [kg/m³]: ECD (or ESD) − pore EMW (positive = above the pore
-    limit)."""
+    limit).
+
+    Examples
+    --------
+    ECD 11.8 ppg over a 10.9 ppg pore pressure: 0.9 ppg of margin:
+
+    >>> from calc.units import from_si, to_si
+    >>> round(float(from_si(pore_margin(to_si(11.8, "ppg"), to_si(10.9, "ppg")), "ppg")), 6)
+    0.9
+    """
     return np.asarray(ecd, dtype=float) - np.asarray(pore, dtype=float)
 
 
@@ -289,6 +312,8 @@ def margin_status(margin: float, required: float | None = None) -> str:
     """State of a margin [kg/m³ or Pa]: ``"exceeded"`` below 0 (limit crossed),
     ``"near_limit"`` below the required margin, else ``"ok"``.
 
+    Examples
+    --------
     >>> margin_status(-1.0), margin_status(20.0, 50.0), margin_status(80.0, 50.0)
     ('exceeded', 'near_limit', 'ok')
     """
@@ -300,7 +325,13 @@ def margin_status(margin: float, required: float | None = None) -> str:
 
 
 def worst_status(*states: str) -> str:
-    """The worst of several :func:`margin_status` states."""
+    """The worst of several :func:`margin_status` states.
+
+    Examples
+    --------
+    >>> worst_status("ok", "near_limit", "ok"), worst_status("near_limit", "exceeded")
+    ('near_limit', 'exceeded')
+    """
     return max(states, key=MARGIN_STATES.index)
 
 
@@ -317,6 +348,16 @@ def limits_at(md, tvd, names, window: PressureWindow | None, weak_points=()):
     ``names`` are the check points' names (a weak point applies where its name is).  Returns
     ``(pore, fracture)`` arrays [kg/m³]; where neither a window nor a weak point gives a value
     the entry is ``inf`` (fracture) / ``0`` (pore): no limit.
+
+    Examples
+    --------
+    The window interpolates in TVD; a weak point at its check point overrides the fracture EMW:
+
+    >>> w = PressureWindow([1000.0, 2000.0], [1050.0, 1250.0], [1600.0, 1800.0])
+    >>> sand = WeakPoint("Sand B", 1500.0, 1550.0)
+    >>> pore, frac = limits_at([1500.0, 1500.0], [1500.0, 1500.0], ["", "Sand B"], w, [sand])
+    >>> pore.tolist(), frac.tolist()
+    ([1150.0, 1150.0], [1700.0, 1550.0])
     """
     md = np.asarray(md, dtype=float)
     tvd = np.asarray(tvd, dtype=float)
@@ -342,6 +383,20 @@ def tabulate_margins(points, md, tvd, pore, fracture, ecd, esd, margins: Margins
     The tightest point is the smallest of the two margins over all points (plain distance to the
     limit, not reduced by the required margin; ``required`` is reported beside it).  ``ecd`` and
     ``esd`` carry leading sweep axes; the last axis runs over the points.
+
+    Examples
+    --------
+    Shoe and bit: the shoe has 100 kg/m³ to fracture, the bit 150 kg/m³ to pore and 250 to
+    fracture, so the shoe's fracture margin is the tightest:
+
+    >>> pts = (CheckPoint("shoe", "shoe", 1500.0, 1500.0), CheckPoint("bit", "bit", 3000.0, 3000.0))
+    >>> t = tabulate_margins(pts, [1500.0, 3000.0], [1500.0, 3000.0],
+    ...                      pore=[1100.0, 1250.0], fracture=[1500.0, 1650.0],
+    ...                      ecd=[1400.0, 1400.0], esd=[1380.0, 1370.0], margins=Margins(60.0))
+    >>> t.fracture_margin.tolist(), t.pore_margin.tolist()
+    ([100.0, 250.0], [300.0, 150.0])
+    >>> t.tightest.point.name, t.tightest.limit, t.tightest.margin, t.index("bit")
+    ('shoe', 'fracture', 100.0, 1)
     """
     ecd = np.asarray(ecd, dtype=float)
     esd = np.asarray(esd, dtype=float)

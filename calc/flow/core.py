@@ -48,6 +48,8 @@ _CRITICAL_INPUTS = ("d_outer", "d_inner", "density", "tau_y", "k", "n")
 def list_friction_laws() -> list[MethodInfo]:
     """The registered friction laws (name, description, source), default first.
 
+    Examples
+    --------
     >>> [m.name for m in list_friction_laws()][:2]
     ['api13d_2010_hb', 'api13d_1995_power_law']
     """
@@ -336,6 +338,22 @@ def pipe_flow(
     >>> r = pipe_flow(0.01, 0.1, density=1000.0, tau_y=0.0, k=0.001, n=1.0, method="newtonian")
     >>> r.regime_label, round(r.reynolds)
     ('turbulent', 127324)
+
+    Guo & Liu (2011), Illustrative Example 2.5, p. 41: 300 gpm of 10.5 ppg Bingham mud
+    (PV 35 cP, YP 6 lbf/100ft²) in 4-1/2 in drill pipe (3.826 in ID) flows at 8.37 ft/s,
+    turbulent (printed); Example 2.6, p. 44, same pipe, power law n = 0.8, K = 20 eq. cP:
+    N_Re = 43,258 (printed; ours is Metzner-Reed, 43,304: 0.1 % apart through the book's
+    rounded constants and velocity, tests/test_worked_examples_flow.py):
+
+    >>> from calc.units import from_si, to_si
+    >>> q, d, rho = to_si(300.0, "gpm"), to_si(3.826, "in"), to_si(10.5, "ppg")
+    >>> r = pipe_flow(q, d, density=rho, tau_y=to_si(6.0, "lbf/100ft2"), k=to_si(35.0, "cP"),
+    ...               n=1.0, method="bingham")
+    >>> round(from_si(r.velocity, "ft/s"), 2), r.regime_label
+    (8.37, 'turbulent')
+    >>> r = pipe_flow(q, d, density=rho, tau_y=0.0, k=0.020, n=0.8, method="power_law")
+    >>> round(r.reynolds), r.regime_label
+    (43304, 'turbulent')
     """
     case, shape, critical = _build_case("pipe", q, d, 0.0, density, tau_y, k, n, roughness, 0.0)
     return _evaluate(method, case, shape, critical)
@@ -393,6 +411,17 @@ def annulus_flow(
     >>> r = annulus_flow(0.03, 0.2159, 0.127, density=1200.0, tau_y=4.0, k=0.3, n=0.65)
     >>> r.geometry, r.regime_label
     ('annulus', 'laminar')
+
+    Guo & Liu (2011), Illustrative Example 2.5, p. 42: 300 gpm of 10.5 ppg Bingham mud
+    (PV 35 cP, YP 6 lbf/100ft²) between 4-1/2 in drill pipe and 8.755 in casing ID flows at
+    2.17 ft/s, laminar (printed):
+
+    >>> from calc.units import from_si, to_si
+    >>> r = annulus_flow(to_si(300.0, "gpm"), to_si(8.755, "in"), to_si(4.5, "in"),
+    ...                  density=to_si(10.5, "ppg"), tau_y=to_si(6.0, "lbf/100ft2"),
+    ...                  k=to_si(35.0, "cP"), n=1.0, method="bingham")
+    >>> round(from_si(r.velocity, "ft/s"), 2), r.regime_label
+    (2.17, 'laminar')
     """
     case, shape, critical = _build_case(
         "annulus", q, d_hole, d_pipe, density, tau_y, k, n, roughness, eccentricity

@@ -95,9 +95,13 @@ def api_turbulent_coefficients(n):
     calc/METHODS.md §6.11; the same
     pair is used by the 2006/2010 yield-power-law method).
 
+    Examples
+    --------
     >>> a, b = api_turbulent_coefficients(1.0)
     >>> round(float(a), 4), float(b)
     (0.0786, 0.25)
+
+    At n = 1 this is a Blasius-type law a/Re^0.25 with a = 3.93/50 = 0.0786 (Blasius: 0.0791).
     """
     ln = np.log10(np.asarray(n, dtype=float))
     return (ln + 3.93) / 50.0, (1.75 - ln) / 7.0
@@ -112,6 +116,14 @@ def api_turbulent_fanning(reynolds, n):
         The method's Reynolds number [-].
     n : array_like
         Flow behaviour index [-].
+
+    Examples
+    --------
+    At n = 1 and Re = 10⁵: 0.0786/10^(5/4) = 0.00442, 0.6 % below Blasius' 0.0791/Re^0.25:
+
+    >>> f = float(api_turbulent_fanning(1e5, 1.0))
+    >>> round(f, 5), round(f / (0.0791 * 1e5**-0.25), 4)
+    (0.00442, 0.9937)
     """
     a, b = api_turbulent_coefficients(n)
     return a / np.asarray(reynolds, dtype=float) ** b
@@ -170,9 +182,16 @@ def n_dependent_bounds(n):
     the yield-power-law method [from memory, not yet checked against the source —
     calc/METHODS.md §6.12].
 
+    Examples
+    --------
     >>> lam, turb = n_dependent_bounds(1.0)
     >>> float(lam), float(turb)
     (2100.0, 2900.0)
+
+    Guo & Liu (2011), Illustrative Example 2.6 (n = 0.8), p. 44: 2,374 and 3,174 (printed):
+
+    >>> [round(float(b)) for b in n_dependent_bounds(0.8)]
+    [2374, 3174]
     """
     nn = np.asarray(n, dtype=float)
     return 3470.0 - 1370.0 * nn, 4270.0 - 1370.0 * nn
@@ -196,6 +215,14 @@ def api_hb_blend_fanning(reynolds, n):
         Generalised Reynolds number Re_G = 8ρV²/τ_w [-].
     n : array_like
         Flow behaviour index [-].
+
+    Examples
+    --------
+    The blend tends to its branches: 16/Re deep in laminar flow, a/Re^b deep in turbulence:
+
+    >>> f = api_hb_blend_fanning(np.array([100.0, 1e6]), 0.7)
+    >>> round(float(f[0] * 100.0), 6), round(float(f[1] / api_turbulent_fanning(1e6, 0.7)), 6)
+    (16.0, 1.0)
     """
     re = np.asarray(reynolds, dtype=float)
     nn = np.asarray(n, dtype=float)
@@ -211,6 +238,13 @@ def hedstrom_number(density, tau_y, mu_p, d):
     """Hedström (1952) number He = ρτ_yD²/μ_p² [-] (calc/METHODS.md §6.14).
 
     Parameters: density [kg/m³], tau_y [Pa], mu_p [Pa·s], d characteristic diameter [m].
+
+    Examples
+    --------
+    1000 kg/m³, τ_y = 10 Pa, μ_p = 20 mPa·s in a 0.1 m pipe: 1000·10·0.01/0.0004 = 250,000:
+
+    >>> round(float(hedstrom_number(1000.0, 10.0, 0.02, 0.1)))
+    250000
     """
     return np.asarray(density) * np.asarray(tau_y) * np.asarray(d) ** 2 / np.asarray(mu_p) ** 2
 
@@ -278,6 +312,16 @@ def darby_bingham_fanning(reynolds_b, hedstrom, f_laminar):
     fitted to slurries with large He): 0.45 × smooth-pipe Colebrook at Re_B = 10⁴, He → 0
     (measured in the tests against ``fluids``).  Registered as the friction law
     ``bingham_darby_1992``.
+
+    Examples
+    --------
+    At Re_B = 10⁵ and He → 0 the turbulent branch 10^A·Re^-0.193, A = -1.47·1.146, governs
+    (the laminar 16/Re adds 0.2 %):
+
+    >>> f_t = 10 ** (-1.47 * 1.146) * 1e5**-0.193
+    >>> f = float(darby_bingham_fanning(1e5, 0.0, 16 / 1e5))
+    >>> round(f, 6), round(f / f_t, 4)
+    (0.002245, 1.0019)
     """
     re = np.asarray(reynolds_b, dtype=float)
     he = np.asarray(hedstrom, dtype=float)

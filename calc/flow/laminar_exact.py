@@ -98,7 +98,15 @@ def hb_pipe_flow_rate(tau_w, d, tau_y, k, n):
 
 
 def power_law_pipe_wall_stress(v, d, k, n):
-    """Power-law laminar wall stress τ_w = K[(3n+1)/(4n)·8V/D]ⁿ [Pa] (exact; Metzner-Reed)."""
+    """Power-law laminar wall stress τ_w = K[(3n+1)/(4n)·8V/D]ⁿ [Pa] (exact; Metzner-Reed).
+
+    Examples
+    --------
+    n = 1 is Hagen-Poiseuille, τ_w = μ·8V/D: 0.01 Pa·s at 1 m/s in a 0.1 m pipe is 0.8 Pa:
+
+    >>> round(power_law_pipe_wall_stress(1.0, 0.1, 0.01, 1.0), 12)
+    0.8
+    """
     return k * ((3.0 * n + 1.0) / (4.0 * n) * 8.0 * v / d) ** n
 
 
@@ -109,6 +117,8 @@ def hb_pipe_wall_stress(q, d, tau_y, k, n):
     stress for the same flow; the HB flow there is at most q) and an upper bound found by
     doubling.  Relative tolerance 1e-13.
 
+    Examples
+    --------
     >>> tw = hb_pipe_wall_stress(1e-3, 0.1, 5.0, 0.3, 0.6)
     >>> bool(np.isclose(hb_pipe_flow_rate(tw, 0.1, 5.0, 0.3, 0.6), 1e-3, rtol=1e-12))
     True
@@ -153,6 +163,16 @@ def hb_slot_velocity(tau_w, gap, tau_y, k, n):
 
     Parameters: tau_w wall stress [Pa] (= G·H/2), gap H [m], tau_y [Pa], k [Pa·sⁿ], n [-].
     Newtonian check: V = Hτ_w/(6μ), i.e. plane Poiseuille flow.
+
+    Examples
+    --------
+    Newtonian, 1.2 Pa at the walls of a 50 mm slot, μ = 0.01 Pa·s: V = 0.05·1.2/0.06 = 1 m/s;
+    a yield stress at the wall stress stops the flow (the plug fills the slot):
+
+    >>> round(float(hb_slot_velocity(1.2, 0.05, 0.0, 0.01, 1.0)), 12)
+    1.0
+    >>> float(hb_slot_velocity(1.2, 0.05, 1.2, 0.01, 1.0))
+    0.0
     """
     tau_w = np.asarray(tau_w, dtype=float)
     phi = _phi(tau_w, np.asarray(tau_y, dtype=float))
@@ -162,13 +182,23 @@ def hb_slot_velocity(tau_w, gap, tau_y, k, n):
 
 
 def power_law_slot_wall_stress(v, gap, k, n):
-    """Power-law slot wall stress τ_w = K[(2n+1)/(3n)·6V/H]ⁿ [Pa] (exact, plane slot)."""
+    """Power-law slot wall stress τ_w = K[(2n+1)/(3n)·6V/H]ⁿ [Pa] (exact, plane slot).
+
+    Examples
+    --------
+    n = 1 is plane Poiseuille, τ_w = μ·6V/H: 0.01 Pa·s at 1 m/s in a 50 mm slot is 1.2 Pa:
+
+    >>> round(power_law_slot_wall_stress(1.0, 0.05, 0.01, 1.0), 12)
+    1.2
+    """
     return k * ((2.0 * n + 1.0) / (3.0 * n) * 6.0 * v / gap) ** n
 
 
 def hb_slot_wall_stress(v, gap, tau_y, k, n):
     """Invert :func:`hb_slot_velocity` for τ_w [Pa] at mean velocity ``v`` [m/s], gap [m].
 
+    Examples
+    --------
     >>> tw = hb_slot_wall_stress(0.5, 0.02, 4.0, 0.2, 0.7)
     >>> bool(np.isclose(hb_slot_velocity(tw, 0.02, 4.0, 0.2, 0.7), 0.5, rtol=1e-12))
     True
@@ -204,6 +234,18 @@ def lamb_diameter(d_hole, d_pipe):
 
     Exact for Newtonian laminar flow in a concentric annulus: V = G·D_L²/(32μ)
     (Lamb 1932; Bird, Stewart & Lightfoot 2002, eq. 2.4-17 rearranged; calc/METHODS.md §6.3).
+
+    Examples
+    --------
+    5 in pipe in 8-1/2 in hole: D_L = 0.0728 m, and G = 32μV/D_L² is the exact Newtonian
+    annulus gradient that :func:`hb_annulus_gradient` solves for (τ_y = 0, n = 1):
+
+    >>> from calc.flow.area import mean_velocity
+    >>> d2, d1, mu, q = 0.2159, 0.127, 0.02, 0.03
+    >>> dl = float(lamb_diameter(d2, d1))
+    >>> g_lamb = 32 * mu * mean_velocity(q, d2, d1) / dl**2
+    >>> round(dl, 4), round(float(hb_annulus_gradient(q, d2, d1, 0.0, mu, 1.0) / g_lamb), 9)
+    (0.0728, 1.0)
     """
     d2 = np.asarray(d_hole, dtype=float)
     d1 = np.asarray(d_pipe, dtype=float)
@@ -324,6 +366,8 @@ def hb_annulus_gradient(q, d_hole, d_pipe, tau_y, k, n):
     Residual (Q(G)/q)ⁿ - 1 (nearly linear in G) solved by vectorised ITP, relative tolerance
     1e-11; the bracket starts from the plane-slot estimate.
 
+    Examples
+    --------
     >>> g = hb_annulus_gradient(0.02, 0.2159, 0.127, 5.0, 0.4, 0.6)
     >>> bool(np.isclose(hb_annulus_flow_rate(g, 0.2159, 0.127, 5.0, 0.4, 0.6), 0.02, rtol=1e-9))
     True

@@ -42,6 +42,8 @@ def api_geometry_factor(n, alpha):
     α = 0 pipe, 1 annulus (calc/METHODS.md §7.1, from memory; reduces to (3n+1)/(4n) for a pipe and
     to the slot factor (2n+1)/(3n)·3/2 for the annulus [D]).
 
+    Examples
+    --------
     >>> float(api_geometry_factor(1.0, 0.0)), float(api_geometry_factor(1.0, 1.0))
     (1.0, 1.5)
     """
@@ -82,6 +84,8 @@ def api_wall_shear(velocity, d_h, tau_y, k, n, alpha):
     API RP 13D, Rheology and Hydraulics of Oil-well Drilling Fluids, 5th ed. (2006) / 6th ed.
     (2010), American Petroleum Institute.
 
+    Examples
+    --------
     >>> gw, tw = api_wall_shear(1.0, 0.1, 0.0, 0.02, 1.0, 0.0)  # Newtonian pipe: 8V/D, μ·8V/D
     >>> float(gw), round(float(tw), 12)
     (80.0, 1.6)

@@ -44,6 +44,8 @@ FRICTION_LAWS = MethodRegistry("friction law")
 def regime_label(regime):
     """Text for regime codes: 0 laminar, 1 transitional, 2 turbulent (scalar or array).
 
+    Examples
+    --------
     >>> regime_label(1)
     'transitional'
     >>> regime_label(np.array([0, 2])).tolist()
@@ -55,7 +57,13 @@ def regime_label(regime):
 
 
 def classify_regime(reynolds, laminar_limit, turbulent_limit):
-    """0 where Re < laminar limit, 2 where Re ≥ turbulent limit, 1 between (int array)."""
+    """0 where Re < laminar limit, 2 where Re ≥ turbulent limit, 1 between (int array).
+
+    Examples
+    --------
+    >>> classify_regime(np.array([1000.0, 2100.0, 3000.0, 4000.0]), 2100.0, 4000.0).tolist()
+    [0, 1, 1, 2]
+    """
     re = np.asarray(reynolds)
     out = np.full(re.shape, TRANSITIONAL, dtype=int)
     out[re < laminar_limit] = LAMINAR

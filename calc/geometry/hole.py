@@ -45,6 +45,13 @@ class HoleSection:
         Open hole only: the bit size that drilled it [m].
     od : float, optional
         Outside diameter of a casing or liner [m] (for reference; > ID).
+
+    Examples
+    --------
+    >>> from calc.units import to_si
+    >>> s = HoleSection("8-1/2 in open hole", 1500.0, 3000.0, to_si(8.5, "in"), "open_hole")
+    >>> s.is_open_hole, round(s.diameter, 4)
+    (True, 0.2159)
     """
 
     name: str
@@ -111,6 +118,19 @@ class Hole:
     Warnings (as :attr:`notes`): open-hole diameter below its bit size; effective diameter above
     1.3 × bit size (common practice).  Use :meth:`from_casing` to build the usual layout: casing
     and liner strings plus the open hole below the deepest shoe.
+
+    Examples
+    --------
+    9-5/8 in casing (8.681 in ID) to 1,500 m, then 8-1/2 in hole with a 10 % washout
+    (diameter ratio 1.1, 9.35 in) to 3,000 m; at the shoe the smaller diameter governs:
+
+    >>> from calc.units import from_si, to_si
+    >>> casing = HoleSection("9-5/8 in casing", 0.0, 1500.0, to_si(8.681, "in"))
+    >>> h = Hole.from_casing([casing], 3000.0, bit_size=to_si(8.5, "in"), washout_factor=1.1)
+    >>> [round(from_si(h.diameter_at(md), "in"), 3) for md in (1000.0, 1500.0, 2500.0)]
+    [8.681, 8.681, 9.35]
+    >>> h.boundaries().tolist()
+    [0.0, 1500.0, 3000.0]
     """
 
     sections: tuple[HoleSection, ...]

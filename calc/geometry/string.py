@@ -58,6 +58,18 @@ class StringComponent:
         component's length given to tool-joint sub-intervals (calc/METHODS.md §13.2).
     notes : tuple of Note
         Interpretations made (defaulted joint or tool-joint length).
+
+    Examples
+    --------
+    5 in drill pipe filling to surface, with 6-5/8 in tool joints 0.5 m long in 9.4 m joints:
+    the joints take 0.5/9.4 = 5.3 % of its length:
+
+    >>> from calc.units import to_si
+    >>> dp = StringComponent("drill pipe", to_si(5.0, "in"), to_si(4.276, "in"), "fill",
+    ...                      tool_joint_od=to_si(6.625, "in"), tool_joint_id=to_si(3.25, "in"),
+    ...                      joint_length=9.4, tool_joint_length=0.5)
+    >>> dp.is_fill, dp.has_tool_joints, round(dp.tool_joint_fraction, 4)
+    (True, True, 0.0532)
     """
 
     name: str

@@ -218,6 +218,26 @@ class Well:
     Warnings: the bit larger than the drift (or ID) of a casing it passed; the bit size differs
     from the open hole's; bit below the last survey station (projected).  With these, the
     notes of the survey, hole, string components and bit are collected in :attr:`notes`.
+
+    Examples
+    --------
+    A vertical 3,000 m well: the string and the annulus are each split at the shoe (1,500 m)
+    and at the top of the collars (2,850 m); each path is 3,000 m long:
+
+    >>> from calc.bit import Bit
+    >>> from calc.geometry import DrillString, Hole, HoleSection, StringComponent, Survey
+    >>> from calc.units import to_si
+    >>> casing = HoleSection("9-5/8 in casing", 0.0, 1500.0, to_si(8.681, "in"))
+    >>> pipe = [StringComponent("collars", to_si(6.5, "in"), to_si(2.8125, "in"), 150.0),
+    ...         StringComponent("drill pipe", to_si(5.0, "in"), to_si(4.276, "in"), "fill")]
+    >>> well = Well(Survey([0.0, 3000.0], [0.0, 0.0], [0.0, 0.0]),
+    ...             Hole.from_casing([casing], 3000.0, bit_size=to_si(8.5, "in")),
+    ...             DrillString(pipe), Bit(to_si(8.5, "in"), "3x12 3x11"), bit_depth=3000.0)
+    >>> fi = well.flow_intervals()
+    >>> fi.string.length.tolist(), float(fi.annulus.length.sum())
+    ([1500.0, 1350.0, 150.0], 3000.0)
+    >>> well.bit_tvd, well.last_shoe.name, round(float(well.tvd_at(1000.0)), 9)
+    (3000.0, '9-5/8 in casing', 1000.0)
     """
 
     survey: Survey

@@ -113,7 +113,19 @@ class ParameterChange:
 
 @dataclass(frozen=True, eq=False)
 class CheckComparison:
-    """Comparison of check ``a`` (earlier) with check ``b`` (later)."""
+    """Comparison of check ``a`` (earlier) with check ``b`` (later).
+
+    Examples
+    --------
+    PV 19 → 24 cP and YP 18 → 20 lbf/100ft² (θ600 − θ300, θ300 − PV):
+
+    >>> from calc.units import from_si
+    >>> a = ViscometerReadings.from_mapping({600: 56, 300: 37, 200: 29, 100: 20}, label="D1")
+    >>> b = ViscometerReadings.from_mapping({600: 68, 300: 44, 200: 35, 100: 25}, label="D2")
+    >>> c = compare_checks(a, b)
+    >>> round(from_si(c["PV"].change, "cP"), 1), round(from_si(c["YP"].b, "lbf/100ft2"), 1)
+    (5.0, 20.0)
+    """
 
     label_a: str
     label_b: str
@@ -324,6 +336,21 @@ def _like_for_like_notes(a, b) -> list[Note]:
 
 
 def compare_series(checks: Sequence[ViscometerReadings], **kwargs) -> tuple[CheckComparison, ...]:
-    """:func:`compare_checks` for each consecutive pair (oldest first)."""
+    """:func:`compare_checks` for each consecutive pair (oldest first).
+
+    Examples
+    --------
+    Three checks give two comparisons; PV went 19 → 24 → 22 cP (θ600 − θ300):
+
+    >>> from calc.units import from_si
+    >>> dials = [{600: 56, 300: 37, 200: 29, 100: 20, 6: 8, 3: 7},
+    ...          {600: 68, 300: 44, 200: 35, 100: 25, 6: 10, 3: 9},
+    ...          {600: 64, 300: 42, 200: 33, 100: 23, 6: 9, 3: 8}]
+    >>> checks = [ViscometerReadings.from_mapping(d, label=f"D{i + 1}")
+    ...           for i, d in enumerate(dials)]
+    >>> [(c.label_a, c.label_b, round(from_si(c["PV"].change, "cP"), 1))
+    ...  for c in compare_series(checks)]
+    [('D1', 'D2', 5.0), ('D2', 'D3', -2.0)]
+    """
     checks = list(checks)
     return tuple(compare_checks(x, y, **kwargs) for x, y in itertools.pairwise(checks))

@@ -69,7 +69,13 @@ def _readings(data) -> ViscometerReadings:
 
 
 def n_notes(n: float, method: str) -> list[Note]:
-    """Warning when n is outside the usual 0.2–1 range (common practice, calc/METHODS.md §16.1)."""
+    """Warning when n is outside the usual 0.2–1 range (common practice, calc/METHODS.md §16.1).
+
+    Examples
+    --------
+    >>> n_notes(0.6, "fit"), [x.code for x in n_notes(1.3, "fit")]
+    ([], ['n_unusual'])
+    """
     if 0.2 <= n <= 1.0:
         return []
     return [
@@ -401,7 +407,17 @@ def _best_n(g, tau, with_yield, clip):
 
 
 def fit_hb_stress(shear_rate, stress, method: str = "hb_least_squares"):
-    """Least-squares HB in stress with τy ≥ 0: returns (model, notes, unconstrained τy [Pa])."""
+    """Least-squares HB in stress with τy ≥ 0: returns (model, notes, unconstrained τy [Pa]).
+
+    Examples
+    --------
+    Stresses computed from τ = 4 + 0.3·γ̇^0.65 Pa give that model back:
+
+    >>> g = np.array([5.1, 10.2, 170.3, 340.5, 510.8, 1021.6])
+    >>> model, notes, ty_free = fit_hb_stress(g, 4.0 + 0.3 * g**0.65)
+    >>> round(model.tau_y, 4), round(model.k, 4), round(model.n, 4), notes
+    (4.0, 0.3, 0.65, [])
+    """
     g = np.asarray(shear_rate, dtype=float)
     tau = np.asarray(stress, dtype=float)
     if g.size < 3:

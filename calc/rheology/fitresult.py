@@ -58,7 +58,16 @@ TABLE_FITS = MethodRegistry("rheometer-table fit")
 
 @dataclass(frozen=True, eq=False)
 class FitQuality:
-    """Residuals (model − data) in ``space``, RMSE, R², point and parameter counts."""
+    """Residuals (model − data) in ``space``, RMSE, R², point and parameter counts.
+
+    Examples
+    --------
+    Residuals ±1 Pa at four points with two parameters: RMSE 1, standard error √(4/2):
+
+    >>> q = FitQuality("stress", np.array([1.0, -1.0, 1.0, -1.0]), 1.0, 0.9, 4, 2)
+    >>> round(q.std_error, 6)
+    1.414214
+    """
 
     space: str
     residuals: np.ndarray
@@ -77,7 +86,21 @@ class FitQuality:
 
 
 def quality_of(model, shear_rate, stress, space: str, n_params: int) -> FitQuality:
-    """Fit quality of ``model`` against measured (shear rate [1/s], stress [Pa]) points."""
+    """Fit quality of ``model`` against measured (shear rate [1/s], stress [Pa]) points.
+
+    Examples
+    --------
+    A model scored on its own stresses is perfect; 1 Pa too high everywhere gives RMSE 1 Pa:
+
+    >>> from calc.rheology.models import Bingham
+    >>> g = np.array([5.0, 170.0, 511.0, 1022.0])
+    >>> m = Bingham(5.0, 0.02)
+    >>> q = quality_of(m, g, m.stress(g), STRESS_SPACE, 2)
+    >>> round(q.rmse, 12), q.r2
+    (0.0, 1.0)
+    >>> round(quality_of(m, g, m.stress(g) - 1.0, STRESS_SPACE, 2).rmse, 12)
+    1.0
+    """
     g = np.asarray(shear_rate, dtype=float)
     tau = np.asarray(stress, dtype=float)
     pred = np.asarray(model.stress(g), dtype=float)

@@ -45,7 +45,15 @@ def _registry(data):
 
 
 def methods_for(data) -> list[str]:
-    """Names of the fit methods that apply to ``data`` (readings or a table)."""
+    """Names of the fit methods that apply to ``data`` (readings or a table).
+
+    Examples
+    --------
+    >>> from calc.rheology import ViscometerReadings
+    >>> names = methods_for(ViscometerReadings.from_mapping({600: 56, 300: 37, 3: 7}))
+    >>> "bingham_two_speed" in names, "hb_least_squares" in names
+    (True, True)
+    """
     return _registry(data)[0].names()
 
 
@@ -56,6 +64,25 @@ def fit(data, method: str = "hb_least_squares") -> FitResult:
     ------
     InputError
         unknown method (with the nearest name), or readings the method cannot use.
+
+    Examples
+    --------
+    The two-speed Bingham fit of θ600 = 56, θ300 = 37 gives PV = θ600 − θ300 = 19 cP
+    (API RP 13B-1); the least-squares Herschel-Bulkley fit of readings computed from
+    τ = 4 + 0.3·γ̇^0.65 Pa returns those parameters:
+
+    >>> from calc.rheology import HerschelBulkley, ViscometerReadings
+    >>> from calc.rheology.viscometer import STANDARD_GEOMETRY as g
+    >>> from calc.units import from_si
+    >>> b = fit(ViscometerReadings.from_mapping({600: 56, 300: 37}), "bingham_two_speed")
+    >>> round(from_si(b.model.mu_p, "cP"), 3)
+    19.0
+    >>> hb = HerschelBulkley(4.0, 0.3, 0.65)
+    >>> rpm = [600, 300, 200, 100, 6, 3]
+    >>> dial = {s: float(hb.stress(s * g.shear_rate_per_rpm) / g.stress_per_reading) for s in rpm}
+    >>> m = fit(ViscometerReadings.from_mapping(dial), "hb_least_squares").model
+    >>> round(m.tau_y, 3), round(m.k, 4), round(m.n, 4)
+    (4.0, 0.3, 0.65)
     """
     reg, _ = _registry(data)
     return reg.get(method).func(data)
@@ -67,6 +94,22 @@ def rank_fits(data, fits) -> tuple[RankEntry, ...]:
     Viscometer readings are scored in stress [Pa], tables in log₁₀ stress, so every candidate
     is judged on the same points with the same weights (a two-point fit is scored on all
     readings, not only its two).  Ties go to the model with fewer parameters.
+
+    Examples
+    --------
+    Readings that are exactly a Bingham fluid (τ = 5 + 0.02·γ̇ Pa): the least-squares Bingham
+    fit ranks above the power law and leaves no residual:
+
+    >>> from calc.rheology import Bingham, ViscometerReadings, fit
+    >>> from calc.rheology.viscometer import STANDARD_GEOMETRY as g
+    >>> rpm = [600, 300, 200, 100, 6, 3]
+    >>> dial = {s: float(Bingham(5.0, 0.02).stress(s * g.shear_rate_per_rpm)
+    ...                  / g.stress_per_reading) for s in rpm}
+    >>> r = ViscometerReadings.from_mapping(dial)
+    >>> fits = [fit(r, "power_law_least_squares"), fit(r, "bingham_least_squares")]
+    >>> top = rank_fits(r, fits)[0]
+    >>> top.method, top.rank, round(top.rmse, 9)
+    ('bingham_least_squares', 1, 0.0)
     """
     _, space = _registry(data)
     g, tau = data.shear_rate, (data.shear_stress if space == STRESS_SPACE else data.stress)
@@ -87,6 +130,19 @@ def fit_all(data, methods=None) -> FitSet:
 
     A method that cannot use these readings (e.g. the API annulus pair without a 3-rpm
     reading) is skipped with an info note naming why; an unknown method name raises.
+
+    Examples
+    --------
+    Without a 3-rpm reading the API RP 13D (1995) annulus pair (100/3 rpm) cannot be fitted;
+    it becomes a note and the other fits are ranked:
+
+    >>> from calc.rheology import ViscometerReadings
+    >>> r = ViscometerReadings.from_mapping({600: 56, 300: 37, 200: 29, 100: 20, 6: 8})
+    >>> fits = fit_all(r)
+    >>> "api13d_1995_annulus" in fits, [n.code for n in fits.notes][:1]
+    (False, ['fit_skipped'])
+    >>> fits.ranking[0].rank
+    1
     """
     reg, _ = _registry(data)
     names = reg.names() if methods is None else [reg.get(m).name for m in methods]

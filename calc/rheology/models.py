@@ -78,6 +78,16 @@ class Model:
     ``symbols`` maps each parameter field to its symbol and quantity kind
     (:data:`calc.kinds.KINDS`; ``""`` for a pure number), so a face can show any model's
     parameters in a unit system without knowing the class (``addin.text.model``).
+
+    Examples
+    --------
+    Every model answers the same questions; η = τ/γ̇ for all of them:
+
+    >>> m = HerschelBulkley(3.0, 0.5, 0.6)
+    >>> bool(np.isclose(m.apparent_viscosity(100.0), m.stress(100.0) / 100.0, rtol=1e-15))
+    True
+    >>> [v.name for v in m.parameters()]
+    ['τy', 'K', 'n']
     """
 
     name: ClassVar[str] = "model"
@@ -130,6 +140,8 @@ class _YieldPowerLaw(Model):
 class Newtonian(_YieldPowerLaw):
     """Newtonian fluid, τ = μγ̇.  ``mu`` [Pa·s] > 0.
 
+    Examples
+    --------
     >>> Newtonian(0.02).stress(100.0)
     2.0
     """
@@ -149,7 +161,17 @@ class Newtonian(_YieldPowerLaw):
 
 @dataclass(frozen=True)
 class Bingham(_YieldPowerLaw):
-    """Bingham plastic, τ = τy + μp·γ̇.  ``tau_y`` [Pa] ≥ 0, ``mu_p`` [Pa·s] > 0."""
+    """Bingham plastic, τ = τy + μp·γ̇.  ``tau_y`` [Pa] ≥ 0, ``mu_p`` [Pa·s] > 0.
+
+    Examples
+    --------
+    τy = 5 Pa, μp = 20 mPa·s: 5 + 0.02·100 = 7 Pa at 100 1/s; as a Herschel-Bulkley fluid
+    K = μp and n = 1:
+
+    >>> b = Bingham(5.0, 0.02)
+    >>> round(b.stress(100.0), 12), b.k, b.n
+    (7.0, 0.02, 1.0)
+    """
 
     tau_y: float
     mu_p: float
@@ -167,7 +189,16 @@ class Bingham(_YieldPowerLaw):
 
 @dataclass(frozen=True)
 class PowerLaw(_YieldPowerLaw):
-    """Power law, τ = Kγ̇ⁿ.  ``k`` [Pa·sⁿ] > 0, ``n`` [-] > 0."""
+    """Power law, τ = Kγ̇ⁿ.  ``k`` [Pa·sⁿ] > 0, ``n`` [-] > 0.
+
+    Examples
+    --------
+    K = 0.5 Pa·sⁿ, n = 0.5: τ = 0.5·√100 = 5 Pa and η = 0.05 Pa·s at 100 1/s; no yield stress:
+
+    >>> p = PowerLaw(0.5, 0.5)
+    >>> round(p.stress(100.0), 12), round(p.apparent_viscosity(100.0), 12), p.tau_y
+    (5.0, 0.05, 0.0)
+    """
 
     k: float
     n: float
@@ -186,6 +217,8 @@ class PowerLaw(_YieldPowerLaw):
 class HerschelBulkley(_YieldPowerLaw):
     """Herschel–Bulkley, τ = τy + Kγ̇ⁿ.  ``tau_y`` [Pa] ≥ 0, ``k`` [Pa·sⁿ] > 0, ``n`` > 0.
 
+    Examples
+    --------
     >>> round(HerschelBulkley(3.0, 0.5, 0.6).stress(100.0), 4)
     10.9245
     """
@@ -233,6 +266,14 @@ class Cross(_Plateau):
 
     ``eta0`` > ``eta_inf`` ≥ 0 [Pa·s], ``lam`` [s] > 0, ``m`` [-] > 0.  At high shear
     d ln η / d ln γ̇ → −m (a power law with n = 1 − m) while η ≫ η∞.
+
+    Examples
+    --------
+    At γ̇ = 1/λ the viscosity is halfway between η₀ and η∞; at rest it is η₀:
+
+    >>> c = Cross(1.0, 0.01, 2.0, 0.7)
+    >>> round(c.apparent_viscosity(0.5), 12), round(c.apparent_viscosity(0.0), 12)
+    (0.505, 1.0)
     """
 
     eta0: float
@@ -268,6 +309,8 @@ class CarreauYasuda(_Plateau):
     ``eta0`` > ``eta_inf`` ≥ 0 [Pa·s], ``lam`` [s] > 0, ``n`` [-] > 0, ``a`` [-] > 0.  At high
     shear d ln η / d ln γ̇ → n − 1 while η ≫ η∞.
 
+    Examples
+    --------
     >>> round(CarreauYasuda(1.0, 0.0, 1.0, 0.5).apparent_viscosity(0.0), 6)
     1.0
     """

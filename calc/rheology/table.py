@@ -55,6 +55,8 @@ class Plateau:
 def find_plateau(shear_rate, viscosity, tol: float = 0.1) -> Plateau:
     """Identify the zero-shear plateau of a sorted table (see the module docstring).
 
+    Examples
+    --------
     >>> g = np.logspace(-2, 2, 9)
     >>> p = find_plateau(g, 1.0 / (1.0 + g))
     >>> p.found, p.n_points, round(p.onset_rate, 3)
@@ -85,6 +87,17 @@ def shear_thinning_region(shear_rate, viscosity) -> np.ndarray:
     """Boolean mask of the straight shear-thinning part of a sorted table.
 
     All points when no segment thins (slope > −0.02 everywhere, e.g. a Newtonian table).
+
+    Examples
+    --------
+    A Newtonian table is all "region"; a Cross-like table η = 1/(1 + γ̇) thins past γ̇ ≈ 1
+    (its zero-shear plateau is left out):
+
+    >>> g = np.logspace(-2, 2, 9)
+    >>> bool(shear_thinning_region(g, np.full(9, 0.02)).all())
+    True
+    >>> shear_thinning_region(g, 1.0 / (1.0 + g)).astype(int).tolist()
+    [0, 0, 0, 0, 1, 1, 1, 1, 1]
     """
     lg, le = np.log10(shear_rate), np.log10(viscosity)
     slope = np.diff(le) / np.diff(lg)
@@ -120,6 +133,15 @@ class RheometerTable:
         fewer than two points, non-numeric / non-finite / non-positive values, duplicate shear
         rates with different values, both or neither of stress and viscosity, stress that falls
         as shear rate rises.
+
+    Examples
+    --------
+    A viscosity table of η = 1/(1 + γ̇) Pa·s: stress = η·γ̇, zero-shear plateau η₀ = 1 Pa·s:
+
+    >>> g = np.logspace(-2, 2, 9)
+    >>> t = RheometerTable(g, viscosity=1.0 / (1.0 + g))
+    >>> round(float(t.stress[-1]), 4), t.plateau().found, round(t.plateau().eta0, 2)
+    (0.9901, True, 0.99)
     """
 
     shear_rate: np.ndarray

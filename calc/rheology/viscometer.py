@@ -121,6 +121,17 @@ class ViscometerGeometry:
     dimensions with :meth:`from_dimensions`, or give the two factors directly (e.g. from the
     instrument maker's table).  ``full_scale`` is the dial's range [degree] (300° on the common
     six-speed instruments — common practice).
+
+    Examples
+    --------
+    The standard rotor/bob gives 1.702 1/s per rpm (1,021 1/s at 600 rpm); a spring twice as
+    stiff doubles the stress per degree:
+
+    >>> g = STANDARD_GEOMETRY
+    >>> round(g.shear_rate_per_rpm, 3), round(600 * g.shear_rate_per_rpm)
+    (1.702, 1021)
+    >>> round(g.with_spring_factor(2.0).stress_per_reading / g.stress_per_reading, 12)
+    2.0
     """
 
     name: str
