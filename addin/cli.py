@@ -22,7 +22,7 @@ Subcommands:
     A report for every case (folders are searched for *.toml and *.xlsx, ``@list.txt`` reads
     paths from a file), with a progress bar on stderr and a summary table on stdout.
 
-``boreflow methods [--json]``
+``boreflow methods [--json | --markdown]``
     Every registered method of every registry (hydraulics methods first, the default at the
     top): description, primary source, verification status in words, evidence and caveats.
 
@@ -171,7 +171,11 @@ def _add_methods(sub) -> None:
         "rheometer-table fit, slip-velocity method and nozzle-optimisation criterion, with its "
         "primary source, its verification status, the evidence and the caveats.",
     )
-    p.add_argument("--json", action="store_true", help="print JSON instead of text")
+    out = p.add_mutually_exclusive_group()
+    out.add_argument("--json", action="store_true", help="print JSON instead of text")
+    out.add_argument(
+        "--markdown", action="store_true", help="print the status table of calc/METHODS.md §17"
+    )
     p.set_defaults(func=methods_cmd.run)
 
 

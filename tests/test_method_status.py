@@ -20,6 +20,7 @@ import pytest
 
 from addin import text
 from addin.cli import main
+from addin.commands.methods import methods_data, methods_markdown
 from addin.report.jsonout import results_data
 from calc import list_methods
 from calc.cleaning.slip import SLIP_METHODS
@@ -214,3 +215,12 @@ def test_readme_methods_table_status_column():
         assert cells[1] == text.status_label(HYDRAULICS_METHODS.get(name).status.kind), name
         seen.add(name)
     assert seen == set(HYDRAULICS_METHODS.names())
+
+
+def test_methods_reference_status_table_is_the_generated_one():
+    """calc/METHODS.md §17 is what ``boreflow methods --markdown`` prints (regenerate it so)."""
+    ref = (ROOT / "calc" / "METHODS.md").read_text(encoding="utf-8")
+    section = ref.split("## §17 Verification status per registered method", 1)[1]
+    table = [line for line in section.splitlines() if line.startswith("|")]
+    assert "\n".join(table) == methods_markdown(methods_data())
+    assert len(table) == 2 + len(list_methods())

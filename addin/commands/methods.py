@@ -8,7 +8,7 @@ from addin.commands.output import json_text
 from calc import list_methods
 from calc.hydraulics_method import DEFAULT_METHOD
 
-__all__ = ["methods_data", "methods_text", "run"]
+__all__ = ["methods_data", "methods_markdown", "methods_text", "run"]
 
 
 def methods_data() -> list[dict]:
@@ -60,7 +60,31 @@ def methods_text(rows: list[dict]) -> str:
     return "\n".join(lines)
 
 
+def _cell(s: str) -> str:
+    return s.replace("|", "\\|").replace("\n", " ")
+
+
+def methods_markdown(rows: list[dict]) -> str:
+    """The status table of calc/METHODS.md §17 (``boreflow methods --markdown`` regenerates
+    it; a test compares the two): family, method, status in words, evidence.
+
+    >>> methods_markdown(methods_data()).splitlines()[0]
+    '| family | method | status | evidence |'
+    """
+    lines = ["| family | method | status | evidence |", "|---|---|---|---|"]
+    for r in rows:
+        lines.append(
+            f"| {r['family']} | `{r['name']}` | {r['status_label']} | {_cell(r['evidence'])} |"
+        )
+    return "\n".join(lines)
+
+
 def run(args) -> int:
     rows = methods_data()
-    print(json_text(rows) if args.json else methods_text(rows))
+    if args.json:
+        print(json_text(rows))
+    elif getattr(args, "markdown", False):
+        print(methods_markdown(rows))
+    else:
+        print(methods_text(rows))
     return EXIT_OK
