@@ -543,6 +543,8 @@ def _trace_block(ws, row, results, summary) -> int:
 
 def write_methods_and_trace(ws, results, summary, row: int) -> int:
     """The Audit sheet's status of every method used and the trace table, from ``row``;
-    returns the next free row."""
+    returns the next free row (columns A–D keep the widths of the sheet's first tables)."""
+    for letter, width in zip("EFGHIJ", (44, 70, 30, 22, 30, 26), strict=True):
+        ws.column_dimensions[letter].width = width
     row = _methods_block(ws, row, results)
     return _trace_block(ws, row + 1, results, summary)
