@@ -2,7 +2,7 @@
 
 Every subcommand and its options are declared here, in :func:`build_parser`; each one's work is
 done by ``run(args)`` of its module in :mod:`addin.commands` (``rheology``, ``report``,
-``calc``, ``batch``), which returns the exit code (:mod:`addin.commands.exit_codes`).
+``calc``, ``batch``, ``methods``), which returns the exit code (:mod:`addin.commands.exit_codes`).
 
 Subcommands:
 
@@ -21,6 +21,10 @@ Subcommands:
 ``boreflow batch PATH... -o FOLDER [--force] [--summary FILE.csv]``
     A report for every case (folders are searched for *.toml and *.xlsx, ``@list.txt`` reads
     paths from a file), with a progress bar on stderr and a summary table on stdout.
+
+``boreflow methods [--json | --markdown]``
+    Every registered method of every registry (hydraulics methods first, the default at the
+    top): description, primary source, verification status in words, evidence and caveats.
 
 Exit codes
 ----------
@@ -44,6 +48,7 @@ import sys
 
 from addin.commands import batch as batch_cmd
 from addin.commands import calc as calc_cmd
+from addin.commands import methods as methods_cmd
 from addin.commands import report as report_cmd
 from addin.commands import rheology as rheology_cmd
 from addin.commands.exit_codes import (
@@ -158,6 +163,22 @@ def _add_calc(sub) -> None:
     k.set_defaults(func=calc_cmd.run, units="oilfield")
 
 
+def _add_methods(sub) -> None:
+    p = sub.add_parser(
+        "methods",
+        help="every registered method: its source and how it has been checked",
+        description="Every hydraulics method (default first), friction law, viscometer and "
+        "rheometer-table fit, slip-velocity method and nozzle-optimisation criterion, with its "
+        "primary source, its verification status, the evidence and the caveats.",
+    )
+    out = p.add_mutually_exclusive_group()
+    out.add_argument("--json", action="store_true", help="print JSON instead of text")
+    out.add_argument(
+        "--markdown", action="store_true", help="print the status table of calc/METHODS.md §17"
+    )
+    p.set_defaults(func=methods_cmd.run)
+
+
 def _add_batch(sub) -> None:
     bt = sub.add_parser(
         "batch",
@@ -191,7 +212,8 @@ exit codes:
 
 
 def build_parser() -> argparse.ArgumentParser:
-    """The ``boreflow`` parser with every subcommand (rheology, report, calc, batch)."""
+    """The ``boreflow`` parser with every subcommand (rheology, report, calc, batch,
+    methods)."""
     parser = _Parser(
         prog="boreflow",
         description="Drilling-fluid and slurry hydraulics: rheology, circulating pressures, "
@@ -204,6 +226,7 @@ def build_parser() -> argparse.ArgumentParser:
     _add_report(sub)
     _add_calc(sub)
     _add_batch(sub)
+    _add_methods(sub)
     return parser
 
 

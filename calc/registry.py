@@ -13,7 +13,7 @@ registered names and the nearest one.
 from __future__ import annotations
 
 from collections.abc import Callable
-from dataclasses import dataclass
+from dataclasses import dataclass, is_dataclass, replace
 from typing import Any
 
 from calc.errors import check_choice
@@ -27,7 +27,9 @@ STATUS_KINDS = (
     "published_example",  # reproduces a published worked example, table or chart
     "reference_library",  # agrees with a general-purpose reference library (e.g. fluids)
     "independent_reimplementation",  # agrees with a second implementation written apart
+    "field_form_only",  # the SI code equals the printed field formula; formula itself unchecked
     "common_practice",  # a fact of the trade with no single published source
+    "self_consistency",  # only properties, regression values or self-consistency are tested
     "from_memory",  # coefficients or structure recalled, not yet checked against the source
     "not_assessed",  # nobody has said yet
 )
@@ -93,11 +95,32 @@ class MethodRegistry:
         return deco
 
     def set_status(self, name: str, status: Verification) -> None:
-        """Record how ``name`` has been checked (for entries registered before the evidence)."""
+        """Record how ``name`` has been checked (for entries registered before the evidence).
+
+        An entry whose implementation is a frozen dataclass with a ``status`` field (a
+        hydraulics-method preset) gets the same status on it, so the two never disagree.  A
+        status declared at registration is not replaced (one declaration per method).
+
+        >>> reg = MethodRegistry("demo method")
+        >>> _ = reg.register("double", "twice the input", "arithmetic")(lambda x: 2 * x)
+        >>> reg.set_status("double", Verification("exact_solution", "2·x by hand"))
+        >>> reg.get("double").status.kind
+        'exact_solution'
+        >>> reg.set_status("double", Verification("from_memory"))
+        Traceback (most recent call last):
+        ...
+        ValueError: demo method 'double': status already declared (exact_solution)
+        """
         info = self.get(name)
-        self._entries[info.name] = MethodInfo(
-            info.name, info.func, info.description, info.source, status
-        )
+        if info.status != NOT_ASSESSED:
+            raise ValueError(
+                f"{self.what} '{info.name}': status already declared ({info.status.kind})"
+            )
+        func = info.func
+        if is_dataclass(func) and not isinstance(func, type) and hasattr(func, "status"):
+            func = replace(func, status=status)
+        info = MethodInfo(info.name, func, info.description, info.source, status)
+        self._entries[info.name] = info
 
     def get(self, name: str) -> MethodInfo:
         return self._entries[check_choice(self.what, name, self._entries)]

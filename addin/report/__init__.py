@@ -33,6 +33,8 @@ from addin.report.sheet_hydraulics import write_hydraulics
 from addin.report.sheet_rheology import write_rheology
 from addin.report.sheet_window import write_window
 from addin.report.sheets import write_audit, write_cautions, write_inputs, write_summary
+from addin.report.summary_rows import summary_rows
+from addin.report.trace import write_methods_and_trace
 from addin.safe_io import OutputExistsError, atomic_write
 from addin.xlsx_cells import add_styles
 
@@ -61,6 +63,7 @@ def build_report(results: Results):
     write_cautions(wb, results, title)
     write_summary(summary, results, refs, title)
     write_audit(audit, results, factors, title)
+    write_methods_and_trace(audit, results, summary_rows(results, refs), factors.next_row + 2)
     # Audit last in tab order
     wb.move_sheet("Audit", offset=len(wb.sheetnames) - 1 - wb.sheetnames.index("Audit"))
     wb.active = 0

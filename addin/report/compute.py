@@ -13,6 +13,7 @@ import numpy as np
 
 import calc
 from addin.case import Case
+from addin.report.trace import slip_method_of
 from calc.circulation import (
     CirculationResult,
     FrictionCalibration,
@@ -38,6 +39,7 @@ from calc.rheology import (
     fit_all,
 )
 from calc.surge import SurgeResult, TripLimits, surge_pressure, trip_speed_limits
+from calc.verification import caveat_notes
 
 __all__ = [
     "CheckHydraulics",
@@ -213,6 +215,9 @@ def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) 
             notes.extend(part.notes)
     if window is not None:
         notes.extend(window.notes)
+    # one note per caveat of the methods used (calc.verification), shown with the others
+    slip = slip_method_of(cleaning.result.method) if cleaning is not None else None
+    notes.extend(caveat_notes(method, slip))
     return Results(
         case=case,
         run_time=run_time,

@@ -8,6 +8,7 @@ from addin import text
 from addin.report.compute import scalar
 from addin.report.sheet_cleaning import short_name
 from addin.report.sheet_window import allowed_ecd, binding_words
+from addin.report.trace import used_methods
 from addin.rheology_data import rheology_data
 from calc.units import label, unit_for
 
@@ -51,6 +52,7 @@ def results_data(results) -> dict:
             "fluid_fits": results.fluid.fits,
         },
         "units": {k: label(unit_for(k, s)) for k in kinds},
+        "method_status": _status_data(results),
     }
     out["rheology"] = rheology_data(case, s)
     out["circulation"] = _circulation_data(results, s)
@@ -77,6 +79,23 @@ def results_data(results) -> dict:
         for n in results.notes
     ]
     return out
+
+
+def _status_data(results) -> list[dict]:
+    """How each method the run used has been checked: family, name, primary source, status
+    kind and its words, evidence, caveats (calc.verification)."""
+    return [
+        {
+            "family": family,
+            "name": info.name,
+            "source": info.source,
+            "kind": info.status.kind,
+            "status": text.status_label(info.status.kind),
+            "evidence": info.status.evidence,
+            "caveats": list(info.status.caveats),
+        }
+        for family, info in used_methods(results)
+    ]
 
 
 def _circulation_data(results, s) -> dict:

@@ -14,6 +14,7 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
+from addin.report.trace import slip_line, slip_method_of
 from addin.text import display_number as _o
 from addin.text import unit_label as U
 from addin.xlsx_cells import put, set_widths
@@ -56,7 +57,7 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
         )
         return {}
     hc = part.result
-    merged_text(ws, row, f"Method: {hc.method}", span=14, height=24)
+    merged_text(ws, row, f"Method: {_method_words(hc)}", span=14, height=24)
     merged_text(ws, row + 1, f"Criteria: {hc.criteria_text}", span=14, height=24)
     row += 3
     du, vu, qu = U("depth", system), U("velocity", system), U("flow_rate", system)
@@ -237,3 +238,13 @@ def _planned_rows(ws, row, part, res, system) -> int:
             put_number(ws, row, col, _o(emw, "density", system), number_format("density", system))
         row += 1
     return row
+
+
+def _method_words(hc) -> str:
+    """The cleaning methods by name and primary source (their status is on the Audit sheet)."""
+    slip = slip_method_of(hc.method)
+    slip_words = f"slip {slip_line(slip)}" if slip else hc.method
+    return (
+        f"{slip_words}; CCI (Robinson); high-angle critical rate larsen_1997 (Larsen, Pilehvari "
+        "& Azar (1997) SPE Drill. & Compl. 12(2):129-135)"
+    )

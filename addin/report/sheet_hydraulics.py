@@ -20,6 +20,7 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
+from addin.report.trace import method_line
 from addin.text import display_number as _o
 from addin.text import unit_label as U
 from addin.xlsx_cells import put, set_widths
@@ -37,8 +38,8 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
     merged_text(
         ws,
         row,
-        f"Check {case.checks[-1].label}. Method: {res.method}; fluid: {res.fluid_label} "
-        f"({results.fluid.fits}); hydrostatic convention: {res.hydrostatic}; eccentricity "
+        f"Check {case.checks[-1].label}. Method: {method_line(results)}; fluid: "
+        f"{res.fluid_label}; hydrostatic convention: {res.hydrostatic}; eccentricity "
         f"{res.eccentricity:g}; friction multiplier "
         f"{float(np.asarray(res.friction_multiplier)):g} (uncalibrated).",
         span=15,

@@ -23,6 +23,7 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
+from addin.report.trace import method_line, slip_line, slip_method_of
 from addin.text import check_point
 from addin.text import display_values as _o
 from addin.text import unit_label as U
@@ -155,8 +156,11 @@ def _intro(ws, row, results, ow, system, span) -> int:
         if results.cleaning
         else "no cuttings given (no cleaning limit, clean ECD)"
     )
+    slip = slip_method_of(results.cleaning.result.method) if results.cleaning else None
+    cleaning = f"; cleaning {slip_line(slip)}" if slip else ""
     intro = (
-        f"Method: {ow.method}. Sweep: {q.size} rates from {_o(q[0], 'flow_rate', system):,.0f} "
+        f"Method: circulation {method_line(results)}{cleaning}. Sweep: {q.size} rates from "
+        f"{_o(q[0], 'flow_rate', system):,.0f} "
         f"to {_o(q[-1], 'flow_rate', system):,.0f} {qu} ({q[0] / q0:.1f}–{q[-1] / q0:.1f} × the "
         f"check's rate); {load}. A rate is inside when ECD ≤ fracture − "
         f"{_o(ow.fracture_margin, 'density', system):.2f} {dn} and ≥ pore + "

