@@ -512,6 +512,8 @@ def list_methods() -> list[dict]:
     at the top; then friction laws, viscometer fits, rheometer-table fits, slip-velocity
     methods and nozzle-optimisation criteria, each in registration order.
 
+    Examples
+    --------
     >>> rows = list_methods()
     >>> rows[0]["name"] == DEFAULT_METHOD
     True
@@ -547,6 +549,8 @@ def method_caveats(method, slip_method: str | None = None) -> tuple[tuple[str, s
     (left out when overrides replace part of it: they speak of the preset as registered), then
     its friction law's, its fits' and the slip method's.
 
+    Examples
+    --------
     >>> any("1.066" in c for _, _, c in method_caveats("api13d_2010_hb"))
     True
     >>> method_caveats("hb_none")  # doctest: +ELLIPSIS
@@ -574,6 +578,8 @@ def caveat_notes(method, slip_method: str | None = None) -> tuple[Note, ...]:
     """One warning note (code ``method_caveat``) per caveat of :func:`method_caveats`, so a
     report lists every caveat of the methods it used beside its other findings.
 
+    Examples
+    --------
     >>> notes = caveat_notes("exact_laminar")
     >>> notes[0].code, notes[0].value("method").value
     ('method_caveat', 'exact_laminar')

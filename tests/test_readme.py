@@ -107,7 +107,7 @@ def test_python_tour_doctests(tour):
 
 
 # ------------------------------------------------------------------------------ methods table
-_SNIPPET_LINE = re.compile(r"^(\w+) (\d+) (\{.*\}) ([\d.]+)$")
+_SNIPPET_LINE = re.compile(r"^(\w+) (\d+) (\{.*\}) ([\d.]+)(?: \w+)?$")  # optional status
 
 
 def _snippet_rows(tour) -> dict[str, dict[str, float]]:
