@@ -20,6 +20,7 @@ from calc.registry import MethodRegistry
 from calc.values import Value
 
 __all__ = [
+    "CONSTANT_SETS",
     "FRICTION_LAWS",
     "LAMINAR",
     "REGIME_LABELS",
@@ -63,6 +64,12 @@ def classify_regime(reynolds, laminar_limit, turbulent_limit):
     return out
 
 
+#: Constant sets a friction law may be computed with: ``"exact"`` (field constants derived from
+#: SI, the default) or ``"as_printed"`` (the rounded constants printed in the published method,
+#: so an auditor can reproduce a printed worked example to its last digit; calc/METHODS.md §7.9).
+CONSTANT_SETS = ("exact", "as_printed")
+
+
 @dataclass(frozen=True)
 class FlowCase:
     """Validated, broadcast and flattened (1-D) inputs of one call, SI."""
@@ -77,6 +84,7 @@ class FlowCase:
     n: np.ndarray  # -
     roughness: np.ndarray  # m
     eccentricity: np.ndarray  # -
+    constants: str = "exact"  # field-constant set (calc.hydraulics_method.CONSTANT_SETS)
 
     @property
     def is_annulus(self) -> bool:
@@ -108,6 +116,8 @@ class MethodState:
     wall_shear_rate: np.ndarray  # 1/s
     wall_shear_stress: np.ndarray  # Pa, = fρV²/2
     notes: tuple[Note, ...] = ()
+    #: factor on 2fρV²/D_h (1 but where a printed field constant rescales the gradient)
+    gradient_scale: np.ndarray | float = 1.0
 
 
 @dataclass(frozen=True)
@@ -131,6 +141,8 @@ class FlowMethod:
     uses_roughness: bool = False
     critical_velocity: Callable[[FlowCase], np.ndarray] | None = None
     limit_from_distinct: bool = False
+    #: field-constant sets the law can be computed with (calc/METHODS.md §7.9)
+    constant_sets: tuple[str, ...] = ("exact",)
 
 
 @dataclass(frozen=True)
