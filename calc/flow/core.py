@@ -291,7 +291,7 @@ def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
         method_label=spec.label
         + ("" if case.constants == "exact" else f" (constants={case.constants})"),
         geometry=case.geometry,
-        velocity=o(v),
+        velocity=o(v * st.velocity_scale),
         hydraulic_diameter=o(case.d_h),
         wall_shear_rate=o(st.wall_shear_rate),
         wall_shear_stress=o(st.wall_shear_stress),
@@ -301,7 +301,7 @@ def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
         regime=_shape_out(st.regime, shape, as_int=True),
         friction_factor=o(st.friction_factor),
         gradient=o(gradient),
-        critical_velocity=o(v_c),
+        critical_velocity=o(v_c * st.velocity_scale),
         critical_flow_rate=o(v_c * case.area),
         eccentricity_factor=o(ecc),
         notes=tuple(x for x in notes if x is not None),

@@ -343,6 +343,7 @@ def api13d_1995_state(case: FlowCase) -> MethodState:
         0.5 * f * case.density * v**2 * scale,
         tuple(x for x in notes if x),
         gradient_scale=scale,
+        velocity_scale=c.ratio("velocity"),
     )
 
 

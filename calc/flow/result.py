@@ -118,6 +118,9 @@ class MethodState:
     notes: tuple[Note, ...] = ()
     #: factor on 2fρV²/D_h (1 but where a printed field constant rescales the gradient)
     gradient_scale: np.ndarray | float = 1.0
+    #: factor on the reported mean velocity Q/A (1 but where the method's printed velocity
+    #: formula, e.g. 0.408Q/D², is reported as it prints it)
+    velocity_scale: np.ndarray | float = 1.0
 
 
 @dataclass(frozen=True)
