@@ -58,6 +58,7 @@ from calc.geometry import (
     ToolPressureDrop,
     Well,
 )
+from calc.hydraulics_method import HydraulicsMethod, resolve_method
 from calc.rheology import STANDARD_GEOMETRY, ViscometerGeometry, ViscometerReadings
 from calc.rheology.viscometer import FIELD_STRESS
 from calc.units import UNIT_SYSTEMS, to_si, unit_for
@@ -268,6 +269,25 @@ class Case:
     @property
     def meta(self) -> Mapping[str, Any]:
         return self.header
+
+    def hydraulics_method(self, method=None, constants=None) -> HydraulicsMethod:
+        """The case's hydraulics method: ``[case].method`` (default ``api13d_2010_hb``) with
+        ``[case].constants`` (default ``"exact"``); ``method``/``constants`` given here (the
+        command line's ``--method``/``--constants``) override the keys.  An unknown name, or
+        ``"as_printed"`` for a method without printed constants, is an InputError naming the
+        file and key (calc/METHODS.md §7.9; workbooks/CASE-FORMAT.md)."""
+        name = method or self.header.get("method") or None
+        const = constants or self.header.get("constants") or "exact"
+        from_file = (method is None and "method" in self.header) or (
+            constants is None and "constants" in self.header
+        )
+        try:
+            return resolve_method(name, constants=const)
+        except InputError as exc:
+            if not from_file:
+                raise
+            key = "case.constants" if exc.name == "constants" else "case.method"
+            return self._build(key, resolve_method, name, constants=const)
 
     def _need(self, name: str):
         if name not in self.sections:
@@ -538,6 +558,9 @@ def parse_case(data: Mapping, source: str = "<case>") -> Case:
     unit_system = header.get("units", "oilfield").strip().lower()
     if unit_system not in UNIT_SYSTEMS:
         _unknown(source, "case.units", header.get("units"), UNIT_SYSTEMS)
+    for key in ("method", "constants"):
+        if key in header:
+            header[key] = str(header[key]).strip()
     checks, slurries = [], []
     for name, schema, mode in (("check", CHECK_SCHEMA, "mud"), ("slurry", SLURRY_SCHEMA, "cement")):
         items = data.get(name, [])
@@ -570,7 +593,7 @@ def parse_case(data: Mapping, source: str = "<case>") -> Case:
             )
         else:
             sections[name] = parse_table(item, schema, unit_system, source, name)
-    return Case(
+    case = Case(
         source,
         unit_system,
         header,
@@ -581,6 +604,9 @@ def parse_case(data: Mapping, source: str = "<case>") -> Case:
         doc=_canonical(data),
         hash=input_hash(data),
     )
+    if "method" in header or "constants" in header:
+        case.hydraulics_method()  # an unknown method or constant set fails at load, named
+    return case
 
 
 def _canonical(x):

@@ -52,6 +52,8 @@ CASE_SCHEMA = {
     "location": Field("text"),
     "report_period": Field("text"),
     "units": Field("text"),
+    "method": Field("text"),
+    "constants": Field("text"),
 }
 
 VISCOMETER_SCHEMA = {

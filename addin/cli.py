@@ -89,6 +89,16 @@ def _add_rheology(sub) -> None:
     p.set_defaults(func=rheology_cmd.run)
 
 
+def _add_constants(p) -> None:
+    """``--constants``: the field-constant set of the hydraulics method (calc/METHODS.md §7.9)."""
+    p.add_argument(
+        "--constants",
+        default=None,
+        help="field constants: exact (derived from SI, default) or as_printed (the published "
+        "rounded constants; api13d_1995_power_law only)",
+    )
+
+
 def _add_report(sub) -> None:
     p = sub.add_parser(
         "report",
@@ -103,7 +113,12 @@ def _add_report(sub) -> None:
     p.add_argument("-o", "--output", help="report file (default: CASE-report.xlsx here)")
     p.add_argument("--force", action="store_true", help="replace an existing report")
     p.add_argument("--json", action="store_true", help="also print every result as JSON")
-    p.add_argument("--method", default=None, help="hydraulics method (default api13d_2010_hb)")
+    p.add_argument(
+        "--method",
+        default=None,
+        help="hydraulics method (default: the case's, else api13d_2010_hb)",
+    )
+    _add_constants(p)
     p.set_defaults(func=report_cmd.run)
 
 
@@ -151,7 +166,12 @@ def _add_calc(sub) -> None:
     k = csub.add_parser("circulate", help="SPP breakdown and ECD for a case at a rate")
     k.add_argument("case")
     k.add_argument("--rate", help="flow rate (default: the latest check's)")
-    k.add_argument("--method", default=None)
+    k.add_argument(
+        "--method",
+        default=None,
+        help="hydraulics method (default: the case's, else api13d_2010_hb)",
+    )
+    _add_constants(k)
     k.add_argument(
         "--units",
         dest="units_given",

@@ -141,6 +141,8 @@ LABELS: dict[str, dict[str, str]] = {
         "location": "location",
         "report_period": "report period",
         "units": "unit system (oilfield, metric or si)",
+        "method": "hydraulics method (blank: api13d_2010_hb)",
+        "constants": "field constants (exact, or as_printed for api13d_1995_power_law)",
     },
     "limits": {
         "fracture_margin": "ECD margin below fracture",

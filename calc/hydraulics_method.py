@@ -36,9 +36,10 @@ from __future__ import annotations
 from dataclasses import dataclass, replace
 
 from calc.errors import InputError, check_choice
-from calc.flow import FRICTION_LAWS
+from calc.flow import CONSTANT_SETS, FRICTION_LAWS
 from calc.registry import NOT_ASSESSED, MethodRegistry, Verification
 from calc.rheology import VISCOMETER_FITS
+from calc.rheology.fit_viscometer import PRINTED_CONSTANT_FITS
 
 __all__ = [
     "CONSTANT_SETS",
@@ -52,10 +53,10 @@ __all__ = [
 #: The hydraulics method used when none is named: API RP 13D (2010) Herschel-Bulkley.
 DEFAULT_METHOD = "api13d_2010_hb"
 
-#: Constant sets a method may be computed with: ``"exact"`` (field constants derived from SI,
-#: the default) or ``"as_printed"`` (the rounded constants printed in the published method, so
-#: an auditor can reproduce a printed worked example to its last digit).
-CONSTANT_SETS = ("exact", "as_printed")
+# CONSTANT_SETS (from calc.flow): ``"exact"`` (field constants derived from SI, the default) or
+# ``"as_printed"`` (the rounded constants printed in the published method, so an auditor can
+# reproduce a printed worked example to its last digit; only ``api13d_1995_power_law`` has
+# them, calc/METHODS.md §7.9).
 
 #: Registered hydraulics methods (presets), by name.
 HYDRAULICS_METHODS = MethodRegistry("hydraulics method")
@@ -107,6 +108,15 @@ class HydraulicsMethod:
         for key, registry in _OVERRIDABLE.items():
             registry.get(getattr(self, key))  # InputError naming the registry if unknown
         check_choice("constants", self.constants, CONSTANT_SETS)
+        if self.constants != "exact" and not _has_printed(self):
+            supported = [m.name for m in list_hydraulics_methods() if _has_printed(m)]
+            raise InputError(
+                "constants",
+                self.constants,
+                f"'exact' for hydraulics method '{self.name}'; '{self.constants}' is "
+                "available for: " + ", ".join(supported),
+                problem="no printed constants for this method",
+            )
 
     @property
     def fits(self) -> str:
@@ -117,10 +127,20 @@ class HydraulicsMethod:
 
     @property
     def label(self) -> str:
-        """The name, with any overrides: ``"bingham (friction=newtonian)"``."""
+        """The name, with any overrides: ``"bingham (friction=newtonian)"``.
+
+        A constant set other than the preset's shows as ``constants=as_printed``.
+        """
         if not self.overrides:
             return self.name
         return f"{self.name} (" + ", ".join(f"{k}={v}" for k, v in self.overrides) + ")"
+
+
+def _has_printed(m: HydraulicsMethod) -> bool:
+    """Whether the friction law and both fits of ``m`` have a printed constant set."""
+    law = FRICTION_LAWS.get(m.friction).func
+    fits = {m.pipe_fit, m.annulus_fit}
+    return "as_printed" in law.constant_sets and fits <= set(PRINTED_CONSTANT_FITS)
 
 
 def _preset(name, friction, pipe_fit, annulus_fit, description, source, status=None) -> None:

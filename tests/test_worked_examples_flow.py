@@ -11,13 +11,20 @@ Sources
 [GL] Guo, B. & Liu, G. (2011). *Applied Drilling Circulation Systems: Hydraulics, Calculations
      and Models*. Gulf Professional Publishing. Illustrative Examples 2.5 (Bingham plastic,
      pp. 41-42) and 2.6 (power law, pp. 43-45); equations 2.31-2.35, 2.58-2.61, 2.66-2.67.
+[TAMU] Texas A&M University, PETE 411 Well Drilling: "Pressure Drop Calculations, API
+     Recommended Practice 13D, Third Edition, June 1, 1995 — the API power-law model" (2002),
+     detailed example "pump pressure", drill-pipe part (slides 10-14) and the drill-collar
+     velocity (slide 14); read in a public copy.  Printed inputs: R3 = 3, R100 = 20, R300 = 39,
+     R600 = 65; Q = 280 gal/min; ρ = 12.5 lb/gal; drill pipe 4.5 in OD, 3.78 in ID, 11,400 ft;
+     drill collars 6.5 in OD, 2.5 in ID, 600 ft.
 """
 
 import numpy as np
 import pytest
 
 from calc.flow import annulus_flow, pipe_flow
-from calc.flow.friction import n_dependent_bounds
+from calc.flow.friction import api_turbulent_coefficients, n_dependent_bounds
+from calc.rheology import ViscometerReadings, fit
 from calc.units import from_si, to_si
 
 # ------------------------------------------------------------------ [GL] well and mud (p. 41)
@@ -261,3 +268,67 @@ def test_gl_2_6_power_law_annulus(name, printed_re, printed_f, printed_psi):
     # Δp = f ρ v² L/(0.816·(D2 - D1)) in consistent units = our gradient × f_GL/(0.816 f_ours)
     as_printed = _psi(r.gradient, length) * f_gl / (0.816 * r.friction_factor)
     assert as_printed == pytest.approx(printed_psi, abs=0.5 + 5e-3 * printed_psi)
+
+
+# ------------------------------------------- [TAMU] API RP 13D (1995), pump-pressure example
+TAMU_READINGS = ViscometerReadings([3, 100, 300, 600], [3, 20, 39, 65])
+TAMU_Q = to_si(280.0, "gpm")
+TAMU_RHO = to_si(12.5, "ppg")
+
+
+def _tamu_pipe(d_in, constants="as_printed"):
+    fr = fit(TAMU_READINGS, "api13d_1995_pipe", constants=constants)
+    r = pipe_flow(
+        TAMU_Q,
+        to_si(d_in, "in"),
+        density=TAMU_RHO,
+        tau_y=0.0,
+        k=fr.model.k,
+        n=fr.model.n,
+        method="api13d_1995_power_law",
+        constants=constants,
+    )
+    return fr, r
+
+
+def test_tamu_api1995_drill_pipe_as_printed():
+    """[TAMU] slides 10-14: n_p = 3.32 log(65/39) = 0.737; K_p = 5.11·65/1022^0.737 = 2.017
+    dyn·sⁿ/cm²; V_p = 0.408·280/3.78² = 8.00 ft/s; μ_ep = 53 cP; N_Rep = 928·3.78·8·12.5/53 =
+    6,616 (turbulent, ≥ 2,100); a = 0.0759, b = 0.2690; f_p = 0.007126;
+    dP/dL = f_pV_p²ρ/(25.81·3.78) = 0.05837 psi/ft; ΔP_dp = 0.05837 × 11,400 = 665 psi.
+
+    Reproduced with ``constants="as_printed"`` to the printed digits (tolerance half a unit of
+    the last printed digit).  μ_ep is not an output of calc; it is recovered from Re by the
+    printed Re = 928·D·V·ρ/μ_e.
+    """
+    fr, r = _tamu_pipe(3.78)
+    assert fr.model.n == pytest.approx(0.737, abs=5e-4)
+    assert fr.model.k / 0.1 == pytest.approx(2.017, abs=5e-4)  # 1 dyn/cm² = 0.1 Pa
+    v = from_si(r.velocity, "ft/s")
+    assert v == pytest.approx(8.00, abs=5e-3)
+    mu_e = 928.0 * 3.78 * v * 12.5 / r.reynolds  # the printed Re formula, solved for μ_e
+    assert mu_e == pytest.approx(53.0, abs=0.5)
+    assert r.reynolds == pytest.approx(6_616, abs=0.5)
+    assert r.regime_label == "turbulent"
+    a, b = api_turbulent_coefficients(fr.model.n)
+    assert float(a) == pytest.approx(0.0759, abs=5e-5)
+    assert float(b) == pytest.approx(0.2690, abs=5e-5)
+    assert r.friction_factor == pytest.approx(0.007126, abs=5e-7)
+    assert from_si(r.gradient, "psi/ft") == pytest.approx(0.05837, abs=5e-6)
+    assert _psi(r.gradient, 11_400) == pytest.approx(665, abs=0.5)
+
+
+def test_tamu_api1995_drill_collar_velocity_as_printed():
+    """[TAMU] slide 14: V = 0.408·280/2.5² = 18.28 ft/s (same n_p, K_p as the drill pipe)."""
+    _, r = _tamu_pipe(2.5)
+    assert from_si(r.velocity, "ft/s") == pytest.approx(18.28, abs=5e-3)
+
+
+def test_tamu_api1995_exact_constants_miss_the_printed_digits():
+    """The same example with the constants derived from SI misses the printed N_Rep and
+    ΔP_dp by more than their last digit (6,624 and 667 psi: the 0.408/928/25.81/3.32/5.11/1022
+    rounding, calc/METHODS.md §7.9) — so the printed-constant test above is not passing by
+    tolerance alone."""
+    _, r = _tamu_pipe(3.78, constants="exact")
+    assert abs(r.reynolds - 6_616) > 5
+    assert abs(_psi(r.gradient, 11_400) - 665) > 1.0

@@ -6,7 +6,7 @@ from addin import text
 from addin.case import load_case, parse_quantity
 from addin.commands.exit_codes import EXIT_OK
 from addin.commands.output import json_text
-from addin.report.compute import DEFAULT_METHOD, report_fluid, scalar
+from addin.report.compute import report_fluid, scalar
 from calc.bit import Bit, bit_hydraulics
 from calc.circulation import Margins, hydrostatic_pressure
 from calc.circulation.loop import circulate
@@ -103,15 +103,14 @@ def run(args) -> int:
             else case.check_value(-1, "flow_rate")
         )
         chk = case.checks[-1]
-        fluid = report_fluid(
-            chk.readings, case.check_value(-1, "density"), args.method or DEFAULT_METHOD, chk.label
-        )
+        method = case.hydraulics_method(args.method, args.constants)
+        fluid = report_fluid(chk.readings, case.check_value(-1, "density"), method, chk.label)
         lim = case.limits
         res = circulate(
             case.well(-1),
             fluid,
             q,
-            method=args.method or DEFAULT_METHOD,
+            method=method,
             window=case.window,
             weak_points=case.weak_points,
             margins=Margins(lim["fracture_margin"], lim["pore_margin"]),

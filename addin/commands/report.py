@@ -15,8 +15,10 @@ from addin.safe_io import OutputExistsError
 __all__ = ["run", "run_one"]
 
 
-def run_one(case_path, out_path, *, force=False, method=None):
-    """Load, compute and write one report; returns (results, seconds)."""
+def run_one(case_path, out_path, *, force=False, method=None, constants=None):
+    """Load, compute and write one report; returns (results, seconds).
+
+    ``method``/``constants`` override the case's ``[case].method``/``[case].constants``."""
     t0 = time.perf_counter()
     out = Path(out_path)
     if out.exists() and not force:  # refuse before any work, and write nothing
@@ -24,7 +26,7 @@ def run_one(case_path, out_path, *, force=False, method=None):
     if not out.parent.is_dir():
         raise FileNotFoundError(f"{out.parent}: output folder does not exist")
     case = load_case(case_path)
-    results = compute(case, method=method) if method else compute(case)
+    results = compute(case, method=case.hydraulics_method(method, constants))
     write_report(results, out, overwrite=force)
     return results, time.perf_counter() - t0
 
@@ -32,7 +34,9 @@ def run_one(case_path, out_path, *, force=False, method=None):
 def run(args) -> int:
     """Write the report of ``args.case``; print its path, or every result as JSON."""
     out = Path(args.output) if args.output else Path(Path(args.case).stem + "-report.xlsx")
-    results, dt = run_one(args.case, out, force=args.force, method=args.method)
+    results, dt = run_one(
+        args.case, out, force=args.force, method=args.method, constants=args.constants
+    )
     if args.json:
         print(json_text(results_data(results)))
     else:

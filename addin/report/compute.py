@@ -28,7 +28,7 @@ from calc.circulation import (
 )
 from calc.cleaning import Cuttings, HoleCleaningResult, hole_cleaning
 from calc.geometry import Well
-from calc.hydraulics_method import DEFAULT_METHOD  # the report's default: calc's one default
+from calc.hydraulics_method import HydraulicsMethod  # None → the case's method or calc's default
 from calc.notes import Note
 from calc.rate_window import OperatingWindow, operating_window
 from calc.rheology import (
@@ -178,8 +178,17 @@ def report_fluid(readings, density: float, method: str, label: str) -> Hydraulic
     )
 
 
-def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) -> Results:
-    """Run rheology, circulation, ECD profile (and cleaning/surge where available) for a case."""
+def compute(
+    case, *, method: str | HydraulicsMethod | None = None, run_time: str | None = None
+) -> Results:
+    """Run rheology, circulation, ECD profile (and cleaning/surge where available) for a case.
+
+    ``method``: a hydraulics-method name or preset; None → the case's ``[case].method`` and
+    ``[case].constants`` (:meth:`addin.case.Case.hydraulics_method`; default
+    :data:`~calc.hydraulics_method.DEFAULT_METHOD`, exact constants).  ``Results.method`` is its
+    label, e.g. ``"api13d_1995_power_law (constants=as_printed)"``.
+    """
+    method = method if isinstance(method, HydraulicsMethod) else case.hydraulics_method(method)
     run_time = run_time or _dt.datetime.now(_dt.UTC).strftime("%Y-%m-%d %H:%M:%S UTC")
     checks = []
     prev = None
@@ -222,7 +231,7 @@ def compute(case, *, method: str = DEFAULT_METHOD, run_time: str | None = None) 
         case=case,
         run_time=run_time,
         version=calc.__version__,
-        method=method,
+        method=method.label,
         checks=tuple(checks),
         well=well,
         fluid=fluid,

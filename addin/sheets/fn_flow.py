@@ -8,6 +8,12 @@ interval length) → rate → options (``method``, eccentricity) → units.  The
 ``method`` picks both the friction law and the rheology fit each path uses (blank =
 ``api13d_2010_hb``; ``api13d_1995_power_law`` uses 600/300 rpm in pipe and 100/3 rpm in the
 annulus).  The flow rate may be a range: the result then has its shape.
+
+The worksheet functions always use the exact field constants (derived from SI).  The printed,
+rounded constants of API RP 13D (1995) (``constants="as_printed"``, calc/METHODS.md §7.9) are
+available from Python (``resolve_method("api13d_1995_power_law", constants="as_printed")``),
+the case file (``[case].constants``) and the command line (``--constants``), not here: a
+worksheet argument for them would shift the position of ``units`` in existing formulas.
 """
 
 from typing import Any

@@ -23,6 +23,7 @@ import numpy as np
 from calc.bit.nozzles import parse_nozzles
 from calc.errors import InputError, check_positive, check_range
 from calc.flow.area import cross_section_area
+from calc.flow.methods_api import api95_constants
 from calc.notes import Note
 from calc.numeric import float_or_array
 from calc.units import to_si
@@ -74,7 +75,9 @@ def nozzle_velocity(q, tfa):
     return float_or_array(np.asarray(q, dtype=float) / check_positive("TFA", tfa, "m2"))
 
 
-def bit_pressure_drop(q, density, tfa, discharge_coefficient=DEFAULT_DISCHARGE_COEFFICIENT):
+def bit_pressure_drop(
+    q, density, tfa, discharge_coefficient=DEFAULT_DISCHARGE_COEFFICIENT, constants="exact"
+):
     """Pressure drop across the nozzles ΔP_b = ρQ²/(2C_d²A²) [Pa].
 
     Parameters
@@ -87,6 +90,11 @@ def bit_pressure_drop(q, density, tfa, discharge_coefficient=DEFAULT_DISCHARGE_C
         Total flow area [m²].
     discharge_coefficient : float
         Nozzle discharge coefficient C_d [-], default 0.95.
+    constants : str
+        ``"exact"``, or ``"as_printed"`` for the API RP 13D (1995) printed form
+        ΔP = 156ρQ²/(ΣD_N²)² (psi, ppg, gpm, nozzles in 32nds): the Bernoulli drop times
+        156/156.52, the printed over the exact constant at C_d = 0.95 — so at C_d = 0.95 it is
+        the printed formula (calc/METHODS.md §8.3, §7.9).
 
     Notes
     -----
@@ -98,12 +106,16 @@ def bit_pressure_drop(q, density, tfa, discharge_coefficient=DEFAULT_DISCHARGE_C
     --------
     >>> round(bit_pressure_drop(0.03, 1000.0, 2e-4, 1.0) / 1e6, 4)
     11.25
+    >>> exact = bit_pressure_drop(0.03, 1000.0, 2e-4)
+    >>> round(bit_pressure_drop(0.03, 1000.0, 2e-4, constants="as_printed") / exact, 5)
+    0.99668
     """
     cd = check_range("discharge coefficient", discharge_coefficient, 0.5, 1.2)
     a = check_positive("TFA", tfa, "m2")
     q = np.asarray(q, dtype=float)
     rho = np.asarray(density, dtype=float)
-    return float_or_array(rho * q**2 / (2.0 * cd**2 * a**2))
+    scale = api95_constants(constants).ratio("bit")
+    return float_or_array(rho * q**2 / (2.0 * cd**2 * a**2) * scale)
 
 
 def bit_hydraulic_power(q, pressure_drop):
@@ -242,6 +254,13 @@ class Bit:
         return float(cross_section_area(self.size))
 
 
+#: Method text of the bit drop computed with the printed API RP 13D (1995) constant.
+BIT_METHOD_PRINTED = (
+    "API RP 13D (1995) printed form 156ρQ²/(ΣD_N²)², times (0.95/C_d)² for another C_d "
+    "(constants=as_printed; calc/METHODS.md §8.3)"
+)
+
+
 @dataclass(frozen=True, eq=False)
 class BitHydraulics:
     """Bit hydraulics at one or many flow rates (arrays broadcast over the rates given)."""
@@ -262,8 +281,13 @@ class BitHydraulics:
     notes: tuple[Note, ...] = ()
 
 
-def bit_hydraulics(q, density, bit: Bit, standpipe_pressure=None) -> BitHydraulics:
+def bit_hydraulics(
+    q, density, bit: Bit, standpipe_pressure=None, constants="exact"
+) -> BitHydraulics:
     """All bit-hydraulics quantities for ``bit`` at flow rate(s) ``q`` [m³/s], ``density`` [kg/m³].
+
+    ``constants`` as for :func:`bit_pressure_drop` (the power, HSI and impact force follow the
+    pressure drop it gives).
 
     ``standpipe_pressure`` [Pa], if given, yields the bit's share ΔP_b/p_sp.  Notes warn of a
     nozzle velocity above ~450 ft/s or an HSI below ~1 hp/in² (common practice, from
@@ -288,7 +312,7 @@ def bit_hydraulics(q, density, bit: Bit, standpipe_pressure=None) -> BitHydrauli
     rho = check_positive("density", density, "kg/m3")
     cd = bit.discharge_coefficient
     vn = nozzle_velocity(qv, bit.tfa)
-    dp = bit_pressure_drop(qv, rho, bit.tfa, cd)
+    dp = bit_pressure_drop(qv, rho, bit.tfa, cd, constants)
     pw = bit_hydraulic_power(qv, dp)
     h = hsi(pw, bit.size)
     fj = impact_force(qv, rho, dp, cd)
@@ -350,4 +374,5 @@ def bit_hydraulics(q, density, bit: Bit, standpipe_pressure=None) -> BitHydrauli
         standpipe_pressure=spp,
         share_of_standpipe=share,
         notes=tuple(notes),
+        **({} if constants == "exact" else {"method": BIT_METHOD_PRINTED}),
     )

@@ -183,8 +183,13 @@ def hydraulics_fluid_from_readings(
         density = getattr(readings, "density", None)
     if density is None:
         raise InputError("density", None, "the fluid density in kg/m³")
-    pipe = fit(readings, preset.pipe_fit)
-    ann = pipe if preset.annulus_fit == preset.pipe_fit else fit(readings, preset.annulus_fit)
+    const = preset.constants
+    pipe = fit(readings, preset.pipe_fit, constants=const)
+    ann = (
+        pipe
+        if preset.annulus_fit == preset.pipe_fit
+        else fit(readings, preset.annulus_fit, constants=const)
+    )
     lab = label or str(getattr(readings, "label", "") or "")
     notes = tuple(dict.fromkeys((*pipe.notes, *ann.notes))) if fit_notes else ()
     return HydraulicsFluid(

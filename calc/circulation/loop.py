@@ -37,6 +37,7 @@ from calc.circulation.result import (
 from calc.circulation.well_parts import WellParts
 from calc.errors import InputError, check_choice, check_positive, check_range
 from calc.flow import FlowResult
+from calc.hydraulics_method import HydraulicsMethod
 from calc.notes import Note
 from calc.values import Value
 
@@ -48,7 +49,7 @@ def circulate(
     fluid: HydraulicsFluid,
     q,
     *,
-    method: str | None = None,
+    method: str | HydraulicsMethod | None = None,
     eccentricity: float = 0.0,
     back_pressure: float = 0.0,
     friction_multiplier: float = 1.0,
@@ -83,9 +84,12 @@ def circulate(
         Density [kg/m³] (scalar or array: a density sweep) and the pipe/annulus models.
     q : float or array_like
         Flow rate(s) [m³/s], > 0; broadcast against ``fluid.density``.
-    method : str, optional
+    method : str or HydraulicsMethod, optional
         Hydraulics method (:func:`calc.hydraulics_method.resolve_method`; None: the default,
-        API RP 13D 2010 Herschel-Bulkley); its friction law computes every gradient.
+        API RP 13D 2010 Herschel-Bulkley); its friction law computes every gradient, with its
+        constant set (``resolve_method(name, constants="as_printed")``: the printed constants
+        for the pipe, annulus and bit drops, calc/METHODS.md §7.9).  Fit the fluid with the same
+        method (:func:`~calc.circulation.hydraulics_fluid`).
     eccentricity : float
         Pipe offset in the annulus, e = 2δ/(D_hole − D_pipe), 0 ≤ e < 1.
     back_pressure : float
@@ -195,6 +199,7 @@ class _Inputs:
     mult: np.ndarray
     shape: tuple[int, ...]
     method: str
+    constants: str
     hydrostatic: str
     ecc: float
     pb: float
@@ -213,6 +218,7 @@ def _validate(
     qv = check_positive("flow rate", q, "m³/s")
     if not isinstance(fluid, HydraulicsFluid):
         raise InputError("fluid", type(fluid).__name__, "a HydraulicsFluid")
+    constants = wp.method_constants(method)
     method = wp.check_method(method)
     hydrostatic = check_choice("hydrostatic", hydrostatic, ("exact", "0.052"))
     ecc = float(check_range("eccentricity", eccentricity, 0.0, 1.0, hi_open=True))
@@ -243,6 +249,7 @@ def _validate(
         mult=np.broadcast_to(mult_in, shape).ravel(),
         shape=shape,
         method=method,
+        constants=constants,
         hydrostatic=hydrostatic,
         ecc=ecc,
         pb=pb,
@@ -276,13 +283,14 @@ def _loop_pass(well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs) -> 
     """Surface lines, string, fixed tool drops, bit and annulus at every sweep point."""
     Q, R, M = inp.q[:, None], inp.rho[:, None], inp.mult[:, None]
     pipe_args, ann_args, method = fluid.pipe_parameters, fluid.annulus_parameters, inp.method
+    const = inp.constants
     notes: list[Note] = []
     if parts.line_d.size:
-        sflow = wp.pipe(Q, parts.line_d[None, :], R, pipe_args, method)
+        sflow = wp.pipe(Q, parts.line_d[None, :], R, pipe_args, method, const)
         s_losses = sflow.gradient * parts.line_len[None, :] * M
     else:
         sflow, s_losses = None, np.zeros((inp.q.size, 0))
-    pflow = wp.pipe(Q, parts.string_d[None, :], R, pipe_args, method)
+    pflow = wp.pipe(Q, parts.string_d[None, :], R, pipe_args, method, const)
     p_losses = pflow.gradient * parts.string_len[None, :] * M
     covered = tuple(well.tool_covered)
     if covered:
@@ -300,14 +308,14 @@ def _loop_pass(well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs) -> 
     t_losses = wp.tool_drops(parts.tools, Q, R)
     for tool in parts.tools:
         notes.extend(tool.rate_notes(inp.q))
-    bit_loss = wp.bit_drop(well, inp.q, inp.rho)
+    bit_loss = wp.bit_drop(well, inp.q, inp.rho, const)
     aflow = wp.annulus(
-        Q, parts.ann_hole[None, :], parts.ann_pipe[None, :], R, ann_args, method, inp.ecc
+        Q, parts.ann_hole[None, :], parts.ann_pipe[None, :], R, ann_args, method, inp.ecc, const
     )
     a_losses = aflow.gradient * parts.ann_len[None, :] * M
     spp = inp.pb + s_losses.sum(-1) + p_losses.sum(-1) + t_losses.sum(-1) + bit_loss
     spp = spp + a_losses.sum(-1)
-    bit = wp.bit_hydraulics(well, inp.q, inp.rho, spp)
+    bit = wp.bit_hydraulics(well, inp.q, inp.rho, spp, const)
     notes.extend(bit.notes)
     return _Pass(
         sflow, s_losses, pflow, p_losses, covered, t_losses, bit_loss, aflow, a_losses, spp, bit,

@@ -30,6 +30,7 @@ __all__ = [
     "bit_hydraulics",
     "check_method",
     "flow_notes",
+    "method_constants",
     "method_label",
     "parts",
     "pipe",
@@ -107,23 +108,29 @@ def parts(well: Well) -> WellParts:
     )
 
 
-def check_method(method: str | None) -> str:
+def check_method(method) -> str:
     """The friction law of a hydraulics method (:func:`calc.hydraulics_method.resolve_method`)."""
     return resolve_method(method).friction
 
 
-def pipe(Q, d, R, params, method):
+def method_constants(method) -> str:
+    """The constant set of a hydraulics method (``"exact"`` or ``"as_printed"``)."""
+    return resolve_method(method).constants
+
+
+def pipe(Q, d, R, params, method, constants="exact"):
     """:func:`calc.flow.pipe_flow` with the fluid's (τy, K, n)."""
     ty, k, n = params
-    return pipe_flow(Q, d, density=R, tau_y=ty, k=k, n=n, method=method)
+    return pipe_flow(Q, d, density=R, tau_y=ty, k=k, n=n, method=method, constants=constants)
 
 
-def annulus(Q, d_hole, d_pipe, R, params, method, ecc):
+def annulus(Q, d_hole, d_pipe, R, params, method, ecc, constants="exact"):
     """:func:`calc.flow.annulus_flow` with the fluid's (τy, K, n) and the eccentricity."""
     ty, k, n = params
     return annulus_flow(
-        Q, d_hole, d_pipe, density=R, tau_y=ty, k=k, n=n, method=method, eccentricity=ecc
-    )
+        Q, d_hole, d_pipe, density=R, tau_y=ty, k=k, n=n, method=method, eccentricity=ecc,
+        constants=constants,
+    )  # fmt: skip
 
 
 def tool_drops(tools, Q, R) -> np.ndarray:
@@ -133,15 +140,16 @@ def tool_drops(tools, Q, R) -> np.ndarray:
     return np.concatenate([np.asarray(t.pressure_drop(Q, R), dtype=float) for t in tools], axis=1)
 
 
-def bit_hydraulics(well: Well, q, rho, spp=None) -> BitHydraulics:
+def bit_hydraulics(well: Well, q, rho, spp=None, constants="exact") -> BitHydraulics:
     """:func:`calc.bit.bit_hydraulics` of the well's bit."""
-    return _bit_hydraulics(q, rho, well.bit, standpipe_pressure=spp)
+    return _bit_hydraulics(q, rho, well.bit, standpipe_pressure=spp, constants=constants)
 
 
-def bit_drop(well: Well, q, rho) -> np.ndarray:
+def bit_drop(well: Well, q, rho, constants="exact") -> np.ndarray:
     """Bit pressure drop [Pa] (:func:`calc.bit.bit_pressure_drop`)."""
     b = well.bit
-    return np.asarray(bit_pressure_drop(q, rho, b.tfa, b.discharge_coefficient), dtype=float)
+    dp = bit_pressure_drop(q, rho, b.tfa, b.discharge_coefficient, constants)
+    return np.asarray(dp, dtype=float)
 
 
 def reshape_bit(bit: BitHydraulics, shape) -> BitHydraulics:

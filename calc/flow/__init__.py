@@ -32,9 +32,16 @@ from calc.flow.core import (
     pipe_flow,
 )
 from calc.flow.methods_api import api_wall_shear
-from calc.flow.result import FRICTION_LAWS, REGIME_LABELS, FlowResult, regime_label
+from calc.flow.result import (
+    CONSTANT_SETS,
+    FRICTION_LAWS,
+    REGIME_LABELS,
+    FlowResult,
+    regime_label,
+)
 
 __all__ = [
+    "CONSTANT_SETS",
     "DEFAULT_FRICTION_LAW",
     "FRICTION_LAWS",
     "REGIME_LABELS",

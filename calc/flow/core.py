@@ -9,10 +9,17 @@ from __future__ import annotations
 
 import numpy as np
 
-from calc.errors import InputError, check_nonnegative, check_positive, check_range
+from calc.errors import (
+    InputError,
+    check_choice,
+    check_nonnegative,
+    check_positive,
+    check_range,
+)
 from calc.flow.distinct import distinct_combinations
 from calc.flow.eccentricity import VALIDITY, eccentricity_factor
 from calc.flow.result import (
+    CONSTANT_SETS,
     FRICTION_LAWS,
     LAMINAR,
     TRANSITIONAL,
@@ -56,7 +63,9 @@ def list_friction_laws() -> list[MethodInfo]:
     return FRICTION_LAWS.describe()
 
 
-def _build_case(geometry, q, d_outer, d_inner, density, tau_y, k, n, roughness, eccentricity):
+def _build_case(
+    geometry, q, d_outer, d_inner, density, tau_y, k, n, roughness, eccentricity, constants="exact"
+):
     outer_name = "pipe inside diameter d" if geometry == "pipe" else "hole diameter d_hole"
     vals = {
         "q": check_positive("flow rate q", q, "m³/s"),
@@ -100,11 +109,25 @@ def _build_case(geometry, q, d_outer, d_inner, density, tau_y, k, n, roughness, 
             kind="length",
             values=(Value("half", float(0.5 * d_h[i]), "length"),),
         )
-    case = FlowCase(geometry=geometry, **flat)
-    return case, shape, _critical_case(geometry, vals, shape)
+    case = FlowCase(geometry=geometry, constants=constants, **flat)
+    return case, shape, _critical_case(geometry, vals, shape, constants)
 
 
-def _critical_case(geometry, vals, shape):
+def _check_constants(method: str, spec: FlowMethod, constants: str) -> None:
+    """InputError unless friction law ``method`` can be computed with the constant set."""
+    check_choice("constants", constants, CONSTANT_SETS)
+    if constants in spec.constant_sets:
+        return
+    laws = [m.name for m in FRICTION_LAWS.describe() if constants in m.func.constant_sets]
+    raise InputError(
+        "constants",
+        constants,
+        f"'exact' for friction law '{method}'; '{constants}' is available for: " + ", ".join(laws),
+        problem="no printed constants for this method",
+    )
+
+
+def _critical_case(geometry, vals, shape, constants="exact"):
     """The distinct (geometry, fluid) combinations of a call and the map back to its elements.
 
     Returns ``(case, inverse)``: ``case`` holds each distinct combination once (at
@@ -119,6 +142,7 @@ def _critical_case(geometry, vals, shape):
         q=np.full(columns[0].shape, NOMINAL_RATE),
         roughness=zeros,
         eccentricity=zeros,
+        constants=constants,
         **fields,
     )
     return case, inverse
@@ -249,6 +273,7 @@ def _regime_notes(method: str, spec: FlowMethod, case: FlowCase, st: MethodState
 
 def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
     spec: FlowMethod = FRICTION_LAWS.get(method).func
+    _check_constants(method, spec, case.constants)
     spec.check(case)
     if spec.limit_from_distinct:
         # rate-independent laminar limit: once per distinct (geometry, fluid), gathered back
@@ -259,15 +284,16 @@ def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
         st = spec.evaluate(case)
     v = case.velocity
     ecc, ecc_notes = _eccentricity(method, case, st)
-    gradient = 2.0 * st.friction_factor * case.density * v**2 / case.d_h * ecc
+    gradient = 2.0 * st.friction_factor * case.density * v**2 / case.d_h * ecc * st.gradient_scale
     v_c = _critical_velocity(spec, critical, limit)
     notes = [*st.notes, *ecc_notes, *_regime_notes(method, spec, case, st, v_c)]
     o = lambda x: _shape_out(x, shape)  # noqa: E731
     return FlowResult(
         method=method,
-        method_label=spec.label,
+        method_label=spec.label
+        + ("" if case.constants == "exact" else f" (constants={case.constants})"),
         geometry=case.geometry,
-        velocity=o(v),
+        velocity=o(v * st.velocity_scale),
         hydraulic_diameter=o(case.d_h),
         wall_shear_rate=o(st.wall_shear_rate),
         wall_shear_stress=o(st.wall_shear_stress),
@@ -277,7 +303,7 @@ def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
         regime=_shape_out(st.regime, shape, as_int=True),
         friction_factor=o(st.friction_factor),
         gradient=o(gradient),
-        critical_velocity=o(v_c),
+        critical_velocity=o(v_c * st.velocity_scale),
         critical_flow_rate=o(v_c * case.area),
         eccentricity_factor=o(ecc),
         notes=tuple(x for x in notes if x is not None),
@@ -285,7 +311,7 @@ def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
 
 
 def pipe_flow(
-    q, d, *, density, tau_y, k, n, method=DEFAULT_FRICTION_LAW, roughness=0.0
+    q, d, *, density, tau_y, k, n, method=DEFAULT_FRICTION_LAW, roughness=0.0, constants="exact"
 ) -> FlowResult:
     """Frictional pressure gradient for flow inside a pipe.
 
@@ -309,6 +335,10 @@ def pipe_flow(
         One of :func:`list_friction_laws` (default ``"api13d_2010_hb"``).
     roughness : array_like
         Absolute wall roughness [m], ≥ 0 (used by ``"newtonian"``; others note it is ignored).
+    constants : str
+        ``"exact"`` (field constants derived from SI) or ``"as_printed"`` (the rounded
+        constants of the printed recipe; only ``"api13d_1995_power_law"``, calc/METHODS.md
+        §7.9).
 
     Returns
     -------
@@ -355,7 +385,9 @@ def pipe_flow(
     >>> round(r.reynolds), r.regime_label
     (43304, 'turbulent')
     """
-    case, shape, critical = _build_case("pipe", q, d, 0.0, density, tau_y, k, n, roughness, 0.0)
+    case, shape, critical = _build_case(
+        "pipe", q, d, 0.0, density, tau_y, k, n, roughness, 0.0, constants
+    )
     return _evaluate(method, case, shape, critical)
 
 
@@ -371,6 +403,7 @@ def annulus_flow(
     method=DEFAULT_FRICTION_LAW,
     eccentricity=0.0,
     roughness=0.0,
+    constants="exact",
 ) -> FlowResult:
     """Frictional pressure gradient for flow in the annulus between a hole and a pipe.
 
@@ -385,7 +418,7 @@ def annulus_flow(
         Hole or casing inside diameter D2 [m], > 0.
     d_pipe : array_like
         Pipe outside diameter D1 [m], 0 < D1 < D2.
-    density, tau_y, k, n, method, roughness
+    density, tau_y, k, n, method, roughness, constants
         As for :func:`pipe_flow`.
     eccentricity : array_like
         e = 2δ/(D2 - D1) [-], 0 ≤ e < 1 (δ the offset of the pipe centre); corrected by
@@ -424,12 +457,14 @@ def annulus_flow(
     (2.17, 'laminar')
     """
     case, shape, critical = _build_case(
-        "annulus", q, d_hole, d_pipe, density, tau_y, k, n, roughness, eccentricity
+        "annulus", q, d_hole, d_pipe, density, tau_y, k, n, roughness, eccentricity, constants
     )
     return _evaluate(method, case, shape, critical)
 
 
-def critical_flow_rate(d, d_pipe=None, *, density, tau_y, k, n, method=DEFAULT_FRICTION_LAW):
+def critical_flow_rate(
+    d, d_pipe=None, *, density, tau_y, k, n, method=DEFAULT_FRICTION_LAW, constants="exact"
+):
     """Flow rate at which the method's Reynolds number reaches its laminar limit [m³/s].
 
     Pipe when ``d_pipe`` is None (``d`` the pipe ID), annulus otherwise (``d`` the hole ID).
@@ -441,7 +476,7 @@ def critical_flow_rate(d, d_pipe=None, *, density, tau_y, k, n, method=DEFAULT_F
         Pipe inside diameter, or hole diameter [m].
     d_pipe : array_like or None
         Pipe outside diameter [m] for an annulus.
-    density, tau_y, k, n, method
+    density, tau_y, k, n, method, constants
         As for :func:`pipe_flow`.
 
     Returns
@@ -459,8 +494,10 @@ def critical_flow_rate(d, d_pipe=None, *, density, tau_y, k, n, method=DEFAULT_F
     geometry = "pipe" if d_pipe is None else "annulus"
     # the critical velocity does not depend on q: any valid rate will do
     case, shape, critical = _build_case(
-        geometry, NOMINAL_RATE, d, 0.0 if d_pipe is None else d_pipe, density, tau_y, k, n, 0.0, 0.0
-    )
+        geometry, NOMINAL_RATE, d, 0.0 if d_pipe is None else d_pipe, density, tau_y, k, n, 0.0,
+        0.0, constants,
+    )  # fmt: skip
     spec: FlowMethod = FRICTION_LAWS.get(method).func
+    _check_constants(method, spec, case.constants)
     spec.check(case)
     return _shape_out(_critical_velocity(spec, critical) * case.area, shape)

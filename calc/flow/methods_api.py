@@ -11,8 +11,12 @@ the 2006/2010 yield-power-law structure from memory, pending verification agains
 
 from __future__ import annotations
 
+from dataclasses import dataclass
+from functools import cache
+
 import numpy as np
 
+from calc.errors import check_choice
 from calc.flow.checks import require_n_at_most, require_no_yield
 from calc.flow.friction import (
     api_hb_blend_fanning,
@@ -20,6 +24,7 @@ from calc.flow.friction import (
     n_dependent_bounds,
 )
 from calc.flow.result import (
+    CONSTANT_SETS,
     FRICTION_LAWS,
     LAMINAR,
     TURBULENT,
@@ -29,11 +34,127 @@ from calc.flow.result import (
     classify_regime,
     count_note,
 )
+from calc.units import si_factor
 
-__all__ = ["api13d_1995_state", "api13d_2010_state", "api_geometry_factor", "api_wall_shear"]
+__all__ = [
+    "API95_PRINTED",
+    "Api1995Constants",
+    "api13d_1995_state",
+    "api13d_2010_state",
+    "api95_constants",
+    "api_geometry_factor",
+    "api_wall_shear",
+]
 
 #: Laminar/turbulent boundary of the 1995 method (API RP 13D 1995; calc/METHODS.md §7.2).
 API95_RE_LIMIT = 2100.0
+
+
+@dataclass(frozen=True)
+class Api1995Constants:
+    """The field constants of the API RP 13D (1995) power-law recipe, one set per name.
+
+    The recipe as printed (API RP 13D, 3rd ed. 1995, read second-hand — calc/METHODS.md §7.2,
+    §7.9) uses rounded field constants; ``"exact"`` holds the same constants derived from SI
+    (calc/METHODS.md §0.1), ``"as_printed"`` the printed ones.  The code evaluates one SI formula
+    per quantity and multiplies each term by :meth:`ratio` = printed/exact of the constant that
+    term carries in the field form, so the ``"exact"`` set gives ratio 1 exactly (the SI
+    numbers unchanged) and ``"as_printed"`` reproduces the printed field formula.
+
+    ============  ====================================================  =========  =========
+    field         field formula (units)                                 printed    exact
+    ============  ====================================================  =========  =========
+    n_pipe        n_p = c·log(θ600/θ300)                                3.32       1/log 2
+    n_annulus     n_a = c·log(θ100/θ3)                                  0.657      1/log(100/3)
+    dial_stress   K = c·θ/γ̇ⁿ [dyn·sⁿ/cm²] (R1-B1-F1, dyn/cm² per °)     5.11       5.10678
+    rate_600      γ̇ at 600 rpm in K_p = 5.11θ600/1022^n_p [1/s]        1022       1021.38
+    rate_100      γ̇ at 100 rpm in K_a = 5.11θ100/170.2^n_a [1/s]       170.2      170.230
+    velocity      V = c·Q/D² (ft/s, gpm, in)                            0.408      0.408497
+    reynolds      Re = c·D·V·ρ/μ_e (in, ft/s, ppg, cP)                  928        927.687
+    gradient      dP/dL = f·V²·ρ/(c·D) (psi/ft, ft/s, ppg, in)          25.81      25.8064
+    bit           ΔP = c·ρQ²/(ΣD_N²)² (psi, ppg, gpm, 32nds; C_d 0.95)  156        156.52
+    ============  ====================================================  =========  =========
+
+    The other numbers of the recipe (96 = 8·12 and 144 = 12·12 in μ_e, 100 cP per poise, 16/Re,
+    24/Re, 2100, and a = (log n + 3.93)/50, b = (1.75 − log n)/7) are exact or dimensionless and
+    the same in both sets.
+
+    >>> round(api95_constants("exact").reynolds, 3), API95_PRINTED.reynolds
+    (927.687, 928.0)
+    >>> api95_constants("exact").ratio("velocity")
+    1.0
+    """
+
+    name: str
+    n_pipe: float
+    n_annulus: float
+    dial_stress: float
+    rate_600: float
+    rate_100: float
+    velocity: float
+    reynolds: float
+    gradient: float
+    bit: float
+
+    def ratio(self, field: str) -> float:
+        """This set's constant over the exact one (1.0 for the exact set) [-]."""
+        return getattr(self, field) / getattr(api95_constants("exact"), field)
+
+
+def _exact_api95() -> Api1995Constants:
+    """The 1995 field constants derived from SI (calc/METHODS.md §0.1, §1.1-§1.2)."""
+    # lazy: calc.rheology imports calc.flow (its 1995 fits use this table); the standard
+    # viscometer is read at first use so the two packages import in either order
+    from calc.rheology.viscometer import STANDARD_GEOMETRY
+
+    ppg, gpm, cp = si_factor("ppg"), si_factor("gpm"), si_factor("cP")
+    inch, fps, psi_ft = si_factor("in"), si_factor("ft/s"), si_factor("psi/ft")
+    rate, stress = STANDARD_GEOMETRY.shear_rate_per_rpm, STANDARD_GEOMETRY.stress_per_reading
+    nozzle = np.pi / 4.0 * (inch / 32.0) ** 2  # m² per (32nd in)² of nozzle diameter
+    cd = 0.95  # the discharge coefficient the printed 156 carries (calc/METHODS.md §8.3)
+    return Api1995Constants(
+        name="exact",
+        n_pipe=1.0 / np.log10(2.0),
+        n_annulus=1.0 / np.log10(100.0 / 3.0),
+        dial_stress=stress / 0.1,  # 1 dyn/cm² = 0.1 Pa (CGS, exact)
+        rate_600=600.0 * rate,
+        rate_100=100.0 * rate,
+        velocity=gpm / (np.pi / 4.0 * inch**2) / fps,
+        reynolds=ppg * fps * inch / cp,
+        gradient=psi_ft / (2.0 * ppg * fps**2 / inch),  # SI: dP/dL = 2fρV²/D
+        bit=ppg * gpm**2 / (2.0 * cd**2 * nozzle**2) / si_factor("psi"),
+    )
+
+
+#: The 1995 constants as printed (API RP 13D, 3rd ed. 1995, second-hand; calc/METHODS.md §7.9).
+API95_PRINTED = Api1995Constants(
+    name="as_printed",
+    n_pipe=3.32,
+    n_annulus=0.657,
+    dial_stress=5.11,
+    rate_600=1022.0,
+    rate_100=170.2,
+    velocity=0.408,
+    reynolds=928.0,
+    gradient=25.81,
+    bit=156.0,
+)
+
+
+@cache
+def _api95_set(name: str) -> Api1995Constants:
+    return _exact_api95() if name == "exact" else API95_PRINTED
+
+
+def api95_constants(constants: str = "exact") -> Api1995Constants:
+    """The 1995 constant set named ``constants`` (``"exact"`` or ``"as_printed"``).
+
+    Raises :class:`~calc.errors.InputError` naming the allowed sets for any other name.
+
+    >>> api95_constants("as_printed").gradient
+    25.81
+    """
+    return _api95_set(check_choice("constants", constants, CONSTANT_SETS))
 
 
 def api_geometry_factor(n, alpha):
@@ -160,8 +281,14 @@ FRICTION_LAWS.register(
 )
 
 
+def _api95_velocity(case: FlowCase, v):
+    """The velocity the recipe's formulas see: V·(0.408 printed/exact) for the printed set."""
+    return v * api95_constants(case.constants).ratio("velocity")
+
+
 def _api95_shear(case: FlowCase, v):
     n = case.n
+    v = _api95_velocity(case, v)
     if case.is_annulus:
         return (2.0 * n + 1.0) / (3.0 * n) * 12.0 * v / case.d_h, 12.0 * v / case.d_h
     return (3.0 * n + 1.0) / (4.0 * n) * 8.0 * v / case.d_h, 8.0 * v / case.d_h
@@ -172,7 +299,8 @@ def _api95_re(case: FlowCase, v):
     gw, nominal = _api95_shear(case, v)
     # μ_e = K(8V/D)^(n-1)((3n+1)/(4n))^n pipe; K(12V/(D2-D1))^(n-1)((2n+1)/(3n))^n annulus
     mu_e = case.k * nominal ** (n - 1.0) * (gw / nominal) ** n
-    return case.density * v * case.d_h / mu_e
+    c = api95_constants(case.constants)
+    return case.density * _api95_velocity(case, v) * case.d_h / mu_e * c.ratio("reynolds")
 
 
 def api13d_1995_state(case: FlowCase) -> MethodState:
@@ -183,7 +311,10 @@ def api13d_1995_state(case: FlowCase) -> MethodState:
     μ_e from K, n (pipe: 600/300 pair; annulus: 100/3 pair — the caller passes the pair);
     Re = ρVD_h/μ_e; Re < 2100: f = 16/Re (pipe), 24/Re (annulus); else f = a/Re^b.
     That edition has no transitional zone, so the friction factor jumps at Re = 2100.
+    With ``case.constants == "as_printed"`` the velocity, Reynolds number and gradient carry
+    the printed 0.408, 928 and 25.81 (:class:`Api1995Constants`, calc/METHODS.md §7.9).
     """
+    c = api95_constants(case.constants)
     v = case.velocity
     gw, _ = _api95_shear(case, v)
     re = _api95_re(case, v)
@@ -203,6 +334,8 @@ def api13d_1995_state(case: FlowCase) -> MethodState:
             case.geometry,
         ),
     )
+    # dP/dL = fV²ρ/(25.81·D): the gradient 2fρV²/D_h scaled by (V_printed/V)²·(exact/printed)
+    scale = c.ratio("velocity") ** 2 / c.ratio("gradient")
     return MethodState(
         re,
         limit,
@@ -210,8 +343,10 @@ def api13d_1995_state(case: FlowCase) -> MethodState:
         regime,
         f,
         gw,
-        0.5 * f * case.density * v**2,
+        0.5 * f * case.density * v**2 * scale,
         tuple(x for x in notes if x),
+        gradient_scale=scale,
+        velocity_scale=c.ratio("velocity"),
     )
 
 
@@ -230,5 +365,6 @@ FRICTION_LAWS.register(
         reynolds=_api95_re,
         laminar_limit=lambda case: np.full(case.q.shape, API95_RE_LIMIT),
         check=_check_api95,
+        constant_sets=CONSTANT_SETS,
     )
 )

@@ -20,6 +20,7 @@ from calc.registry import MethodRegistry
 from calc.values import Value
 
 __all__ = [
+    "CONSTANT_SETS",
     "FRICTION_LAWS",
     "LAMINAR",
     "REGIME_LABELS",
@@ -71,6 +72,12 @@ def classify_regime(reynolds, laminar_limit, turbulent_limit):
     return out
 
 
+#: Constant sets a friction law may be computed with: ``"exact"`` (field constants derived from
+#: SI, the default) or ``"as_printed"`` (the rounded constants printed in the published method,
+#: so an auditor can reproduce a printed worked example to its last digit; calc/METHODS.md §7.9).
+CONSTANT_SETS = ("exact", "as_printed")
+
+
 @dataclass(frozen=True)
 class FlowCase:
     """Validated, broadcast and flattened (1-D) inputs of one call, SI."""
@@ -85,6 +92,7 @@ class FlowCase:
     n: np.ndarray  # -
     roughness: np.ndarray  # m
     eccentricity: np.ndarray  # -
+    constants: str = "exact"  # field-constant set (calc.hydraulics_method.CONSTANT_SETS)
 
     @property
     def is_annulus(self) -> bool:
@@ -116,6 +124,11 @@ class MethodState:
     wall_shear_rate: np.ndarray  # 1/s
     wall_shear_stress: np.ndarray  # Pa, = fρV²/2
     notes: tuple[Note, ...] = ()
+    #: factor on 2fρV²/D_h (1 but where a printed field constant rescales the gradient)
+    gradient_scale: np.ndarray | float = 1.0
+    #: factor on the reported mean velocity Q/A (1 but where the method's printed velocity
+    #: formula, e.g. 0.408Q/D², is reported as it prints it)
+    velocity_scale: np.ndarray | float = 1.0
 
 
 @dataclass(frozen=True)
@@ -139,6 +152,8 @@ class FlowMethod:
     uses_roughness: bool = False
     critical_velocity: Callable[[FlowCase], np.ndarray] | None = None
     limit_from_distinct: bool = False
+    #: field-constant sets the law can be computed with (calc/METHODS.md §7.9)
+    constant_sets: tuple[str, ...] = ("exact",)
 
 
 @dataclass(frozen=True)

@@ -41,13 +41,14 @@ import numpy as np
 from scipy.optimize import minimize_scalar
 
 from calc.errors import InputError
+from calc.flow.methods_api import api95_constants
 from calc.notes import Note
 from calc.rheology.fitresult import STRESS_SPACE, VISCOMETER_FITS, FitResult, quality_of
 from calc.rheology.models import Bingham, HerschelBulkley, Newtonian, PowerLaw
 from calc.rheology.viscometer import CENTIPOISE, FIELD_STRESS, ViscometerReadings
 from calc.values import Value
 
-__all__ = ["fit_hb_stress", "n_notes", "profile_fit"]
+__all__ = ["PRINTED_CONSTANT_FITS", "fit_hb_stress", "n_notes", "profile_fit"]
 
 _N_GRID = np.linspace(0.02, 2.5, 249)
 # Primary references only; how each fit was checked (and its caveats: the 1995 equations read
@@ -131,7 +132,9 @@ def _two_speeds(r: ViscometerReadings, method: str) -> tuple[float, float, list[
     )
 
 
-def _power_law_pair(r, hi, lo, method, description, source) -> FitResult:
+def _power_law_pair(r, hi, lo, method, description, source, scales=(1.0, 1.0, 1.0)) -> FitResult:
+    """Power law through two speeds; ``scales`` = (n, stress, rate) ratios printed/exact of the
+    1995 field constants (:class:`calc.flow.methods_api.Api1995Constants`; 1 for exact)."""
     g1, t1, th1 = _at(r, hi, method)
     g2, t2, th2 = _at(r, lo, method)
     if th2 <= 0 or th1 <= th2:
@@ -140,8 +143,9 @@ def _power_law_pair(r, hi, lo, method, description, source) -> FitResult:
             [th1, th2],
             f"0 < θ{lo:g} < θ{hi:g} (a power-law pair needs rising, non-zero readings)",
         )
-    n = float(np.log(t1 / t2) / np.log(g1 / g2))
-    model = PowerLaw(t1 / g1**n, n)
+    n_scale, stress_scale, rate_scale = scales
+    n = float(np.log(t1 / t2) / np.log(g1 / g2)) * n_scale
+    model = PowerLaw(t1 * stress_scale / (g1 * rate_scale) ** n, n)
     q = quality_of(model, r.shear_rate, r.shear_stress, STRESS_SPACE, 2)
     inter = {
         f"theta{hi:g}": th1,
@@ -172,8 +176,14 @@ def power_law_two_speed(data) -> FitResult:
 @VISCOMETER_FITS.register(
     "api13d_1995_pipe", "API RP 13D (1995) pipe pair n_p, K_p from 600/300 rpm", _API95
 )
-def api13d_1995_pipe(data) -> FitResult:
-    """API RP 13D (1995) pipe power law: n_p = 3.32 log(θ600/θ300), K_p = 5.11θ600/1022^n_p."""
+def api13d_1995_pipe(data, constants: str = "exact") -> FitResult:
+    """API RP 13D (1995) pipe power law: n_p = 3.32 log(θ600/θ300), K_p = 5.11θ600/1022^n_p.
+
+    ``constants="exact"`` evaluates it with the constants derived from SI (n = ln(τ600/τ300)/ln 2,
+    K = τ600/γ̇600ⁿ), ``"as_printed"`` with the printed 3.32, 5.11 and 1022 (calc/METHODS.md
+    §3.2, §7.9).
+    """
+    c = api95_constants(constants)
     return _power_law_pair(
         _readings(data),
         600,
@@ -181,14 +191,19 @@ def api13d_1995_pipe(data) -> FitResult:
         "api13d_1995_pipe",
         "API RP 13D (1995) pipe power law, 600/300 rpm",
         _API95,
+        (c.ratio("n_pipe"), c.ratio("dial_stress"), c.ratio("rate_600")),
     )
 
 
 @VISCOMETER_FITS.register(
     "api13d_1995_annulus", "API RP 13D (1995) annulus pair n_a, K_a from 100/3 rpm", _API95
 )
-def api13d_1995_annulus(data) -> FitResult:
-    """API RP 13D (1995) annulus power law: n_a = 0.657 log(θ100/θ3), K_a = 5.11θ100/170.2^n_a."""
+def api13d_1995_annulus(data, constants: str = "exact") -> FitResult:
+    """API RP 13D (1995) annulus power law: n_a = 0.657 log(θ100/θ3), K_a = 5.11θ100/170.2^n_a.
+
+    ``constants`` as for :func:`api13d_1995_pipe` (printed 0.657, 5.11, 170.2).
+    """
+    c = api95_constants(constants)
     return _power_law_pair(
         _readings(data),
         100,
@@ -196,7 +211,12 @@ def api13d_1995_annulus(data) -> FitResult:
         "api13d_1995_annulus",
         "API RP 13D (1995) annulus power law, 100/3 rpm",
         _API95,
+        (c.ratio("n_annulus"), c.ratio("dial_stress"), c.ratio("rate_100")),
     )
+
+
+#: Fits that can be computed with the printed constants (``fit(..., constants="as_printed")``).
+PRINTED_CONSTANT_FITS = ("api13d_1995_pipe", "api13d_1995_annulus")
 
 
 def _two_point_notes(r):

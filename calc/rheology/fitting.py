@@ -13,12 +13,14 @@ from __future__ import annotations
 
 import numpy as np
 
-from calc.errors import InputError
+from calc.errors import InputError, check_choice
+from calc.flow.result import CONSTANT_SETS
 from calc.notes import Note
 
 # importing the fit modules registers their methods
 from calc.rheology import fit_table as _fit_table  # noqa: F401
 from calc.rheology import fit_viscometer as _fit_viscometer  # noqa: F401
+from calc.rheology.fit_viscometer import PRINTED_CONSTANT_FITS
 from calc.rheology.fitresult import (
     LOG_SPACE,
     STRESS_SPACE,
@@ -57,13 +59,17 @@ def methods_for(data) -> list[str]:
     return _registry(data)[0].names()
 
 
-def fit(data, method: str = "hb_least_squares") -> FitResult:
+def fit(data, method: str = "hb_least_squares", constants: str = "exact") -> FitResult:
     """Fit ``data`` (:class:`ViscometerReadings` or :class:`RheometerTable`) by ``method``.
+
+    ``constants="as_printed"`` evaluates a fit of :data:`PRINTED_CONSTANT_FITS` with the
+    rounded constants of its printed recipe (calc/METHODS.md §7.9).
 
     Raises
     ------
     InputError
-        unknown method (with the nearest name), or readings the method cannot use.
+        unknown method (with the nearest name), readings the method cannot use, or printed
+        constants asked of a fit that has none.
 
     Examples
     --------
@@ -85,7 +91,18 @@ def fit(data, method: str = "hb_least_squares") -> FitResult:
     (4.0, 0.3, 0.65)
     """
     reg, _ = _registry(data)
-    return reg.get(method).func(data)
+    func = reg.get(method).func
+    if check_choice("constants", constants, CONSTANT_SETS) == "exact":
+        return func(data)
+    if method not in PRINTED_CONSTANT_FITS:
+        raise InputError(
+            "constants",
+            constants,
+            f"'exact' for fit '{method}'; '{constants}' is available for: "
+            + ", ".join(PRINTED_CONSTANT_FITS),
+            problem="no printed constants for this fit",
+        )
+    return func(data, constants=constants)
 
 
 def rank_fits(data, fits) -> tuple[RankEntry, ...]:
