@@ -111,7 +111,10 @@ FRICTION_LAWS.set_status(
 FRICTION_LAWS.set_status(
     "api13d_1995_power_law",
     V(
-        "field_form_only",
+        "published_example",
+        "With constants='as_printed' it reproduces every printed digit of the Texas A&M PETE "
+        "411 drill-pipe example (n, K, V, μe, Re, a, b, f, 0.05837 psi/ft, 665 psi; "
+        "tests/test_worked_examples_flow.py::test_tamu_api1995_drill_pipe_as_printed). "
         "Effective viscosity and Reynolds number equal the printed field form "
         "(test_api95_effective_viscosity_reynolds, 1e-5); the jump at Re 2100 is exactly "
         "a/2100^b over c/2100 (test_api95_as_published_jump_at_2100); the laminar pipe branch "
@@ -438,7 +441,10 @@ HYDRAULICS_METHODS.set_status(
 HYDRAULICS_METHODS.set_status(
     "api13d_1995_power_law",
     V(
-        "field_form_only",
+        "published_example",
+        "Pipe path reproduces the Texas A&M PETE 411 worked example to its printed digits with "
+        "constants='as_printed' (tests/test_worked_examples_flow.py, drill pipe 665 psi); its "
+        "annulus and bit parts were not legible in the copy found. "
         "Fits and friction law equal the printed field forms (test_api_1995_pipe_and_annulus_"
         "against_field_formulas, test_api95_effective_viscosity_reynolds); the laminar pipe "
         "branch equals the exact solution.",
