@@ -114,7 +114,16 @@ def check_method(method) -> str:
 
 
 def method_constants(method) -> str:
-    """The constant set of a hydraulics method (``"exact"`` or ``"as_printed"``)."""
+    """The constant set of a hydraulics method (``"exact"`` or ``"as_printed"``).
+
+    Examples
+    --------
+    >>> from calc.hydraulics_method import resolve_method
+    >>> method_constants("api13d_1995_power_law")
+    'exact'
+    >>> method_constants(resolve_method("api13d_1995_power_law", constants="as_printed"))
+    'as_printed'
+    """
     return resolve_method(method).constants
 
 

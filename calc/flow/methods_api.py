@@ -79,6 +79,8 @@ class Api1995Constants:
     24/Re, 2100, and a = (log n + 3.93)/50, b = (1.75 − log n)/7) are exact or dimensionless and
     the same in both sets.
 
+    Examples
+    --------
     >>> round(api95_constants("exact").reynolds, 3), API95_PRINTED.reynolds
     (927.687, 928.0)
     >>> api95_constants("exact").ratio("velocity")
@@ -151,6 +153,8 @@ def api95_constants(constants: str = "exact") -> Api1995Constants:
 
     Raises :class:`~calc.errors.InputError` naming the allowed sets for any other name.
 
+    Examples
+    --------
     >>> api95_constants("as_printed").gradient
     25.81
     """
