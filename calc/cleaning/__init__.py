@@ -11,6 +11,7 @@ All SI.
 from calc.cleaning.bed import (
     BED_METHODS,
     BED_ONSET,
+    CIRCULATION_FACTORS,
     CleanupCirculation,
     CuttingsBedResult,
     WellBeds,
@@ -28,6 +29,7 @@ from calc.cleaning.hole import (
     cuttings_ecd_increment,
     hole_cleaning,
     loaded_ecd_profile,
+    loaded_margins,
 )
 from calc.cleaning.indicators import (
     VERDICTS,
@@ -60,6 +62,7 @@ from calc.cleaning.transport import (
 __all__ = [
     "BED_METHODS",
     "BED_ONSET",
+    "CIRCULATION_FACTORS",
     "SLIP_METHODS",
     "VERDICTS",
     "CCIResult",
@@ -92,6 +95,7 @@ __all__ = [
     "larsen_critical_velocity",
     "loaded_density",
     "loaded_ecd_profile",
+    "loaded_margins",
     "no_bed_rate",
     "robinson_power_law",
     "slip_velocity",

@@ -522,10 +522,8 @@ def well_cuttings_beds(
 
     .. math:: \\Delta ECD_{bit} = \\frac{\\sum_i (G_{bed,i} - G_{clean,i}) L_i}{g\\,TVD_{bit}}
 
-    Examples
-    --------
-    >>> True  # exercised on the demo well in tests/test_cleaning_bed.py
-    True
+    Checked on the demo well and an invented high-angle well in tests/test_cleaning_bed.py (a
+    well is too large for a doctest; :func:`cuttings_bed` carries the example).
     """
     qv = check_positive("flow rate", q, "m³/s")
     if np.ndim(qv):
