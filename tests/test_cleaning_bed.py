@@ -192,3 +192,44 @@ def test_high_angle_well_beds_and_ecd():
     b2 = well_cuttings_beds(w, fl, b.no_bed_rate * 1.0001, rop=demo_rop(),
                             cuttings=demo_cuttings())  # fmt: skip
     assert not np.any(b2.bed.forms)
+
+
+def test_worksheet_functions_as_a_spreadsheet_calls_them(tmp_path):
+    """A small workbook with the bed functions in formulas, computed headlessly by PyPI
+    ``formulas`` (addin.sheets.engine), compared with calc called directly."""
+    openpyxl = pytest.importorskip("openpyxl")
+    pytest.importorskip("formulas")
+    from addin.sheets.engine import calculate
+    from calc.circulation import hydraulics_fluid_from_readings
+    from calc.rheology import ViscometerReadings
+    from calc.units import from_si, to_si
+
+    dial = [(600, 64), (300, 42), (200, 34), (100, 26), (6, 10), (3, 8)]
+    wb = openpyxl.Workbook()
+    ws = wb.active
+    ws.title = "Beds"
+    for i, (rpm, deg) in enumerate(dial, start=1):
+        ws.cell(row=i, column=4, value=rpm)
+        ws.cell(row=i, column=5, value=deg)
+    ws["A1"], ws["A2"], ws["A3"], ws["A4"], ws["A5"] = 11.0, 0.25, 8.5, 5.0, 70.0
+    ws["A6"], ws["A7"] = 300.0, 60.0
+    ws["B1"] = "=BF_BED_HEIGHT(A1,D1:E6,A2,A3,A4,A5,A6,A7)"
+    ws["B2"] = "=BF_BED_AREA(A1,D1:E6,A2,A3,A4,A5,A6,A7)"
+    ws["B3"] = "=BF_NO_BED_RATE(A1,D1:E6,A2,A3,A4,A5,A7)"
+    ws["B4"] = "=BF_BU_FACTOR(A5,A3)"
+    ws["B5"] = "=BF_NO_BED_RATE(A1,D1:E6,A2,A3,A4,20,A7)"
+    path = tmp_path / "beds.xlsx"
+    wb.save(path)
+    got = calculate(path)
+    r = ViscometerReadings([d[0] for d in dial], [d[1] for d in dial])
+    fl = hydraulics_fluid_from_readings(r, density=to_si(11.0, "ppg"))
+    ty, k, n = fl.annulus_parameters
+    kw = dict(inclination=70.0, rop=to_si(60.0, "ft/hour"), density=fl.density, k=k, tau_y=ty,
+              n=n, cuttings_size=to_si(0.25, "in"))  # fmt: skip
+    ref = cuttings_bed(to_si(300.0, "gpm"), to_si(8.5, "in"), to_si(5.0, "in"), **kw)
+    assert ref.forms
+    assert got[("BEDS", "B1")] == pytest.approx(from_si(ref.bed_height, "in"), rel=1e-9)
+    assert got[("BEDS", "B2")] == pytest.approx(ref.bed_fraction, rel=1e-9)
+    assert got[("BEDS", "B3")] == pytest.approx(from_si(ref.no_bed_rate, "gpm"), rel=1e-9)
+    assert got[("BEDS", "B4")] == 1.7  # 8-1/2 in column, above 60° (common practice)
+    assert str(got[("BEDS", "B5")]).startswith("#BF! inclination")
