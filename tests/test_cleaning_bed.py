@@ -139,7 +139,7 @@ def test_circulation_factors_common_practice():
     # common practice (values from memory, not checked against a source — calc/METHODS.md §10.16)
     assert circulation_factor([5.0, 20.0, 45.0, 75.0], 0.2159).tolist() == [1.3, 1.4, 1.6, 1.7]
     assert circulation_factor([5.0, 20.0, 45.0, 75.0], 0.4445).tolist() == [1.5, 1.7, 2.5, 3.0]
-    assert circulation_factor(45.0, 0.3112) == 1.8
+    assert circulation_factor(45.0, 0.31115) == 1.8
     c = cleanup_circulation(0.04, [0.3, 0.2159], [0.127, 0.127], [2000.0, 1000.0], [0.0, 50.0])
     v = np.pi / 4 * (np.array([0.3, 0.2159]) ** 2 - 0.127**2) * np.array([2000.0, 1000.0])
     m = np.array([1.3, 1.6])  # 0.3 m is nearest the 12-1/4 in column; 8-1/2 in at 50°
@@ -233,3 +233,31 @@ def test_worksheet_functions_as_a_spreadsheet_calls_them(tmp_path):
     assert got[("BEDS", "B3")] == pytest.approx(from_si(ref.no_bed_rate, "gpm"), rel=1e-9)
     assert got[("BEDS", "B4")] == 1.7  # 8-1/2 in column, above 60° (common practice)
     assert str(got[("BEDS", "B5")]).startswith("#BF! inclination")
+
+
+def test_report_block_and_json_on_a_high_angle_well():
+    """The Cleaning-sheet block and the --json block list the bed intervals (invented well)."""
+    from types import SimpleNamespace
+
+    import openpyxl
+
+    from addin.report.sheet_beds import beds_data, write_beds
+    from addin.xlsx_cells import add_styles
+    from calc.units import from_si
+
+    w = _high_angle_well()
+    b = well_cuttings_beds(w, demo_fluid(), 0.6 * demo_rate(), rop=demo_rop(),
+                           cuttings=demo_cuttings())  # fmt: skip
+    results = SimpleNamespace(beds=b, case=SimpleNamespace(unit_system="oilfield"))
+    wb = openpyxl.Workbook()
+    add_styles(wb)
+    ws = wb.active
+    end = write_beds(ws, 1, results)
+    rows = [[c.value for c in r] for r in ws.iter_rows(min_row=1, max_row=end)]
+    bed_rows = [r for r in rows if r[13] == "bed"]
+    assert len(bed_rows) == int(np.sum(b.bed.forms))
+    i = int(np.flatnonzero(b.bed.forms)[0])
+    assert bed_rows[0][6] == pytest.approx(from_si(float(b.bed.bed_height[i]), "in"), rel=1e-12)
+    data = beds_data(results)
+    assert sum(x["bed"] for x in data["intervals"]) == len(bed_rows)
+    assert data["no_bed_rate"] == pytest.approx(from_si(b.no_bed_rate, "gpm"), rel=1e-12)

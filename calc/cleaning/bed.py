@@ -68,7 +68,7 @@ BED_METHODS = MethodRegistry("cuttings-bed model")
 #: ((band upper limit [degree], ...), (hole size [m], ...), rows = band, columns = hole size).
 CIRCULATION_FACTORS = (
     (10.0, 30.0, 60.0, 180.0),
-    (0.2159, 0.3112, 0.4445),  # 8-1/2, 12-1/4, 17-1/2 in (× 0.0254 m/in)
+    (0.2159, 0.31115, 0.4445),  # 8-1/2, 12-1/4, 17-1/2 in (× 0.0254 m/in, exact)
     ((1.3, 1.3, 1.5), (1.4, 1.4, 1.7), (1.6, 1.8, 2.5), (1.7, 2.0, 3.0)),
 )
 
