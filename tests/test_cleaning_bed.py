@@ -183,15 +183,20 @@ def test_high_angle_well_beds_and_ecd():
     assert np.any(b.bed.forms)
     inc = np.asarray(w.flow_intervals().annulus.inclination)
     assert not np.any(b.bed.forms & (inc < 35.0))
-    # extra loss: Σ (G_bed − G_clean)·L over bed intervals, as EMW at the bit over g·TVD
+    # extra loss: Σ max(G_bed − G_clean, 0)·L over bed intervals, as EMW at the bit over g·TVD
     f = b.bed.forms
-    dp = float(np.sum((b.bed.gradient_bed - b.bed.gradient_clean)[f] * b.length[f]))
+    dp = float(np.sum(np.maximum(b.bed.gradient_bed - b.bed.gradient_clean, 0)[f] * b.length[f]))
     assert b.extra_loss == pytest.approx(dp, rel=1e-12) and dp > 0
     assert b.ecd_increment == pytest.approx(dp / (9.80665 * w.tvd_at(w.bit_depth)), rel=1e-12)
     # at the no-bed rate no interval carries a bed
     b2 = well_cuttings_beds(w, fl, b.no_bed_rate * 1.0001, rop=demo_rop(),
                             cuttings=demo_cuttings())  # fmt: skip
     assert not np.any(b2.bed.forms)
+    # at the check's rate a thin bed under tight tool joints lowers the D_h friction: not credited
+    b3 = well_cuttings_beds(w, fl, demo_rate(), rop=demo_rop(), cuttings=demo_cuttings())
+    low = b3.bed.forms & (b3.bed.gradient_bed < b3.bed.gradient_clean)
+    assert low.any() and b3.ecd_increment >= 0.0
+    assert "bed_friction_not_credited" in {n.code for n in b3.notes}
 
 
 def test_worksheet_functions_as_a_spreadsheet_calls_them(tmp_path):

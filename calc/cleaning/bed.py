@@ -488,8 +488,9 @@ class WellBeds:
     """Cuttings beds along a well at one rate (SI).
 
     spans, top_md, bottom_md, length [m]: the annular intervals; ``bed``: the per-interval
-    :class:`CuttingsBedResult`; extra_loss [Pa]: Σ (gradient_bed − gradient_clean)·L; ecd_increment
-    [kg/m³]: that loss as EMW at the bit, extra_loss/(g·TVD_bit); worst: index of the interval
+    :class:`CuttingsBedResult`; extra_loss [Pa]: Σ max(gradient_bed − gradient_clean, 0)·L over
+    the bed intervals (no credit for a predicted drop, see :func:`well_cuttings_beds`);
+    ecd_increment [kg/m³]: that loss as EMW at the bit, extra_loss/(g·TVD_bit); worst: index of the interval
     with the largest bed fraction (None without a bed); no_bed_rate [m³/s]: the largest
     no-bed rate over the intervals at or above the onset (inf: none there); max_inclination
     [degree]; cleanup: :class:`CleanupCirculation`.
@@ -520,7 +521,14 @@ def well_cuttings_beds(
     """:func:`cuttings_bed` in every annular interval of a well at one rate, the extra
     friction as ECD at the bit, and :func:`cleanup_circulation`.
 
-    .. math:: \\Delta ECD_{bit} = \\frac{\\sum_i (G_{bed,i} - G_{clean,i}) L_i}{g\\,TVD_{bit}}
+    .. math:: \\Delta ECD_{bit} = \\frac{\\sum_i \\max(G_{bed,i} - G_{clean,i},\\ 0)\\, L_i}
+              {g\\,TVD_{bit}}
+
+    The hydraulic-diameter treatment of the open area can give *less* friction than the clean
+    concentric annulus where a thin bed fills the narrow gap under the pipe of a tight annulus
+    (tool joints, collars): laminar flow in a non-circular section is poorly described by D_h.
+    Such intervals are not credited (their extra loss counts as zero; note
+    ``bed_friction_not_credited``), so the ECD increment is never negative.
 
     Checked on the demo well and an invented high-angle well in tests/test_cleaning_bed.py (a
     well is too large for a doctest; :func:`cuttings_bed` carries the example).
@@ -539,9 +547,21 @@ def well_cuttings_beds(
         cuttings_size=cuttings.size, method=method, onset=onset,
     )  # fmt: skip
     length = np.asarray(a.length, dtype=float)
-    extra = float(
-        np.sum((np.asarray(r.gradient_bed) - np.asarray(r.gradient_clean)) * length * r.forms)
-    )
+    diff = (np.asarray(r.gradient_bed) - np.asarray(r.gradient_clean)) * r.forms
+    extra = float(np.sum(np.maximum(diff, 0.0) * length))
+    notes = list(r.notes)
+    if np.any(diff < 0):
+        notes.append(
+            Note(
+                "info",
+                "bed_friction_not_credited",
+                "in {count} bed interval(s) the open-area hydraulic diameter gives less friction "
+                "than the clean annulus (the bed fills the narrow gap under the pipe); no credit "
+                "is taken: their extra loss counts as zero.",
+                "cuttings beds",
+                values=(Value("count", float(np.sum(diff < 0))),),
+            )
+        )
     tvd_bit = float(well.tvd_at(float(well.bit_depth)))
     frac = np.asarray(r.bed_fraction)
     high = inc >= onset
@@ -558,5 +578,5 @@ def well_cuttings_beds(
         max_inclination=float(inc.max()),
         onset=float(onset),
         cleanup=cleanup_circulation(float(qv), d2, d1, length, inc),
-        notes=r.notes,
+        notes=tuple(notes),
     )
