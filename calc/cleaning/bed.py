@@ -490,8 +490,8 @@ class WellBeds:
     spans, top_md, bottom_md, length [m]: the annular intervals; ``bed``: the per-interval
     :class:`CuttingsBedResult`; extra_loss [Pa]: Σ max(gradient_bed − gradient_clean, 0)·L over
     the bed intervals (no credit for a predicted drop, see :func:`well_cuttings_beds`);
-    ecd_increment [kg/m³]: that loss as EMW at the bit, extra_loss/(g·TVD_bit); worst: index of the interval
-    with the largest bed fraction (None without a bed); no_bed_rate [m³/s]: the largest
+    ecd_increment [kg/m³]: that loss as EMW at the bit, extra_loss/(g·TVD_bit); worst: index of
+    the interval with the largest bed fraction (None without a bed); no_bed_rate [m³/s]: the largest
     no-bed rate over the intervals at or above the onset (inf: none there); max_inclination
     [degree]; cleanup: :class:`CleanupCirculation`.
     """
