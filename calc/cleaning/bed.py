@@ -364,7 +364,7 @@ def cuttings_bed(
         gradient_clean=scalar_or_array(np.broadcast_to(clean.gradient, shape)),
         gradient_bed=scalar_or_array(bedf.gradient),
         method=f"larsen_1997_equilibrium_bed: {_SOURCE}; friction {law}",
-        notes=tuple(notes + list(lar.notes)),
+        notes=tuple(notes),  # Larsen's own range note: only where a bed forms (above)
     )
 
 
@@ -393,7 +393,7 @@ def no_bed_rate(d_hole, d_pipe, *, rate_bracket=(1e-4, 0.2), **kwargs):
 
     def minus_bed(qq):
         r = cuttings_bed(qq, d2, d1, **kwargs)
-        # tiny offset: the bed area is exactly 0 at and above the no-bed rate
+        # a step function: +1 where no bed (the bed area is exactly 0 at and above the rate)
         return np.where(np.asarray(r.bed_area) > 0, -1.0, 1.0)
 
     shape = np.broadcast(d2, d1, np.asarray(kwargs.get("inclination", 0.0))).shape
