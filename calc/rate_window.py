@@ -5,7 +5,9 @@ input here.)
 
 A rate q is inside the window when, simultaneously,
 
-* ECD(z) ≤ fracture(z) − margin at every check depth (cuttings-loaded ECD when ``rop`` > 0),
+* ECD(z) ≤ fracture(z) − margin at every check depth (``ecd_basis="loaded"``, the default: the
+  cuttings-loaded ECD at that rate when ``rop`` > 0 and cuttings are given; ``"clean"``: the
+  clean-mud ECD),
 * ECD(z) ≥ pore(z) + margin at every check depth (clean ECD: the lower, conservative value),
 * standpipe pressure ≤ the pump / surface rating,
 * every annular interval is cleaned (verdict at least ``require``, :mod:`calc.cleaning`),
@@ -35,13 +37,16 @@ from calc.circulation import CirculationResult, Margins, circulate
 from calc.circulation import well_parts as wp
 from calc.cleaning import Cuttings, cuttings_ecd_increment, hole_cleaning
 from calc.cleaning.indicators import cleaning_score
-from calc.errors import InputError, check_positive
+from calc.errors import InputError, check_choice, check_positive
 from calc.notes import Note
 from calc.numeric import first_change, grid_with_switches
 from calc.span import Span
 from calc.values import Value
 
-__all__ = ["OperatingWindow", "operating_window"]
+__all__ = ["ECD_BASES", "OperatingWindow", "operating_window"]
+
+#: What ECD the window's fracture limit holds: with the cuttings load at each rate, or clean.
+ECD_BASES = ("loaded", "clean")
 
 
 @dataclass(frozen=True, eq=False)
@@ -71,6 +76,10 @@ class OperatingWindow:
     controlling_interval    the interval needing it (None without cuttings)
     fracture_margin, pore_margin   required ECD margins [kg/m³]
     method                  circulation and cleaning methods
+    ecd_basis               "loaded" (fracture limit on the cuttings-loaded ECD) or "clean"
+    loaded                  whether a cuttings load was added (``ecd_basis`` "loaded" with
+                            cuttings and ROP > 0)
+    ecd_clean_fracture_point  the clean ECD at the point tightest against fracture [kg/m³]
     """
 
     q: np.ndarray
@@ -103,6 +112,9 @@ class OperatingWindow:
     pore_margin: float
     method: str
     notes: tuple[Note, ...] = field(default=())
+    ecd_basis: str = "loaded"
+    loaded: bool = False
+    ecd_clean_fracture_point: np.ndarray | None = None
 
 
 @dataclass(frozen=True, eq=False)
@@ -232,6 +244,7 @@ def _sweep(
     weak_points,
     margins,
     surface_rating,
+    ecd_basis,
 ) -> _Sweep:
     """The margin curve of every limit at the rates ``qv`` (one vectorised circulate call)."""
     res = circulate(
@@ -248,7 +261,7 @@ def _sweep(
     loaded = ecd
     if cuttings is not None:
         limits["hole cleaning"] = cl.indicator
-        if rop > 0:
+        if rop > 0 and ecd_basis == "loaded":
             loaded = ecd + np.asarray(
                 cuttings_ecd_increment(well, cl.loaded_density, float(fluid.density), mt.md)
             )
@@ -422,6 +435,7 @@ def operating_window(
     require: str = "adequate",
     eccentricity: float = 0.0,
     hydrostatic: str = "exact",
+    ecd_basis: str = "loaded",
 ) -> OperatingWindow:
     """Range of flow rates meeting the ECD, pressure-rating, cleaning and tool limits together.
 
@@ -450,6 +464,12 @@ def operating_window(
         Passed to :func:`calc.cleaning.hole_cleaning`.
     eccentricity, hydrostatic
         Passed to :func:`calc.circulation.circulate`.
+    ecd_basis : {"loaded", "clean"}
+        ECD the fracture limit holds at each rate: ``"loaded"`` adds the cuttings load at that
+        rate (ΔECD of :func:`calc.cleaning.cuttings_ecd_increment` from the loaded density of
+        :func:`calc.cleaning.hole_cleaning`, which falls as the transport ratio rises with the
+        rate) when ``cuttings`` and ``rop`` > 0 are given; ``"clean"`` ignores it.  The pore
+        limit always holds the clean ECD (the lower value).
 
     Returns
     -------
@@ -497,10 +517,12 @@ def operating_window(
     if qv.ndim != 1 or qv.size < 2 or np.any(np.diff(qv) <= 0):
         raise InputError("flow rate sweep", qv.tolist() if qv.size < 7 else qv, "increasing, ≥ 2")
     margins = Margins() if margins is None else margins
+    ecd_basis = check_choice("ECD basis", ecd_basis, ECD_BASES)
     kw = dict(
         rop=rop, cuttings=cuttings, slip_method=slip_method, criteria=criteria, require=require,
         method=method, eccentricity=eccentricity, hydrostatic=hydrostatic, window=window,
         weak_points=tuple(weak_points), margins=margins, surface_rating=surface_rating,
+        ecd_basis=ecd_basis,
     )  # fmt: skip
     sw = _sweep(well, fluid, qv, **kw)
     res, mt, limits, cl, loaded = sw.result, sw.result.margins, sw.limits, sw.cleaning, sw.loaded
@@ -553,4 +575,7 @@ def operating_window(
         pore_margin=float(margins.pore),
         method=f"circulation {res.method}; cleaning {slip_method}" if cuttings else res.method,
         notes=tuple(dict.fromkeys(notes)),
+        ecd_basis=ecd_basis,
+        loaded=bool(ecd_basis == "loaded" and cuttings is not None and rop > 0),
+        ecd_clean_fracture_point=ecd[rows, fi],
     )

@@ -125,8 +125,10 @@ def test_summary_values_equal_calc_results(wb):
     ws = wb["Summary"]
     spp = _find_row(ws, "standpipe pressure, predicted")
     assert spp[1].value == pytest.approx(from_si(float(res.standpipe_pressure), "psi"), rel=1e-12)
-    ecd = _find_row(ws, "ECD at the bit")
+    ecd = _find_row(ws, "ECD at the bit, clean mud")
     assert ecd[1].value == pytest.approx(from_si(float(res.ecd_bit), "ppg"), rel=1e-12)
+    loaded = _find_row(ws, "ECD at the bit, cuttings-loaded")  # tests/test_loaded_ecd.py
+    assert loaded[1].value == pytest.approx(from_si(demo_results().loaded.ecd_bit, "ppg"))
     hyd = _find_row(ws, "hydrostatic pressure at the bit")
     tvd_ft = from_si(res.bit_tvd, "ft")
     rho_ppg = from_si(float(res.density), "ppg")

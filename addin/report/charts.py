@@ -168,13 +168,15 @@ def depth_profile(
     """EMW curves against TVD, depth increasing downward.
 
     curves
-        ``[(label, (ws, col, r0, r1), role), ...]`` with role one of ``"ecd"``, ``"esd"``,
+        ``[(label, (ws, col, r0, r1), role), ...]`` with role one of ``"ecd"``,
+        ``"ecd_loaded"`` (with the cuttings load), ``"esd"``,
         ``"pore"``, ``"fracture"``, ``"point"`` (markers only, e.g. a downhole gauge reading).
         ``depth`` is the shared TVD range, unless a curve's range is a 2-tuple
         ``(y_range, x_range)`` of its own.
     """
     style = {
         "ecd": dict(colour=PALETTE["check"], width=28575),
+        "ecd_loaded": dict(colour=PALETTE["warn"], width=19050, dash="dash"),
         "esd": dict(colour=PALETTE["ok"], width=19050),
         "pore": dict(colour="7A4F9A", width=19050, dash="dash"),
         "fracture": dict(colour=PALETTE["bad"], width=19050, dash="dash"),

@@ -19,6 +19,7 @@ from calc.circulation import (
     FrictionCalibration,
     HydraulicsFluid,
     Margins,
+    MarginTable,
     Profile,
     TightestPoint,
     calibrate_friction,
@@ -26,7 +27,17 @@ from calc.circulation import (
     hydraulics_fluid_from_readings,
     spp_deviation_percent,
 )
-from calc.cleaning import Cuttings, HoleCleaningResult, hole_cleaning
+from calc.cleaning import (
+    Cuttings,
+    HoleCleaningResult,
+    LoadedProfile,
+    WellBeds,
+    cuttings_ecd_increment,
+    hole_cleaning,
+    loaded_ecd_profile,
+    loaded_margins,
+    well_cuttings_beds,
+)
 from calc.geometry import Well
 from calc.hydraulics_method import HydraulicsMethod  # None → the case's method or calc's default
 from calc.notes import Note
@@ -45,6 +56,7 @@ __all__ = [
     "CheckHydraulics",
     "CheckResults",
     "CleaningRun",
+    "LoadedECD",
     "Results",
     "TripRun",
     "compute",
@@ -64,6 +76,9 @@ SHOWN_FITS = (
 )
 #: Rate sweep of the operating window: (first, last) × the latest check's rate, and the count.
 WINDOW_SWEEP = (0.3, 1.8, 200)
+#: The report's operating window holds the cuttings-loaded ECD against fracture
+#: (calc.rate_window.ECD_BASES).
+WINDOW_ECD_BASIS = "loaded"
 
 
 @dataclass(frozen=True)
@@ -130,6 +145,23 @@ class CleaningRun:
 
 
 @dataclass(frozen=True)
+class LoadedECD:
+    """ECD with the annular cuttings load at the latest check's rate (SI, kg/m³).
+
+    ``margins``: :func:`calc.cleaning.loaded_margins` (fracture margins and the tightest point
+    on the loaded ECD; None without a pressure window); ``ecd_bit`` / ``ecd_bit_clean``: loaded
+    and clean ECD at the bit; ``increment_bit``: their difference; ``profile``:
+    :func:`calc.cleaning.loaded_ecd_profile` on the report's grid.
+    """
+
+    margins: MarginTable | None
+    ecd_bit: float
+    ecd_bit_clean: float
+    increment_bit: float
+    profile: LoadedProfile
+
+
+@dataclass(frozen=True)
 class TripRun:
     """Trip-speed limits and surge/swab at the planned speeds [m/s] (running and pulling)."""
 
@@ -159,6 +191,8 @@ class Results:
     notes: tuple[Note, ...] = field(default=())
     trend: tuple[CheckHydraulics, ...] = field(default=())
     profile_step: float = 30.48
+    loaded: LoadedECD | None = None  # with the cuttings load (needs cleaning)
+    beds: WellBeds | None = None  # stationary cuttings beds (needs cleaning)
 
     @property
     def calibration(self) -> FrictionCalibration | None:
@@ -217,8 +251,12 @@ def compute(
     if trend[-1].calibration is not None:
         notes.extend(trend[-1].calibration.notes)
     cleaning = _cleaning(case, well, fluid, q)
+    loaded = _loaded(well, res, cleaning, step)
+    beds = _beds(case, well, fluid, q, cleaning, method)
     surge = _trips(case, well, fluid, method)
     window = _operating_window(case, well, fluid, method, cleaning)
+    if beds is not None:
+        notes.extend(beds.notes)
     for part in (cleaning, surge):
         if part is not None:
             notes.extend(part.notes)
@@ -243,7 +281,37 @@ def compute(
         notes=_dedupe(notes),
         trend=trend,
         profile_step=step,
+        loaded=loaded,
+        beds=beds,
     )
+
+
+def _loaded(well, res, cleaning, step) -> LoadedECD | None:
+    """The cuttings-loaded ECD at the check's rate (calc.cleaning; None without cleaning)."""
+    if cleaning is None:
+        return None
+    hc = cleaning.result
+    rho = float(res.density)
+    clean_bit = scalar(res.ecd_bit)
+    inc = float(cuttings_ecd_increment(well, hc.transport.loaded_density, rho, float(res.bit_md)))
+    mt = None if res.margins is None else loaded_margins(res.margins, hc, well, rho)
+    return LoadedECD(
+        margins=mt,
+        ecd_bit=clean_bit + inc,
+        ecd_bit_clean=clean_bit,
+        increment_bit=inc,
+        profile=loaded_ecd_profile(res, hc, well, step),
+    )
+
+
+def _beds(case, well, fluid, q, cleaning, method) -> WellBeds | None:
+    """Stationary cuttings beds at the check's rate (calc.cleaning.well_cuttings_beds)."""
+    if cleaning is None:
+        return None
+    return well_cuttings_beds(
+        well, fluid, q, rop=case.checks[-1].values["rop"], cuttings=cleaning.cuttings,
+        method=method,
+    )  # fmt: skip
 
 
 def _circulate_options(case) -> dict:
@@ -347,6 +415,7 @@ def _operating_window(case, well, fluid, method, cleaning) -> OperatingWindow | 
         method=method,
         rop=case.checks[-1].values["rop"] if cleaning else 0.0,
         cuttings=cut,
+        ecd_basis=WINDOW_ECD_BASIS,
     )
 
 

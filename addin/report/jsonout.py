@@ -6,6 +6,7 @@ import numpy as np
 
 from addin import text
 from addin.report.compute import scalar
+from addin.report.sheet_beds import beds_data
 from addin.report.sheet_cleaning import short_name
 from addin.report.sheet_window import allowed_ecd, binding_words
 from addin.report.trace import used_methods
@@ -61,6 +62,10 @@ def results_data(results) -> dict:
     out["bit"] = _bit_data(res, s)
     if results.cleaning:
         out["cleaning"] = _cleaning_data(results.cleaning.result, s)
+    if results.loaded is not None:
+        out["loaded_ecd"] = _loaded_data(results.loaded, s)
+    if results.beds is not None:
+        out["cuttings_beds"] = beds_data(results)
     if results.surge:
         out["trips"] = _trips_data(results.surge, s)
     if results.window is not None:
@@ -211,6 +216,22 @@ def _cleaning_data(hc, s) -> dict:
     }
 
 
+def _loaded_data(ld, s) -> dict:
+    """ECD with the cuttings load beside the clean ECD (calc.cleaning.loaded_margins)."""
+    return {
+        "ecd_bit": _c(ld.ecd_bit, "density", s),
+        "ecd_bit_clean": _c(ld.ecd_bit_clean, "density", s),
+        "cuttings_increment_bit": _c(ld.increment_bit, "density", s),
+        "margins": None if ld.margins is None else _margins_data(ld.margins, s),
+        "margin_basis": "fracture − loaded ECD; clean ECD − pore",
+        "profile": {
+            "md": _c(ld.profile.md, "depth", s),
+            "ecd": _c(ld.profile.ecd, "density", s),
+            "ecd_loaded": _c(ld.profile.ecd_loaded, "density", s),
+        },
+    }
+
+
 def _trips_data(trip, s) -> dict:
     lim = trip.limits
     return {
@@ -278,6 +299,8 @@ def _window_data(results, s) -> dict:
     f_lim, p_lim = allowed_ecd(ow)
     return {
         "method": ow.method,
+        "ecd_basis": ow.ecd_basis,
+        "cuttings_load_applied": ow.loaded,
         "feasible": ow.feasible,
         "low_rate": _c(ow.q_low, "flow_rate", s) if ow.feasible else None,
         "high_rate": _c(ow.q_high, "flow_rate", s) if ow.feasible else None,
@@ -295,6 +318,7 @@ def _window_data(results, s) -> dict:
             "flow_rate": _c(ow.q, "flow_rate", s),
             "standpipe_pressure": _c(ow.spp, "pressure", s),
             "ecd_fracture_point": _c(ow.ecd_fracture_point, "density", s),
+            "ecd_clean_fracture_point": _c(ow.ecd_clean_fracture_point, "density", s),
             "fracture_at_point": _c(ow.fracture_at_point, "density", s),
             "max_ecd_fracture_point": _c(f_lim, "density", s),
             "fracture_point_name": [text.check_point(x, s) for x in ow.fracture_point_name],

@@ -6,6 +6,7 @@ import numpy as np
 
 from addin import text
 from addin.report.audit import Factors, write_checked
+from addin.report.sheet_beds import write_beds
 from addin.report.style import (
     heading,
     merged_text,
@@ -110,6 +111,7 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
         f"(controlled by {short_name(hc.controlling_interval)}).",
         "bf_text",
     )
+    write_beds(ws, row + 2, results)  # cuttings beds and circulation before a trip
     setup_print(ws, title)
     return refs
 

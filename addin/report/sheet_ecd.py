@@ -31,9 +31,15 @@ def write_ecd(wb, results, factors: Factors, title: str):
     set_widths(ws, [34, 12, 12, 10, 11, 11, 11, 11, 11, 11])
     row = heading(ws, 1, "Equivalent densities and margins", span=10, title=True)
     row, refs = _bit_block(ws, row + 1, results, factors)
+    loaded = results.loaded
+    if loaded is not None:
+        row = _loaded_block(ws, row, results)
     if results.circulation.margins is not None:
         row = _margins_block(ws, row, results)
         refs["tightest"] = results.circulation.margins.tightest
+        if loaded is not None and loaded.margins is not None:
+            refs["tightest_clean"] = refs["tightest"]
+            refs["tightest"] = loaded.margins.tightest
         row += 1
     refs.update(_profile_block(ws, row, results, title))
     return refs
@@ -158,15 +164,57 @@ def _gauge_row(ws, row, results):
     return row + 1, (pred, pwd_ecd, pwd_md)
 
 
+def _loaded_block(ws, row, results) -> int:
+    """ECD at the bit with the annular cuttings load beside the clean ECD (calc.cleaning)."""
+    ld, system = results.loaded, results.case.unit_system
+    dn = U("density", system)
+    row = heading(ws, row, "ECD with the cuttings load (at the check's rate)", span=10)
+    for label, v in (
+        ("ECD at the bit, cuttings-loaded", ld.ecd_bit),
+        ("ECD at the bit, clean mud", ld.ecd_bit_clean),
+        ("cuttings load (loaded − clean)", ld.increment_bit),
+    ):
+        put(ws, row, 1, label)
+        put_number(ws, row, 2, _o(v, "density", system), number_format("density", system))
+        put(ws, row, 3, dn)
+        row += 1
+    return (
+        note_row(
+            ws,
+            row,
+            "Loaded ECD = clean ECD + the hydrostatic of the cuttings in the annulus (loaded "
+            "density from the transport ratio and ROP; calc/METHODS.md §10.14). The margins "
+            "below, the Summary and the operating window use it against fracture; the pore "
+            "margin keeps the clean ECD (the lower value).",
+            span=10,
+        )
+        + 1
+    )
+
+
 def _margins_block(ws, row, results) -> int:
     """Margins at the named check points (shoe, bit, window stations, weak points) with their
-    status, and the tightest point in words."""
-    mt, system = results.circulation.margins, results.case.unit_system
+    status, and the tightest point in words (cuttings-loaded ECD where the run has it)."""
+    clean_mt, system = results.circulation.margins, results.case.unit_system
+    loaded = results.loaded is not None and results.loaded.margins is not None
+    mt = results.loaded.margins if loaded else clean_mt
     row = heading(ws, row, "Margins at the exposed formation and weak points", span=10)
     du, dn = U("depth", system), U("density", system)
-    heads = ["check point", "MD", "TVD", "pore", "fracture", "ESD", "ECD", "frac − ECD",
-             "ECD − pore", "status"]  # fmt: skip
-    row = table_header(ws, row, 1, heads, ["", du, du, dn, dn, dn, dn, dn, dn, ""])
+    # with a cuttings load the clean ECD takes the ESD column (ESD: the Summary and the profile)
+    heads = [
+        "check point",
+        "MD",
+        "TVD",
+        "pore",
+        "fracture",
+        "ECD, clean" if loaded else "ESD",
+        "ECD, loaded" if loaded else "ECD",
+        "frac − ECD",
+        "ECD − pore",
+        "status",
+    ]
+    units = ["", du, du, dn, dn, dn, dn, dn, dn, ""]
+    row = table_header(ws, row, 1, heads, units)  # fmt: skip
     req_f, req_p = mt.margins.fracture, mt.margins.pore
 
     def at(arr, i):
@@ -178,7 +226,8 @@ def _margins_block(ws, row, results) -> int:
         put(ws, row, 1, text.check_point(point, system))
         put_number(ws, row, 2, _o(mt.md[i], "depth", system), number_format("depth", system))
         put_number(ws, row, 3, _o(mt.tvd[i], "depth", system), number_format("depth", system))
-        for col, arr in ((4, mt.pore), (5, mt.fracture), (6, mt.esd), (7, mt.ecd)):
+        col6 = clean_mt.ecd if loaded else mt.esd
+        for col, arr in ((4, mt.pore), (5, mt.fracture), (6, col6), (7, mt.ecd)):
             put_number(
                 ws, row, col, _o(at(arr, i), "density", system), number_format("density", system)
             )
@@ -190,13 +239,18 @@ def _margins_block(ws, row, results) -> int:
         row += 1
     t = mt.tightest
     where = text.check_point(t.point, system)
+    basis = (
+        "Margins: fracture − loaded ECD and clean ECD − pore"
+        if loaded
+        else "Margins: fracture − ECD and ECD − pore"
+    )
     return note_row(
         ws,
         row,
         f"Tightest point: {where} (MD {_o(t.md, 'depth', system):,.0f} "
         f"{du}), {t.limit} margin {_o(t.margin, 'density', system):.2f} {dn} against "
-        f"{_o(t.required, 'density', system):.2f} {dn} required. Margins: fracture − ECD "
-        "and ECD − pore; status NEAR LIMIT below the required margin.",
+        f"{_o(t.required, 'density', system):.2f} {dn} required. {basis}; status NEAR LIMIT "
+        "below the required margin.",
         span=10,
     )
 
@@ -209,6 +263,7 @@ _PROFILE_COLUMNS = (
     ("pore", "density"),
     ("fracture", "density"),
 )
+_LOADED_COLUMN = ("ecd_loaded", "density")
 
 
 def _profile_block(ws, row, results, title) -> dict:
@@ -229,17 +284,21 @@ def _profile_block(ws, row, results, title) -> dict:
     ws.merge_cells(start_row=data_row - 1, start_column=1, end_row=data_row - 1, end_column=10)
     put(ws, data_row, 1, "Profile along the annulus", "bf_section")
     col0 = 1
+    loaded = results.loaded.profile if results.loaded is not None else None
+    columns = _PROFILE_COLUMNS + ((_LOADED_COLUMN,) if loaded is not None else ())
+    heads = ["MD", "TVD", "ESD", "ECD", "pore", "fracture"]
     r0 = table_header(
         ws,
         data_row + 1,
         col0,
-        ["MD", "TVD", "ESD", "ECD", "pore", "fracture"],
-        [du, du, dn, dn, dn, dn],
+        heads + (["ECD, loaded"] if loaded is not None else []),
+        [du, du, dn, dn, dn, dn] + ([dn] if loaded is not None else []),
     )
     n = len(prof.md)
     for i in range(n):
-        for j, (attr, kind) in enumerate(_PROFILE_COLUMNS):
-            v = np.asarray(getattr(prof, attr)).reshape(-1)[i]
+        for j, (attr, kind) in enumerate(columns):
+            src = loaded if attr == "ecd_loaded" else prof
+            v = np.asarray(getattr(src, attr)).reshape(-1)[i]
             put_number(
                 ws,
                 r0 + i,
@@ -249,6 +308,8 @@ def _profile_block(ws, row, results, title) -> dict:
             )
     r1 = r0 + n - 1
     curves = [("ESD", (ws, col0 + 2, r0, r1), "esd"), ("ECD", (ws, col0 + 3, r0, r1), "ecd")]
+    if loaded is not None:
+        curves.append(("ECD with cuttings", (ws, col0 + 6, r0, r1), "ecd_loaded"))
     if results.case.window is not None:
         curves += [
             ("pore pressure", (ws, col0 + 4, r0, r1), "pore"),
@@ -258,6 +319,7 @@ def _profile_block(ws, row, results, title) -> dict:
         _o(x, "density", system)
         for x in np.concatenate(
             [np.ravel(prof.esd), np.ravel(prof.ecd), np.ravel(prof.pore), np.ravel(prof.fracture)]
+            + ([np.ravel(loaded.ecd_loaded)] if loaded is not None else [])
         )
         if 0 < x < 1e9
     ]

@@ -119,6 +119,11 @@ def _columns(ow, system):
         ("highest cuttings conc.", "%", [100.0 * float(x) for x in ow.max_concentration], "0.00"),
         ("in window", "", ["yes" if x else "no" for x in inside], None),
     ]
+    if ow.loaded:  # the clean ECD beside the loaded one the fracture limit holds
+        cols.append(
+            ("clean ECD, fracture-tightest point", dn,
+             _o(ow.ecd_clean_fracture_point, "density", system), fd)
+        )  # fmt: skip
     return cols
 
 
@@ -129,7 +134,7 @@ def _table(ws, row, cols, rows) -> int:
         for j, (_, _, vals, fmt) in enumerate(cols, start=1):
             if fmt is None:
                 c = put(ws, row, j, vals[i], "bf_cell")
-                if j == len(cols):
+                if cols[j - 1][0] == "in window":
                     c.alignment = Alignment(horizontal="center", vertical="center")
             else:
                 put_number(ws, row, j, vals[i], fmt)
@@ -150,11 +155,18 @@ def _intro(ws, row, results, ow, system, span) -> int:
     q0 = case.check_value(-1, "flow_rate")
     chk = case.checks[-1]
     rop = chk.values.get("rop")
+    if ow.loaded:
+        basis = (
+            "ECD basis 'loaded': the cuttings-loaded ECD at each rate against fracture, clean "
+            "ECD against pore"
+        )
+    else:
+        basis = "ECD basis 'clean': clean-mud ECD against both limits"
     load = (
         f"ROP {_o(rop, 'rop', system):,.0f} {U('rop', system)} and the cuttings of {chk.label} "
-        "(cuttings-loaded ECD against fracture, clean ECD against pore)"
+        f"({basis})"
         if results.cleaning
-        else "no cuttings given (no cleaning limit, clean ECD)"
+        else f"no cuttings given (no cleaning limit; {basis})"
     )
     slip = slip_method_of(results.cleaning.result.method) if results.cleaning else None
     cleaning = f"; cleaning {slip_line(slip)}" if slip else ""
@@ -223,7 +235,7 @@ def _window_lines(ws, row, results, ow, system, span) -> int:
     )
 
 
-def _printed_sweep(ws, data_row, cols, n, span) -> int:
+def _printed_sweep(ws, data_row, cols, n, span, ow) -> int:
     """Every PRINT_EVERY-th sweep rate on page 2 with its note; returns the last printed row."""
     shown = sorted(set(range(0, n, PRINT_EVERY)) | {n - 1})
     ws.row_breaks.append(Break(id=data_row - 1))
@@ -236,10 +248,15 @@ def _printed_sweep(ws, data_row, cols, n, span) -> int:
     row = note_row(
         ws,
         row,
-        "ECD at the fracture-tightest point includes the cuttings load; the tightest point can "
-        "move with the rate (named per row). Cleaning indicator: smallest relative margin to the "
-        "'adequate' thresholds of calc.cleaning over the annular intervals (≥ 0: every interval "
-        "cleaned). 'in window': between the two ends above.",
+        (
+            "ECD at the fracture-tightest point includes the cuttings load at that rate (the "
+            "clean ECD beside it); "
+            if ow.loaded
+            else "ECD at the fracture-tightest point is the clean-mud ECD; "
+        )
+        + "the tightest point can move with the rate (named per row). Cleaning indicator: "
+        "smallest relative margin to the 'adequate' thresholds of calc.cleaning over the annular "
+        "intervals (≥ 0: every interval cleaned). 'in window': between the two ends above.",
         span=span,
     )
     return row - 1
@@ -333,7 +350,7 @@ def write_window(wb, results, title: str):
     chart_row = row + 1
     data_row = chart_row + 25  # 11.5-cm charts
     cols = _columns(ow, system)
-    print_end = _printed_sweep(ws, data_row, cols, q.size, span)
+    print_end = _printed_sweep(ws, data_row, cols, q.size, span, ow)
     # ---- chart data: the whole sweep, below the print range
     row = print_end + 3
     put(ws, row, 1, "Chart data: the whole sweep (rows below; not printed).", "bf_note")

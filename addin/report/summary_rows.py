@@ -71,18 +71,25 @@ def _pressure_rows(results, refs) -> list[dict]:
 
 
 def _ecd_rows(results, refs) -> list[dict]:
-    """ECD at the shoe and the bit against fracture, the tightest margin, ESD and PWD."""
+    """ECD at the shoe and the bit against fracture, the tightest margin, ESD and PWD.
+
+    With a cuttings load (``results.loaded``) the shoe, bit and tightest rows hold the loaded
+    ECD and its margins, the clean ECD at the bit stays beside it (with its live check).
+    """
     case, res = results.case, results.circulation
     ecd = refs["ecd"]
     rows = []
-    mt = res.margins
+    ld = results.loaded
+    loaded = ld is not None and ld.margins is not None
+    mt = ld.margins if loaded else res.margins
+    tag = ", cuttings-loaded" if loaded else ""
     req_f = mt.margins.fracture if mt is not None else None
     shoe = mt.index("shoe") if mt is not None else None
     if shoe is not None:
         e, f, m = _at(mt.ecd, shoe), _at(mt.fracture, shoe), _at(mt.fracture_margin, shoe)
         rows.append(
             dict(
-                name=f"ECD at the {text.check_point(mt.points[shoe], case.unit_system)}",
+                name=f"ECD at the {text.check_point(mt.points[shoe], case.unit_system)}{tag}",
                 kind="density",
                 value=e,
                 limit=f,
@@ -91,28 +98,32 @@ def _ecd_rows(results, refs) -> list[dict]:
                 status=_status_margin(m, req_f),
             )
         )
-    e_bit = scalar(res.ecd_bit)
     at_bit = mt.index("bit") if mt is not None else None
     f_bit = None if at_bit is None else _at(mt.fracture, at_bit)
-    m_bit = None if at_bit is None else float(fracture_margin(f_bit, e_bit))
-    rows.append(
-        dict(
-            name="ECD at the bit",
-            kind="density",
-            value=e_bit,
-            check=ecd["ecd_bit"][1],
-            limit=f_bit,
-            margin=m_bit,
-            required=req_f,
-            status=_status_margin(m_bit, req_f),
+    for e_bit, name, check in (
+        ((ld.ecd_bit, "ECD at the bit, cuttings-loaded", None),) if ld is not None else ()
+    ) + ((scalar(res.ecd_bit), "ECD at the bit, clean mud" if ld else "ECD at the bit",
+          ecd["ecd_bit"][1]),):  # fmt: skip
+        m_bit = None if f_bit is None else float(fracture_margin(f_bit, e_bit))
+        rows.append(
+            dict(
+                name=name,
+                kind="density",
+                value=e_bit,
+                check=check,
+                limit=f_bit,
+                margin=m_bit,
+                required=req_f,
+                status=_status_margin(m_bit, req_f),
+            )
         )
-    )
     t = ecd.get("tightest")
     if t is not None:
         m = float(np.asarray(t.margin))
+        where = text.check_point(t.point, case.unit_system)
         rows.append(
             dict(
-                name=f"tightest margin: {text.check_point(t.point, case.unit_system)} ({t.limit})",
+                name=f"tightest margin: {where} ({t.limit}{', loaded ECD' if loaded else ''})",
                 kind="density",
                 value=m,
                 required=float(t.required),

@@ -375,14 +375,20 @@ def limits_at(md, tvd, names, window: PressureWindow | None, weak_points=()):
     return pore, frac
 
 
-def tabulate_margins(points, md, tvd, pore, fracture, ecd, esd, margins: Margins) -> MarginTable:
+def tabulate_margins(
+    points, md, tvd, pore, fracture, ecd, esd, margins: Margins, ecd_pore=None
+) -> MarginTable:
     """Margins at every check point and the tightest one.
 
-    .. math:: m_{frac} = \\rho_{frac} - \\mathrm{ECD},\\quad m_{pore} = \\mathrm{ECD} - \\rho_{pore}
+    .. math:: m_{frac} = \\rho_{frac} - \\mathrm{ECD},\\quad
+              m_{pore} = \\mathrm{ECD}_{pore} - \\rho_{pore}
 
     The tightest point is the smallest of the two margins over all points (plain distance to the
     limit, not reduced by the required margin; ``required`` is reported beside it).  ``ecd`` and
-    ``esd`` carry leading sweep axes; the last axis runs over the points.
+    ``esd`` carry leading sweep axes; the last axis runs over the points.  ``ecd_pore`` is the
+    ECD the pore margin is taken from (default ``ecd``): the cuttings-loaded table
+    (:func:`calc.cleaning.loaded_margins`) takes the fracture margin from the loaded ECD and the
+    pore margin from the clean ECD, the lower (conservative) value on each side.
 
     Examples
     --------
@@ -397,11 +403,18 @@ def tabulate_margins(points, md, tvd, pore, fracture, ecd, esd, margins: Margins
     ([100.0, 250.0], [300.0, 150.0])
     >>> t.tightest.point.name, t.tightest.limit, t.tightest.margin, t.index("bit")
     ('shoe', 'fracture', 100.0, 1)
+
+    With a separate ECD for the pore side:
+
+    >>> t = tabulate_margins(("a",), [100.0], [100.0], [1000.0], [1500.0], [1300.0], [1250.0],
+    ...                      Margins(), ecd_pore=[1200.0])
+    >>> float(t.fracture_margin[0]), float(t.pore_margin[0]), float(t.static_pore_margin[0])
+    (200.0, 200.0, 250.0)
     """
     ecd = np.asarray(ecd, dtype=float)
     esd = np.asarray(esd, dtype=float)
     fm = fracture_margin(fracture, ecd)
-    pm = pore_margin(ecd, pore)
+    pm = pore_margin(ecd if ecd_pore is None else np.asarray(ecd_pore, dtype=float), pore)
     spm = pore_margin(esd, pore)
     both = np.stack([fm, pm], axis=-2)  # (..., 2, P)
     flat = both.reshape((*both.shape[:-2], -1))

@@ -6,6 +6,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from calc.circulation.pore_fracture import MarginTable, tabulate_margins
 from calc.cleaning.indicators import (
     LARSEN_RANGE,
     VERDICTS,
@@ -30,6 +31,7 @@ __all__ = [
     "cuttings_ecd_increment",
     "hole_cleaning",
     "loaded_ecd_profile",
+    "loaded_margins",
 ]
 
 #: Default bracket for minimum-rate searches [m³/s] (≈ 1.6-3200 gpm).
@@ -418,4 +420,32 @@ def loaded_ecd_profile(circulation, cleaning: HoleCleaningResult, well, step: fl
     return LoadedProfile(
         md=p.md, tvd=p.tvd, esd=np.asarray(p.esd), ecd=np.asarray(p.ecd),
         ecd_loaded=np.asarray(p.ecd) + extra, pore=p.pore, fracture=p.fracture,
+    )  # fmt: skip
+
+
+def loaded_margins(table: MarginTable, cleaning: HoleCleaningResult, well, density: float):
+    """The margin table of a circulation with the cuttings load added to its ECD.
+
+    .. math:: \\mathrm{ECD}_{loaded}(z) = \\mathrm{ECD}(z) + \\Delta\\mathrm{ECD}(z),\\quad
+              m_{frac} = \\rho_{frac} - \\mathrm{ECD}_{loaded},\\quad
+              m_{pore} = \\mathrm{ECD} - \\rho_{pore}
+
+    ΔECD from :func:`cuttings_ecd_increment` at the table's check points; ``table.ecd`` (clean)
+    is the single-rate margin table of :func:`calc.circulation.circulate` and ``cleaning`` the
+    :func:`hole_cleaning` result at the same rate.  The returned table's ``ecd`` is the loaded
+    ECD; its fracture margins and tightest point use it, while the pore margin stays on the
+    clean ECD, the lower value (cuttings may be circulated out, leaving the clean ECD against
+    the pore pressure).  The clean table is the argument itself.  Checked on the demo well in
+    tests/test_loaded_ecd.py (a well is too large for a doctest).
+    """
+    if np.ndim(cleaning.q):
+        raise InputError("q", "a sweep", "one rate for loaded margins")
+    rho = float(check_positive("mud density", density, "kg/m³"))
+    clean = np.asarray(table.ecd, dtype=float)
+    extra = np.asarray(
+        cuttings_ecd_increment(well, cleaning.transport.loaded_density, rho, table.md), dtype=float
+    )
+    return tabulate_margins(
+        table.points, table.md, table.tvd, table.pore, table.fracture, clean + extra, table.esd,
+        table.margins, ecd_pore=clean,
     )  # fmt: skip
