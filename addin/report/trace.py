@@ -190,14 +190,68 @@ def _spp_measured(results, row):
     ]
 
 
+def _loaded_on(results) -> bool:
+    """The Summary's ECD rows hold the cuttings-loaded margins (setup row ``loaded``)."""
+    ld = getattr(results, "loaded", None)
+    return ld is not None and ld.margins is not None
+
+
+def _loaded(results, column, result, *sections):
+    """A quantity of the cuttings-loaded margin table (setup row ``loaded``)."""
+    name, kind = _hyd(results)
+    return (column, "@loaded", "", result, name, kind, _eq(*sections, "§10.14"))
+
+
 def _ecd_shoe(results, row):
     i = _margins_index(results, "shoe")
+    if _loaded_on(results):
+        return [
+            _loaded(results, "value", f"_.ecd[{i}]", "§9.3"),
+            _loaded(results, "limit", f"_.fracture[{i}]", "§9.6"),
+            _loaded(results, "margin", f"_.fracture_margin[{i}]", "§9.6"),
+            _loaded(results, "required", "_.margins.fracture", "§9.6"),
+        ]
     return [
         _circ(results, "value", f"_.margins.ecd[{i}]", "§9.3"),
         _circ(results, "limit", f"_.margins.fracture[{i}]", "§9.6"),
         _circ(results, "margin", f"_.margins.fracture_margin[{i}]", "§9.6"),
         _circ(results, "required", "_.margins.margins.fracture", "§9.6"),
     ]
+
+
+def _ecd_bit_loaded(results, row):
+    """ECD at the bit with the cuttings load: the clean ECD plus the load's increment."""
+    res = results.circulation
+    name, kind = _hyd(results)
+    out = [
+        (
+            "value",
+            "calc.cleaning.cuttings_ecd_increment",
+            f"well, cleaning.transport.loaded_density, {_num(res.density)}, {_num(res.bit_md)}",
+            "circulation.ecd_bit + _",
+            name,
+            kind,
+            _eq("§9.3", "§10.14"),
+        )
+    ]
+    i = _margins_index(results, "bit")
+    if i is not None:
+        mt = res.margins
+        f_bit = _num(np.asarray(mt.fracture).reshape(-1)[i])
+        out.append(_circ(results, "limit", f"_.margins.fracture[{i}]", "§9.6"))
+        out.append(
+            (
+                "margin",
+                "calc.circulation.fracture_margin",
+                f"{f_bit}, {_num(results.loaded.ecd_bit)}",
+                "_",
+                name,
+                kind,
+                _eq("§9.6"),
+            )
+        )
+        out.append(_circ(results, "required", "_.margins.margins.fracture", "§9.6"))
+    return out
 
 
 def _ecd_bit(results, row):
@@ -224,6 +278,11 @@ def _ecd_bit(results, row):
 
 
 def _tightest(results, row):
+    if _loaded_on(results):
+        return [
+            _loaded(results, "value", "_.tightest.margin", "§9.6"),
+            _loaded(results, "required", "_.tightest.required", "§9.6"),
+        ]
     return [
         _circ(results, "value", "_.margins.tightest.margin", "§9.6"),
         _circ(results, "required", "_.margins.tightest.required", "§9.6"),
@@ -337,6 +396,7 @@ def _trip(results, row):
 TRACE: tuple[TraceEntry, ...] = (
     TraceEntry("standpipe pressure, predicted", _spp),
     TraceEntry("standpipe pressure, measured", _spp_measured),
+    TraceEntry("ECD at the bit, cuttings-loaded", _ecd_bit_loaded),
     TraceEntry("ECD at the bit", _ecd_bit),
     TraceEntry("ECD at the ", _ecd_shoe),
     TraceEntry("tightest margin", _tightest),
@@ -357,7 +417,9 @@ TRACE: tuple[TraceEntry, ...] = (
 #: The setup rows, in order: each is ``name = function(inputs)``; later rows and the traced
 #: quantities refer to them by name (``@name`` in the function column: "the setup row's
 #: return value").
-SETUP_NAMES = ("case", "well", "fluid", "margins", "circulation", "cleaning", "window", "trips")
+SETUP_NAMES = (
+    "case", "well", "fluid", "margins", "circulation", "cleaning", "loaded", "window", "trips",
+)  # fmt: skip
 
 
 def _setup(results) -> list[tuple[str, str, str]]:
@@ -400,6 +462,14 @@ def _setup(results) -> list[tuple[str, str, str]]:
                 f"well, fluid, {_num(q)}, rop={_num(case.check_value(-1, 'rop'))}, "
                 f"cuttings=calc.cleaning.Cuttings(size={_num(c.size)}, "
                 f"density={_num(c.density)}, sphericity={_num(c.sphericity)})",
+            )
+        )
+    if _loaded_on(results):
+        rows.append(
+            (
+                "loaded",
+                "calc.cleaning.loaded_margins",
+                f"circulation.margins, cleaning, well, {_num(density)}",
             )
         )
     ow = results.window
