@@ -22,6 +22,7 @@ each entry agrees with the status line of its calc/METHODS.md section (table in 
 from __future__ import annotations
 
 from calc.bit.optimisation import OPTIMISATION_CRITERIA
+from calc.cleaning.bed import BED_METHODS
 from calc.cleaning.slip import SLIP_METHODS
 from calc.flow import FRICTION_LAWS
 from calc.hydraulics_method import DEFAULT_METHOD, HYDRAULICS_METHODS, resolve_method
@@ -41,6 +42,7 @@ REGISTRIES: tuple[MethodRegistry, ...] = (
     TABLE_FITS,
     SLIP_METHODS,
     OPTIMISATION_CRITERIA,
+    BED_METHODS,
 )
 
 V = Verification
@@ -523,8 +525,8 @@ def list_methods() -> list[dict]:
     >>> rows = list_methods()
     >>> rows[0]["name"] == DEFAULT_METHOD
     True
-    >>> sorted({r["family"] for r in rows})[:2]
-    ['friction law', 'hydraulics method']
+    >>> "cuttings-bed model" in {r["family"] for r in rows}
+    True
     """
     rows = []
     for reg in REGISTRIES:
@@ -546,11 +548,14 @@ def list_methods() -> list[dict]:
     return rows
 
 
-def method_caveats(method, slip_method: str | None = None) -> tuple[tuple[str, str, str], ...]:
+def method_caveats(
+    method, slip_method: str | None = None, bed_method: str | None = None
+) -> tuple[tuple[str, str, str], ...]:
     """The caveats of a hydraulics method and of the fits and friction law it uses.
 
     ``method`` is a name or a :class:`calc.hydraulics_method.HydraulicsMethod` (overrides
-    included); ``slip_method`` a slip-velocity method used with it (hole cleaning), or None.
+    included); ``slip_method`` a slip-velocity method used with it (hole cleaning), or None;
+    ``bed_method`` a cuttings-bed model used (:data:`calc.cleaning.bed.BED_METHODS`), or None.
     Returns ``(family, name, caveat)`` triples, each caveat text once: the preset's own first
     (left out when overrides replace part of it: they speak of the preset as registered), then
     its friction law's, its fits' and the slip method's.
@@ -573,6 +578,8 @@ def method_caveats(method, slip_method: str | None = None) -> tuple[tuple[str, s
     ]
     if slip_method is not None:
         parts.append((SLIP_METHODS, slip_method))
+    if bed_method is not None:
+        parts.append((BED_METHODS, bed_method))
     seen: dict[str, tuple[str, str, str]] = {}
     for reg, name in parts:
         for c in reg.get(name).status.caveats:
@@ -580,7 +587,9 @@ def method_caveats(method, slip_method: str | None = None) -> tuple[tuple[str, s
     return tuple(seen.values())
 
 
-def caveat_notes(method, slip_method: str | None = None) -> tuple[Note, ...]:
+def caveat_notes(
+    method, slip_method: str | None = None, bed_method: str | None = None
+) -> tuple[Note, ...]:
     """One warning note (code ``method_caveat``) per caveat of :func:`method_caveats`, so a
     report lists every caveat of the methods it used beside its other findings.
 
@@ -598,5 +607,5 @@ def caveat_notes(method, slip_method: str | None = None) -> tuple[Note, ...]:
             "method",
             (Value("family", family), Value("method", name), Value("caveat", caveat)),
         )
-        for family, name, caveat in method_caveats(method, slip_method)
+        for family, name, caveat in method_caveats(method, slip_method, bed_method)
     )

@@ -13,7 +13,7 @@ import numpy as np
 
 import calc
 from addin.case import Case
-from addin.report.trace import slip_method_of
+from addin.report.trace import bed_method_of, slip_method_of
 from calc.circulation import (
     CirculationResult,
     FrictionCalibration,
@@ -264,7 +264,7 @@ def compute(
         notes.extend(window.notes)
     # one note per caveat of the methods used (calc.verification), shown with the others
     slip = slip_method_of(cleaning.result.method) if cleaning is not None else None
-    notes.extend(caveat_notes(method, slip))
+    notes.extend(caveat_notes(method, slip, bed_method_of(beds)))
     return Results(
         case=case,
         run_time=run_time,

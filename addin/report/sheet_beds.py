@@ -49,7 +49,7 @@ def write_beds(ws, row: int, results) -> int:
         f"Method: {beds.bed.method}. A bed is considered from {beds.onset:g}° (below it cuttings "
         "slide down the low side); below the critical velocity V_crit the bed grows until the "
         "velocity over it equals V_crit; friction over the bed: the annulus law on the open "
-        "area's hydraulic diameter; pipe on the low side, no rotation (calc/METHODS.md §10.15).",
+        "area's hydraulic diameter; pipe on the low side, no rotation (its caveats: Audit sheet).",
         span=SPAN,
     )
     idx = _bed_rows(beds)
@@ -145,7 +145,7 @@ def _cleanup_block(ws, row, beds, s) -> int:
         ws,
         row,
         "Bottoms-up multipliers by inclination band and hole size (nearest column): common "
-        "practice, values from memory, not checked against a published source. Each annular "
+        "practice (no published source; see the Cautions sheet). Each annular "
         "interval's volume is weighted by its multiplier. Circulate until the shakers clean up; "
         "the count is a planning figure, not a replacement for observation.",
         span=SPAN,

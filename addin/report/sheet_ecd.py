@@ -183,7 +183,7 @@ def _loaded_block(ws, row, results) -> int:
             ws,
             row,
             "Loaded ECD = clean ECD + the hydrostatic of the cuttings in the annulus (loaded "
-            "density from the transport ratio and ROP; calc/METHODS.md §10.14). The margins "
+            "density from the transport ratio and ROP). The margins "
             "below, the Summary and the operating window use it against fracture; the pore "
             "margin keeps the clean ECD (the lower value).",
             span=10,

@@ -30,6 +30,7 @@ import numpy as np
 from addin import text
 from addin.report.style import heading, table_header
 from addin.xlsx_cells import put
+from calc.cleaning.bed import BED_METHODS
 from calc.cleaning.slip import SLIP_METHODS
 from calc.flow import FRICTION_LAWS
 from calc.hydraulics_method import HYDRAULICS_METHODS, resolve_method
@@ -41,6 +42,7 @@ __all__ = [
     "TRACE",
     "TraceEntry",
     "TraceRow",
+    "bed_method_of",
     "method_line",
     "slip_method_of",
     "trace_rows",
@@ -79,6 +81,14 @@ def slip_method_of(method_text: str) -> str | None:
     return None
 
 
+def bed_method_of(beds) -> str | None:
+    """The cuttings-bed model a report used: its name where an interval reaches the bed onset
+    (the Cleaning sheet shows beds there), else None."""
+    if beds is None or not beds.max_inclination >= beds.onset:
+        return None
+    return next((n for n in BED_METHODS.names() if beds.bed.method.startswith(n + ":")), None)
+
+
 def _slip_of(results) -> str | None:
     return None if results.cleaning is None else slip_method_of(results.cleaning.result.method)
 
@@ -96,6 +106,9 @@ def used_methods(results) -> list[tuple[str, MethodInfo]]:
     slip = _slip_of(results)
     if slip is not None:
         parts.append((SLIP_METHODS, slip))
+    bed = bed_method_of(getattr(results, "beds", None))
+    if bed is not None:
+        parts.append((BED_METHODS, bed))
     out, seen = [], set()
     for reg, name in parts:
         if (reg.what, name) not in seen:

@@ -37,6 +37,7 @@ from calc.notes import Note
 from calc.numeric import bisect_increasing, scalar_or_array
 from calc.registry import MethodRegistry, Verification
 from calc.span import Span
+from calc.units import G_N as _G
 from calc.values import Value
 
 __all__ = [
@@ -198,9 +199,8 @@ class CuttingsBedResult:
 
 
 _SOURCE = (
-    "Larsen, Pilehvari & Azar (1997) SPE Drill. & Compl. 12(2):129-135, critical velocity; "
-    "equilibrium bed (velocity over the bed = V_crit) as they describe the bed below it, from "
-    "memory, not checked against the source; see calc/METHODS.md §10.15"
+    "Larsen, Pilehvari & Azar (1997) SPE Drill. & Compl. 12(2):129-135 (critical transport "
+    "velocity; equilibrium bed below it)"
 )
 
 
@@ -216,6 +216,8 @@ _SOURCE = (
         "the continuity Q = V_over·A_open = V_crit·A_open in tests/test_cleaning_bed.py; the "
         "bed closure and the Larsen constants are recalled, not checked against the paper.",
         (
+            "The equilibrium-bed closure (velocity over the bed = V_crit) is recalled from "
+            "Larsen et al., not checked against the paper (calc/METHODS.md §10.15).",
             "Larsen et al. state 55-90°; used from 35° with a note.",
             "V_crit held at its value for the clean annulus while the bed grows.",
             "No pipe rotation, no bed porosity or sliding layer; steady state.",
@@ -511,10 +513,6 @@ class WellBeds:
     notes: tuple[Note, ...] = field(default=())
 
 
-#: Standard gravity [m/s²] (CGPM 1901, exact).
-_G = 9.80665
-
-
 def well_cuttings_beds(
     well, fluid, q, *, rop, cuttings: Cuttings, method: str | None = None, onset=BED_ONSET
 ):
@@ -562,6 +560,16 @@ def well_cuttings_beds(
                 values=(Value("count", float(np.sum(diff < 0))),),
             )
         )
+    notes.append(
+        Note(
+            "info",
+            "bottoms_up_common_practice",
+            "the bottoms-up multipliers before a trip (by inclination band and hole size) are "
+            "common practice, values recalled, not checked against a published source: a "
+            "planning figure; circulate until the shakers clean up.",
+            "circulation before a trip",
+        )
+    )
     tvd_bit = float(well.tvd_at(float(well.bit_depth)))
     frac = np.asarray(r.bed_fraction)
     high = inc >= onset
