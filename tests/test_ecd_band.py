@@ -1,0 +1,256 @@
+"""The input-uncertainty band on ECD and SPP (calc.circulation.band), checked by brute force.
+
+Outside checks:
+
+* exact: laminar Newtonian friction is linear in μ·Q (Hagen-Poiseuille / Lamb annulus: every
+  f = C/Re law), and μ of the least-squares Newtonian fit, Σγ̇τ/Σγ̇², is linear in the
+  readings, so the ECD above the mud weight is linear in every input and the linear band is
+  exact (closed form below);
+* brute force, JCGM 101:2008 (GUM Supplement 1, propagation of distributions by Monte Carlo):
+  the band against the spread of many evaluations of the whole circulating system with the
+  inputs drawn independently and evenly over their half-widths (fixed seed);
+* brute force, full two-level factorial design over every input (all 2⁸ corners; main effects
+  as in Box, Hunter & Hunter, *Statistics for Experimenters*, 2nd ed. 2005, ch. 5): the
+  dominant input, each input's effect and the worst case against the corner values.
+"""
+
+from __future__ import annotations
+
+import itertools
+import math
+
+import numpy as np
+import pytest
+
+from calc.circulation import (
+    BALANCE_RESOLUTION,
+    BALANCE_RESOLUTION_PRESSURISED,
+    circulate,
+    ecd_band,
+    hydraulics_fluid_from_readings,
+)
+from calc.circulation.band import annulus_ecd_band
+from calc.errors import InputError
+from calc.rheology import ViscometerReadings
+from calc.units import to_si
+from tests.demo_well import check, demo_options, demo_rate, demo_readings, demo_well, ppg
+
+IDX = 1  # the demo case's second check (the report's latest)
+SQRT3 = math.sqrt(3.0)  # half-width of an even (rectangular) spread / its standard deviation
+
+
+@pytest.fixture(scope="module")
+def demo():
+    well, readings = demo_well(IDX), demo_readings(IDX)
+    rho, q = ppg(check(IDX)["density"]), demo_rate(IDX)
+    opts = demo_options(IDX)
+    band = ecd_band(
+        well,
+        readings,
+        rho,
+        q,
+        window=opts["window"],
+        weak_points=opts["weak_points"],
+        margins=opts["margins"],
+    )
+    return well, readings, rho, q, band
+
+
+def _quantities(well, band, readings, rho, q):
+    """Brute force: the whole circulating system at (readings, density array, rate array)."""
+    fluid = hydraulics_fluid_from_readings(readings, "api13d_2010_hb", density=rho)
+    res = circulate(well, fluid, q)
+    mds = np.array([band.ecd_shoe.md, band.ecd_tightest.md])
+    at = np.atleast_2d(res.ecd_at(mds)).reshape(-1, 2)
+    return np.stack(
+        [np.atleast_1d(res.ecd_bit), at[:, 0], at[:, 1], np.atleast_1d(res.standpipe_pressure)],
+        axis=-1,
+    )
+
+
+def _order(band):
+    return [band.ecd_bit, band.ecd_shoe, band.ecd_tightest, band.spp]
+
+
+def _with_dial(readings, dial):
+    return ViscometerReadings(readings.speeds, dial)
+
+
+# ---------------------------------------------------------------------------- exact
+
+
+def test_laminar_newtonian_band_is_the_closed_form():
+    """Exact: laminar Newtonian flow, Δp ∝ μQ (Hagen-Poiseuille/Lamb) and μ = Σγ̇θ·s/Σγ̇²
+    (least squares through the origin), so with E = ECD − ρ = Δp/(g·TVD):
+    c_ρ = a_ρ (laminar friction has no density in it), c_Q = E·u, c_θi = E·a·γ̇_i/Σγ̇_jθ_j."""
+    r = ViscometerReadings([600, 300, 200, 100, 6, 3], [60.0, 30.0, 20.0, 10.0, 0.6, 0.3])
+    rho, q = ppg(10.0), to_si(80.0, "gpm")  # Re ≈ 700 in 8.5 × 5 in: laminar
+    b = annulus_ecd_band(
+        r, rho, q, [to_si(8.5, "in")], [to_si(5.0, "in")], [1000.0], 1000.0, method="newtonian"
+    )
+    e = b.nominal - rho
+    assert e > 0
+    c = b.contributions
+    assert c["density"] == pytest.approx(BALANCE_RESOLUTION, rel=1e-9)
+    assert c["flow_rate"] == pytest.approx(e * 0.03, rel=1e-9)
+    gam = r.shear_rate
+    expect = e * 0.5 * gam / np.sum(gam * r.dial)
+    got = [x.effect for x in b.effects if x.input == "dial_readings"]
+    np.testing.assert_allclose(got, expect, rtol=1e-7)
+    w = math.sqrt(BALANCE_RESOLUTION**2 + (e * 0.03) ** 2 + float(np.sum(expect**2)))
+    assert b.half_width == pytest.approx(w, rel=1e-7)
+    assert b.dominant == "density"
+    assert all(abs(x.curvature) <= 1e-9 * rho for x in b.effects)  # linear: no curvature
+
+
+# ---------------------------------------------------------------------------- Monte Carlo
+
+
+def test_band_matches_monte_carlo_spread(demo):
+    """JCGM 101:2008: the inputs drawn independently and evenly over ±a_i (fixed seed), the
+    whole system evaluated per draw; for a linear model √3·σ equals the root-sum-square band.
+
+    Tolerance, derived: the sample standard deviation has a relative standard error
+    √((κ − 1)/(4N)) (κ the sample kurtosis of the output; large-sample result for the
+    variance, Cramér 1946 §27.7, halved for σ): 4 such errors; plus the spread the band's own
+    second-order terms h_i add, √3·sd(h_i·t²) = √3·√(4/45)·Σ|h_i| for t even on [−1, 1]
+    (cross terms neglected: near-linear regime, no ``band_not_linear`` note)."""
+    well, readings, rho, q, band = demo
+    assert not band.notes
+    rng = np.random.default_rng(20261204)
+    n = 240
+    dial = readings.dial[None, :] + rng.uniform(-0.5, 0.5, (n, readings.dial.size))
+    rhos = rho + rng.uniform(-1.0, 1.0, n) * BALANCE_RESOLUTION
+    qs = q * (1.0 + rng.uniform(-0.03, 0.03, n))
+    y = np.concatenate(
+        [
+            _quantities(well, band, _with_dial(readings, dial[i]), rhos[i : i + 1], qs[i : i + 1])
+            for i in range(n)
+        ]
+    )
+    for j, qb in enumerate(_order(band)):
+        s = float(np.std(y[:, j], ddof=1))
+        z = (y[:, j] - y[:, j].mean()) / s
+        kurt = float(np.mean(z**4))
+        se = math.sqrt((kurt - 1.0) / (4.0 * n))
+        curv = sum(abs(e.curvature) for e in qb.effects)
+        tol = 4.0 * se * qb.half_width + SQRT3 * math.sqrt(4.0 / 45.0) * curv
+        assert SQRT3 * s == pytest.approx(qb.half_width, abs=tol), qb.quantity
+        # the sum of half-widths (a wrong combination) would fail this check:
+        assert abs(qb.worst_case - SQRT3 * s) > tol, qb.quantity
+
+
+# ---------------------------------------------------------------------------- factorial
+
+
+@pytest.fixture(scope="module")
+def corners(demo):
+    """Every corner of the 8 inputs (6 readings, density, rate): 64 refits × 4 in one call."""
+    well, readings, rho, q, band = demo
+    signs = np.array(list(itertools.product((-1.0, 1.0), repeat=readings.dial.size)))
+    dr = np.array([(sr, sq) for sr in (-1.0, 1.0) for sq in (-1.0, 1.0)])
+    ys = []
+    for s in signs:
+        r = _with_dial(readings, readings.dial + 0.5 * s)
+        ys.append(
+            _quantities(
+                well, band, r, rho + BALANCE_RESOLUTION * dr[:, 0], q * (1 + 0.03 * dr[:, 1])
+            )
+        )
+    # design matrix: (64·4, 8) signs, output (64·4, 4)
+    x = np.array([[*s, *d] for s in signs for d in dr])
+    return x, np.concatenate(ys)
+
+
+def test_dominant_input_and_effects_match_the_factorial(demo, corners):
+    """Main effect of input i = (mean at +a_i − mean at −a_i)/2 over all corners (Box, Hunter &
+    Hunter ch. 5).  For any quadratic response it equals the linear coefficient·a_i exactly
+    (squares are constant over the corners, products orthogonal), as does the band's central
+    difference: the two differ only by third-order terms, bounded here by the band's
+    second-order terms Σ|h_i| (each order smaller than the last in a near-linear regime)."""
+    _, readings, _, _, band = demo
+    x, y = corners
+    nd = readings.dial.size
+    for j, qb in enumerate(_order(band)):
+        main = np.array(
+            [(y[x[:, i] > 0, j].mean() - y[x[:, i] < 0, j].mean()) / 2 for i in range(8)]
+        )
+        mine = np.array(
+            [e.effect for e in qb.effects if e.input == "dial_readings"]
+            + [next(e.effect for e in qb.effects if e.input == k) for k in ("density", "flow_rate")]
+        )
+        curv = sum(abs(e.curvature) for e in qb.effects)
+        np.testing.assert_allclose(mine, main, atol=curv + 1e-12 * abs(qb.nominal))
+        groups = {
+            "dial_readings": math.sqrt(float(np.sum(main[:nd] ** 2))),
+            "density": abs(main[nd]),
+            "flow_rate": abs(main[nd + 1]),
+        }
+        assert qb.dominant == max(groups, key=groups.get), qb.quantity
+    assert band.ecd_bit.dominant == "density" and band.spp.dominant == "flow_rate"
+
+
+def test_worst_case_matches_the_corner_range(demo, corners):
+    """The worst case Σ|c_i| is half the range over the corners for a linear response.  With a
+    quadratic remainder ½δᵀHδ the diagonal part is the same at every corner (cancels in the
+    range); bounding the cross terms by the diagonal (|H_ij| ≤ √(H_ii·H_jj)) with the band's
+    h_i = ½H_ii·a_i² gives |half-range − Σ|c_i|| ≤ (Σ√|h_i|)²."""
+    _, _, _, _, band = demo
+    _, y = corners
+    for j, qb in enumerate(_order(band)):
+        half = (y[:, j].max() - y[:, j].min()) / 2
+        tol = sum(math.sqrt(abs(e.curvature)) for e in qb.effects) ** 2
+        assert half == pytest.approx(qb.worst_case, abs=tol + 1e-12 * abs(qb.nominal))
+
+
+# ---------------------------------------------------------------------------- structure
+
+
+def test_nominal_and_method_spread(demo):
+    """Regression values, reviewed: nominal = the report's circulate(); the spread holds the
+    four published drilling methods (README methods table: 11.81 … 11.96 ppg at the bit)."""
+    well, readings, rho, q, band = demo
+    res = circulate(well, hydraulics_fluid_from_readings(readings, None, density=rho), q)
+    assert band.ecd_bit.nominal == pytest.approx(res.ecd_bit, rel=1e-12)
+    assert band.spp.nominal == pytest.approx(res.standpipe_pressure, rel=1e-12)
+    names = [m for m, _ in band.ecd_bit.method_values]
+    assert names == ["api13d_2010_hb", "api13d_1995_power_law", "bingham", "power_law"]
+    lo, hi = band.ecd_bit.method_min, band.ecd_bit.method_max
+    assert lo[0] == "api13d_1995_power_law" and hi[0] == "bingham"
+    assert lo[1] <= band.ecd_bit.nominal <= hi[1]
+    assert band.ecd_tightest.md == pytest.approx(band.ecd_tightest.point.md)
+    assert band.tightest_limit == "fracture"
+    assert band.evaluations <= 2 + 2 * readings.dial.size + 4
+    assert band.ecd_bit.contributions["density"] == pytest.approx(BALANCE_RESOLUTION, rel=1e-3)
+    assert BALANCE_RESOLUTION_PRESSURISED == pytest.approx(BALANCE_RESOLUTION / 2)
+
+
+@pytest.mark.parametrize(
+    "kw, name",
+    [
+        (dict(dial_resolution=-0.5), "dial-reading resolution"),
+        (dict(balance_resolution=-1.0), "mud-balance resolution"),
+        (dict(rate_uncertainty=-0.01), "flow-rate uncertainty"),
+        (dict(rate_uncertainty=1.0), "flow-rate uncertainty"),
+        (dict(balance_resolution=5000.0), "mud-balance resolution"),
+        (dict(spread_methods=("nonsense",)), "hydraulics method"),
+    ],
+)
+def test_bad_inputs_name_the_input(demo, kw, name):
+    well, readings, rho, q, _ = demo
+    with pytest.raises(InputError) as exc:
+        ecd_band(well, readings, rho, q, **kw)
+    assert name in str(exc.value)
+
+
+def test_zero_resolutions_give_a_zero_band(demo):
+    well, readings, rho, q, _ = demo
+    b = ecd_band(
+        well, readings, rho, q, dial_resolution=0, balance_resolution=0, rate_uncertainty=0,
+        spread_methods=(),
+    )  # fmt: skip
+    assert b.ecd_bit.half_width == 0.0 and b.spp.half_width == 0.0
+    assert b.ecd_bit.dominant == "" and b.ecd_bit.method_min is None
+    # no window or weak points, but the casing's shoe test gives the margin table its shoe
+    assert b.ecd_shoe is not None and b.ecd_shoe.point.role == "shoe"
+    assert b.evaluations == 2  # the nominal call with margins and the density/rate call
