@@ -32,6 +32,7 @@ from calc.circulation.band import (
     InputEffect,
     QuantityBand,
     annulus_ecd_band,
+    check_band_inputs,
     ecd_band,
 )
 from calc.circulation.calibration import (
@@ -98,6 +99,7 @@ __all__ = [
     "WeakPoint",
     "annulus_ecd_band",
     "calibrate_friction",
+    "check_band_inputs",
     "circulate",
     "ecd_band",
     "ecd_deviation",

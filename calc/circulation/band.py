@@ -54,6 +54,7 @@ __all__ = [
     "InputEffect",
     "QuantityBand",
     "annulus_ecd_band",
+    "check_band_inputs",
     "ecd_band",
 ]
 
@@ -225,7 +226,16 @@ class EcdBand:
 # ----------------------------------------------------------------------------- validation
 
 
-def _check_inputs(dial_resolution, balance_resolution, rate_uncertainty, density):
+def check_band_inputs(dial_resolution, balance_resolution, rate_uncertainty, density):
+    """The band's half-widths and the density, checked: (dial [degree], balance [kg/m³], rate
+    [-], density [kg/m³]) as floats.
+
+    Raises :class:`~calc.errors.InputError` naming the input for a negative resolution, a rate
+    uncertainty outside 0 ≤ u < 1, a balance resolution not below the density.
+
+    >>> check_band_inputs(0.5, 11.98, 0.03, 1342.0)
+    (0.5, 11.98, 0.03, 1342.0)
+    """
     dial = float(check_nonnegative("dial-reading resolution", dial_resolution, "degree"))
     bal = float(check_nonnegative("mud-balance resolution", balance_resolution, "kg/m³"))
     rate = float(
@@ -457,7 +467,7 @@ def ecd_band(
     >>> b.ecd_bit.dominant, b.spp.dominant, b.evaluations
     ('density', 'flow_rate', 13)
     """
-    dial, bal, rate, rho = _check_inputs(
+    dial, bal, rate, rho = check_band_inputs(
         dial_resolution, balance_resolution, rate_uncertainty, density
     )
     qv = float(check_positive("flow rate", q, "m³/s"))
@@ -608,7 +618,7 @@ def annulus_ecd_band(
     >>> b.dominant, round(b.contributions["density"], 2)
     ('density', 11.98)
     """
-    dial, bal, rate, rho = _check_inputs(
+    dial, bal, rate, rho = check_band_inputs(
         dial_resolution, balance_resolution, rate_uncertainty, density
     )
     qv = float(check_positive("flow rate", q, "m³/s"))
