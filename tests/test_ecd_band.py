@@ -254,3 +254,97 @@ def test_zero_resolutions_give_a_zero_band(demo):
     # no window or weak points, but the casing's shoe test gives the margin table its shoe
     assert b.ecd_shoe is not None and b.ecd_shoe.point.role == "shoe"
     assert b.evaluations == 2  # the nominal call with margins and the density/rate call
+
+
+# ---------------------------------------------------------------------------- worksheet
+
+R2 = [[600, 68], [300, 44], [200, 35], [100, 25], [6, 10], [3, 9]]  # D2 05:30 of the demo
+
+
+def test_worksheet_band_as_a_spreadsheet_calls_it():
+    """BF_ECD_BAND with cell values (numbers, a readings range, interval columns, blanks,
+    words) against calc.circulation.annulus_ecd_band called directly in SI."""
+    from addin.sheets.functions import BF_ECD_BAND
+
+    out = BF_ECD_BAND(11.2, R2, [[12.25], [8.6]], [[5.0], [5.0]], [[8200], [3680]], 10821, 522)
+    assert isinstance(out, list) and len(out) == 1 and len(out[0]) == 3
+    ecd, half, words = out[0]
+    r = ViscometerReadings([s for s, _ in R2], [d for _, d in R2])
+    b = annulus_ecd_band(
+        r,
+        ppg(11.2),
+        to_si(522.0, "gpm"),
+        to_si(np.array([12.25, 8.6]), "in"),
+        to_si(np.array([5.0, 5.0]), "in"),
+        to_si(np.array([8200.0, 3680.0]), "ft"),
+        to_si(10821.0, "ft"),
+    )
+    assert ecd == pytest.approx(b.nominal / ppg(1.0), rel=1e-12)
+    assert half == pytest.approx(b.half_width / ppg(1.0), rel=1e-12)
+    assert words == "mud balance" and b.dominant == "density"
+    # the words 'pressurised' and a number in the call's density unit give the same half-width
+    p1 = BF_ECD_BAND(11.2, R2, 8.5, 5.0, 10000.0, 10000.0, 522.0, None, None, "pressurised")
+    p2 = BF_ECD_BAND(11.2, R2, 8.5, 5.0, 10000.0, 10000.0, 522.0, None, None, 0.05)
+    assert p1[0][1] == pytest.approx(p2[0][1], rel=1e-12)
+    assert p1[0][1] < out[0][1]
+
+
+@pytest.mark.parametrize(
+    "args, words",
+    [
+        ((None, -0.5), "dial-reading resolution = -0.5"),
+        ((None, None, -0.1), "mud-balance resolution = -0.1 ppg"),
+        ((None, None, None, 1.5), "flow-rate uncertainty"),
+        ((None, None, None, -0.01), "flow-rate uncertainty"),
+        (("nonsense",), "method = 'nonsense'"),
+        ((None, None, "digital"), "balance resolution = 'digital'"),
+    ],
+)
+def test_worksheet_band_bad_input_gives_a_message_in_the_cell(args, words):
+    from addin.sheets.functions import BF_ECD_BAND, MARK
+
+    out = BF_ECD_BAND(11.2, R2, 8.5, 5.0, 10000.0, 10000.0, 522.0, *args)
+    assert isinstance(out, str) and out.startswith(MARK) and words in out, out
+
+
+# ---------------------------------------------------------------------------- report
+
+
+def test_report_summary_json_and_case_inputs():
+    """The Summary's added band rows and the --json ecd_band block carry the band of
+    compute(); the [uncertainty] section changes it (a pressurised balance halves the density
+    contribution: ECD is linear in ρ where the annulus is laminar, the closed form above)."""
+    import tomllib
+
+    import openpyxl
+    from _report_demo import DEMO, demo_report_path, demo_results
+
+    from addin.case import parse_case
+    from addin.report import compute
+    from addin.report.jsonout import results_data
+
+    res = demo_results()
+    band = res.band
+    ws = openpyxl.load_workbook(demo_report_path())["Summary"]
+    rows = [r for r in ws.iter_rows(values_only=True) if str(r[0]).startswith("± band:")]
+    shown = [q.half_width / (ppg(1.0) if q.kind == "density" else to_si(1.0, "psi"))
+             for q in band.quantities]  # fmt: skip
+    assert [r[1] for r in rows] == pytest.approx(shown, rel=1e-12)
+    assert "dominant: mud balance" in rows[0][0] and "clean mud" in rows[0][0]
+    assert "dominant: flow rate" in rows[-1][0] and rows[-1][4] == "psi"
+    assert rows[0][5].startswith("11.82 ± 0.10 ppg; methods 11.81 ppg (api13d_1995_power_law)")
+    data = results_data(res)["ecd_band"]
+    q0 = data["quantities"][0]
+    assert q0["si"]["half_width"] == band.ecd_bit.half_width
+    assert q0["half_width"] == pytest.approx(band.ecd_bit.half_width / ppg(1.0), rel=1e-12)
+    assert q0["dominant"] == "density" and q0["method_spread"]["max"]["method"] == "bingham"
+    assert data["inputs"]["balance_resolution"]["si"] == BALANCE_RESOLUTION
+    doc = tomllib.loads(DEMO.read_text(encoding="utf-8"))
+    doc["uncertainty"] = {"balance": "pressurised"}
+    b2 = compute(parse_case(doc, "demo.toml"), run_time="x").band
+    assert b2.ecd_bit.contributions["density"] == pytest.approx(
+        band.ecd_bit.contributions["density"] / 2, rel=1e-3
+    )
+    doc["uncertainty"] = {"rate_uncertainty": 1.2}
+    with pytest.raises(InputError, match=r"demo\.toml: uncertainty\.rate_uncertainty"):
+        compute(parse_case(doc, "demo.toml"), run_time="x")

@@ -181,6 +181,9 @@ VALID = {
     "peak_factor": None,
     "limit_emw": 12.4,
     "gel_strength": 12.0,
+    "dial_resolution": None,
+    "balance_resolution": None,
+    "rate_uncertainty": None,
 }
 
 

@@ -35,7 +35,7 @@ from calc.circulation.fluid import HydraulicsFluid, hydraulics_fluid_from_readin
 from calc.circulation.hydrostatics import equivalent_circulating_density
 from calc.circulation.loop import circulate
 from calc.circulation.pore_fracture import CheckPoint, Margins, PressureWindow
-from calc.errors import InputError, check_nonnegative, check_positive, check_range
+from calc.errors import InputError, check_finite, check_nonnegative, check_positive, check_range
 from calc.flow import annulus_flow
 from calc.hydraulics_method import HYDRAULICS_METHODS, HydraulicsMethod, resolve_method
 from calc.notes import Note
@@ -237,7 +237,9 @@ def check_band_inputs(dial_resolution, balance_resolution, rate_uncertainty, den
     (0.5, 11.98, 0.03, 1342.0)
     """
     dial = float(check_nonnegative("dial-reading resolution", dial_resolution, "degree"))
-    bal = float(check_nonnegative("mud-balance resolution", balance_resolution, "kg/m³"))
+    bal = float(check_finite("mud-balance resolution", balance_resolution, "kg/m³"))
+    if bal < 0:
+        raise InputError("mud-balance resolution", bal, ">= 0", kind="density")
     rate = float(
         check_range(
             "flow-rate uncertainty (pump volumetric efficiency)",
