@@ -111,10 +111,11 @@ def test_band_matches_monte_carlo_spread(demo):
     whole system evaluated per draw; for a linear model √3·σ equals the root-sum-square band.
 
     Tolerance, derived: the sample standard deviation has a relative standard error
-    √((κ − 1)/(4N)) (κ the sample kurtosis of the output; large-sample result for the
-    variance, Cramér 1946 §27.7, halved for σ): 4 such errors; plus the spread the band's own
-    second-order terms h_i add, √3·sd(h_i·t²) = √3·√(4/45)·Σ|h_i| for t even on [−1, 1]
-    (cross terms neglected: near-linear regime, no ``band_not_linear`` note)."""
+    √((κ − 1)/(4N)) (κ the sample kurtosis of the output: the large-sample variance of the
+    sample variance, (μ₄ − σ⁴)/N, halved for σ — a standard result, from memory): 4 such
+    errors; plus the spread the band's own second-order terms h_i add,
+    √3·sd(h_i·t²) = √3·√(4/45)·Σ|h_i| for t even on [−1, 1] (cross terms neglected:
+    near-linear regime, no ``band_not_linear`` note)."""
     well, readings, rho, q, band = demo
     assert not band.notes
     rng = np.random.default_rng(20261204)
@@ -348,3 +349,16 @@ def test_report_summary_json_and_case_inputs():
     doc["uncertainty"] = {"rate_uncertainty": 1.2}
     with pytest.raises(InputError, match=r"demo\.toml: uncertainty\.rate_uncertainty"):
         compute(parse_case(doc, "demo.toml"), run_time="x")
+
+
+def test_a_wide_rate_band_is_flagged_not_linear(demo):
+    """SPP grows about as Q^1.8–Q² (turbulent string; bit: Bernoulli), so ±70 % of rate has a
+    second-order term of u²/(2u) = u/2 = 0.35 of the half-width for Q² (0.29 measured) above
+    0.2·W: the band carries the band_not_linear note on the SPP for the flow rate; ±3 % does
+    not (u/2 = 0.015)."""
+    well, readings, rho, q, band = demo
+    assert not band.notes
+    wide = ecd_band(well, readings, rho, q, rate_uncertainty=0.7, spread_methods=())
+    hits = [(n.value("quantity").value, n.value("input").value) for n in wide.notes]
+    assert ("standpipe pressure", "the flow rate") in hits
+    assert all(n.code == "band_not_linear" and n.level == "info" for n in wide.notes)

@@ -341,6 +341,18 @@ def _propagate(evaluate: Evaluate, make_fluid: MakeFluid, readings, rho, q, dial
     return y0, effects, calls
 
 
+#: Names of the quantities and inputs in the wording of the notes.
+_NOTE_NAMES = {
+    "ecd_bit": "ECD at the bit",
+    "ecd_shoe": "ECD at the last shoe",
+    "ecd_tightest": "ECD at the tightest point",
+    "spp": "standpipe pressure",
+    "dial_readings": "the dial readings",
+    "density": "the density",
+    "flow_rate": "the flow rate",
+}
+
+
 def _nonlinear_notes(bands) -> list[Note]:
     notes = []
     for b in bands:
@@ -357,8 +369,8 @@ def _nonlinear_notes(bands) -> list[Note]:
                         "first-order estimate",
                         b.quantity,
                         values=(
-                            Value("quantity", b.quantity),
-                            Value("input", name),
+                            Value("quantity", _NOTE_NAMES[b.quantity]),
+                            Value("input", _NOTE_NAMES[name]),
                             Value("curvature", curv, b.kind),
                             Value("half_width", w, b.kind),
                         ),
