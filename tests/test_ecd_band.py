@@ -362,3 +362,29 @@ def test_a_wide_rate_band_is_flagged_not_linear(demo):
     hits = [(n.value("quantity").value, n.value("input").value) for n in wide.notes]
     assert ("standpipe pressure", "the flow rate") in hits
     assert all(n.code == "band_not_linear" and n.level == "info" for n in wide.notes)
+
+
+def test_uncertainty_section_round_trips_through_the_report_inputs(tmp_path):
+    """The [uncertainty] section is echoed on the report's Inputs sheet (workbook block
+    "§ uncertainty") and parses back to the same case (same inputs hash) and the same band."""
+    import tomllib
+
+    from _report_demo import DEMO
+
+    from addin.case import parse_case
+    from addin.report import compute, write_report
+    from addin.workbook_input import read_blocks
+
+    doc = tomllib.loads(DEMO.read_text(encoding="utf-8"))
+    doc["uncertainty"] = {"balance": "pressurised", "rate_uncertainty": 0.05, "dial_resolution": 1}
+    case = parse_case(doc, "demo.toml")
+    res = compute(case, run_time="x")
+    out = tmp_path / "r.xlsx"
+    write_report(res, out)
+    back_doc, _ = read_blocks(out)
+    back = parse_case(back_doc, "report")
+    assert back.hash == case.hash
+    b2 = compute(back, run_time="x").band
+    assert b2.rate_uncertainty == 0.05 and b2.dial_resolution == 1.0
+    assert b2.balance_resolution == pytest.approx(BALANCE_RESOLUTION_PRESSURISED, rel=1e-12)
+    assert b2.spp.half_width == pytest.approx(res.band.spp.half_width, rel=1e-12)
