@@ -388,3 +388,21 @@ def test_uncertainty_section_round_trips_through_the_report_inputs(tmp_path):
     assert b2.rate_uncertainty == 0.05 and b2.dial_resolution == 1.0
     assert b2.balance_resolution == pytest.approx(BALANCE_RESOLUTION_PRESSURISED, rel=1e-12)
     assert b2.spp.half_width == pytest.approx(res.band.spp.half_width, rel=1e-12)
+
+
+def test_edge_readings_one_sided_and_methods_left_out(demo):
+    """A zero 3-rpm reading cannot go below 0 and a reading tied with the next speed cannot
+    rise past it (the check would fall with speed): those differences are one-sided.  The
+    1995 annulus pair (0 < θ3 < θ100) and the log-log fit (all readings > 0) cannot use θ3 = 0:
+    they are left out of the spread with a note, and the report still gets its band."""
+    well, _, rho, q, _ = demo
+    r = ViscometerReadings([600, 300, 200, 100, 6, 3], [68, 44, 35, 35, 0, 0])
+    b = ecd_band(well, r, rho, q)
+    by_rpm = {e.rpm: e for e in b.ecd_bit.effects if e.input == "dial_readings"}
+    assert (by_rpm[3.0].low_input, by_rpm[3.0].high_input) == (0.0, 0.5)
+    assert (by_rpm[100.0].low_input, by_rpm[100.0].high_input) == (34.5, 35.0)
+    assert by_rpm[3.0].curvature == 0.0  # one-sided: no second-order term
+    assert b.spread_methods == ("api13d_2010_hb", "bingham")
+    skipped = {n.value("method").value for n in b.notes if n.code == "band_method_skipped"}
+    assert skipped == {"api13d_1995_power_law", "power_law"}
+    assert b.ecd_bit.half_width > 0

@@ -195,7 +195,8 @@ class EcdBand:
 
     ``method`` the hydraulics method of the nominal values; ``dial_resolution`` [degree],
     ``balance_resolution`` [kg/m³], ``rate_uncertainty`` [-] the half-widths used;
-    ``spread_methods`` the methods of the model spread; ``ecd_shoe``/``ecd_tightest`` None
+    ``spread_methods`` the methods of the model spread (those that could fit the readings; a
+    method left out has a ``band_method_skipped`` note); ``ecd_shoe``/``ecd_tightest`` None
     where the well has no shoe check point / no margin table (no pressure window, weak point or
     shoe test); ``tightest_limit`` ``"fracture"`` or ``"pore"`` (the ECD at the tightest point
     is taken at the nominal tightest point's depth, which stays fixed while the inputs move);
@@ -226,6 +227,14 @@ class EcdBand:
 # ----------------------------------------------------------------------------- validation
 
 
+def _one(name, value, unit) -> float:
+    """One positive value (the band is for one rate and one density)."""
+    v = check_positive(name, value, unit)
+    if v.size != 1:
+        raise InputError(name, f"{v.size} values", f"one value in {unit} (the band is for one)")
+    return float(v.reshape(-1)[0])
+
+
 def check_band_inputs(dial_resolution, balance_resolution, rate_uncertainty, density):
     """The band's half-widths and the density, checked: (dial [degree], balance [kg/m³], rate
     [-], density [kg/m³]) as floats.
@@ -250,7 +259,7 @@ def check_band_inputs(dial_resolution, balance_resolution, rate_uncertainty, den
             hi_open=True,
         )
     )
-    rho = float(check_positive("density", density, "kg/m³"))
+    rho = _one("density", density, "kg/m³")
     if bal >= rho:
         raise InputError(
             "mud-balance resolution",
@@ -295,13 +304,16 @@ def _pair(y0, x0, xl, xh, yl, yh, delta, name, rpm):
     return out
 
 
-def _perturbed(readings, i, value):
-    """The readings with reading ``i`` set to ``value`` (None if that is no valid check)."""
+def _side_fluid(make_fluid: MakeFluid, readings, i, value, rho):
+    """The fluid fitted with reading ``i`` set to ``value``; None where that makes no valid
+    mud check or fit (e.g. the reading would fall below the next lower speed's): the
+    difference is then one-sided."""
     dial = np.array(readings.dial, dtype=float)
     dial[i] = value
     try:
-        return dataclasses.replace(readings, dial=dial, ramp_up=None, ramp_down=None, notes=())
-    except InputError:  # e.g. the reading would fall below the next lower speed's
+        r = dataclasses.replace(readings, dial=dial, ramp_up=None, ramp_down=None, notes=())
+        return make_fluid(r, rho)
+    except InputError:
         return None
 
 
@@ -325,8 +337,8 @@ def _propagate(evaluate: Evaluate, make_fluid: MakeFluid, readings, rho, q, dial
         th = float(readings.dial[i])
         sides = []
         for x in (max(th - dial, 0.0), min(th + dial, full)):
-            r = _perturbed(readings, i, x) if x != th else None
-            sides.append((th, None) if r is None else (x, make_fluid(r, rho)))
+            f = _side_fluid(make_fluid, readings, i, x, rho) if x != th else None
+            sides.append((th, None) if f is None else (x, f))
         (xl, fl), (xh, fh) = sides
         if dial == 0 or all(
             f is None or (f.pipe_parameters, f.annulus_parameters) == params0 for f in (fl, fh)
@@ -484,7 +496,7 @@ def ecd_band(
     dial, bal, rate, rho = check_band_inputs(
         dial_resolution, balance_resolution, rate_uncertainty, density
     )
-    qv = float(check_positive("flow rate", q, "m³/s"))
+    qv = _one("flow rate", q, "m³/s")
     preset = resolve_method(method)
     spread = tuple(spread_methods)
     for m in spread:
@@ -534,13 +546,28 @@ def ecd_band(
         evaluate_with(preset), fluid_for(preset), readings, rho, qv, dial, bal, rate
     )
     calls += 1  # the nominal call with the margins
-    spread_values = []
+    spread_values, used, notes = [], [], []
     for m in spread:
         if m == preset.name and not preset.overrides:
             spread_values.append(y0)
+            used.append(m)
             continue
         mp = resolve_method(m)
-        spread_values.append(evaluate_with(mp)(fluid_for(mp)(readings, rho), qv)[0])
+        try:
+            fluid_m = fluid_for(mp)(readings, rho)
+        except InputError as exc:  # e.g. a two-speed pair these readings cannot give
+            notes.append(
+                Note(
+                    "info",
+                    "band_method_skipped",
+                    "{method} left out of the method spread: {reason}",
+                    "method spread",
+                    values=(Value("method", m), Value("reason", str(exc))),
+                )
+            )
+            continue
+        spread_values.append(evaluate_with(mp)(fluid_m, qv)[0])
+        used.append(m)
         calls += 1
     keys = [k for k, _ in places] + ["spp"]
     points = [p for _, p in places] + [None]
@@ -553,17 +580,15 @@ def ecd_band(
             md=None if key == "spp" else (nominal.bit_md if point is None else float(point.md)),
             nominal=float(y0[j]),
             effects=effects[j],
-            method_values=tuple(
-                (m, float(v[j])) for m, v in zip(spread, spread_values, strict=True)
-            ),
+            method_values=tuple((m, float(v[j])) for m, v in zip(used, spread_values, strict=True)),
         )
-    notes = _nonlinear_notes(bands.values())
+    notes += _nonlinear_notes(bands.values())
     return EcdBand(
         method=preset.label,
         dial_resolution=dial,
         balance_resolution=bal,
         rate_uncertainty=rate,
-        spread_methods=spread,
+        spread_methods=tuple(used),
         ecd_bit=bands["ecd_bit"],
         ecd_shoe=bands.get("ecd_shoe"),
         ecd_tightest=bands.get("ecd_tightest"),
@@ -635,7 +660,7 @@ def annulus_ecd_band(
     dial, bal, rate, rho = check_band_inputs(
         dial_resolution, balance_resolution, rate_uncertainty, density
     )
-    qv = float(check_positive("flow rate", q, "m³/s"))
+    qv = _one("flow rate", q, "m³/s")
     d2 = np.atleast_1d(check_positive("hole diameter", d_hole, "m")).astype(float)
     d1 = np.atleast_1d(check_positive("pipe diameter", d_pipe, "m")).astype(float)
     ln = np.atleast_1d(check_nonnegative("length", length, "m")).astype(float)
