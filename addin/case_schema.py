@@ -18,6 +18,7 @@ __all__ = [
     "SECTIONS",
     "SLURRY_SCHEMA",
     "STATION_COLUMNS",
+    "UNCERTAINTY_SCHEMA",
     "Field",
 ]
 
@@ -124,6 +125,15 @@ LIMITS_SCHEMA = {
     "trip_fracture_margin": Field("density"),
     "trip_pore_margin": Field("density"),
 }
+#: Input resolutions of the ECD band (calc.circulation.ecd_band; calc/METHODS.md §18); every key
+#: optional: dial_resolution [degree] 0.5, balance "standard" (0.1 ppg) or "pressurised"
+#: (0.05 ppg), balance_resolution (overrides the balance's), rate_uncertainty [fraction] 0.03.
+UNCERTAINTY_SCHEMA = {
+    "dial_resolution": Field("number"),
+    "balance": Field("text"),
+    "balance_resolution": Field("density"),
+    "rate_uncertainty": Field("number"),
+}
 SURVEY_SCHEMA = {"stations": Field("stations", required=True)}
 #: The columns of a ``stations`` row and their kinds (md is converted; angles are plain degrees).
 STATION_COLUMNS: tuple[tuple[str, str], ...] = (("md", "depth"), ("inc", "angle"), ("azi", "angle"))
@@ -204,6 +214,7 @@ SECTIONS: dict[str, tuple[bool, Mapping[str, Field] | None]] = {
     "check": (True, CHECK_SCHEMA),
     "slurry": (True, SLURRY_SCHEMA),
     "limits": (False, LIMITS_SCHEMA),
+    "uncertainty": (False, UNCERTAINTY_SCHEMA),
     "survey": (False, SURVEY_SCHEMA),
     "casing": (True, CASING_SCHEMA),
     "open_hole": (False, OPEN_HOLE_SCHEMA),

@@ -27,14 +27,20 @@ from calc.units import from_si, label, unit_for
 from calc.values import Value, fill
 
 __all__ = [
+    "BAND_BASIS",
+    "BAND_INPUT_WORDS",
     "BREAKDOWN_LABELS",
     "STATUS_WORDS",
+    "band_input",
+    "band_quantity",
+    "band_value",
     "check_point",
     "depth_point",
     "depth_span",
     "display_number",
     "display_values",
     "error",
+    "method_spread",
     "model",
     "model_parameters",
     "note",
@@ -330,3 +336,92 @@ def model(m, system="oilfield", digits: int = 4) -> str:
         for sym, (val, unit) in model_parameters(m, system).items()
     ]
     return f"{m.name}: " + ", ".join(parts)
+
+
+# ----------------------------------------------------------------------------- ECD band
+
+#: Words for the inputs of :mod:`calc.circulation.band` (:data:`calc.circulation.BAND_INPUTS`).
+BAND_INPUT_WORDS = {
+    "dial_readings": "viscometer dial readings",
+    "density": "mud balance",
+    "flow_rate": "flow rate (pump efficiency)",
+}
+
+#: Display formats of a band's numbers, by unit (whole psi, 0.01 ppg …); others: 4 digits.
+_BAND_SPEC = {"ppg": ".2f", "sg": ".3f", "kg/m**3": ".1f", "psi": ",.0f", "bar": ".1f"}
+
+#: Where the band of the report is computed: the clean circulating mud (no cuttings load).
+BAND_BASIS = "clean circulating mud, no cuttings load"
+
+
+def _band_number(v_si: float, kind: str, system) -> str:
+    u = _unit(kind, system)
+    return number_text(float(from_si(float(v_si), u, kind)), kind, _BAND_SPEC.get(u, ""))
+
+
+def band_input(name: str, band, system: str = "oilfield") -> str:
+    """An input of an :class:`calc.circulation.EcdBand` with its half-width, in words.
+
+    >>> from types import SimpleNamespace as NS
+    >>> b = NS(dial_resolution=0.5, balance_resolution=11.9826427, rate_uncertainty=0.03)
+    >>> band_input("density", b), band_input("dial_readings", b)
+    ('mud balance (±0.10 ppg)', 'viscometer dial readings (±0.5° each)')
+    >>> band_input("flow_rate", b)
+    'flow rate (pump efficiency, ±3 % of rate)'
+    """
+    if name == "dial_readings":
+        return f"{BAND_INPUT_WORDS[name]} (±{band.dial_resolution:g}° each)"
+    if name == "density":
+        res = _band_number(band.balance_resolution, "density", system)
+        return f"{BAND_INPUT_WORDS[name]} (±{res} {unit_label('density', system)})"
+    if name == "flow_rate":
+        return f"flow rate (pump efficiency, ±{100 * band.rate_uncertainty:g} % of rate)"
+    return name
+
+
+def band_quantity(qb, band, system: str = "oilfield") -> str:
+    """Which quantity a :class:`calc.circulation.QuantityBand` is, in words.
+
+    >>> from types import SimpleNamespace as NS
+    >>> band_quantity(NS(quantity="ecd_bit", point=None), None)
+    'ECD at the bit'
+    """
+    if qb.quantity == "spp":
+        return "standpipe pressure"
+    if qb.quantity == "ecd_bit" or qb.point is None:
+        return "ECD at the bit" if qb.quantity == "ecd_bit" else "ECD"
+    where = check_point(qb.point, system)
+    if qb.quantity == "ecd_tightest":
+        limit = f", {band.tightest_limit}" if band.tightest_limit else ""
+        return f"ECD at the tightest point ({where}{limit})"
+    return f"ECD at the {where}"
+
+
+def band_value(qb, system: str = "oilfield") -> str:
+    """'nominal ± half-width unit' of a band.
+
+    >>> from types import SimpleNamespace as NS
+    >>> band_value(NS(nominal=1416.6, half_width=12.23, kind="density"))
+    '11.82 ± 0.10 ppg'
+    """
+    lab = unit_label(qb.kind, system)
+    nominal = _band_number(qb.nominal, qb.kind, system)
+    return f"{nominal} ± {_band_number(qb.half_width, qb.kind, system)} {lab}"
+
+
+def method_spread(qb, system: str = "oilfield") -> str:
+    """The method spread of a band: 'methods a unit (name) to b unit (name)' ("" without one).
+
+    >>> from types import SimpleNamespace as NS
+    >>> method_spread(NS(kind="density", method_min=("power_law", 1414.6),
+    ...                  method_max=("bingham", 1433.0)))
+    'methods 11.81 ppg (power_law) to 11.96 ppg (bingham)'
+    """
+    lo, hi = qb.method_min, qb.method_max
+    if lo is None:
+        return ""
+    lab = unit_label(qb.kind, system)
+    return (
+        f"methods {_band_number(lo[1], qb.kind, system)} {lab} ({lo[0]}) to "
+        f"{_band_number(hi[1], qb.kind, system)} {lab} ({hi[0]})"
+    )

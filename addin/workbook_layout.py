@@ -151,6 +151,12 @@ LABELS: dict[str, dict[str, str]] = {
         "trip_fracture_margin": "surge margin below fracture",
         "trip_pore_margin": "swab margin above pore",
     },
+    "uncertainty": {
+        "dial_resolution": "dial-reading resolution [degree] (blank = 0.5)",
+        "balance": "mud balance: standard or pressurised",
+        "balance_resolution": "mud-balance resolution (blank = by balance)",
+        "rate_uncertainty": "flow-rate uncertainty, fraction of rate (blank = 0.03)",
+    },
     "survey": {"md": "measured depth", "inc": "inclination", "azi": "azimuth"},
     "casing": {
         "name": "name",
@@ -291,6 +297,7 @@ def _block(key: str, title: str, kind: str, **kw) -> Block:
 LAYOUT: tuple[Block, ...] = (
     _block("case", "Case", "values"),
     _block("limits", "Operating limits and margins", "values"),
+    _block("uncertainty", "Input resolutions for the ECD band", "values"),
     _block("survey", "Directional survey (TVD by minimum curvature)", "table", rows_key="stations"),
     _block("casing", "Casing and liners", "table"),
     _block("open_hole", "Open hole", "values"),

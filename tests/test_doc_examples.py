@@ -57,6 +57,9 @@ _PLUMBING = "array/record plumbing of results, no quantity"
 
 #: Exempt names (module.qualname) with the reason.
 NOT_TRADE = {
+    "calc.circulation.band.check_band_inputs": _INPUT_CHECK,
+    "calc.circulation.band.EcdBand": "result record of ecd_band, whose Examples show it",
+    "calc.circulation.band.QuantityBand": "result record of ecd_band, whose Examples show it",
     "calc.flow.checks.require_n_at_most": _INPUT_CHECK,
     "calc.flow.checks.require_n_one": _INPUT_CHECK,
     "calc.flow.checks.require_no_yield": _INPUT_CHECK,

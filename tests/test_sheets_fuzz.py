@@ -182,6 +182,9 @@ VALID = {
     "limit_emw": 12.4,
     "gel_strength": 12.0,
     "inclination": 70.0,  # a high-angle interval (cuttings-bed functions)
+    "dial_resolution": None,
+    "balance_resolution": None,
+    "rate_uncertainty": None,
 }
 
 

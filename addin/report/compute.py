@@ -12,10 +12,15 @@ from dataclasses import dataclass, field
 import numpy as np
 
 import calc
-from addin.case import Case
+from addin.case import Case, CaseInputError
 from addin.report.trace import bed_method_of, slip_method_of
 from calc.circulation import (
+    BALANCE_RESOLUTION,
+    BALANCE_RESOLUTION_PRESSURISED,
+    DIAL_RESOLUTION,
+    RATE_UNCERTAINTY,
     CirculationResult,
+    EcdBand,
     FrictionCalibration,
     HydraulicsFluid,
     Margins,
@@ -23,7 +28,9 @@ from calc.circulation import (
     Profile,
     TightestPoint,
     calibrate_friction,
+    check_band_inputs,
     circulate,
+    ecd_band,
     hydraulics_fluid_from_readings,
     spp_deviation_percent,
 )
@@ -38,6 +45,7 @@ from calc.cleaning import (
     loaded_margins,
     well_cuttings_beds,
 )
+from calc.errors import InputError
 from calc.geometry import Well
 from calc.hydraulics_method import HydraulicsMethod  # None → the case's method or calc's default
 from calc.notes import Note
@@ -59,6 +67,7 @@ __all__ = [
     "LoadedECD",
     "Results",
     "TripRun",
+    "band_inputs",
     "compute",
     "report_fluid",
     "scalar",
@@ -193,6 +202,7 @@ class Results:
     profile_step: float = 30.48
     loaded: LoadedECD | None = None  # with the cuttings load (needs cleaning)
     beds: WellBeds | None = None  # stationary cuttings beds (needs cleaning)
+    band: EcdBand | None = None  # the input-uncertainty band (clean circulating mud)
 
     @property
     def calibration(self) -> FrictionCalibration | None:
@@ -250,6 +260,18 @@ def compute(
     )
     if trend[-1].calibration is not None:
         notes.extend(trend[-1].calibration.notes)
+    band = ecd_band(
+        well,
+        checks[-1].readings,
+        density,
+        q,
+        method=method,
+        window=case.window,
+        weak_points=case.weak_points,
+        margins=_circulate_options(case)["margins"],
+        **band_inputs(case, density),
+    )
+    notes.extend(band.notes)
     cleaning = _cleaning(case, well, fluid, q)
     loaded = _loaded(well, res, cleaning, step)
     beds = _beds(case, well, fluid, q, cleaning, method)
@@ -283,6 +305,7 @@ def compute(
         profile_step=step,
         loaded=loaded,
         beds=beds,
+        band=band,
     )
 
 
@@ -312,6 +335,56 @@ def _beds(case, well, fluid, q, cleaning, method) -> WellBeds | None:
         well, fluid, q, rop=case.checks[-1].values["rop"], cuttings=cleaning.cuttings,
         method=method,
     )  # fmt: skip
+
+
+#: The mud balances of a case's ``[uncertainty] balance`` and their resolutions [kg/m³].
+BALANCES = {"standard": BALANCE_RESOLUTION, "pressurised": BALANCE_RESOLUTION_PRESSURISED}
+#: calc's names of the band inputs → the keys of the case's ``[uncertainty]`` section.
+_BAND_KEYS = {
+    "dial-reading resolution": "dial_resolution",
+    "mud-balance resolution": "balance_resolution",
+    "flow-rate uncertainty (pump volumetric efficiency)": "rate_uncertainty",
+}
+
+
+def band_inputs(case, density: float) -> dict:
+    """The ECD band's half-widths from the case's optional ``[uncertainty]`` section: keywords
+    of :func:`calc.circulation.ecd_band` (defaults: calc's, a standard balance).
+
+    An impossible value raises an InputError naming the case file and key.
+    """
+    u = case.sections.get("uncertainty", {})
+    balance = (
+        str(u.get("balance", "standard")).strip().lower().replace("pressurized", "pressurised")
+    )
+    if balance not in BALANCES:
+        raise CaseInputError(
+            case.unit_system,
+            f"{case.source}: uncertainty.balance",
+            u.get("balance"),
+            "standard or pressurised",
+        )
+    kw = dict(
+        dial_resolution=u.get("dial_resolution", DIAL_RESOLUTION),
+        balance_resolution=u.get("balance_resolution", BALANCES[balance]),
+        rate_uncertainty=u.get("rate_uncertainty", RATE_UNCERTAINTY),
+    )
+    try:
+        check_band_inputs(density=density, **kw)
+    except InputError as exc:
+        key = _BAND_KEYS.get(exc.name)
+        if key is None:
+            raise
+        raise CaseInputError(
+            case.unit_system,
+            f"{case.source}: uncertainty.{key}",
+            exc.value,
+            exc.allowed,
+            exc.problem,
+            kind=exc.kind,
+            values=exc.values,
+        ) from exc
+    return kw
 
 
 def _circulate_options(case) -> dict:

@@ -73,6 +73,8 @@ def results_data(results) -> dict:
     out["circulation"]["tool_covered"] = list(res.tools.covered)
     if results.calibration is not None:
         out["calibration"] = _calibration_data(results.calibration, s)
+    if results.band is not None:
+        out["ecd_band"] = _band_data(results.band, s)
     out["trend"] = [_trend_data(t, s) for t in results.trend]
     out["notes"] = [
         {
@@ -277,6 +279,77 @@ def _trend_data(t, s) -> dict:
             "margin": _c(float(t.tightest.margin), "density", s),
         },
         "missing": list(t.missing),
+    }
+
+
+def _band_quantity(qb, band, s) -> dict:
+    """One quantity of the band: display values in the case's units, and an ``si`` block."""
+    k = qb.kind
+    lo, hi = qb.method_min, qb.method_max
+    si_unit = {"density": "kg/m³", "pressure": "Pa"}[k]
+    return {
+        "quantity": qb.quantity,
+        "label": text.band_quantity(qb, band, s),
+        "text": text.band_value(qb, s),
+        "unit": text.unit_label(k, s),
+        "md": _c(qb.md, "depth", s),
+        "nominal": _c(qb.nominal, k, s),
+        "half_width": _c(qb.half_width, k, s),
+        "low": _c(qb.low, k, s),
+        "high": _c(qb.high, k, s),
+        "worst_case": _c(qb.worst_case, k, s),
+        "contributions": {n: _c(v, k, s) for n, v in qb.contributions.items()},
+        "dominant": qb.dominant,
+        "dominant_words": text.BAND_INPUT_WORDS.get(qb.dominant, ""),
+        "dial_readings": [
+            {"rpm": e.rpm, "effect": _c(e.effect, k, s)}
+            for e in qb.effects
+            if e.input == "dial_readings"
+        ],
+        "method_spread": {
+            "values": {m: _c(v, k, s) for m, v in qb.method_values},
+            "min": None if lo is None else {"method": lo[0], "value": _c(lo[1], k, s)},
+            "max": None if hi is None else {"method": hi[0], "value": _c(hi[1], k, s)},
+            "text": text.method_spread(qb, s),
+        },
+        "si": {
+            "unit": si_unit,
+            "md_m": qb.md,
+            "nominal": qb.nominal,
+            "half_width": qb.half_width,
+            "worst_case": qb.worst_case,
+            "contributions": dict(qb.contributions),
+            "dial_readings": [
+                {"rpm": e.rpm, "effect": e.effect} for e in qb.effects if e.input == "dial_readings"
+            ],
+            "method_min": None if lo is None else {"method": lo[0], "value": lo[1]},
+            "method_max": None if hi is None else {"method": hi[0], "value": hi[1]},
+            "method_values": dict(qb.method_values),
+        },
+    }
+
+
+def _band_data(band, s) -> dict:
+    """calc.circulation.EcdBand: inputs (SI and display), basis, method, the quantities."""
+    return {
+        "method": "linear propagation: central differences of circulate() per input, "
+        "root-sum-square of independent inputs (calc/METHODS.md §18)",
+        "basis": text.BAND_BASIS,
+        "hydraulics_method": band.method,
+        "inputs": {
+            "dial_resolution": {"value": band.dial_resolution, "unit": "degree"},
+            "balance_resolution": {
+                "value": _c(band.balance_resolution, "density", s),
+                "unit": text.unit_label("density", s),
+                "si": band.balance_resolution,
+                "si_unit": "kg/m³",
+            },
+            "rate_uncertainty": {"value": band.rate_uncertainty, "unit": "fraction of rate"},
+        },
+        "spread_methods": list(band.spread_methods),
+        "tightest_limit": band.tightest_limit,
+        "evaluations": band.evaluations,
+        "quantities": [_band_quantity(qb, band, s) for qb in band.quantities],
     }
 
 

@@ -7,6 +7,7 @@ import numpy as np
 from addin import text
 from addin.report.compute import scalar
 from calc.circulation import (
+    BAND_INPUTS,
     ecd_deviation,
     fracture_margin,
     margin_status,
@@ -31,6 +32,7 @@ def summary_rows(results, refs) -> list[dict]:
     rows: list[dict] = []
     rows += _pressure_rows(results, refs)
     rows += _ecd_rows(results, refs)
+    rows += _band_rows(results)
     rows += _bit_rows(results, refs)
     rows += _other_rows(refs)
     return rows
@@ -139,6 +141,42 @@ def _ecd_rows(results, refs) -> list[dict]:
                 kind="density",
                 value=gauge,
                 margin=-float(ecd_deviation(pred, gauge)),
+                status="INFO",
+            )
+        )
+    return rows
+
+
+def _band_rows(results) -> list[dict]:
+    """The input-uncertainty band (calc.circulation.ecd_band) of ECD at the bit, the shoe, the
+    tightest point and of the SPP: value = the band's half-width; the text over the limit…
+    required columns gives value ± band and the method spread; the name the dominant input.
+    The band is on the clean circulating mud (no cuttings), as the label says."""
+    band = results.band
+    if band is None:
+        return []
+    system = results.case.unit_system
+    inputs = ", ".join(text.band_input(k, band, system) for k in BAND_INPUTS)
+    rows = [
+        dict(
+            name="input-uncertainty band (method and checks: Audit sheet)",
+            kind=None,
+            unit="",
+            bound=f"root-sum-square of {inputs}; {text.BAND_BASIS}; method spread apart",
+            status="INFO",
+        )
+    ]
+    for qb in band.quantities:
+        what = text.band_quantity(qb, band, system)
+        clean = ", clean mud" if qb.kind == "density" else ""
+        dom = text.BAND_INPUT_WORDS.get(qb.dominant, "none")
+        spread = text.method_spread(qb, system)
+        rows.append(
+            dict(
+                name=f"± band: {what}{clean}; dominant: {dom}",
+                kind=qb.kind,
+                value=qb.half_width,
+                bound=text.band_value(qb, system) + (f"; {spread}" if spread else ""),
                 status="INFO",
             )
         )

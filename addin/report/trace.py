@@ -404,6 +404,22 @@ def _trip(results, row):
     return [("value", "@trips", "", end, name, kind, _hyd_eq(results, "§11.7"))]
 
 
+def _band_info(results, row):
+    """The band's heading row carries no number (its inputs are on the setup row ``band``)."""
+    return []
+
+
+def _band(results, row):
+    """A ± band row: the half-width of the quantity the row names (setup row ``band``)."""
+    band = results.band
+    i = next(
+        k for k, qb in enumerate(band.quantities)
+        if qb.half_width == row.get("value")
+    )  # fmt: skip
+    name, kind = _hyd(results)
+    return [("value", "@band", "", f"_.quantities[{i}].half_width", name, kind, _eq("§18.1"))]
+
+
 #: Summary rows (by the start of their name) → how each is traced.  A new Summary row needs
 #: an entry here (tests/test_audit_trace.py fails on an untraced row).
 TRACE: tuple[TraceEntry, ...] = (
@@ -425,13 +441,16 @@ TRACE: tuple[TraceEntry, ...] = (
     TraceEntry("operating window (see", _window_none),
     TraceEntry("max. running speed", _trip),
     TraceEntry("max. pulling speed", _trip),
+    TraceEntry("input-uncertainty band", _band_info),
+    TraceEntry("± band:", _band),
 )
 
 #: The setup rows, in order: each is ``name = function(inputs)``; later rows and the traced
 #: quantities refer to them by name (``@name`` in the function column: "the setup row's
 #: return value").
 SETUP_NAMES = (
-    "case", "well", "fluid", "margins", "circulation", "cleaning", "loaded", "window", "trips",
+    "case", "well", "fluid", "margins", "circulation", "band", "cleaning", "loaded", "window",
+    "trips",
 )  # fmt: skip
 
 
@@ -466,6 +485,19 @@ def _setup(results) -> list[tuple[str, str, str]]:
             f"weak_points=case.weak_points, margins=margins, surface_rating={rating}",
         )
     )
+    band = getattr(results, "band", None)
+    if band is not None:
+        rows.append(
+            (
+                "band",
+                "calc.circulation.ecd_band",
+                f"well, case.checks[-1].readings, {_num(density)}, {_num(q)}, "
+                f"method={m.name!r}, window=case.window, weak_points=case.weak_points, "
+                f"margins=margins, dial_resolution={_num(band.dial_resolution)}, "
+                f"balance_resolution={_num(band.balance_resolution)}, "
+                f"rate_uncertainty={_num(band.rate_uncertainty)}",
+            )
+        )
     if results.cleaning is not None:
         c = results.cleaning.cuttings
         rows.append(

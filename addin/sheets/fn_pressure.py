@@ -1,19 +1,25 @@
-"""Worksheet functions: hydrostatic pressure, equivalent densities, ECD
+"""Worksheet functions: hydrostatic pressure, equivalent densities, ECD and its band
 (over :mod:`calc.circulation`).
 
-Argument order: fluid (density) → geometry (TVD) → pressures → options (``hydrostatic``:
-``"exact"`` g = 9.80665 m/s², or ``"0.052"`` for the rounded field constant) → units.  The TVD
+Argument order: fluid (density, readings) → geometry (TVD; annular intervals) → pressures or
+rate → options (``hydrostatic``: ``"exact"`` g = 9.80665 m/s², or ``"0.052"`` for the rounded
+field constant; method; resolutions) → units.  The TVD of BF_HYDROSTATIC, BF_EMW and BF_ECD
 may be a range (a depth column); the result then has the same shape.
 """
 
 from typing import Any
 
+import numpy as np
+
+from addin import text
 from addin.sheets import cells
+from addin.sheets.fn_rheology import viscometer
 from addin.sheets.framework import Cells, Num, Text, sheet_function
 from calc import circulation as cc
 from calc.circulation.hydrostatics import HYDROSTATIC_OPTIONS
+from calc.hydraulics_method import HYDRAULICS_METHODS
 
-__all__ = ["BF_ECD", "BF_EMW", "BF_HYDROSTATIC"]
+__all__ = ["BF_ECD", "BF_ECD_BAND", "BF_EMW", "BF_HYDROSTATIC"]
 
 FAMILY = "pressure"
 
@@ -100,3 +106,80 @@ def BF_ECD(
         hydrostatic=_hydro(hydrostatic),
     )
     return uset.from_si(ecd, "density")
+
+
+_READINGS = "Viscometer readings: two columns rpm and dial, or one column of 6 dial readings"
+_METHOD = "Hydraulics method (blank = 'api13d_2010_hb'); picks the fit and the friction law"
+_BALANCE = "Mud-balance resolution (ppg; blank or 'standard' = 0.1, 'pressurised' = 0.05 ppg)"
+_BALANCES = {"standard": cc.BALANCE_RESOLUTION, "pressurised": cc.BALANCE_RESOLUTION_PRESSURISED}
+
+
+def _balance(value, uset) -> float:
+    """A number (density unit of the call) or the words standard / pressurised."""
+    cell = cells.as_grid(value)[0][0] if not cells.blank(value) else None
+    if isinstance(cell, str) and cell.strip().lower().replace("z", "s") in _BALANCES:
+        return _BALANCES[cell.strip().lower().replace("z", "s")]
+    return cells.optional_number(
+        value, "balance resolution", cc.BALANCE_RESOLUTION, "density", uset
+    )
+
+
+@sheet_function(FAMILY)
+def BF_ECD_BAND(
+    density: Num(_DENSITY),
+    readings: Cells(_READINGS),
+    d_hole: Cells("Hole or casing inside diameter (in); a column, surface down to the depth"),
+    d_pipe: Cells("Pipe outside diameter (in); a column beside d_hole"),
+    length: Cells("Interval length (ft); a column beside d_hole"),
+    tvd: Num("True vertical depth of the point (ft)"),
+    q: Num("Flow rate (gpm), one value"),
+    method: Text(_METHOD) = None,
+    dial_resolution: Num("Dial-reading resolution, degrees (blank = 0.5; each reading)") = None,
+    balance_resolution: Cells(_BALANCE) = None,
+    rate_uncertainty: Num("Flow-rate uncertainty, fraction of rate (blank = 0.03)") = None,
+    hydrostatic: Text(_HYDRO) = None,
+    units: Cells(_UNITS) = None,
+) -> Any:
+    """ECD at a depth with its input-uncertainty band: one row ECD | ± band | dominant input.
+
+    The ECD (ppg in oilfield units) from the annular intervals above the depth (the method's
+    annulus fit and friction law), and the half-width of its band: each dial reading ±0.5°,
+    the mud balance ±0.1 ppg and the rate ±3 % carried through by finite differences and
+    combined in quadrature (calc/METHODS.md §18); the third cell names the input that
+    dominates.  Clean mud, no cuttings.
+
+    >>> r = [[600, 68], [300, 44], [200, 35], [100, 25], [6, 10], [3, 9]]
+    >>> ecd, band, dominant = BF_ECD_BAND(11.2, r, 8.5, 5.0, 10000.0, 10000.0, 522.0)[0]
+    >>> round(band, 3), dominant
+    (0.1, 'mud balance')
+    """
+    uset = cells.unit_set(units)
+    name = (
+        None
+        if cells.blank(method)
+        else cells.text(method, "method", choices=HYDRAULICS_METHODS.names())
+    )
+    d2 = cells.positive_values(d_hole, "hole diameter", "diameter", uset)
+    d1 = cells.positive_values(d_pipe, "pipe diameter", "diameter", uset)
+    ln = cells.positive_values(length, "length", "length", uset, allow_zero=True)
+    shape = cells.broadcast(d_hole=d2, d_pipe=d1, length=ln)
+    band = cc.annulus_ecd_band(
+        viscometer(readings),
+        _density(density, uset),
+        cells.positive_number(q, "flow rate", "flow_rate", uset),
+        *(np.broadcast_to(a, shape).ravel() for a in (d2, d1, ln)),
+        cells.positive_number(tvd, "tvd", "depth", uset),
+        method=name,
+        hydrostatic=_hydro(hydrostatic),
+        dial_resolution=cells.optional_number(
+            dial_resolution, "dial resolution", cc.DIAL_RESOLUTION
+        ),
+        balance_resolution=_balance(balance_resolution, uset),
+        rate_uncertainty=cells.optional_number(
+            rate_uncertainty, "rate uncertainty", cc.RATE_UNCERTAINTY
+        ),
+    )
+    words = text.BAND_INPUT_WORDS.get(band.dominant, "none")
+    return [
+        [uset.from_si(band.nominal, "density"), uset.from_si(band.half_width, "density"), words]
+    ]

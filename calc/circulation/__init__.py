@@ -14,10 +14,27 @@ Public API (SI throughout):
   :func:`pore_margin`, :func:`margin_status`;
 * :func:`calibrate_friction` → :class:`FrictionCalibration`; :func:`spp_deviation`,
   :func:`spp_deviation_percent`, :func:`ecd_deviation` (predicted − measured);
+* :func:`ecd_band` → :class:`EcdBand` (:class:`QuantityBand` per quantity, :class:`InputEffect`
+  per input): the input-uncertainty band on ECD and SPP and the method spread
+  (:mod:`~calc.circulation.band`, calc/METHODS.md §18);
 * hydrostatics: :func:`hydrostatic_pressure`, :func:`equivalent_density`,
   :func:`equivalent_circulating_density`, :func:`gravity_for`.
 """
 
+from calc.circulation.band import (
+    BALANCE_RESOLUTION,
+    BALANCE_RESOLUTION_PRESSURISED,
+    BAND_INPUTS,
+    DIAL_RESOLUTION,
+    RATE_UNCERTAINTY,
+    SPREAD_METHODS,
+    EcdBand,
+    InputEffect,
+    QuantityBand,
+    annulus_ecd_band,
+    check_band_inputs,
+    ecd_band,
+)
 from calc.circulation.calibration import (
     CALIBRATION_LABEL,
     FrictionCalibration,
@@ -56,23 +73,35 @@ from calc.circulation.result import (
 )
 
 __all__ = [
+    "BALANCE_RESOLUTION",
+    "BALANCE_RESOLUTION_PRESSURISED",
+    "BAND_INPUTS",
     "BREAKDOWN_KEYS",
     "CALIBRATION_LABEL",
+    "DIAL_RESOLUTION",
+    "RATE_UNCERTAINTY",
+    "SPREAD_METHODS",
     "CheckPoint",
     "CirculationResult",
+    "EcdBand",
     "FrictionCalibration",
     "HydraulicsFluid",
+    "InputEffect",
     "LoopContext",
     "MarginTable",
     "Margins",
     "PathLosses",
     "PressureWindow",
     "Profile",
+    "QuantityBand",
     "TightestPoint",
     "ToolLosses",
     "WeakPoint",
+    "annulus_ecd_band",
     "calibrate_friction",
+    "check_band_inputs",
     "circulate",
+    "ecd_band",
     "ecd_deviation",
     "equivalent_circulating_density",
     "equivalent_density",
