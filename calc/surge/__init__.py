@@ -30,35 +30,65 @@ SPE-1546-G.  Guo, B. & Liu, G. (2011) Applied Drilling Circulation Systems, ch. 
 Bourgoyne, A.T. et al. (1986) Applied Drilling Engineering, SPE Textbook Series 2, ch. 4.
 """
 
-from calc.surge.clinging import clinging_constant, clinging_constant_exact_newtonian
+from calc.surge.clinging import (
+    clinging_constant,
+    clinging_constant_blended,
+    clinging_constant_exact_newtonian,
+)
 from calc.surge.emw import trip_allowance, trip_emw
-from calc.surge.gel import BreakCirculationResult, break_circulation_pressure, gel_break_pressure
+from calc.surge.gel import (
+    GEL_CHOICES,
+    BreakCirculationResult,
+    break_circulation_pressure,
+    gel_break_pressure,
+    pipe_start_gel_pressure,
+)
+from calc.surge.inertia import (
+    DEFAULT_ACCELERATION_TIME,
+    inertia_ratio,
+    inertial_pressure,
+    trip_acceleration,
+)
 from calc.surge.limits import (
     IntervalTripLimit,
+    TripComponents,
     TripLimits,
     TripPoint,
     trip_speed_limit,
     trip_speed_limits,
 )
 from calc.surge.pressure import IntervalSurge, SurgeResult, interval_surge, surge_pressure
+from calc.surge.schedule import TripBand, TripSchedule, trip_schedule, well_at_bit_depth
 from calc.surge.solver import PEAK_FACTOR
 
 __all__ = [
+    "DEFAULT_ACCELERATION_TIME",
+    "GEL_CHOICES",
     "PEAK_FACTOR",
     "BreakCirculationResult",
     "IntervalSurge",
     "IntervalTripLimit",
     "SurgeResult",
+    "TripBand",
+    "TripComponents",
     "TripLimits",
     "TripPoint",
+    "TripSchedule",
     "break_circulation_pressure",
     "clinging_constant",
+    "clinging_constant_blended",
     "clinging_constant_exact_newtonian",
     "gel_break_pressure",
+    "inertia_ratio",
+    "inertial_pressure",
     "interval_surge",
+    "pipe_start_gel_pressure",
     "surge_pressure",
+    "trip_acceleration",
     "trip_allowance",
     "trip_emw",
+    "trip_schedule",
     "trip_speed_limit",
     "trip_speed_limits",
+    "well_at_bit_depth",
 ]
