@@ -159,7 +159,7 @@ def trip_schedule(
     *,
     window,
     weak_points=(),
-    band_length: float = 152.4,
+    band_length: float = 304.8,
     bit_depths=None,
     fracture_margin: float = 0.0,
     pore_margin: float = 0.0,
@@ -191,7 +191,8 @@ def trip_schedule(
         As :func:`calc.surge.trip_speed_limits`; ``well`` has the bit at the bottom of the
         hole (the start of the trip out, the end of the trip in).
     band_length : float
-        Band length [m] (default 500 ft); the last band ends at the bit depth.
+        Band length [m] (default 1000 ft: each band edge is one solve of the limits, about
+        1 s for a string of 40 annular intervals); the last band ends at the bit depth.
     bit_depths : array_like, optional
         Band edges [m] instead (0 < MD ≤ the well's bit depth; surface and the bottom added).
 
@@ -264,7 +265,15 @@ def trip_schedule(
                 pulling_bit_md=pull.bit_md,
             )
         )
-    notes = [n for s in solves for n in s.notes]
+    # the notes of the bit at the bottom, then those of other bit depths whose code is new
+    # (a count differs from depth to depth; the first occurrence stands for the code)
+    notes = list(solves[-1].notes)
+    codes = {n.code for n in notes}
+    for x in solves[:-1]:
+        for n in x.notes:
+            if n.code not in codes:
+                notes.append(n)
+                codes.add(n.code)
     return TripSchedule(
         bands=tuple(bands),
         top_md=edges[:-1].copy(),
