@@ -47,6 +47,7 @@ from calc.surge.inertia import (
     DEFAULT_ACCELERATION_TIME,
     inertia_ratio,
     inertial_pressure,
+    peak_trip_pressure,
     trip_acceleration,
 )
 from calc.surge.limits import (
@@ -82,6 +83,7 @@ __all__ = [
     "inertia_ratio",
     "inertial_pressure",
     "interval_surge",
+    "peak_trip_pressure",
     "pipe_start_gel_pressure",
     "surge_pressure",
     "trip_acceleration",

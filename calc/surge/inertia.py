@@ -48,6 +48,7 @@ __all__ = [
     "check_acceleration_time",
     "inertia_ratio",
     "inertial_pressure",
+    "peak_trip_pressure",
     "trip_acceleration",
 ]
 
@@ -164,3 +165,29 @@ def inertial_pressure(density, acceleration, d_hole, d_pipe, length, *, d_bore=N
                                  bore_length=bore_length, string_end=string_end))  # fmt: skip
     ln = np.broadcast_to(np.asarray(length, dtype=float), r.shape)
     return scalar_or_array(rho * a[..., None] * (r * ln) if r.ndim else rho * a * r * ln)
+
+
+def peak_trip_pressure(steady, inertia, gel):
+    """Peak pressure change of a stand from its parts, max(gel, steady + inertia) [Pa].
+
+    .. math:: \\Delta p_{peak} = \\max\\left(\\Delta p_{gel},\\
+              \\Delta p_{steady}(V_{peak}) + \\Delta p_{inertia}\\right)
+
+    The gel holds the mud until the pressure reaches the gel-break pressure, before it flows;
+    once it flows, friction (the steady surge at the speed reached) and inertia (while the pipe
+    speeds up) act together and are both largest at the end of a constant acceleration, when
+    the peak speed is reached.  The gel and the flowing terms act at different moments, so the
+    larger of the two governs, not their sum (a stated model: calc/METHODS.md §11.9).
+
+    Parameters
+    ----------
+    steady, inertia, gel : array_like
+        Magnitudes [Pa], ≥ 0.
+
+    >>> peak_trip_pressure(3.0e5, 1.0e5, 2.0e5), peak_trip_pressure(1.0e5, 0.5e5, 2.0e5)
+    (400000.0, 200000.0)
+    """
+    s = check_nonnegative("steady surge", steady, "Pa")
+    i = check_nonnegative("inertial pressure", inertia, "Pa")
+    g = check_nonnegative("gel-break pressure", gel, "Pa")
+    return scalar_or_array(np.maximum(g, s + i))

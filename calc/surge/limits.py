@@ -39,7 +39,7 @@ from calc.numeric import (
 from calc.surge.clinging import check_clinging
 from calc.surge.emw import trip_allowance
 from calc.surge.gel import check_gel, pipe_start_gel_pressure
-from calc.surge.inertia import check_acceleration_time, inertial_pressure
+from calc.surge.inertia import check_acceleration_time, inertial_pressure, peak_trip_pressure
 from calc.surge.solver import (
     DIRECTION_SIGN,
     PEAK_FACTOR,
@@ -473,8 +473,8 @@ def _components(p, end, clinging, pf, w_row, c, gel, v, allow, opp, term) -> Tri
     inertia = float(c * v)
     return TripComponents(
         speed=float(v), peak_speed=float(v * pf), steady=steady, inertia=inertia, gel=float(gel),
-        peak=max(float(gel), steady + inertia), stopping=inertia, allowance=float(allow),
-        opposite_allowance=float(opp), term=term,
+        peak=float(peak_trip_pressure(steady, inertia, gel)), stopping=inertia,
+        allowance=float(allow), opposite_allowance=float(opp), term=term,
     )  # fmt: skip
 
 
