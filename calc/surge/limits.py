@@ -63,6 +63,7 @@ __all__ = [
     "exposed_hole",
     "limit_options",
     "limits_at_points",
+    "limits_with_bit_at",
     "trip_speed_limit",
     "trip_speed_limits",
 ]
@@ -490,6 +491,91 @@ def _term(i, lim, friction_lim, stop_lim, gel_bad, allow, steady_vs_inertia, top
     return steady_vs_inertia
 
 
+def _with_stop_and_gel(lim, allow_surge, allow_swab, c, g, bracket):
+    """Limits (running entries first, pulling second) with the stop of the stand and the gel.
+
+    Stopping a stand reverses the inertia: running in it swabs, pulling out it surges, so the
+    speed is also held to (other allowance)/c; where the gel-break pressure exceeds the
+    allowance no speed is safe (0).  Returns (limits, stop limits, gel exceeds)."""
+    allow = np.concatenate([allow_surge, allow_swab])
+    opp = np.concatenate([allow_swab, allow_surge])
+    cc = np.concatenate([c, c])
+    with np.errstate(divide="ignore", invalid="ignore"):
+        stop = np.where(cc > 0, np.maximum(opp, 0.0) / cc, np.inf)
+    stop = _safe_side(np.minimum(stop, bracket[1]), bracket[0], bracket[1], 50)
+    stop = np.where(cc > 0, stop, np.inf)
+    gel_bad = np.concatenate([g, g]) > allow
+    return np.where(gel_bad, 0.0, np.minimum(lim, stop)), stop, gel_bad
+
+
+def limits_with_bit_at(wells, fluid, names, *, window, weak_points, mf, mp, end, notes, method,
+                       clinging, pf, eccentricity, bracket, hydrostatic, t_acc, gel):  # fmt: skip
+    """Running and pulling limits at the bit of each well (each with its bit at its own depth).
+
+    A closed string's annulus carries no coupling between intervals and an interval's friction
+    gradient depends on its diameters only, so the wells are solved in one vectorised pass over
+    the distinct (hole ID, pipe OD) pairs, each well weighing them by its own lengths; an open
+    string is solved well by well.  Returns
+    (running [m/s], pulling [m/s], running terms, pulling terms, notes)."""
+    if end != "closed":
+        out = [limits_at_points(w, fluid, np.array([float(w.bit_depth)]), (nm,), window=window,
+                                weak_points=weak_points, mf=mf, mp=mp, end=end, notes=(),
+                                method=method, clinging=clinging, pf=pf,
+                                eccentricity=eccentricity, bracket=bracket,
+                                hydrostatic=hydrostatic, t_acc=t_acc, gel=gel)
+               for w, nm in zip(wells, names, strict=True)]  # fmt: skip
+        return (np.array([x.max_running_speed for x in out]),
+                np.array([x.max_pulling_speed for x in out]),
+                [x.running.term for x in out], [x.pulling.term for x in out],
+                [n for x in out for n in x.notes])  # fmt: skip
+    parts = [paths_from_well(w, fluid, method, eccentricity) for w in wells]
+    p0 = parts[0]
+    # the friction gradient of an annular interval depends on its diameters, not its length:
+    # one column per distinct (hole ID, pipe OD), weighted by each well's length of it
+    d2 = np.concatenate([q.d2 for q in parts])
+    d1 = np.concatenate([q.d1 for q in parts])
+    ln = np.concatenate([q.length for q in parts])
+    row = np.repeat(np.arange(len(parts)), [q.d2.size for q in parts])
+    pairs, col = np.unique(np.round(np.stack([d2, d1], axis=1), 12), axis=0, return_inverse=True)
+    w = np.zeros((len(parts), pairs.shape[0]))
+    np.add.at(w, (row, col.reshape(-1)), ln)
+    union = SurgePaths(
+        d2=pairs[:, 0].copy(), d1=pairs[:, 1].copy(), length=np.ones(pairs.shape[0]),
+        rho=p0.rho, ann_params=p0.ann_params, pipe_params=p0.pipe_params, method=p0.method,
+        ecc=eccentricity,
+    )  # fmt: skip
+    md = np.array([float(x.bit_depth) for x in wells])
+    tvd = np.array([float(x.bit_tvd) for x in wells])
+    pore, frac = limits_at(md, tvd, names, window, tuple(weak_points))
+    allow_surge = np.atleast_1d(trip_allowance(frac - mf, p0.rho, tvd, "running",
+                                               hydrostatic=hydrostatic))  # fmt: skip
+    allow_swab = np.atleast_1d(trip_allowance(pore + mp, p0.rho, tvd, "pulling",
+                                              hydrostatic=hydrostatic))  # fmt: skip
+    c = _inertia_coefficients(union, "closed", w, pf, t_acc)
+    g = _gel_at_points(union, "closed", w, gel)
+    allow = np.concatenate([allow_surge, allow_swab])
+    lim, stuck, moved, later, _amb = _speed_limit(
+        union, allow, np.concatenate([w, w]), "closed", clinging, pf, bracket,
+        np.concatenate([c, c]),
+    )  # fmt: skip
+    total, stop, gel_bad = _with_stop_and_gel(lim, allow_surge, allow_swab, c, g, bracket)
+    grad = solve(union, total * pf, "closed", clinging).gradient
+    steady = np.sum(grad * union.length * np.concatenate([w, w]), axis=-1)
+    inertia = np.concatenate([c, c]) * total
+    terms = [
+        _term(k, total, lim, stop, gel_bad, allow,
+              "inertia" if inertia[k] > steady[k] else "friction", bracket[1])
+        for k in range(allow.size)
+    ]  # fmt: skip
+    n = md.size
+    out_notes = list(notes)
+    for part, what in ((slice(None, n), "surge"), (slice(n, None), "swab")):
+        out_notes += _allowance_notes(what, allow[part], stuck[part], bracket[0])
+        nm = _non_monotone_note(what, moved[part], lim[part], later[part])
+        out_notes += [nm] if nm else []
+    return total[:n], total[n:], terms[:n], terms[n:], out_notes
+
+
 def limits_at_points(well, fluid, md, names, *, window, weak_points, mf, mp, end, notes,
                       method, clinging, pf, eccentricity, bracket, hydrostatic, t_acc,
                       gel) -> TripLimits:  # fmt: skip
@@ -514,15 +600,7 @@ def limits_at_points(well, fluid, md, names, *, window, weak_points, mf, mp, end
     lim, stuck, moved, later, amb = _speed_limit(
         p, allow, np.concatenate([w, w]), end, clinging, pf, bracket, np.concatenate([c, c])
     )
-    # stopping a stand reverses the inertia: running in it swabs, pulling out it surges
-    opp = np.concatenate([allow_swab, allow_surge])
-    cc = np.concatenate([c, c])
-    with np.errstate(divide="ignore", invalid="ignore"):
-        stop = np.where(cc > 0, np.maximum(opp, 0.0) / cc, np.inf)
-    stop = _safe_side(np.minimum(stop, bracket[1]), bracket[0], bracket[1], 50)
-    stop = np.where(cc > 0, stop, np.inf)
-    gel_bad = np.concatenate([g, g]) > allow
-    total = np.where(gel_bad, 0.0, np.minimum(lim, stop))
+    total, stop, gel_bad = _with_stop_and_gel(lim, allow_surge, allow_swab, c, g, bracket)
     for part, what in ((slice(None, md.size), "surge"), (slice(md.size, None), "swab")):
         notes += _allowance_notes(what, allow[part], stuck[part], bracket[0])
         nm = _non_monotone_note(what, moved[part], lim[part], later[part])

@@ -37,6 +37,7 @@ from calc.surge.limits import (
     exposed_hole,
     limit_options,
     limits_at_points,
+    limits_with_bit_at,
 )
 from calc.surge.solver import PEAK_FACTOR
 from calc.values import Value
@@ -222,11 +223,9 @@ def trip_schedule(
     )  # fmt: skip
     stp = float(check_positive("check-depth step", step, "m"))
     md_all, names_all = check_points(well, tuple(weak_points), stp)
-    # the bit at each band edge, and at each weak point inside the hole: a check depth's
-    # surge is largest with the bit just below it (the whole assembly above it) or, below the
-    # bit, with the bit deepest, so a weak point inside a band is solved as well
-    extra = [float(wp.md) for wp in weak_points if 0 < wp.md < td]
-    depths = np.unique(np.concatenate([edges[1:], extra]))
+    # the bit at each band edge (every check depth outside the band is worst with the bit at
+    # the nearer edge) ...
+    depths = edges[1:]
     solves = []
     for b in depths:
         wb = well if b == depths[-1] else well_at_bit_depth(well, b)
@@ -245,35 +244,56 @@ def trip_schedule(
                 **opts,
             )
         )
+    # ... and each check depth inside a band with the bit at it (the whole bottom-hole assembly
+    # just above it, the string as long as it gets for that depth): one solve for all of them
+    inside = [(z, n) for z, n in zip(md_all, names_all, strict=True)
+              if not np.any(np.isclose(z, edges))]  # fmt: skip
+    z_in = np.array([z for z, _ in inside])
+    in_notes = []
+    if z_in.size:
+        wells = [well_at_bit_depth(well, z) for z in z_in]
+        nm_in = tuple(n or "bit" for _, n in inside)
+        r_in, p_in, rt_in, pt_in, in_notes = limits_with_bit_at(
+            wells, fluid, nm_in, window=window, weak_points=weak_points, method=method,
+            eccentricity=eccentricity, hydrostatic=hydrostatic, **opts,
+        )  # fmt: skip
+        tvd_in = np.asarray(well.tvd_at(z_in), dtype=float)
     bands = []
     for k in range(edges.size - 1):
         lo, hi = edges[k], edges[k + 1]
-        ends = [x for x, b in zip(solves, depths, strict=True) if lo <= b <= hi]
-        run = min(ends, key=lambda s: s.max_running_speed)
-        pull = min(ends, key=lambda s: s.max_pulling_speed)
+        cands = []  # (limit, point, term, bit md) for running and pulling
+        for x in solves[max(k - 1, 0) : k + 1]:
+            r_c = (x.max_running_speed, x.running_point, x.running.term, x.bit_md)
+            p_c = (x.max_pulling_speed, x.pulling_point, x.pulling.term, x.bit_md)
+            cands.append((r_c, p_c))
+        for j in np.flatnonzero((z_in > lo) & (z_in < hi)) if z_in.size else ():
+            pt = TripPoint(index=-1, name=nm_in[j], md=float(z_in[j]), tvd=float(tvd_in[j]))
+            cands.append(((float(r_in[j]), pt, rt_in[j], float(z_in[j])),
+                          (float(p_in[j]), pt, pt_in[j], float(z_in[j]))))  # fmt: skip
+        run = min((c[0] for c in cands), key=lambda c: c[0])
+        pull = min((c[1] for c in cands), key=lambda c: c[0])
         bands.append(
             TripBand(
-                top_md=float(edges[k]),
-                bottom_md=float(edges[k + 1]),
-                running_limit=run.max_running_speed,
-                pulling_limit=pull.max_pulling_speed,
-                running_point=run.running_point,
-                pulling_point=pull.pulling_point,
-                running_term=run.running.term,
-                pulling_term=pull.pulling.term,
-                running_bit_md=run.bit_md,
-                pulling_bit_md=pull.bit_md,
+                top_md=float(lo),
+                bottom_md=float(hi),
+                running_limit=run[0],
+                pulling_limit=pull[0],
+                running_point=run[1],
+                pulling_point=pull[1],
+                running_term=run[2],
+                pulling_term=pull[2],
+                running_bit_md=run[3],
+                pulling_bit_md=pull[3],
             )
         )
     # the notes of the bit at the bottom, then those of other bit depths whose code is new
     # (a count differs from depth to depth; the first occurrence stands for the code)
     notes = list(solves[-1].notes)
     codes = {n.code for n in notes}
-    for x in solves[:-1]:
-        for n in x.notes:
-            if n.code not in codes:
-                notes.append(n)
-                codes.add(n.code)
+    for n in [m for x in solves[:-1] for m in x.notes] + list(in_notes):
+        if n.code not in codes:
+            notes.append(n)
+            codes.add(n.code)
     return TripSchedule(
         bands=tuple(bands),
         top_md=edges[:-1].copy(),
