@@ -217,6 +217,7 @@ def trip_schedule(
                              values=(Value("td", td, "depth"),))  # fmt: skip
         edges = np.concatenate([[0.0], given, [td]])
     edges = np.unique(np.round(edges, 9))
+    edges[-1] = td  # the bottom exactly (not rounded)
     opts = limit_options(
         well, fracture_margin, pore_margin, string_end, peak_factor, speed_bracket, clinging,
         acceleration_time, stand_gel,
