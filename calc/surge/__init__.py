@@ -14,14 +14,22 @@ by a bracketed root search so that the annulus and the bore (friction at the vel
 to the pipe wall, plus the bit nozzles) give the same pressure change at the bit.
 
 Clinging constants (fits to Burkhardt's chart; Guo & Liu 2011, eqs. 2.81-2.82):
-laminar K_c = 0.275(D1/D2) + 0.25, turbulent K_c = 0.1(D1/D2) + 0.41.  For Newtonian laminar
-flow in a concentric annulus the exact value is :func:`clinging_constant_exact_newtonian`.
+laminar K_c = 0.275(D1/D2) + 0.25, turbulent K_c = 0.1(D1/D2) + 0.41, blended across the
+friction method's transitional zone (:func:`clinging_constant_blended`, calc/METHODS.md §11.2).
+For Newtonian laminar flow in a concentric annulus the exact value is
+:func:`clinging_constant_exact_newtonian`.
+
+A stand's peak pressure change adds the inertia of the mud column while the pipe speeds up and
+the gel broken when it starts: max(gel, steady + inertia) (calc/METHODS.md §11.9); the trip
+schedule gives the limits per depth band of the bit (§11.10).
 
 Modules: :mod:`~calc.surge.clinging` (K_c), :mod:`~calc.surge.solver` (the solver shared by
 every entry point, closed and open strings), :mod:`~calc.surge.pressure` (whole-well and flat
-surge/swab), :mod:`~calc.surge.limits` (trip-speed limits), :mod:`~calc.surge.emw` (trip
-allowance and EMW), :mod:`~calc.surge.gel` (breaking circulation).  Every public name is
-importable from :mod:`calc.surge`.
+surge/swab), :mod:`~calc.surge.inertia` (inertial surge/swab, the peak of a stand),
+:mod:`~calc.surge.limits` (trip-speed limits), :mod:`~calc.surge.schedule` (limits per depth
+band of the bit), :mod:`~calc.surge.emw` (trip allowance and EMW), :mod:`~calc.surge.gel`
+(breaking circulation, the gel at pipe start).  Every public name is importable from
+:mod:`calc.surge`.
 
 References
 ----------

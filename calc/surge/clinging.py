@@ -1,8 +1,10 @@
 """Burkhardt clinging constants: the chart fits and the exact Newtonian laminar value.
 
 Fits to Burkhardt's chart (Guo & Liu 2011, eqs. 2.81-2.82): laminar K_c = 0.275(D1/D2) + 0.25,
-turbulent K_c = 0.1(D1/D2) + 0.41.  For Newtonian laminar flow in a concentric annulus the exact
-value is :func:`clinging_constant_exact_newtonian`.
+turbulent K_c = 0.1(D1/D2) + 0.41; the solver blends them across the friction method's
+transitional zone (:func:`clinging_constant_blended`, our continuous formulation).  For
+Newtonian laminar flow in a concentric annulus the exact value is
+:func:`clinging_constant_exact_newtonian`.
 
 References
 ----------
