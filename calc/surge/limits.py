@@ -514,20 +514,11 @@ def limits_with_bit_at(wells, fluid, names, *, window, weak_points, mf, mp, end,
 
     A closed string's annulus carries no coupling between intervals and an interval's friction
     gradient depends on its diameters only, so the wells are solved in one vectorised pass over
-    the distinct (hole ID, pipe OD) pairs, each well weighing them by its own lengths; an open
-    string is solved well by well.  Returns
+    the distinct (hole ID, pipe OD) pairs, each well weighing them by its own lengths (closed
+    strings only).  Returns
     (running [m/s], pulling [m/s], running terms, pulling terms, notes)."""
     if end != "closed":
-        out = [limits_at_points(w, fluid, np.array([float(w.bit_depth)]), (nm,), window=window,
-                                weak_points=weak_points, mf=mf, mp=mp, end=end, notes=(),
-                                method=method, clinging=clinging, pf=pf,
-                                eccentricity=eccentricity, bracket=bracket,
-                                hydrostatic=hydrostatic, t_acc=t_acc, gel=gel)
-               for w, nm in zip(wells, names, strict=True)]  # fmt: skip
-        return (np.array([x.max_running_speed for x in out]),
-                np.array([x.max_pulling_speed for x in out]),
-                [x.running.term for x in out], [x.pulling.term for x in out],
-                [n for x in out for n in x.notes])  # fmt: skip
+        raise InputError("string end", end, "closed (an open string's split couples its intervals)")
     parts = [paths_from_well(w, fluid, method, eccentricity) for w in wells]
     p0 = parts[0]
     # the friction gradient of an annular interval depends on its diameters, not its length:

@@ -96,6 +96,17 @@ class TripSchedule:
     notes: tuple[Note, ...] = ()
 
 
+def _open_inside_note() -> Note:
+    return Note(
+        "info",
+        "schedule_open_string_inside_closed",
+        "trip schedule of an open string: the check depths inside a band, each with the bit at "
+        "it, are solved as a closed string (more surge and swab than the open string's, so "
+        "those limits are on the safe side).",
+        "trip speed",
+    )
+
+
 def well_at_bit_depth(well, bit_md: float):
     """The well with the bit pulled up to MD ``bit_md`` [m] (0 < bit_md ≤ the well's bit depth).
 
@@ -254,10 +265,15 @@ def trip_schedule(
     if z_in.size:
         wells = [well_at_bit_depth(well, z) for z in z_in]
         nm_in = tuple(n or "bit" for _, n in inside)
+        # an open string's split couples its intervals: these depths take the closed string's
+        # surge, inertia and gel instead (each larger than the open string's: lower limits)
+        in_opts = {**opts, "end": "closed"}
         r_in, p_in, rt_in, pt_in, in_notes = limits_with_bit_at(
             wells, fluid, nm_in, window=window, weak_points=weak_points, method=method,
-            eccentricity=eccentricity, hydrostatic=hydrostatic, **opts,
+            eccentricity=eccentricity, hydrostatic=hydrostatic, **in_opts,
         )  # fmt: skip
+        if opts["end"] != "closed":
+            in_notes = [*in_notes, _open_inside_note()]
         tvd_in = np.asarray(well.tvd_at(z_in), dtype=float)
     bands = []
     for k in range(edges.size - 1):
