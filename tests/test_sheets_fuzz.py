@@ -181,6 +181,7 @@ VALID = {
     "peak_factor": None,
     "limit_emw": 12.4,
     "gel_strength": 12.0,
+    "accel_time": 2.0,
 }
 
 

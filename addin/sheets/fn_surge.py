@@ -403,7 +403,7 @@ def BF_SURGE_PEAK(
     d_pipe: Cells(_D_PIPE),
     length: Cells(_LENGTH),
     speed: Num("Average stand speed (ft/min), one value"),
-    gel: Num(_STAND_GEL) = None,
+    gel_strength: Num(_STAND_GEL) = None,
     accel_time: Num(_ACCEL) = None,
     direction: Text(_DIRECTION) = None,
     d_bore: Cells(_D_BORE) = None,
@@ -424,7 +424,7 @@ def BF_SURGE_PEAK(
                     nozzles, method, clinging, peak_factor, uset, one_speed=True)  # fmt: skip
     dp_i, _ = _inertia(density, d_hole, d_pipe, length, speed, accel_time, direction, d_bore,
                        peak_factor, uset)  # fmt: skip
-    tg = cells.optional_number(gel, "gel strength", 0.0, "stress", uset)
+    tg = cells.optional_number(gel_strength, "gel strength", 0.0, "stress", uset)
     cells.positive(tg, "gel strength", "stress", uset, allow_zero=True)
     d2, d1, ln, bore, _ = _geometry(d_hole, d_pipe, length, d_bore, uset)
     ann, cap = cs.pipe_start_gel_pressure(
