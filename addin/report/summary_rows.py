@@ -227,7 +227,7 @@ def _other_rows(refs) -> list[dict]:
                     name=name,
                     kind="trip_speed",
                     value=tr[key],
-                    bound=f"bit at the bottom; {where}" + (f"; {term}" if term else ""),
+                    bound=f"governing: {where}, bit at the bottom" + (f"; {term}" if term else ""),
                 )
             )
     return rows
