@@ -206,6 +206,10 @@ TRIP_SCHEMA = {
     "stand_length": Field("length"),
     "string_end": Field("text"),
     "speeds": Field("list", required=True, of="trip_speed"),
+    "acceleration_time_s": Field("number"),
+    "stand_gel": Field("text"),
+    "circulation_gel": Field("text"),
+    "schedule_band": Field("length"),
 }
 
 #: Top-level sections: name → (is an array of tables, schema or None if not parsed here yet).

@@ -249,6 +249,10 @@ LABELS: dict[str, dict[str, str]] = {
         "stand_length": "stand length",
         "string_end": "string end (closed or open)",
         "speeds": "average stand speeds to evaluate",
+        "acceleration_time_s": "seconds to reach the peak speed (blank = 2 s)",
+        "stand_gel": "gel broken at each stand start (10s, 10min or 30min)",
+        "circulation_gel": "gel broken when circulation starts (10min, 10s or 30min)",
+        "schedule_band": "depth band of the trip schedule (blank = 1000 ft)",
     },
     "slurry": {
         "name": "name",

@@ -237,6 +237,38 @@ def test_tightest_point_quoted_in_the_prose(tour):
     assert m.group(3) == fresh, f"README.md line {line}: margin now {fresh} ppg"
 
 
+def test_ecd_band_quoted_in_the_prose(tour):
+    """The ECD-band paragraph: the default resolutions (±0.5°, ±0.1 / ±0.05 ppg, ±3 %), the
+    spread methods, and the demo's band at the bit and on the SPP are what
+    calc.circulation.ecd_band gives now."""
+    from calc.circulation import band as B  # lazy: only this test needs the band module
+
+    ns = tour.namespace
+    flat = " ".join(README.split())
+    line = _line_of("How much of that is the inputs?")
+    assert f"±{B.DIAL_RESOLUTION:g}° on each dial reading" in flat, f"README.md line {line}"
+    assert f"±{from_si(B.BALANCE_RESOLUTION, 'ppg'):g} ppg on a standard" in flat, line
+    assert f"(±{from_si(B.BALANCE_RESOLUTION_PRESSURISED, 'ppg'):g} ppg pressurised)" in flat
+    assert f"±{B.RATE_UNCERTAINTY * 100:g} % on the rate" in flat, f"README.md line {line}"
+    assert ", ".join(f"`{m}`" for m in B.SPREAD_METHODS[:-1]) in flat.replace(", and", ",")
+    case = ns["case"]
+    band = B.ecd_band(ns["well"], case.checks[-1].readings, ns["rho"], ns["q"],
+                      window=case.window, weak_points=case.weak_points, margins=ns["margins"])  # fmt: skip
+    bit, spp = band.ecd_bit, band.spp
+    lo, hi = bit.method_min[1], bit.method_max[1]
+    fresh = (
+        f"ECD at the bit is {from_si(bit.nominal, 'ppg'):.2f} ± "
+        f"{from_si(bit.half_width, 'ppg'):.2f} ppg"
+    )
+    assert fresh in flat, f"README.md line {line}: now '{fresh}'"
+    spread = f"methods give {from_si(lo, 'ppg'):.2f}–{from_si(hi, 'ppg'):.2f} ppg"
+    assert spread in flat, f"README.md line {line}: now '{spread}'"
+    fresh = f"SPP is {from_si(spp.nominal, 'psi'):,.0f} ± {from_si(spp.half_width, 'psi'):,.0f} psi"
+    assert fresh in flat, f"README.md line {line}: now '{fresh}'"
+    assert bit.dominant == "density" and "(mud balance dominates)" in flat
+    assert spp.dominant == "flow_rate" and "(flow rate dominates)" in flat
+
+
 def test_exit_codes_quoted_in_the_prose():
     """'Exit codes: 0 ok, 1 internal error, 2 bad input …, 141 output pipe closed' are
     addin.commands.exit_codes."""
@@ -285,6 +317,7 @@ NOT_RESULTS = {
     "700": "end of the example rate range np.linspace(300, 700, 10_000), an input",
     "10": "10_000, the example's number of rates, an input",
     "6": "rotor speed ('3- and 6-rpm readings' in the cautions), an input",
+    "18": "'calc/METHODS.md §18', a section number of the in-repo methods reference",
 }
 
 
@@ -294,6 +327,7 @@ def test_every_prose_number_is_accounted_for():
     checked = {  # the numbers the tests above recompute
         "0.81", "11,880", "11.2", "522", "2,860", "2", "2100", "55", "90", "0.5", "3.11",
         "0", "1", "4", "5", "141",
+        "0.1", "0.05", "11.82", "0.10", "11.81", "11.96", "2,952", "150",  # the ECD band
     }  # fmt: skip
     prose = re.sub(r"```.*?```", lambda m: "\n" * m.group(0).count("\n"), README, flags=re.S)
     unknown = []

@@ -185,6 +185,7 @@ VALID = {
     "dial_resolution": None,
     "balance_resolution": None,
     "rate_uncertainty": None,
+    "accel_time": 2.0,
 }
 
 

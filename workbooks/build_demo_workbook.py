@@ -27,6 +27,7 @@ import tomllib
 from dataclasses import dataclass, field
 from pathlib import Path
 
+import numpy as np
 from openpyxl import Workbook
 from openpyxl.styles import Alignment, Font, PatternFill
 from openpyxl.worksheet.formula import ArrayFormula
@@ -131,8 +132,10 @@ def _surge_band(case, lay, put, head, r, ref, readings, u, first_ann, last, surv
     sand = next(w for w in case["weak_point"] if "Sand B" in w["name"])
     shoe_wp = next(w for w in case["weak_point"] if "shoe" in w["name"])
     win = case["pressure_window"]
-    tvd_shoe = lay.tvd["shoe"]
-    pore_oh = max(p for t, p in zip(win["tvd"], win["pore"], strict=True) if t >= tvd_shoe)
+    # swab at the bit: the pore pressure at the bit's own TVD (linear in TVD between the
+    # window's stations, as calc.circulation.PressureWindow.pore_at), never one from the
+    # undrilled formation below the bit
+    pore_bit = float(np.interp(lay.tvd["bit"], win["tvd"], win["pore"]))
     tvd_sand = float(survey.tvd_at(sand["md"] * ft)) / ft
     sv = lay.surge
     rho = ref["density"]
@@ -189,8 +192,8 @@ def _surge_band(case, lay, put, head, r, ref, readings, u, first_ann, last, surv
         ("sand_tvd", f"{sand['name']} TVD (from the survey)", round(tvd_sand, 2), "ft"),
         ("surge_lim_shoe", f"Surge limit EMW at the {shoe_wp['name']} (FIT − margin)",
          round(shoe_wp["fracture"] - lim["trip_fracture_margin"], 3), "ppg"),
-        ("swab_lim", "Swab limit EMW (highest open-hole pore + margin)",
-         round(pore_oh + lim["trip_pore_margin"], 3), "ppg"),
+        ("swab_lim", "Swab limit EMW at the bit (pore at the bit TVD + margin)",
+         round(pore_bit + lim["trip_pore_margin"], 3), "ppg"),
     ]  # fmt: skip
     for name, label, value, unit in inputs:
         put(f"A{r}", label)

@@ -14,8 +14,9 @@ Usage (``write_report`` takes the computed results, not the case)::
 
 Modules: :mod:`~addin.report.compute` (runs calc, typed results), one module per sheet
 (``sheet_rheology``, ``sheet_hydraulics``, ``sheet_ecd``, ``sheet_bit``, ``sheet_cleaning``,
-``sheet_window``; Summary, Inputs, Cautions and Audit in ``sheets``), ``summary_rows``,
-``audit`` (conversion factors, live checks), ``charts``, ``style``, ``jsonout`` (``--json``).
+``sheet_trips``, ``sheet_window``; Summary, Inputs, Cautions and Audit in ``sheets``),
+``summary_rows``, ``audit`` (conversion factors, live checks), ``charts``, ``style``, ``jsonout``
+(``--json``).
 """
 
 from __future__ import annotations
@@ -27,10 +28,11 @@ import openpyxl
 from addin.report.audit import Factors
 from addin.report.compute import Results, compute
 from addin.report.sheet_bit import write_bit
-from addin.report.sheet_cleaning import write_cleaning, write_trips
+from addin.report.sheet_cleaning import write_cleaning
 from addin.report.sheet_ecd import write_ecd
 from addin.report.sheet_hydraulics import write_hydraulics
 from addin.report.sheet_rheology import write_rheology
+from addin.report.sheet_trips import write_trips
 from addin.report.sheet_window import write_window
 from addin.report.sheets import write_audit, write_cautions, write_inputs, write_summary
 from addin.report.summary_rows import summary_rows

@@ -57,7 +57,18 @@ from calc.rheology import (
     compare_checks,
     fit_all,
 )
-from calc.surge import SurgeResult, TripLimits, surge_pressure, trip_speed_limits
+from calc.surge import (
+    DEFAULT_ACCELERATION_TIME,
+    GEL_CHOICES,
+    BreakCirculationResult,
+    SurgeResult,
+    TripLimits,
+    TripSchedule,
+    break_circulation_pressure,
+    surge_pressure,
+    trip_schedule,
+)
+from calc.values import Value
 from calc.verification import caveat_notes
 
 __all__ = [
@@ -172,13 +183,23 @@ class LoadedECD:
 
 @dataclass(frozen=True)
 class TripRun:
-    """Trip-speed limits and surge/swab at the planned speeds [m/s] (running and pulling)."""
+    """Trip-speed limits (bit at the bottom), the schedule per depth band, surge/swab at the
+    planned speeds [m/s] (running and pulling) and breaking circulation after the trip.
+
+    stand_gel, circulation_gel   (which gel of the latest check, its value [Pa] or None)
+    acceleration_time            time to reach the peak speed [s]
+    """
 
     limits: TripLimits
     running: SurgeResult
     pulling: SurgeResult
     speeds: np.ndarray
     notes: tuple[Note, ...]
+    schedule: TripSchedule | None = None
+    break_circulation: BreakCirculationResult | None = None
+    stand_gel: tuple[str, float | None] = ("10s", None)
+    circulation_gel: tuple[str, float | None] = ("10min", None)
+    acceleration_time: float = DEFAULT_ACCELERATION_TIME
 
 
 @dataclass(frozen=True)
@@ -492,14 +513,38 @@ def _operating_window(case, well, fluid, method, cleaning) -> OperatingWindow | 
     )
 
 
+#: Depth band of the trip schedule when [trip] schedule_band is not given [m] (1000 ft).
+SCHEDULE_BAND = 304.8
+#: Gels a trip may name ([trip] stand_gel, circulation_gel): keys of a check's ``gels``.
+GEL_KEYS = ("10s", "10min", "30min")
+
+
+def _gel_choice(trip, key, default, gels):
+    """(gel key, value [Pa] or None) for a [trip] choice; an unknown key is an InputError."""
+    name = trip.get(key, default)
+    if name not in GEL_KEYS:
+        raise InputError(f"trip.{key}", name, ", ".join(GEL_KEYS))
+    return name, gels.get(name)
+
+
 def _trips(case, well, fluid, method) -> TripRun | None:
-    """Trip-speed limits and surge/swab at the planned speeds (needs [trip] and a window)."""
+    """Trip-speed limits, the schedule per depth band and surge/swab at the planned speeds
+    (needs [trip] and a window); gels from the latest check (calc.surge.GEL_CHOICES)."""
     trip = case.trip
     if trip is None or case.window is None:
         return None
     lim = case.limits
     end = trip.get("string_end", "auto")
-    limits = trip_speed_limits(
+    t_acc = trip.get("acceleration_time_s", DEFAULT_ACCELERATION_TIME)
+    if not isinstance(t_acc, int | float) or isinstance(t_acc, bool) or not t_acc > 0:
+        raise InputError("trip.acceleration_time_s", t_acc, "a time > 0 s")
+    gels = case.checks[-1].values.get("gels", {})
+    stand = _gel_choice(trip, "stand_gel", GEL_CHOICES["stand"], gels)
+    circ = _gel_choice(trip, "circulation_gel", GEL_CHOICES["break_circulation"], gels)
+    for name, value in (stand, circ):
+        if value is not None and value < 0:
+            raise InputError(f"check.gels.{name}", value, "a gel strength >= 0")
+    schedule = trip_schedule(
         well,
         fluid,
         window=case.window,
@@ -508,12 +553,41 @@ def _trips(case, well, fluid, method) -> TripRun | None:
         pore_margin=lim["trip_pore_margin"],
         string_end=end,
         method=method,
+        band_length=trip.get("schedule_band", SCHEDULE_BAND),
+        acceleration_time=float(t_acc),
+        stand_gel=stand[1],
     )
+    limits = schedule.at_bit[-1]  # the bit at the bottom: calc.surge.trip_speed_limits
     speeds = np.asarray(trip["speeds"], dtype=float)
     run = surge_pressure(well, fluid, speeds, direction="running", string_end=end, method=method)
     pull = surge_pressure(well, fluid, speeds, direction="pulling", string_end=end, method=method)
-    notes = tuple(limits.notes) + tuple(run.notes) + tuple(pull.notes)
-    return TripRun(limits=limits, running=run, pulling=pull, speeds=speeds, notes=notes)
+    bc = None
+    if circ[1] is not None:
+        bc = break_circulation_pressure(well, circ[1], density=fluid.density)
+    notes = tuple(schedule.notes) + tuple(run.notes) + tuple(pull.notes)
+    if stand[1] is None or circ[1] is None:
+        notes += (
+            Note(
+                "info",
+                "trip_gel_not_measured",
+                "the latest check has no {gel} gel: the gel-breaking terms of the trip are left "
+                "out.",
+                "trip",
+                values=(Value("gel", stand[0] if stand[1] is None else circ[0]),),
+            ),
+        )
+    return TripRun(
+        limits=limits,
+        running=run,
+        pulling=pull,
+        speeds=speeds,
+        notes=notes,
+        schedule=schedule,
+        break_circulation=bc,
+        stand_gel=stand,
+        circulation_gel=circ,
+        acceleration_time=float(t_acc),
+    )
 
 
 def _dedupe(notes) -> tuple[Note, ...]:

@@ -8,6 +8,7 @@ from addin import text
 from addin.report.compute import scalar
 from addin.report.sheet_beds import beds_data
 from addin.report.sheet_cleaning import short_name
+from addin.report.sheet_trips import point_label
 from addin.report.sheet_window import allowed_ecd, binding_words
 from addin.report.trace import used_methods
 from addin.rheology_data import rheology_data
@@ -234,17 +235,83 @@ def _loaded_data(ld, s) -> dict:
     }
 
 
+def _components_data(comp, s) -> dict | None:
+    """calc.surge.TripComponents: the parts of the peak pressure change at a limit."""
+    if comp is None:
+        return None
+    return {
+        "speed": _c(comp.speed, "trip_speed", s),
+        "peak_speed": _c(comp.peak_speed, "trip_speed", s),
+        "steady": _c(comp.steady, "pressure", s),
+        "inertia": _c(comp.inertia, "pressure", s),
+        "gel": _c(comp.gel, "pressure", s),
+        "peak": _c(comp.peak, "pressure", s),
+        "stopping": _c(comp.stopping, "pressure", s),
+        "allowance": _c(comp.allowance, "pressure", s),
+        "opposite_allowance": _c(comp.opposite_allowance, "pressure", s),
+        "governed_by": comp.term,
+    }
+
+
+def _point_data(pt, s) -> dict:
+    return {
+        "name": point_label(pt.name),
+        "md": _c(pt.md, "depth", s),
+        "tvd": _c(pt.tvd, "depth", s),
+    }
+
+
 def _trips_data(trip, s) -> dict:
     lim = trip.limits
-    return {
+    out = {
         "method": lim.method,
         "string_end": lim.string_end,
         "max_running_speed": _c(lim.max_running_speed, "trip_speed", s),
         "max_pulling_speed": _c(lim.max_pulling_speed, "trip_speed", s),
+        "running_point": _point_data(lim.running_point, s),
+        "pulling_point": _point_data(lim.pulling_point, s),
+        "running_components": _components_data(lim.running, s),
+        "pulling_components": _components_data(lim.pulling, s),
+        "acceleration_time_s": trip.acceleration_time,
+        "stand_gel": {"gel": trip.stand_gel[0], "value": _c(trip.stand_gel[1], "stress", s)},
+        "circulation_gel": {
+            "gel": trip.circulation_gel[0],
+            "value": _c(trip.circulation_gel[1], "stress", s),
+        },
         "speeds": _c(trip.speeds, "trip_speed", s),
         "surge_at_bit": _c(trip.running.pressure_bit, "pressure", s),
         "swab_at_bit": _c(trip.pulling.pressure_bit, "pressure", s),
     }
+    sch = trip.schedule
+    if sch is not None:
+        out["schedule"] = {
+            "method": sch.method,
+            "bands": [
+                {
+                    "top_md": _c(b.top_md, "depth", s),
+                    "bottom_md": _c(b.bottom_md, "depth", s),
+                    "max_running_speed": _c(b.running_limit, "trip_speed", s),
+                    "max_pulling_speed": _c(b.pulling_limit, "trip_speed", s),
+                    "running_point": _point_data(b.running_point, s),
+                    "pulling_point": _point_data(b.pulling_point, s),
+                    "running_governed_by": b.running_term,
+                    "pulling_governed_by": b.pulling_term,
+                    "running_bit_md": _c(b.running_bit_md, "depth", s),
+                    "pulling_bit_md": _c(b.pulling_bit_md, "depth", s),
+                }
+                for b in sch.bands
+            ],
+        }
+    bc = trip.break_circulation
+    if bc is not None:
+        out["break_circulation"] = {
+            "gel": _c(bc.gel_strength, "stress", s),
+            "string": _c(bc.string_pressure, "pressure", s),
+            "annulus": _c(bc.annulus_pressure, "pressure", s),
+            "total": _c(bc.pressure, "pressure", s),
+            "bottom_emw": _c(bc.bottom_emw, "density", s),
+        }
+    return out
 
 
 def _calibration_data(cal, s) -> dict:

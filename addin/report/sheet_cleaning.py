@@ -1,8 +1,6 @@
-"""Hole-cleaning and trip (surge/swab) sheets."""
+"""The hole-cleaning sheet (the trip sheet is :mod:`addin.report.sheet_trips`)."""
 
 from __future__ import annotations
-
-import numpy as np
 
 from addin import text
 from addin.report.audit import Factors, write_checked
@@ -20,9 +18,8 @@ from addin.text import display_number as _o
 from addin.text import unit_label as U
 from addin.xlsx_cells import put, set_widths
 from calc.span import Span
-from calc.surge import trip_emw
 
-__all__ = ["point_label", "short_name", "write_cleaning", "write_trips"]
+__all__ = ["short_name", "write_cleaning"]
 
 
 def short_name(where: Span | str | None) -> str:
@@ -34,12 +31,6 @@ def short_name(where: Span | str | None) -> str:
     if isinstance(where, Span):
         return text.span(where, depths=False)
     return str(where).split(", MD")[0]
-
-
-def point_label(name: str) -> str:
-    """A trip check point in words: its name ("bit", "<casing> shoe", a weak point), or the
-    exposed hole for a plain depth (no name; the MD and TVD columns say where)."""
-    return name or "open hole (below the shoe)"
 
 
 def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
@@ -145,99 +136,6 @@ def _interval_rows(ws, row, rows, system) -> int:
         put_number(ws, row, 12, r["cci"], "0.00")
         put_number(ws, row, 13, _o(r["minimum_rate"], "flow_rate", system), "#,##0")
         put(ws, row, 14, r["verdict"])
-        row += 1
-    return row
-
-
-def write_trips(wb, results, factors: Factors, title: str):
-    system = results.case.unit_system
-    part = results.surge
-    ws = wb.create_sheet("Trips")
-    set_widths(ws, [34, 16, 16, 14, 14, 14])
-    row = heading(ws, 1, "Trips: surge and swab", span=6, title=True)
-    if part is None:
-        put(
-            ws,
-            row + 1,
-            1,
-            "Not evaluated: needs a [trip] section and a pressure window.",
-            "bf_text",
-        )
-        return {}
-    lim = part.limits
-    merged_text(
-        ws,
-        row,
-        f"Method: {lim.method}; string end {lim.string_end}; peak speed = "
-        f"{lim.peak_factor:g} × average stand speed.",
-        span=6,
-        height=24,
-    )
-    row = _limit_rows(ws, row + 2, lim, system)
-    row = _planned_rows(ws, row + 1, part, results.circulation, system)
-    put(
-        ws,
-        row,
-        1,
-        "EMW at the bit = mud density ± pressure change / (g·TVD); swab is a pressure drop "
-        "(negative).",
-        "bf_note",
-    )
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=6)
-    setup_print(ws, title)
-    return {
-        "running": lim.max_running_speed,
-        "pulling": lim.max_pulling_speed,
-        "running_point": lim.running_point,
-        "pulling_point": lim.pulling_point,
-    }
-
-
-def _limit_rows(ws, row, lim, system) -> int:
-    """The speed limits and their governing points; returns the next row."""
-    tu, du = U("trip_speed", system), U("depth", system)
-    row = heading(ws, row, "Speed limits (margins from [limits])", span=6)
-    row = table_header(
-        ws,
-        row,
-        1,
-        ["trip direction", "max. average speed", "governing point", "MD", "TVD"],
-        ["", tu, "", du, du],
-    )
-    for name, v, pt in (
-        ("running in (surge)", lim.max_running_speed, lim.running_point),
-        ("pulling out (swab)", lim.max_pulling_speed, lim.pulling_point),
-    ):
-        put(ws, row, 1, name)
-        put_number(ws, row, 2, _o(v, "trip_speed", system), "#,##0")
-        put(ws, row, 3, point_label(pt.name))
-        put_number(ws, row, 4, _o(pt.md, "depth", system), number_format("depth", system))
-        put_number(ws, row, 5, _o(pt.tvd, "depth", system), number_format("depth", system))
-        row += 1
-    return row
-
-
-def _planned_rows(ws, row, part, res, system) -> int:
-    """Surge and swab at the bit and the trip EMW for the planned speeds; returns the next row."""
-    tu, pu = U("trip_speed", system), U("pressure", system)
-    run, pull = part.running, part.pulling
-    row = heading(ws, row, "Pressure change at the bit for the planned speeds", span=6)
-    row = table_header(
-        ws,
-        row,
-        1,
-        ["average stand speed", "surge (running)", "swab (pulling)", "surge EMW", "swab EMW"],
-        [tu, pu, pu, U("density", system), U("density", system)],
-    )
-    for i, sp in enumerate(part.speeds):
-        s_up = float(np.asarray(run.pressure_bit).reshape(-1)[i])
-        s_dn = float(np.asarray(pull.pressure_bit).reshape(-1)[i])
-        put_number(ws, row, 1, _o(sp, "trip_speed", system), "#,##0")
-        put_number(ws, row, 2, _o(s_up, "pressure", system), number_format("pressure", system))
-        put_number(ws, row, 3, _o(s_dn, "pressure", system), number_format("pressure", system))
-        for col, dp in ((4, s_up), (5, s_dn)):
-            emw = trip_emw(res.density, dp, res.bit_tvd)
-            put_number(ws, row, col, _o(emw, "density", system), number_format("density", system))
         row += 1
     return row
 

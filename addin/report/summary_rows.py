@@ -6,6 +6,7 @@ import numpy as np
 
 from addin import text
 from addin.report.compute import scalar
+from addin.report.sheet_trips import TERM_WORDS, point_label
 from calc.circulation import (
     BAND_INPUTS,
     ecd_deviation,
@@ -264,10 +265,18 @@ def _other_rows(refs) -> list[dict]:
             )
     tr = refs.get("trips") or {}
     if tr:
-        rows.append(
-            dict(name="max. running speed (surge limit)", kind="trip_speed", value=tr["running"])
-        )
-        rows.append(
-            dict(name="max. pulling speed (swab limit)", kind="trip_speed", value=tr["pulling"])
-        )
+        for key, name in (
+            ("running", "max. running speed (surge limit)"),
+            ("pulling", "max. pulling speed (swab limit)"),
+        ):
+            term = TERM_WORDS.get(tr.get(f"{key}_term", ""), "")
+            where = point_label(tr[f"{key}_point"].name)
+            rows.append(
+                dict(
+                    name=name,
+                    kind="trip_speed",
+                    value=tr[key],
+                    bound=f"governing: {where}, bit at the bottom" + (f"; {term}" if term else ""),
+                )
+            )
     return rows

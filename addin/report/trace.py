@@ -546,10 +546,23 @@ def _setup(results) -> list[tuple[str, str, str]]:
                 f"well, fluid, window=case.window, weak_points=case.weak_points, "
                 f"fracture_margin={_num(lim['trip_fracture_margin'])}, "
                 f"pore_margin={_num(lim['trip_pore_margin'])}, string_end={end!r}, "
-                f"method={m.name!r}",
+                f"method={m.name!r}{_trip_extras(results.surge)}",
             )
         )
     return rows
+
+
+def _trip_extras(trip) -> str:
+    """The inertia and stand-gel inputs of the trip-speed limits (acceleration time [s], the
+    stand gel [Pa]) as keyword text, where the report used them."""
+    out = ""
+    t_acc = getattr(trip, "acceleration_time", None)
+    if t_acc is not None:
+        out += f", acceleration_time={_num(t_acc)}"
+    gel = getattr(trip, "stand_gel", None)
+    if gel is not None and gel[1] is not None:
+        out += f", stand_gel={_num(gel[1])}"
+    return out
 
 
 def _si_unit(kind) -> str:

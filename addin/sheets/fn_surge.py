@@ -25,8 +25,17 @@ from calc import surge as cs
 from calc.circulation.hydrostatics import HYDROSTATIC_OPTIONS
 from calc.errors import InputError
 from calc.flow import regime_label
+from calc.surge.solver import check_peak
 
-__all__ = ["BF_BREAK_CIRC", "BF_SURGE", "BF_SURGE_EMW", "BF_SURGE_TABLE", "BF_TRIP_SPEED"]
+__all__ = [
+    "BF_BREAK_CIRC",
+    "BF_SURGE",
+    "BF_SURGE_EMW",
+    "BF_SURGE_INERTIA",
+    "BF_SURGE_PEAK",
+    "BF_SURGE_TABLE",
+    "BF_TRIP_SPEED",
+]
 
 FAMILY = "surge"
 
@@ -43,6 +52,11 @@ _METHOD = "Hydraulics method (blank = 'api13d_2010_hb'); picks the fit and the f
 _CLINGING = "Clinging constant K_c 0 to < 1 (blank = Burkhardt fits by regime)"
 _PEAK = f"Peak/average pipe speed ratio ≥ 1 (blank = {cs.PEAK_FACTOR:g}; 1 if the speed is peak)"
 _HYDRO = "'exact' (blank; g = 9.80665 m/s²) or '0.052' (hand-calc constant)"
+_ACCEL = (
+    f"Seconds for the pipe to reach its peak speed from rest (blank = "
+    f"{cs.DEFAULT_ACCELERATION_TIME:g} s, an assumption)"
+)
+_STAND_GEL = "Gel broken when the pipe starts, usually the 10-second gel (lbf/100ft²; blank = 0)"
 
 _DIRECTIONS = {"running": "running", "pulling": "pulling", "surge": "running", "swab": "pulling"}
 
@@ -330,3 +344,94 @@ def BF_BREAK_CIRC(
             f"{uset.label('diameter')})",
         )
     return uset.from_si(cs.gel_break_pressure(tg, do, ln, di), "pressure")
+
+
+def _accel_time(value) -> float:
+    t = cells.optional_number(value, "acceleration time", cs.DEFAULT_ACCELERATION_TIME)
+    if not t > 0:
+        raise InputError("acceleration time", t, "> 0 s (to reach the peak speed from rest)")
+    return t
+
+
+def _inertia(density, d_hole, d_pipe, length, speed, accel_time, direction, d_bore,
+             peak_factor, uset):  # fmt: skip
+    """Signed inertial pressure per interval [Pa] and the geometry's 2-D shape (None: one)."""
+    rho = cells.positive_number(density, "density", "density", uset)
+    d2, d1, ln, bore, shape = _geometry(d_hole, d_pipe, length, d_bore, uset)
+    v = cells.positive_number(speed, "trip speed", "trip_speed", uset, allow_zero=True)
+    pf = check_peak(cells.optional_number(peak_factor, "peak factor", cs.PEAK_FACTOR))
+    a = cs.trip_acceleration(v * pf, _accel_time(accel_time))
+    dp = cs.inertial_pressure(
+        rho, a, d2, d1, ln, d_bore=bore, string_end="closed" if bore is None else "open"
+    )
+    sign = 1.0 if _direction(direction) == "running" else -1.0
+    return sign * np.atleast_1d(dp), shape
+
+
+@sheet_function(FAMILY)
+def BF_SURGE_INERTIA(
+    density: Num(_DENSITY),
+    d_hole: Cells(_D_HOLE),
+    d_pipe: Cells(_D_PIPE),
+    length: Cells(_LENGTH),
+    speed: Num("Average stand speed (ft/min), one value"),
+    accel_time: Num(_ACCEL) = None,
+    direction: Text(_DIRECTION) = None,
+    d_bore: Cells(_D_BORE) = None,
+    peak_factor: Num(_PEAK) = None,
+    units: Cells(_UNITS) = None,
+) -> Any:
+    """Inertial surge (+) or swab (−) while the pipe speeds up to its peak speed in the
+    acceleration time, ρ·r·a·L per annular interval (psi); SUM them for a depth.  r = D1²/(D2² −
+    D1²) for a closed string, the open split otherwise (calc/METHODS.md §11.9).
+
+    >>> round(BF_SURGE_INERTIA(11.0, 8.6, 5.0, 10000.0, 60.0, 2.0), 1)  # ρ·r·a·L, a = 0.75 ft/s²
+    68.0
+    """
+    uset = cells.unit_set(units)
+    dp, shape = _inertia(density, d_hole, d_pipe, length, speed, accel_time, direction, d_bore,
+                         peak_factor, uset)  # fmt: skip
+    out = uset.from_si(dp, "pressure")
+    return float(out[0]) if shape is None else np.reshape(out, shape)
+
+
+@sheet_function(FAMILY)
+def BF_SURGE_PEAK(
+    density: Num(_DENSITY),
+    readings: Cells(_READINGS),
+    d_hole: Cells("Hole or casing ID (in) of each annular interval from surface to the depth"),
+    d_pipe: Cells(_D_PIPE),
+    length: Cells(_LENGTH),
+    speed: Num("Average stand speed (ft/min), one value"),
+    gel_strength: Num(_STAND_GEL) = None,
+    accel_time: Num(_ACCEL) = None,
+    direction: Text(_DIRECTION) = None,
+    d_bore: Cells(_D_BORE) = None,
+    nozzles: Cells(_NOZZLES) = None,
+    method: Text(_METHOD) = None,
+    clinging: Num(_CLINGING) = None,
+    peak_factor: Num(_PEAK) = None,
+    units: Cells(_UNITS) = None,
+) -> Any:
+    """Peak surge (+) or swab (−) at the depth of the intervals' bottom while a stand starts:
+    max(gel breaking, steady surge at the peak speed + inertia) (psi).
+
+    The gel holds the mud until it breaks, before the mud flows; friction and inertia then act
+    together while the pipe speeds up (calc/METHODS.md §11.9).
+    """
+    uset = cells.unit_set(units)
+    res, _ = _surge(density, readings, d_hole, d_pipe, length, speed, direction, d_bore,
+                    nozzles, method, clinging, peak_factor, uset, one_speed=True)  # fmt: skip
+    dp_i, _ = _inertia(density, d_hole, d_pipe, length, speed, accel_time, direction, d_bore,
+                       peak_factor, uset)  # fmt: skip
+    tg = cells.optional_number(gel_strength, "gel strength", 0.0, "stress", uset)
+    cells.positive(tg, "gel strength", "stress", uset, allow_zero=True)
+    d2, d1, ln, bore, _ = _geometry(d_hole, d_pipe, length, d_bore, uset)
+    ann, cap = cs.pipe_start_gel_pressure(
+        tg, d2, d1, ln, d_bore=bore, string_end="closed" if bore is None else "open"
+    )
+    gel_dp = min(float(np.sum(ann)), cap)
+    peak = cs.peak_trip_pressure(abs(float(res.total_pressure_change)),
+                                 abs(float(np.sum(dp_i))), gel_dp)  # fmt: skip
+    sign = 1.0 if res.direction == "running" else -1.0
+    return uset.from_si(sign * float(peak), "pressure")

@@ -1,8 +1,10 @@
 """Burkhardt clinging constants: the chart fits and the exact Newtonian laminar value.
 
 Fits to Burkhardt's chart (Guo & Liu 2011, eqs. 2.81-2.82): laminar K_c = 0.275(D1/D2) + 0.25,
-turbulent K_c = 0.1(D1/D2) + 0.41.  For Newtonian laminar flow in a concentric annulus the exact
-value is :func:`clinging_constant_exact_newtonian`.
+turbulent K_c = 0.1(D1/D2) + 0.41; the solver blends them across the friction method's
+transitional zone (:func:`clinging_constant_blended`, our continuous formulation).  For
+Newtonian laminar flow in a concentric annulus the exact value is
+:func:`clinging_constant_exact_newtonian`.
 
 References
 ----------
@@ -18,7 +20,13 @@ import numpy as np
 from calc.errors import InputError, check_choice, check_nonnegative
 from calc.numeric import scalar_or_array
 
-__all__ = ["check_clinging", "clinging_constant", "clinging_constant_exact_newtonian"]
+__all__ = [
+    "check_clinging",
+    "clinging_constant",
+    "clinging_constant_blended",
+    "clinging_constant_exact_newtonian",
+    "transition_weight",
+]
 
 
 def clinging_constant(d_pipe, d_hole, regime="laminar"):
@@ -48,6 +56,53 @@ def clinging_constant(d_pipe, d_hole, regime="laminar"):
     else:
         turb = np.asarray(regime, dtype=bool)
     return scalar_or_array(np.where(turb, 0.1 * k + 0.41, 0.275 * k + 0.25))
+
+
+def transition_weight(reynolds, laminar_limit, turbulent_limit):
+    """Position of a flow in its friction method's transitional zone, 0 (laminar) to 1 [-].
+
+    .. math:: w = \\min\\left(1, \\max\\left(0,
+              \\frac{Re - Re_{lam}}{Re_{turb} - Re_{lam}}\\right)\\right)
+
+    A method without a transitional zone (Re_turb ≤ Re_lam) gives a step at Re_lam.
+
+    >>> float(transition_weight(2500.0, 2000.0, 3000.0))
+    0.5
+    """
+    re_ = np.asarray(reynolds, dtype=float)
+    lo = np.asarray(laminar_limit, dtype=float)
+    hi = np.asarray(turbulent_limit, dtype=float)
+    width = hi - lo
+    ramp = np.clip((re_ - lo) / np.where(width > 0, width, 1.0), 0.0, 1.0)
+    return scalar_or_array(np.where(width > 0, ramp, (re_ >= lo).astype(float)))
+
+
+def clinging_constant_blended(d_pipe, d_hole, weight):
+    """Burkhardt clinging constant blended across the transitional zone [-].
+
+    .. math:: K_c = K_{c,lam} + w\\,(K_{c,turb} - K_{c,lam}),\\qquad 0 \\le w \\le 1
+
+    ``w`` is :func:`transition_weight` of the annulus flow evaluated with the laminar K_c (a
+    quantity that rises with the pipe speed), so K_c changes continuously from the laminar fit
+    to the turbulent fit across the friction method's own transitional zone instead of
+    switching at one speed.  A continuous formulation of our own (not a published blend):
+    at w = 0 and w = 1 it equals the fits of :func:`clinging_constant`
+    (calc/METHODS.md §11.2).
+
+    Parameters
+    ----------
+    d_pipe, d_hole : array_like
+        Pipe OD D1 and hole ID D2 [m].
+    weight : array_like
+        Transition weight w in [0, 1] [-].
+
+    >>> round(clinging_constant_blended(0.5, 1.0, 0.5), 5)  # halfway between 0.3875 and 0.46
+    0.42375
+    """
+    w = np.clip(np.asarray(weight, dtype=float), 0.0, 1.0)
+    lam = np.asarray(clinging_constant(d_pipe, d_hole, "laminar"))
+    turb = np.asarray(clinging_constant(d_pipe, d_hole, "turbulent"))
+    return scalar_or_array(lam + w * (turb - lam))
 
 
 def clinging_constant_exact_newtonian(d_pipe, d_hole):

@@ -21,7 +21,30 @@ from calc.numeric import scalar_or_array
 from calc.surge.emw import trip_emw
 from calc.values import Value
 
-__all__ = ["BreakCirculationResult", "break_circulation_pressure", "gel_break_pressure"]
+__all__ = [
+    "GEL_CHOICES",
+    "BreakCirculationResult",
+    "break_circulation_pressure",
+    "check_gel",
+    "gel_break_pressure",
+    "pipe_start_gel_pressure",
+]
+
+#: Which gel of the mud check applies when (common practice, calc/METHODS.md §11.8):
+#: the pipe starting at each stand has stood still only for the connection (tens of seconds
+#: to a couple of minutes), so the 10-second gel; circulation broken after the trip or a
+#: static period (a survey, a flow check, the whole trip), so the 10-minute gel.
+GEL_CHOICES = {"stand": "10s", "break_circulation": "10min"}
+
+
+def check_gel(name: str, gel_strength) -> float | None:
+    """A gel strength [Pa] ≥ 0 (one value), or None (not given: no gel term)."""
+    if gel_strength is None:
+        return None
+    g = np.asarray(gel_strength, dtype=float)
+    if g.ndim or not np.isfinite(g) or g < 0:
+        raise InputError(name, float(g) if not g.ndim else "an array", "one stress >= 0 Pa")
+    return float(g)
 
 
 def gel_break_pressure(gel_strength, d_outer, length, d_inner=0.0):
@@ -64,6 +87,51 @@ def gel_break_pressure(gel_strength, d_outer, length, d_inner=0.0):
             values=(Value("outer", float(do[i]), "diameter"),),
         )
     return scalar_or_array(4.0 * tg * ln / (do - di))
+
+
+def pipe_start_gel_pressure(gel_strength, d_hole, d_pipe, length, *, d_bore=None,
+                            bore_length=None, string_end="closed"):  # fmt: skip
+    """Pressure to break the gel when the pipe starts moving: per annular interval and the cap
+    at the bit [Pa].
+
+    .. math:: \\Delta p_i = \\frac{4\\tau_g L_i}{D_{2,i} - D_{1,i}},\\qquad
+              p_{bit} \\le \\sum_j \\frac{4\\tau_g L_j}{D_{b,j}}\\ \\text{(open string)}
+
+    A closed string pushes the gelled annulus column ahead of it: the pressure at a depth is the
+    sum of the annular intervals above it (:func:`gel_break_pressure`).  An open string lets the
+    mud yield in the bore instead, so the pressure at the bit (and at every depth) is at most the
+    bore's gel-break pressure: the cap (``inf`` for a closed string).
+
+    Parameters
+    ----------
+    gel_strength : float
+        Gel strength τ_g [Pa], ≥ 0 (the 10-second gel for a stand, :data:`GEL_CHOICES`).
+    d_hole, d_pipe, length : array_like
+        Annular intervals from surface to the bit [m].
+    d_bore, bore_length : array_like, optional
+        Bore diameter and length of the string intervals [m] (open string).
+    string_end : {"closed", "open"}
+
+    Returns
+    -------
+    (ndarray, float)
+        Gel-break pressure per annular interval [Pa] and the cap at the bit [Pa].
+
+    References
+    ----------
+    Bourgoyne et al. (1986) Applied Drilling Engineering, ch. 4 (from memory) — also common
+    practice (calc/METHODS.md §11.8).
+
+    >>> dp, cap = pipe_start_gel_pressure(5.0, 0.2, 0.1, 1000.0)
+    >>> round(float(dp[0])), cap  # 4·5·1000/(0.2 − 0.1)
+    (200000, inf)
+    """
+    ann = np.atleast_1d(gel_break_pressure(gel_strength, d_hole, length, d_pipe)).astype(float)
+    if string_end == "closed" or d_bore is None:
+        return ann, float("inf")
+    lb = length if bore_length is None else bore_length
+    bore = np.atleast_1d(gel_break_pressure(gel_strength, d_bore, lb))
+    return ann, float(np.sum(bore))
 
 
 @dataclass(frozen=True)

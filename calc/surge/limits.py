@@ -38,6 +38,8 @@ from calc.numeric import (
 )
 from calc.surge.clinging import check_clinging
 from calc.surge.emw import trip_allowance
+from calc.surge.gel import check_gel, pipe_start_gel_pressure
+from calc.surge.inertia import check_acceleration_time, inertial_pressure, peak_trip_pressure
 from calc.surge.solver import (
     DIRECTION_SIGN,
     PEAK_FACTOR,
@@ -54,8 +56,14 @@ from calc.values import Value
 
 __all__ = [
     "IntervalTripLimit",
+    "TripComponents",
     "TripLimits",
     "TripPoint",
+    "check_points",
+    "exposed_hole",
+    "limit_options",
+    "limits_at_points",
+    "limits_with_bit_at",
     "trip_speed_limit",
     "trip_speed_limits",
 ]
@@ -132,7 +140,7 @@ def _regimes(p: SurgePaths, st, end):
     return np.concatenate([np.asarray(st.regime), np.asarray(bore.regime)], axis=-1)
 
 
-def _speed_limit(p: SurgePaths, allow, weights, end, clinging, pf, speed_bracket):
+def _speed_limit(p: SurgePaths, allow, weights, end, clinging, pf, speed_bracket, inertia=None):
     """Average speed at which Σ gradient·length·weights first reaches ``allow`` [m/s]
     (vectorised bisection in ln V over every entry of ``allow`` at once, checked for an
     earlier crossing by :func:`_first_crossing`).
@@ -141,13 +149,17 @@ def _speed_limit(p: SurgePaths, allow, weights, end, clinging, pf, speed_bracket
     slowest speed of the bracket exceeds the allowance (``stuck``: a yield stress gives a finite
     pressure change at any motion in the steady model); ``moved`` where the curve is not
     monotone and the first crossing lies below the bisected one (``bisected``: the crossing
-    that bisection over the whole bracket found)."""
+    that bisection over the whole bracket found).  ``inertia``: a pressure change linear in
+    the average speed added to the friction, c·V [Pa] with c per entry of ``allow``
+    [Pa·s/m] (the inertial term, :mod:`calc.surge.inertia`; None: none)."""
     allow = np.asarray(allow, dtype=float)
     w = np.asarray(weights, dtype=float)
+    c = np.zeros(allow.shape) if inertia is None else np.broadcast_to(inertia, allow.shape)
+    c_flat = np.asarray(c, dtype=float).reshape(-1)
 
     def excess(v_avg):
         grad = solve(p, v_avg * pf, end, clinging, iterations=30).gradient
-        return np.sum(grad * p.length * weights, axis=-1) - allow
+        return np.sum(grad * p.length * weights, axis=-1) + c * v_avg - allow
 
     lo = np.full(allow.shape, float(speed_bracket[0]))
     hi = np.full(allow.shape, float(speed_bracket[1]))
@@ -160,12 +172,12 @@ def _speed_limit(p: SurgePaths, allow, weights, end, clinging, pf, speed_bracket
         st = solve(p, v * pf, end, clinging, iterations=30)
         dp = st.gradient * p.length
         per = dp @ wf.T if wf.ndim else np.sum(dp, axis=-1)[:, None] * np.ones(flat.size)
-        return per, _regimes(p, st, end)
+        return per + v[:, None] * c_flat[None, :], _regimes(p, st, end)
 
     def excess_at(v, idx):
         grad = solve(p, v * pf, end, clinging, iterations=30).gradient
         wi = wf[idx] if wf.ndim else wf
-        return np.sum(grad * p.length * wi, axis=-1) - flat[idx]
+        return np.sum(grad * p.length * wi, axis=-1) + c_flat[idx] * v - flat[idx]
 
     checked, moved, amb, below = _first_crossing(
         evaluate, excess_at, flat, lim.reshape(-1), speed_bracket
@@ -308,6 +320,34 @@ class TripPoint:
     tvd: float
 
 
+@dataclass(frozen=True)
+class TripComponents:
+    """The parts of the peak surge (or swab) at a governing check depth at the limit speed (SI).
+
+    speed        average stand speed [m/s] (the limit); ``peak_speed`` × peak factor [m/s]
+    steady       Burkhardt steady friction at the peak speed [Pa] (magnitude)
+    inertia      ρ·Σ r_i·a_p·L_i with a_p = peak speed / acceleration time [Pa] (0 without)
+    gel          pressure to break the stand gel when the pipe starts [Pa] (0 without)
+    peak         max(gel, steady + inertia) [Pa]: the gel acts at start-up, before the mud
+                 flows; friction and inertia act together while the pipe speeds up
+    stopping     inertia of the stop at the end of the stand, the opposite sign [Pa]
+    allowance    allowed pressure change there [Pa]; ``opposite_allowance`` for the stop
+    term         what governs: "friction", "inertia", "stopping", "gel", "static" or
+                 "not limiting"
+    """
+
+    speed: float
+    peak_speed: float
+    steady: float
+    inertia: float
+    gel: float
+    peak: float
+    stopping: float
+    allowance: float
+    opposite_allowance: float
+    term: str
+
+
 @dataclass(frozen=True, eq=False)
 class TripLimits:
     """Maximum trip speeds keeping surge EMW below fracture − margin and swab EMW above
@@ -315,14 +355,19 @@ class TripLimits:
 
     max_running_speed, max_pulling_speed   [m/s] (the tightest depth governs)
     running_point, pulling_point          the governing check depth (:class:`TripPoint`)
-    md, tvd                               check depths [m] (last shoe to bit, weak points)
+    md, tvd                               check depths [m] (last shoe to bit, weak points;
+                                          in a schedule also the exposed hole below the bit)
     names                                 their names ("" for plain depths, see TripPoint)
     running_limit, pulling_limit          per-depth speed limits [m/s]
     surge_allowance, swab_allowance       allowed pressure change per depth [Pa]
+    running, pulling                      :class:`TripComponents` at the governing points
     peak_factor                           peak over average stand speed [-]
+    acceleration_time                     time to reach the peak speed [s] (None: no inertia)
+    stand_gel                             gel strength broken at each stand start [Pa] (None)
     string_end                            "closed" or "open"
     method                                surge model, friction method, search
     fracture_margin, pore_margin          trip margins [kg/m³]
+    bit_md                                bit depth of this solve [m]
     """
 
     max_running_speed: float
@@ -341,21 +386,26 @@ class TripLimits:
     method: str
     fracture_margin: float
     pore_margin: float
+    running: TripComponents | None = None
+    pulling: TripComponents | None = None
+    acceleration_time: float | None = None
+    stand_gel: float | None = None
+    bit_md: float = 0.0
     notes: tuple[Note, ...] = ()
 
 
-def _exposed_hole(well) -> tuple[float, str]:
+def exposed_hole(well) -> tuple[float, str]:
     """Top of the exposed hole [m] (the deepest casing or liner shoe above the bit, 0 without
     one) and that shoe's name ("<section> shoe", "" without one)."""
     last = well.last_shoe
     return (0.0, "") if last is None else (float(last.bottom), f"{last.name} shoe")
 
 
-def _check_points(well, weak_points, step):
+def check_points(well, weak_points, step):
     """Check depths: every ``step`` from the last shoe (the top of the exposed hole) to the bit,
     plus the weak points; named "<casing> shoe", "bit" and by weak point ("" elsewhere)."""
     bit = float(well.bit_depth)
-    top, shoe = _exposed_hole(well)
+    top, shoe = exposed_hole(well)
     md = np.unique(np.append(np.arange(top, bit, step), bit))
     md = md[md > 0]
     names = [""] * md.size
@@ -371,6 +421,235 @@ def _check_points(well, weak_points, step):
 
 def _point(i: int, names, md, tvd) -> TripPoint:
     return TripPoint(index=i, name=names[i], md=float(md[i]), tvd=float(tvd[i]))
+
+
+def _inertia_coefficients(p: SurgePaths, end, weights, pf, t_acc):
+    """Inertial pressure per unit average speed at each check depth, c = ρ·Σ w·r·L·pf/t_a
+    [Pa·s/m] (zeros without an acceleration time): :mod:`calc.surge.inertia`."""
+    if t_acc is None:
+        return np.zeros(weights.shape[0])
+    per_interval = np.atleast_1d(inertial_pressure(p.rho, pf / t_acc, p.d2, p.d1, p.length,
+                                                   d_bore=p.bore_d, bore_length=p.bore_length,
+                                                   string_end=end))  # fmt: skip
+    return weights @ per_interval
+
+
+def _gel_at_points(p: SurgePaths, end, weights, gel):
+    """Stand gel-break pressure at each check depth [Pa] (zeros without a gel strength)."""
+    if gel is None:
+        return np.zeros(weights.shape[0])
+    ann, cap = pipe_start_gel_pressure(gel, p.d2, p.d1, p.length, d_bore=p.bore_d,
+                                       bore_length=p.bore_length, string_end=end)  # fmt: skip
+    return np.minimum(weights @ ann, cap)
+
+
+def _gel_note(what: str, count: int) -> Note:
+    return Note(
+        "caution",
+        f"{what}_gel_exceeds_allowance",
+        f"at {{count}} check depth(s) breaking the stand gel alone exceeds the {what} "
+        f"allowance: no trip speed keeps the start of a stand inside the margin (break the gel "
+        f"first, e.g. by rotating or circulating, or lower the gels).",
+        "trip speed",
+        values=(Value("count", float(count)),),
+    )
+
+
+def _stop_note(what: str, count: int) -> Note:
+    return Note(
+        "info",
+        f"{what}_limited_by_stopping",
+        f"at {{count}} check depth(s) the {what} speed is limited by stopping the stand (the "
+        f"inertia of the deceleration, of the opposite sign), not by its own "
+        f"{'surge' if what == 'running' else 'swab'}.",
+        "trip speed",
+        values=(Value("count", float(count)),),
+    )
+
+
+def _components(p, end, clinging, pf, w_row, c, gel, v, allow, opp, term) -> TripComponents:
+    """The parts of the peak pressure change at one check depth at speed ``v`` [m/s]."""
+    grad = solve(p, np.asarray(v * pf), end, clinging).gradient
+    steady = float(np.sum(grad * p.length * w_row))
+    inertia = float(c * v)
+    return TripComponents(
+        speed=float(v), peak_speed=float(v * pf), steady=steady, inertia=inertia, gel=float(gel),
+        peak=float(peak_trip_pressure(steady, inertia, gel)), stopping=inertia,
+        allowance=float(allow), opposite_allowance=float(opp), term=term,
+    )  # fmt: skip
+
+
+def _term(i, lim, friction_lim, stop_lim, gel_bad, allow, steady_vs_inertia, top) -> str:
+    if allow[i] <= 0:
+        return "static"
+    if gel_bad[i]:
+        return "gel"
+    if lim[i] >= 0.999 * top:
+        return "not limiting"
+    if stop_lim[i] < friction_lim[i]:
+        return "stopping"
+    return steady_vs_inertia
+
+
+def _with_stop_and_gel(lim, allow_surge, allow_swab, c, g, bracket):
+    """Limits (running entries first, pulling second) with the stop of the stand and the gel.
+
+    Stopping a stand reverses the inertia: running in it swabs, pulling out it surges, so the
+    speed is also held to (other allowance)/c; where the gel-break pressure exceeds the
+    allowance no speed is safe (0).  Returns (limits, stop limits, gel exceeds)."""
+    allow = np.concatenate([allow_surge, allow_swab])
+    opp = np.concatenate([allow_swab, allow_surge])
+    cc = np.concatenate([c, c])
+    with np.errstate(divide="ignore", invalid="ignore"):
+        stop = np.where(cc > 0, np.maximum(opp, 0.0) / cc, np.inf)
+    stop = _safe_side(np.minimum(stop, bracket[1]), bracket[0], bracket[1], 50)
+    stop = np.where(cc > 0, stop, np.inf)
+    gel_bad = np.concatenate([g, g]) > allow
+    return np.where(gel_bad, 0.0, np.minimum(lim, stop)), stop, gel_bad
+
+
+def limits_with_bit_at(wells, fluid, names, *, window, weak_points, mf, mp, end, notes, method,
+                       clinging, pf, eccentricity, bracket, hydrostatic, t_acc, gel):  # fmt: skip
+    """Running and pulling limits at the bit of each well (each with its bit at its own depth).
+
+    A closed string's annulus carries no coupling between intervals and an interval's friction
+    gradient depends on its diameters only, so the wells are solved in one vectorised pass over
+    the distinct (hole ID, pipe OD) pairs, each well weighing them by its own lengths (closed
+    strings only).  Returns
+    (running [m/s], pulling [m/s], running terms, pulling terms, notes)."""
+    if end != "closed":
+        raise InputError("string end", end, "closed (an open string's split couples its intervals)")
+    parts = [paths_from_well(w, fluid, method, eccentricity) for w in wells]
+    p0 = parts[0]
+    # the friction gradient of an annular interval depends on its diameters, not its length:
+    # one column per distinct (hole ID, pipe OD), weighted by each well's length of it
+    d2 = np.concatenate([q.d2 for q in parts])
+    d1 = np.concatenate([q.d1 for q in parts])
+    ln = np.concatenate([q.length for q in parts])
+    row = np.repeat(np.arange(len(parts)), [q.d2.size for q in parts])
+    pairs, col = np.unique(np.round(np.stack([d2, d1], axis=1), 12), axis=0, return_inverse=True)
+    w = np.zeros((len(parts), pairs.shape[0]))
+    np.add.at(w, (row, col.reshape(-1)), ln)
+    union = SurgePaths(
+        d2=pairs[:, 0].copy(), d1=pairs[:, 1].copy(), length=np.ones(pairs.shape[0]),
+        rho=p0.rho, ann_params=p0.ann_params, pipe_params=p0.pipe_params, method=p0.method,
+        ecc=eccentricity,
+    )  # fmt: skip
+    md = np.array([float(x.bit_depth) for x in wells])
+    tvd = np.array([float(x.bit_tvd) for x in wells])
+    pore, frac = limits_at(md, tvd, names, window, tuple(weak_points))
+    allow_surge = np.atleast_1d(trip_allowance(frac - mf, p0.rho, tvd, "running",
+                                               hydrostatic=hydrostatic))  # fmt: skip
+    allow_swab = np.atleast_1d(trip_allowance(pore + mp, p0.rho, tvd, "pulling",
+                                              hydrostatic=hydrostatic))  # fmt: skip
+    c = _inertia_coefficients(union, "closed", w, pf, t_acc)
+    g = _gel_at_points(union, "closed", w, gel)
+    allow = np.concatenate([allow_surge, allow_swab])
+    lim, stuck, moved, later, _amb = _speed_limit(
+        union, allow, np.concatenate([w, w]), "closed", clinging, pf, bracket,
+        np.concatenate([c, c]),
+    )  # fmt: skip
+    total, stop, gel_bad = _with_stop_and_gel(lim, allow_surge, allow_swab, c, g, bracket)
+    grad = solve(union, total * pf, "closed", clinging).gradient
+    steady = np.sum(grad * union.length * np.concatenate([w, w]), axis=-1)
+    inertia = np.concatenate([c, c]) * total
+    terms = [
+        _term(k, total, lim, stop, gel_bad, allow,
+              "inertia" if inertia[k] > steady[k] else "friction", bracket[1])
+        for k in range(allow.size)
+    ]  # fmt: skip
+    n = md.size
+    out_notes = list(notes)
+    for part, what in ((slice(None, n), "surge"), (slice(n, None), "swab")):
+        out_notes += _allowance_notes(what, allow[part], stuck[part], bracket[0])
+        nm = _non_monotone_note(what, moved[part], lim[part], later[part])
+        out_notes += [nm] if nm else []
+    return total[:n], total[n:], terms[:n], terms[n:], out_notes
+
+
+def limits_at_points(well, fluid, md, names, *, window, weak_points, mf, mp, end, notes,
+                      method, clinging, pf, eccentricity, bracket, hydrostatic, t_acc,
+                      gel) -> TripLimits:  # fmt: skip
+    """Trip-speed limits with the bit at ``well.bit_depth`` at the check depths ``md`` (those
+    below the bit feel the bit's pressure change)."""
+    notes = list(notes)
+    p = paths_from_well(well, fluid, method, eccentricity)
+    a = well.flow_intervals().annulus
+    tvd = np.asarray(well.tvd_at(md), dtype=float)
+    pore, frac = limits_at(md, tvd, names, window, tuple(weak_points))
+    allow_surge = trip_allowance(frac - mf, p.rho, tvd, "running", hydrostatic=hydrostatic)
+    allow_swab = trip_allowance(pore + mp, p.rho, tvd, "pulling", hydrostatic=hydrostatic)
+    allow_surge, allow_swab = np.atleast_1d(allow_surge), np.atleast_1d(allow_swab)
+    top, bot = np.asarray(a.top_md), np.asarray(a.bottom_md)
+    w = depth_weights(md, top, bot)
+    c = _inertia_coefficients(p, end, w, pf, t_acc)
+    g = _gel_at_points(p, end, w, gel)
+
+    # surge and swab have the same magnitude in the steady model: bisect both sets of depths in
+    # one vectorised pass (running limits first, pulling limits second)
+    allow = np.concatenate([allow_surge, allow_swab])
+    lim, stuck, moved, later, amb = _speed_limit(
+        p, allow, np.concatenate([w, w]), end, clinging, pf, bracket, np.concatenate([c, c])
+    )
+    total, stop, gel_bad = _with_stop_and_gel(lim, allow_surge, allow_swab, c, g, bracket)
+    for part, what in ((slice(None, md.size), "surge"), (slice(md.size, None), "swab")):
+        notes += _allowance_notes(what, allow[part], stuck[part], bracket[0])
+        nm = _non_monotone_note(what, moved[part], lim[part], later[part])
+        notes += [nm] if nm else []
+        notes += _split_note(what, amb[0][part], amb[1])
+        bad = gel_bad[part] & (allow[part] > 0)
+        if np.any(bad):
+            notes.append(_gel_note(what, int(np.sum(bad))))
+        by_stop = (stop[part] < lim[part]) & ~gel_bad[part] & (allow[part] > 0)
+        if np.any(by_stop):
+            notes.append(_stop_note("running" if what == "surge" else "pulling",
+                                    int(np.sum(by_stop))))  # fmt: skip
+    n = md.size
+    run, pull = total[:n], total[n:]
+    ir, ip = int(np.argmin(run)), int(np.argmin(pull))
+    for vals, what in ((run, "running"), (pull, "pulling")):
+        if np.min(vals) >= 0.999 * bracket[1]:
+            notes.append(_not_limiting_note(what, bracket[1]))
+    comps = []
+    for i, off, vals, own, other in ((ir, 0, run, allow_surge, allow_swab),
+                                     (ip, n, pull, allow_swab, allow_surge)):  # fmt: skip
+        k = off + i
+        v = float(vals[i])
+        steady = _components(p, end, clinging, pf, w[i], c[i], g[i], v, own[i], other[i], "")
+        kind = "inertia" if steady.inertia > steady.steady else "friction"
+        term = _term(k, total, lim, stop, gel_bad, allow, kind, bracket[1])
+        comps.append(TripComponents(**{**steady.__dict__, "term": term}))
+    extra = []
+    if t_acc is not None:
+        extra.append(f"inertia with the peak speed reached in {t_acc:g} s")
+    if gel is not None:
+        extra.append("stand gel breaking at start-up")
+    return TripLimits(
+        max_running_speed=float(run[ir]),
+        max_pulling_speed=float(pull[ip]),
+        running_point=_point(ir, names, md, tvd),
+        pulling_point=_point(ip, names, md, tvd),
+        md=md,
+        tvd=tvd,
+        names=names,
+        running_limit=run,
+        pulling_limit=pull,
+        surge_allowance=allow_surge,
+        swab_allowance=allow_swab,
+        peak_factor=pf,
+        string_end=end,
+        method=f"Burkhardt (1961) steady surge/swab, friction {p.method}"
+        + "".join(f"; {x}" for x in extra)
+        + ", vectorised bisection",
+        fracture_margin=mf,
+        pore_margin=mp,
+        running=comps[0],
+        pulling=comps[1],
+        acceleration_time=t_acc,
+        stand_gel=gel,
+        bit_md=float(well.bit_depth),
+        notes=tuple(dict.fromkeys(notes)),
+    )
 
 
 def trip_speed_limits(
@@ -389,13 +668,22 @@ def trip_speed_limits(
     step: float = 30.0,
     speed_bracket: tuple[float, float] = (1e-4, 10.0),
     hydrostatic: str = "exact",
+    acceleration_time: float | None = None,
+    stand_gel: float | None = None,
 ) -> TripLimits:
     """Maximum running and pulling speeds at which surge and swab stay inside the margins.
 
-    .. math:: \\Delta p_{surge}(z) \\le (\\rho_{frac}(z) - m_f - \\rho)\\,g\\,TVD(z),\\quad
-              \\Delta p_{swab}(z) \\le (\\rho - \\rho_{pore}(z) - m_p)\\,g\\,TVD(z)
+    .. math:: \\Delta p_{peak}(z) = \\max\\left(\\Delta p_{gel}(z),\\
+              \\Delta p_{steady}(z, f_{peak}V) + \\rho\\,\\frac{f_{peak}V}{t_a}
+              \\sum_i w_i(z)\\,r_i L_i\\right) \\le \\Delta p_{allowed}(z)
 
-    Each depth's limit is the first speed at which Δp reaches the allowance: vectorised
+    with Δp_surge,allowed(z) = (ρ_frac(z) − m_f − ρ)·g·TVD(z) and Δp_swab,allowed(z) =
+    (ρ − ρ_pore(z) − m_p)·g·TVD(z), and the stop at the end of the stand (the inertia alone,
+    opposite sign) inside the other allowance.  The gel acts at start-up, before the mud flows;
+    friction and inertia act together while the pipe speeds up (at the end of a constant
+    acceleration both are largest), so the peak is the larger of the two, not their sum.
+
+    Each depth's limit is the first speed at which the peak reaches the allowance: vectorised
     bisection (all depths at once), checked on a speed scan with every regime change bracketed
     where Δp falls as a regime changes; the smallest governs and its depth is named.
 
@@ -413,6 +701,13 @@ def trip_speed_limits(
         Spacing of check depths from the last shoe to the bit [m].
     speed_bracket : (float, float)
         Search range for the average speed [m/s]; a limit at the top end means "not limiting".
+    acceleration_time : float, optional
+        Time for the pipe to reach its peak speed from rest (and to stop) [s], > 0
+        (:data:`calc.surge.inertia.DEFAULT_ACCELERATION_TIME` is the report's default);
+        None: no inertia (steady surge only).
+    stand_gel : float, optional
+        Gel strength broken when the pipe starts at each stand [Pa], ≥ 0 (the 10-second gel,
+        :data:`calc.surge.gel.GEL_CHOICES`); None: no gel term.
 
     Returns
     -------
@@ -422,61 +717,35 @@ def trip_speed_limits(
     -----
     Limits are average stand speeds (the surge uses ``peak_factor`` × speed).  Rules
     (from memory, not yet checked against a source; calc/METHODS.md §11.7) — the tightest point is
-    often the last shoe for surge, the deepest permeable zone for swab.
+    often the last shoe for surge, the deepest permeable zone for swab.  Each check depth uses
+    the pore and fracture pressure at its own TVD.
     """
-    mf = float(check_nonnegative("fracture margin", fracture_margin, "kg/m³"))
-    mp = float(check_nonnegative("pore margin", pore_margin, "kg/m³"))
+    opts = limit_options(
+        well, fracture_margin, pore_margin, string_end, peak_factor, speed_bracket, clinging,
+        acceleration_time, stand_gel,
+    )  # fmt: skip
     stp = float(check_positive("check-depth step", step, "m"))
-    pf = check_peak(peak_factor)
-    bracket = _check_bracket(speed_bracket)
-    clinging = check_clinging(clinging)
-    end, notes = string_end_for(well, string_end)
-    notes = list(notes)
-    p = paths_from_well(well, fluid, method, eccentricity)
-    a = well.flow_intervals().annulus
-    md, names = _check_points(well, tuple(weak_points), stp)
-    tvd = np.asarray(well.tvd_at(md), dtype=float)
-    pore, frac = limits_at(md, tvd, names, window, tuple(weak_points))
-    allow_surge = trip_allowance(frac - mf, p.rho, tvd, "running", hydrostatic=hydrostatic)
-    allow_swab = trip_allowance(pore + mp, p.rho, tvd, "pulling", hydrostatic=hydrostatic)
-    top, bot = np.asarray(a.top_md), np.asarray(a.bottom_md)
-    w = depth_weights(md, top, bot)
+    md, names = check_points(well, tuple(weak_points), stp)
+    return limits_at_points(
+        well, fluid, md, names, window=window, weak_points=weak_points, method=method,
+        eccentricity=eccentricity, hydrostatic=hydrostatic, **opts,
+    )  # fmt: skip
 
-    # surge and swab have the same magnitude in the steady model: bisect both sets of depths in
-    # one vectorised pass (running limits first, pulling limits second)
-    allow = np.concatenate([allow_surge, allow_swab])
-    lim, stuck, moved, later, amb = _speed_limit(
-        p, allow, np.concatenate([w, w]), end, clinging, pf, bracket
-    )
-    limits = [lim[: md.size], lim[md.size :]]
-    for part, what in ((slice(None, md.size), "surge"), (slice(md.size, None), "swab")):
-        notes += _allowance_notes(what, allow[part], stuck[part], bracket[0])
-        nm = _non_monotone_note(what, moved[part], lim[part], later[part])
-        notes += [nm] if nm else []
-        notes += _split_note(what, amb[0][part], amb[1])
-    run, pull = limits
-    ir, ip = int(np.argmin(run)), int(np.argmin(pull))
-    for lim, what in ((run, "running"), (pull, "pulling")):
-        if np.min(lim) >= 0.999 * bracket[1]:
-            notes.append(_not_limiting_note(what, bracket[1]))
-    return TripLimits(
-        max_running_speed=float(run[ir]),
-        max_pulling_speed=float(pull[ip]),
-        running_point=_point(ir, names, md, tvd),
-        pulling_point=_point(ip, names, md, tvd),
-        md=md,
-        tvd=tvd,
-        names=names,
-        running_limit=run,
-        pulling_limit=pull,
-        surge_allowance=allow_surge,
-        swab_allowance=allow_swab,
-        peak_factor=pf,
-        string_end=end,
-        method=f"Burkhardt (1961) steady surge/swab, friction {p.method}, vectorised bisection",
-        fracture_margin=mf,
-        pore_margin=mp,
-        notes=tuple(dict.fromkeys(notes)),
+
+def limit_options(well, fracture_margin, pore_margin, string_end, peak_factor, speed_bracket,
+                   clinging, acceleration_time, stand_gel) -> dict:  # fmt: skip
+    """Checked options shared by :func:`trip_speed_limits` and :func:`trip_schedule`."""
+    end, notes = string_end_for(well, string_end)
+    return dict(
+        mf=float(check_nonnegative("fracture margin", fracture_margin, "kg/m³")),
+        mp=float(check_nonnegative("pore margin", pore_margin, "kg/m³")),
+        pf=check_peak(peak_factor),
+        bracket=_check_bracket(speed_bracket),
+        clinging=check_clinging(clinging),
+        end=end,
+        notes=notes,
+        t_acc=check_acceleration_time(acceleration_time),
+        gel=check_gel("stand gel strength", stand_gel),
     )
 
 

@@ -35,7 +35,7 @@ from calc.flow import FlowResult, annulus_flow, cross_section_area, pipe_flow
 from calc.flow.solvers import itp_solve
 from calc.hydraulics_method import resolve_method
 from calc.notes import Note
-from calc.surge.clinging import check_clinging, clinging_constant
+from calc.surge.clinging import check_clinging, clinging_constant_blended, transition_weight
 from calc.values import Value
 
 __all__ = [
@@ -207,11 +207,17 @@ def annulus_state(p: SurgePaths, vp, q_rel, clinging: Clinging) -> AnnulusState:
     q_disp = vp[..., None] * p.area_o - np.asarray(q_rel)[..., None]
     drag = vp[..., None] * p.area_a
     if isinstance(clinging, str):
-        kc = np.broadcast_to(clinging_constant(p.d1, p.d2, "laminar"), q_disp.shape)
+        # the fits blended across the transitional zone of the flow at the laminar K_c
+        # (calc.surge.clinging.clinging_constant_blended): continuous in the pipe speed
+        kc = np.broadcast_to(clinging_constant_blended(p.d1, p.d2, 0.0), q_disp.shape)
         grad, regime, fr = _annulus_gradient(p, q_disp + kc * drag)
-        turb = regime == 2
-        if np.any(turb):
-            kc = np.asarray(clinging_constant(p.d1, p.d2, turb))
+        w = np.where(
+            np.asarray(q_disp + kc * drag) > 0,
+            transition_weight(fr.reynolds, fr.reynolds_laminar_limit, fr.reynolds_turbulent_limit),
+            0.0,
+        )
+        if np.any(w > 0):
+            kc = np.asarray(clinging_constant_blended(p.d1, p.d2, w))
             grad, regime, fr = _annulus_gradient(p, q_disp + kc * drag)
     else:
         kc = np.broadcast_to(np.asarray(clinging, dtype=float), q_disp.shape)
