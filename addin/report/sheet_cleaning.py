@@ -17,10 +17,12 @@ from addin.report.style import (
 from addin.text import display_number as _o
 from addin.text import unit_label as U
 from addin.xlsx_cells import put, set_widths
+from calc.cleaning import CLEANING_METHODS
+from calc.cleaning.hole import USES_ROTATION
 from calc.span import Span
 from calc.surge import trip_emw
 
-__all__ = ["point_label", "short_name", "write_cleaning", "write_trips"]
+__all__ = ["METHOD_WORDS", "point_label", "short_name", "write_cleaning", "write_trips"]
 
 
 def short_name(where: Span | str | None) -> str:
@@ -40,12 +42,21 @@ def point_label(name: str) -> str:
     return name or "open hole (below the shoe)"
 
 
+#: How the Cleaning sheet names each method of calc.cleaning.CLEANING_METHODS.
+METHOD_WORDS = {
+    "vertical_criteria": "vertical criteria",
+    "rubiandini_2000": "Rubiandini 2000",
+    "larsen_1997": "Larsen 1997",
+}
+_NCOL = 18
+
+
 def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
     system = results.case.unit_system
     part = results.cleaning
     ws = wb.create_sheet("Cleaning")
-    set_widths(ws, [46, 9, 9, 7, 10, 10, 9, 8, 9, 9, 8, 10, 11, 11])
-    row = heading(ws, 1, "Hole cleaning (annulus, bit upwards)", span=14, title=True)
+    set_widths(ws, [46, 9, 9, 7, 10, 10, 9, 8, 9, 9, 8, 8, 10, 10, 10, 16, 11, 11])
+    row = heading(ws, 1, "Hole cleaning (annulus, bit upwards)", span=_NCOL, title=True)
     if part is None:
         put(
             ws,
@@ -56,9 +67,18 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
         )
         return {}
     hc = part.result
-    merged_text(ws, row, f"Method: {hc.method}", span=14, height=24)
-    merged_text(ws, row + 1, f"Criteria: {hc.criteria_text}", span=14, height=24)
-    row += 3
+    merged_text(ws, row, f"Method: {hc.method}", span=_NCOL, height=36)
+    merged_text(ws, row + 1, f"Criteria: {hc.criteria_text}", span=_NCOL, height=24)
+    rot = ", ".join(METHOD_WORDS[m] for m in CLEANING_METHODS if USES_ROTATION[m])
+    no_rot = ", ".join(METHOD_WORDS[m] for m in CLEANING_METHODS if not USES_ROTATION[m])
+    merged_text(
+        ws,
+        row + 2,
+        f"String rotary speed {hc.rpm:g} rpm: used by {rot}; {no_rot} have no rotation term.",
+        span=_NCOL,
+        height=16,
+    )
+    row += 4
     du, vu, qu = U("depth", system), U("velocity", system), U("flow_rate", system)
     ws.print_title_rows = f"{row}:{row + 1}"
     row = table_header(
@@ -78,35 +98,63 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
             "cuttings conc.",
             "loaded density",
             "CCI",
+            "rate: vertical criteria",
+            "rate: Rubiandini 2000",
+            "rate: Larsen 1997",
+            "governs",
             "min. rate",
             "verdict",
         ],
-        ["", du, du, "°", vu, vu, "–", "1 − Vs/Va", "", "%", U("density", system), "–", qu, ""],
+        [
+            "",
+            du,
+            du,
+            "°",
+            vu,
+            vu,
+            "–",
+            "1 − Vs/Va",
+            "",
+            "%",
+            U("density", system),
+            "–",
+            qu,
+            qu,
+            qu,
+            "",
+            qu,
+            "",
+        ],
     )
     row = _interval_rows(ws, row, hc.table(), system)
     put(
         ws,
         row,
         1,
-        "Transport ratio live check: 1 − slip / annular velocity from the two "
-        "columns on its left. CCI only below the vertical limit; inclined intervals use the "
-        "critical rate of Larsen, Pilehvari & Azar (1997).",
+        "Transport ratio live check: 1 − slip / annular velocity from the two columns on its "
+        "left. Every method is applied at every inclination (no switch); the largest of its "
+        "three rates governs and is the minimum rate (calc/METHODS.md §10.13). Notes name each "
+        "method used outside its published inclination range.",
         "bf_note",
     )
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=14)
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=_NCOL)
     row += 2
     worst = (
         "poor" if "poor" in hc.verdict else "marginal" if "marginal" in hc.verdict else ("adequate")
     )
+    ctrl = hc.spans.index(hc.controlling_interval)
+    gov = METHOD_WORDS[str(hc.governing[ctrl])]
     refs = {"verdict": worst, "controlling": (short_name(hc.controlling_interval),
-                                              hc.controlling_rate)}  # fmt: skip
+                                              hc.controlling_rate),
+            "governing": gov}  # fmt: skip
     put(
         ws,
         row,
         1,
         f"Overall: {worst}. Rate needed for '{hc.require}' cleaning everywhere: "
         f"{_o(hc.controlling_rate, 'flow_rate', system):,.0f} {qu} "
-        f"(controlled by {short_name(hc.controlling_interval)}).",
+        f"(controlled by {short_name(hc.controlling_interval)}, "
+        f"{text.span(hc.controlling_interval, system).split(', ')[-1]}; {gov} governs).",
         "bf_text",
     )
     setup_print(ws, title)
@@ -140,8 +188,11 @@ def _interval_rows(ws, row, rows, system) -> int:
             number_format("density", system),
         )
         put_number(ws, row, 12, r["cci"], "0.00")
-        put_number(ws, row, 13, _o(r["minimum_rate"], "flow_rate", system), "#,##0")
-        put(ws, row, 14, r["verdict"])
+        for j, m in enumerate(CLEANING_METHODS):
+            put_number(ws, row, 13 + j, _o(r[f"{m}_rate"], "flow_rate", system), "#,##0")
+        put(ws, row, 16, METHOD_WORDS[r["governing"]])
+        put_number(ws, row, 17, _o(r["minimum_rate"], "flow_rate", system), "#,##0")
+        put(ws, row, 18, r["verdict"])
         row += 1
     return row
 

@@ -3,11 +3,18 @@
 Modules: :mod:`~calc.cleaning.slip` (slip-velocity correlations, :data:`SLIP_METHODS`),
 :mod:`~calc.cleaning.transport` (annular velocity, transport ratio, concentration, loading),
 :mod:`~calc.cleaning.indicators` (CCI, Larsen-Pilehvari-Azar, thresholds),
+:mod:`~calc.cleaning.deviated` (Rubiandini, the deviated-hole method registry),
 :mod:`~calc.cleaning.hole` (a whole well: per-interval table, minimum rates, loaded ECD).
 All SI.
 """
 
+from calc.cleaning.deviated import (
+    DEVIATED_METHODS,
+    RubiandiniResult,
+    rubiandini_critical_velocity,
+)
 from calc.cleaning.hole import (
+    CLEANING_METHODS,
     HoleCleaningResult,
     LoadedProfile,
     cuttings_ecd_increment,
@@ -43,6 +50,8 @@ from calc.cleaning.transport import (
 )
 
 __all__ = [
+    "CLEANING_METHODS",
+    "DEVIATED_METHODS",
     "SLIP_METHODS",
     "VERDICTS",
     "CCIResult",
@@ -51,6 +60,7 @@ __all__ = [
     "HoleCleaningResult",
     "LarsenResult",
     "LoadedProfile",
+    "RubiandiniResult",
     "SlipResult",
     "TransportResult",
     "annular_apparent_viscosity",
@@ -68,5 +78,6 @@ __all__ = [
     "loaded_density",
     "loaded_ecd_profile",
     "robinson_power_law",
+    "rubiandini_critical_velocity",
     "slip_velocity",
 ]
