@@ -161,6 +161,7 @@ VALID = {
     "cuttings_size": 0.25,
     "cuttings_density": "2.6 sg",
     "rop": 58.0,
+    "inclination": 30.0,
     "units": None,
     "method": None,
     "slip_method": None,

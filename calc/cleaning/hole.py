@@ -34,7 +34,9 @@ __all__ = [
     "CLEANING_METHODS",
     "USES_ROTATION",
     "HoleCleaningResult",
+    "IntervalRates",
     "LoadedProfile",
+    "annulus_cleaning_rates",
     "cuttings_ecd_increment",
     "hole_cleaning",
     "loaded_ecd_profile",
@@ -318,6 +320,89 @@ def _cleaning_notes(criteria, require, inc, q_min, levels, governing, rpm, rpm_g
     return notes
 
 
+@dataclass(frozen=True)
+class IntervalRates:
+    """Minimum cleaning rates of one or more annular intervals, per method (SI).
+
+    rates       method of :data:`CLEANING_METHODS` → rate [m³/s] (``inf`` where not reached)
+    minimum     the largest of them [m³/s]
+    governing   the method giving it
+    larsen, rubiandini   the deviated-hole results behind their rates
+    """
+
+    rates: dict[str, np.ndarray]
+    minimum: np.ndarray
+    governing: np.ndarray
+    larsen: LarsenResult
+    rubiandini: RubiandiniResult
+
+
+def annulus_cleaning_rates(
+    d_hole,
+    d_pipe,
+    inclination,
+    *,
+    density,
+    k,
+    tau_y=0.0,
+    n=1.0,
+    cuttings: Cuttings,
+    rop,
+    bit_diameter,
+    rpm=0.0,
+    method: str = "moore",
+    criteria: CleaningCriteria | None = None,
+    require: str = "adequate",
+    rate_bracket: tuple[float, float] = RATE_BRACKET,
+) -> IntervalRates:
+    """Minimum cleaning rate of annular interval(s) by every method, and which governs.
+
+    The rule of :func:`hole_cleaning` for intervals given by their diameters [m] and
+    inclination [degree] (arrays broadcast): vertical criteria, cr·Q_Rubiandini, cr·Q_Larsen;
+    the largest governs.  ``rop`` [m/s] > 0, ``bit_diameter`` [m], ``rpm`` 0-600.
+
+    Examples
+    --------
+    >>> r = annulus_cleaning_rates(0.2244, 0.127, 30.0, density=1342.0, k=0.186, tau_y=4.09,
+    ...     n=0.737, cuttings=Cuttings(0.00635, 2600.0, 0.8), rop=0.0044, bit_diameter=0.2159,
+    ...     rpm=140.0)
+    >>> str(r.governing[0]), round(float(r.minimum[0]) / 6.309e-5)   # m³/s → gpm
+    ('larsen_1997', 508)
+    """
+    criteria = CleaningCriteria() if criteria is None else criteria
+    require = check_choice("require", require, ("adequate", "marginal"))
+    r = float(check_positive("rate of penetration", rop, "m/s"))
+    rpm_v = float(check_rotary_speed(rpm))
+    d2, d1, inc = np.broadcast_arrays(
+        np.atleast_1d(check_positive("hole diameter", d_hole, "m")),
+        np.atleast_1d(np.asarray(d_pipe, dtype=float)),
+        np.atleast_1d(check_range("inclination", inclination, 0.0, 180.0, "degree")),
+    )
+    gap = 0.5 * (d2 - d1)
+    if np.any(cuttings.size >= gap):
+        raise InputError(
+            "cuttings size", float(cuttings.size), f"< the radial gap {gap.min():.4g} m"
+        )
+    inc_hole = np.where(inc > 90.0, 180.0 - inc, inc)
+    lar = larsen_critical_velocity(
+        r, d2, d1, density=density, k=k, tau_y=tau_y, n=n, cuttings_size=cuttings.size,
+        inclination=inc_hole,
+    )  # fmt: skip
+    rub = rubiandini_critical_velocity(
+        r, d2, d1, density=density, k=k, tau_y=tau_y, n=n, cuttings_size=cuttings.size,
+        cuttings_density=cuttings.density, inclination=inc_hole, rpm=rpm_v,
+    )  # fmt: skip
+    q_dev = np.maximum(np.asarray(lar.critical_rate), np.asarray(rub.critical_rate))
+    setting = _Setting(
+        d_hole=d2, d_pipe=d1, density=float(density), params=(tau_y, k, n), cuttings=cuttings,
+        rop=r, bit_diameter=float(bit_diameter), method=method, critical_rate=q_dev,
+    )  # fmt: skip
+    rates = _method_rates(setting, criteria, require, lar, rub, rate_bracket)
+    stack = np.stack([rates[m] for m in CLEANING_METHODS])
+    governing = np.asarray(CLEANING_METHODS, dtype=object)[np.argmax(stack, axis=0)]
+    return IntervalRates(rates, stack.max(axis=0), governing, lar, rub)
+
+
 def hole_cleaning(
     well,
     fluid,
@@ -405,14 +490,12 @@ def hole_cleaning(
     inc_hole = np.where(inc > 90.0, 180.0 - inc, inc)
     vertical = np.ones(inc.shape, dtype=bool)
     ty, k, n = params
-    lar = larsen_critical_velocity(
-        r, d2, d1, density=rho, k=k, tau_y=ty, n=n, cuttings_size=cuttings.size,
-        inclination=inc_hole,
+    ir = annulus_cleaning_rates(
+        d2, d1, inc, density=rho, k=k, tau_y=ty, n=n, cuttings=cuttings, rop=r,
+        bit_diameter=float(well.bit.size), rpm=rpm_v, method=method, criteria=criteria,
+        require=require, rate_bracket=rate_bracket,
     )  # fmt: skip
-    rub = rubiandini_critical_velocity(
-        r, d2, d1, density=rho, k=k, tau_y=ty, n=n, cuttings_size=cuttings.size,
-        cuttings_density=cuttings.density, inclination=inc_hole, rpm=rpm_v,
-    )  # fmt: skip
+    lar, rub = ir.larsen, ir.rubiandini
     q_dev = np.maximum(np.asarray(lar.critical_rate), np.asarray(rub.critical_rate))
     setting = _Setting(
         d_hole=d2, d_pipe=d1, density=rho, params=params, cuttings=cuttings, rop=r,
@@ -425,10 +508,7 @@ def hole_cleaning(
         np.asarray(cci.cci), ratio,
     )  # fmt: skip
     verdict = np.asarray(VERDICTS, dtype=object)[levels["overall"]]
-    rates = _method_rates(setting, criteria, require, lar, rub, rate_bracket)
-    stack = np.stack([rates[m] for m in CLEANING_METHODS])
-    q_min = stack.max(axis=0)
-    governing = np.asarray(CLEANING_METHODS, dtype=object)[np.argmax(stack, axis=0)]
+    rates, q_min, governing = ir.rates, ir.minimum, ir.governing
     ctrl = int(np.argmax(q_min))
     notes = list(tr.notes) + list(rub.notes)
     notes += _cleaning_notes(criteria, require, inc_hole, q_min, levels, governing, rpm_v,
