@@ -204,6 +204,7 @@ def _cleaning_data(hc, s) -> dict:
                 "larsen_angle_factor": r["larsen_angle_factor"],
                 "method_rates": {m: _c(r[f"{m}_rate"], "flow_rate", s) for m in CLEANING_METHODS},
                 "minimum_rate": _c(r["minimum_rate"], "flow_rate", s),
+                "rate_slope_bound_per_degree": _c(r["rate_slope_bound"], "flow_rate", s),
             }
             for r in hc.table()
         ],

@@ -35,6 +35,7 @@ __all__ = [
     "RUBIANDINI_RANGE",
     "RubiandiniResult",
     "check_rotary_speed",
+    "rubiandini_angle_slope_bound",
     "rubiandini_critical_velocity",
     "rubiandini_factor",
 ]
@@ -242,6 +243,32 @@ def rubiandini_critical_velocity(
         "Larsen V_cut (constants from memory, not checked against the source; "
         "calc/METHODS.md §10.15)",
         notes=notes,
+    )
+
+
+def rubiandini_angle_slope_bound(result: RubiandiniResult, density) -> np.ndarray:
+    """Upper bound of |dV_min/dθ| of :func:`rubiandini_critical_velocity` [m/s per degree].
+
+    .. math:: \\left|\\frac{dV_{min}}{d\\theta}\\right| \\le
+              \\frac{(600 - RPM)(3 + \\rho_{ppg})}{202\\,500}\\,V_s\\,\\frac{V_{min}}{V_{cut}}
+
+    From V = V_cut + C_R·V_s(V): dV/dθ = C_R'·V_s/(1 - C_R·dV_s/dV); Moore's slip depends on V
+    only through μ_a(V), with d ln V_s/d ln V ≤ 1 on every branch, so C_R·dV_s/dV ≤ C_R·V_s/V
+    = 1 - V_cut/V.  C_R' is taken without the 45° cap, so the bound does not fall with θ and
+    bounds every angle below the one it is evaluated at (calc/METHODS.md §10.13).  Moore's own
+    ≤ 5 % step at Re_p = 3 is not covered.
+
+    >>> r = rubiandini_critical_velocity(0.0049, 0.2184, 0.127, density=1342.0, k=0.19,
+    ...     tau_y=4.1, n=0.74, cuttings_size=0.00635, cuttings_density=2600.0,
+    ...     inclination=30.0, rpm=140.0)
+    >>> 0.0 < float(rubiandini_angle_slope_bound(r, 1342.0)) < 0.01
+    True
+    """
+    rho = check_positive("mud density", density, "kg/m³")
+    slope = (RUBIANDINI_RPM_ZERO - result.rpm) * (RUBIANDINI_MW_OFFSET + rho / _PPG)
+    v, v_cut = np.asarray(result.critical_velocity), np.asarray(result.cuttings_velocity)
+    return scalar_or_array(
+        slope / RUBIANDINI_DIVISOR * np.asarray(result.vertical_slip) * v / v_cut
     )
 
 

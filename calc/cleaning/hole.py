@@ -10,6 +10,7 @@ from calc.cleaning.deviated import (
     RUBIANDINI_RANGE,
     RubiandiniResult,
     check_rotary_speed,
+    rubiandini_angle_slope_bound,
     rubiandini_critical_velocity,
 )
 from calc.cleaning.indicators import (
@@ -20,11 +21,13 @@ from calc.cleaning.indicators import (
     LarsenResult,
     carrying_capacity_index,
     cleaning_score,
+    larsen_angle_slope_bound,
     larsen_critical_velocity,
     verdict_levels,
 )
 from calc.cleaning.transport import Cuttings, TransportResult, annular_transport
 from calc.errors import InputError, check_choice, check_positive, check_range
+from calc.flow.area import cross_section_area
 from calc.notes import Note
 from calc.numeric import bisect_increasing, depth_weights, scalar_or_array
 from calc.span import Span
@@ -99,6 +102,9 @@ class HoleCleaningResult:
         The method whose rate is the largest (governs) in each interval.
     rpm : float
         String rotary speed used [rpm].
+    rate_slope_bound : ndarray
+        Upper bound of |d(minimum rate)/d(inclination)| [m³/s per degree]
+        (:attr:`IntervalRates.slope_bound`).
     controlling_interval : Span
         The interval needing the highest rate.
     controlling_rate : float
@@ -132,6 +138,7 @@ class HoleCleaningResult:
     method_rates: dict[str, np.ndarray]
     governing: np.ndarray
     rpm: float
+    rate_slope_bound: np.ndarray
     controlling_interval: Span
     controlling_rate: float
     require: str
@@ -167,6 +174,7 @@ class HoleCleaningResult:
                     "larsen_angle_factor": float(np.asarray(self.larsen.angle_factor)[i]),
                     **{f"{m}_rate": float(self.method_rates[m][i]) for m in CLEANING_METHODS},
                     "governing": str(self.governing[i]),
+                    "rate_slope_bound": float(self.rate_slope_bound[i]),
                     "minimum_rate": float(self.minimum_rate[i]),
                     "verdict": str(self.verdict[i]),
                 }
@@ -328,6 +336,10 @@ class IntervalRates:
     minimum     the largest of them [m³/s]
     governing   the method giving it
     larsen, rubiandini   the deviated-hole results behind their rates
+    slope_bound upper bound of |d(minimum)/dθ| [m³/s per degree]: cr·A·max of the Larsen and
+                Rubiandini velocity-slope bounds (the vertical criteria do not depend on θ);
+                it does not fall with θ, so over a step θ₁ → θ₂ the larger endpoint value
+                bounds the change (calc/METHODS.md §10.13)
     """
 
     rates: dict[str, np.ndarray]
@@ -335,6 +347,7 @@ class IntervalRates:
     governing: np.ndarray
     larsen: LarsenResult
     rubiandini: RubiandiniResult
+    slope_bound: np.ndarray
 
 
 def annulus_cleaning_rates(
@@ -400,7 +413,11 @@ def annulus_cleaning_rates(
     rates = _method_rates(setting, criteria, require, lar, rub, rate_bracket)
     stack = np.stack([rates[m] for m in CLEANING_METHODS])
     governing = np.asarray(CLEANING_METHODS, dtype=object)[np.argmax(stack, axis=0)]
-    return IntervalRates(rates, stack.max(axis=0), governing, lar, rub)
+    b_l = larsen_angle_slope_bound(r, d2, d1, density=density, k=k, tau_y=tau_y, n=n,
+                                   cuttings_size=cuttings.size)  # fmt: skip
+    b_r = rubiandini_angle_slope_bound(rub, density)
+    bound = criteria.critical_ratio(require) * cross_section_area(d2, d1) * np.maximum(b_l, b_r)
+    return IntervalRates(rates, stack.max(axis=0), governing, lar, rub, np.asarray(bound))
 
 
 def hole_cleaning(
@@ -534,6 +551,7 @@ def hole_cleaning(
         method_rates=rates,
         governing=governing,
         rpm=rpm_v,
+        rate_slope_bound=ir.slope_bound,
         controlling_interval=spans[ctrl],
         controlling_rate=float(q_min[ctrl]),
         require=require,

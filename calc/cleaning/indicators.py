@@ -25,6 +25,7 @@ __all__ = [
     "CleaningCriteria",
     "LarsenResult",
     "carrying_capacity_index",
+    "larsen_angle_slope_bound",
     "larsen_concentration",
     "larsen_critical_velocity",
     "larsen_cuttings_velocity",
@@ -331,6 +332,40 @@ def larsen_critical_velocity(
         "(constants from memory, not checked against the source; see calc/METHODS.md §10.12)",
         notes=tuple(notes),
     )
+
+
+def larsen_angle_slope_bound(rop, d_hole, d_pipe, *, density, k, tau_y=0.0, n=1.0,
+                             cuttings_size):  # fmt: skip
+    """Upper bound of |dV_crit/dθ| of :func:`larsen_critical_velocity` [m/s per degree].
+
+    .. math:: \\left|\\frac{dV_{crit}}{d\\theta}\\right| \\le a_1\\,C_{size}C_{mw}
+              V_{slip,0}(\\mu_a(V_{cut}))
+
+    with a₁ = 0.0342/degree, the largest slope of C_ang (at θ = 0; C_ang' = a₁ + 2a₂θ falls with
+    θ).  dV/dθ = C_ang'·C_size·C_mw·V0/(1 - ∂V_slip/∂V) and ∂V_slip/∂V ≤ 0 (V0 rises with μ_a,
+    μ_a falls with V for n ≤ 1), and V ≥ V_cut bounds μ_a by μ_a(V_cut) (calc/METHODS.md
+    §10.13).  For n > 1 the larger μ_a at V_cut and at V_cut + 10 m/s is taken.
+
+    >>> b = larsen_angle_slope_bound(0.0049, 0.2184, 0.127, density=1318.0, k=0.02, tau_y=7.0,
+    ...                              cuttings_size=0.00635)
+    >>> 0.01 < b < 0.1
+    True
+    """
+    d2 = check_positive("hole diameter", d_hole, "m")
+    d1 = check_nonnegative("pipe diameter", d_pipe, "m")
+    rho = check_positive("mud density", density, "kg/m³")
+    ds = check_positive("cuttings size", cuttings_size, "m")
+    v_cut = np.maximum(np.asarray(larsen_cuttings_velocity(rop, d2, d1)), 1e-3)
+    mu = np.maximum(
+        np.asarray(annular_apparent_viscosity(v_cut, d2, d1, tau_y, k, n)),
+        np.asarray(annular_apparent_viscosity(v_cut + 10.0, d2, d1, tau_y, k, n)),
+    )
+    v0 = np.where(
+        mu <= _LPA_MU_BREAK, _LPA_A1 * mu + _LPA_B1, _LPA_A2 * (mu - _LPA_MU_BREAK) + _LPA_B2
+    )
+    c_size = _LPA_SIZE[0] + _LPA_SIZE[1] * ds
+    c_mw = np.where(rho > _LPA_MW[0], 1.0 - _LPA_MW[1] * (rho - _LPA_MW[0]), 1.0)
+    return scalar_or_array(LARSEN_ANGLE[1] * c_size * c_mw * v0)
 
 
 @dataclass(frozen=True)

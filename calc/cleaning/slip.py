@@ -467,6 +467,23 @@ def combined_shear_rate(particle_rate, annular_rate):
     return scalar_or_array(np.hypot(particle_rate, annular_rate))
 
 
+def _at_rest_note(c, method):
+    """Drag-balance methods without annular flow: the yield stress acts at the particle's own
+    shear rate only, so slip in a yield-stress mud is that of still mud (small or 0)."""
+    if not c.flowing and np.any(c.tau_y > 0):
+        return (
+            Note(
+                "info",
+                "slip_mud_at_rest",
+                f"{method}: no annular flow given, so the mud is taken at rest; its yield stress "
+                "then acts at the particle's own shear rate and the slip is that of still mud "
+                "(give the annular velocity and diameters for a flowing annulus).",
+                "slip velocity",
+            ),
+        )
+    return ()
+
+
 def _mu_combined(c):
     def mu_of_v(v):
         return hb_apparent_viscosity(combined_shear_rate(v / c.d, c.gamma_a), c.tau_y, c.k, c.n)
@@ -490,7 +507,7 @@ def _drag_balance(c):
     mu = np.asarray(mu_of_v(vv))
     re = np.where(held, 0.0, c.rho * v * c.d / mu)
     f = np.where(held, 0.0, haider_levenspiel_drag(np.where(held, 1.0, re), c.psi))
-    notes = _held_note(held, "drag_balance", c.flowing)
+    notes = _held_note(held, "drag_balance", c.flowing) + _at_rest_note(c, "drag_balance")
     if np.any(re > 2.6e5):
         notes += (
             Note(
@@ -526,7 +543,7 @@ def _fang(c):
     mu = np.asarray(mu_of_v(vv))
     re = np.where(held, 0.0, c.rho * v * c.d / mu)
     f = np.where(held, 0.0, drag(np.where(held, 1.0, re)))
-    notes = _held_note(held, "fang_2008", c.flowing)
+    notes = _held_note(held, "fang_2008", c.flowing) + _at_rest_note(c, "fang_2008")
     if np.any((re > 0) & ((re < 0.1) | (re > 1e5))):
         notes += (
             Note(
