@@ -37,7 +37,7 @@ from calc.errors import InputError, check_nonnegative, check_positive
 from calc.flow import api_wall_shear
 from calc.notes import Note
 from calc.numeric import bisect_increasing, scalar_or_array
-from calc.registry import MethodRegistry
+from calc.registry import MethodRegistry, Verification
 from calc.units import G_N, si_factor
 
 __all__ = [
@@ -349,6 +349,13 @@ def _held_note(held, method, flowing=False):
     "Moore, P.L. (1974) Drilling Practices Manual; as in Bourgoyne et al. (1986) Applied Drilling "
     "Engineering, SPE Textbook Series 2, §4.13 (constants from memory, not yet checked against the "
     "source); see calc/METHODS.md §10.3",
+    status=Verification(
+        "from_memory",
+        "Closed forms per branch checked: viscous branch exactly 0.6 × Stokes, turbulent branch "
+        "exact (tests/test_cleaning_slip.py); field constants agree with a compilation within "
+        "1 %. Drag 40/Re, 22/√Re, 1.5 and bounds Re 3/300 recalled from Bourgoyne et al. (1986).",
+        ("not checked against the source",),
+    ),
 )
 def _moore(c):
     mu = annular_apparent_viscosity(c.v_a, c.d_hole, c.d_pipe, c.tau_y, c.k, c.n)
@@ -368,6 +375,13 @@ def _moore(c):
     "Chien: drag 24/Re + 1.72 (from the printed field form); μ_a at γ̇ = 8V_a/d_s",
     "Chien, S.F. (1971) SPE 3505; Chien, S.F. (1994) SPE Drilling & Completion 9(4) "
     "(constants from memory, not yet checked against the source; see calc/METHODS.md §10.4)",
+    status=Verification(
+        "from_memory",
+        "The printed field form's constants 0.0075 and 36,800 imply drag 24.03/Re + 1.73: Stokes "
+        "within 0.2 % (tests/test_cleaning_slip.py). Constants recalled, not read in Chien's "
+        "papers.",
+        ("not checked against the source",),
+    ),
 )
 def _chien(c):
     a, b = CHIEN_DRAG
@@ -390,6 +404,12 @@ def _chien(c):
     "Walker, R.E. & Mayes, T.M. (1975) Design of muds for carrying capacity, JPT 27(7), SPE 4975 "
     "(constants from memory, not yet checked against the source); turbulent branch: disc drag "
     "1.17 (White, Fluid Mechanics, Table 7.3, from memory); see calc/METHODS.md §10.5",
+    status=Verification(
+        "from_memory",
+        "Field form and SI form agree (1e-9); constants 7.9, 0.0203 and the Re = 100 switch "
+        "recalled; the disc-drag turbulent branch is this program's completion.",
+        ("not checked against the source",),
+    ),
 )
 def _walker_mayes(c):
     tau_p = _WM_TAU * np.sqrt(c.t * c.drho)
@@ -426,6 +446,12 @@ def _walker_mayes(c):
     "API RP 13D, Rheology and Hydraulics of Oil-well Drilling Fluids, 3rd ed. (1995) "
     "(formula seen second-hand; constants, units, grouping from memory, not yet checked against "
     "the source); see calc/METHODS.md §10.6",
+    status=Verification(
+        "from_memory",
+        "Formula seen second-hand; its low-Re limit is 24/30 of Stokes (tests). Constants, units "
+        "and grouping recalled.",
+        ("not checked against the source",),
+    ),
 )
 def _api13d(c):
     a, b = API13D_DRAG
@@ -498,6 +524,16 @@ def _mu_combined(c):
     "Haider, A. & Levenspiel, O. (1989) Powder Technology 58:63-70; drag balance as in "
     "Bird, Stewart & Lightfoot (2002) Transport Phenomena, 2nd ed., §6.3; annular shear rate as "
     "in Moore's method; see calc/METHODS.md §10.7",
+    status=Verification(
+        "reference_library",
+        "At ψ = 1 within 7 % of fluids.drag.Haider_Levenspiel and fluids v_terminal; exact Stokes "
+        "limit (1e-3) and Newton-region drag also with annular flow "
+        "(tests/test_cleaning_slip.py, tests/test_cleaning_deviated.py).",
+        (
+            "ψ-dependent coefficients recalled, " + "not checked against the source",
+            "μ_a at the quadrature sum of particle and annular wall shear rates: our combination",
+        ),
+    ),
 )
 def _drag_balance(c):
     mu_of_v = _mu_combined(c)
@@ -527,6 +563,15 @@ def _drag_balance(c):
     "particle and annular shear rate",
     "Fang et al. (2008), as printed in Guo & Liu (2011) Applied Drilling Circulation Systems, "
     "eqs. 2.90-2.96; annular shear rate as in Moore's method; see calc/METHODS.md §10.8",
+    status=Verification(
+        "published_example",
+        "Reproduces Guo & Liu (2011) Table 2.4 (ψ 0.8: A′, B′, C′, f = 2.9350 at Re 240, "
+        "0.5166 ft/s) (tests/test_worked_examples_cleaning.py).",
+        (
+            "creeping-flow continuation (slope -1) is this program's choice",
+            "μ_a at the quadrature sum of particle and annular wall shear rates: our combination",
+        ),
+    ),
 )
 def _fang(c):
     mu_of_v = _mu_combined(c)
