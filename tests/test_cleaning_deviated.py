@@ -4,7 +4,7 @@ near-vertical requirement in 30-60°, input checks, and the repaired drag-balanc
 in flowing yield-stress muds against the exact Stokes and Newton limits.
 
 Sources beside each check.  The demo well and mud are invented (workbooks/demo-case.toml).
-No published worked example of Larsen et al. (1997) or Rubiandini (2000) was reachable: those
+No published worked example of Larsen et al. (1997) or Rubiandini (1999) was reachable: those
 methods are checked here by identities and properties only, not against the papers.
 """
 
@@ -31,7 +31,7 @@ NEWTON_SOURCE = "Newton's-law region f ≈ 0.44, 5e2 < Re < 2e5: Bird, Stewart &
 
 # ------------------------------------------------------------------ Rubiandini's factor
 def test_rubiandini_factor_identities():
-    # C_R = 1 + θ(600 - RPM)(3 + ρ_ppg)/202500, θ held at 45° (Rubiandini 2000, from memory,
+    # C_R = 1 + θ(600 - RPM)(3 + ρ_ppg)/202500, θ held at 45° (Rubiandini 1999, from memory,
     # not checked against the source — calc/METHODS.md §10.15)
     assert rubiandini_factor(0.0, 0.0, PPG12) == pytest.approx(1.0, abs=1e-12)  # vertical: Moore
     assert rubiandini_factor(60.0, 600.0, PPG12) == pytest.approx(1.0, abs=1e-12)  # 600 rpm
@@ -103,19 +103,19 @@ def test_stated_bound_is_tight_enough_to_mean_something():
 
 def test_every_method_applies_everywhere_and_the_largest_governs():
     r = _demo_annulus(np.array([0.0, 10.0, 30.0, 45.0, 70.0, 90.0]))
-    stack = np.stack([r.rates[m] for m in ("vertical_criteria", "rubiandini_2000", "larsen_1997")])
+    stack = np.stack([r.rates[m] for m in ("vertical_criteria", "rubiandini_1999", "larsen_1997")])
     np.testing.assert_allclose(r.minimum, stack.max(axis=0), rtol=0)
     assert np.all(np.isfinite(stack))
     # near vertical Larsen's fitted angle factor is ≤ 0 (held at 0) and Rubiandini governs;
     # from the intermediate band on Larsen needs the most (demo annulus, regression, reviewed)
-    assert r.governing[0] == "rubiandini_2000"
+    assert r.governing[0] == "rubiandini_1999"
     assert list(r.governing[2:]) == ["larsen_1997"] * 4
     assert r.larsen.angle_factor[0] == 0.0
 
 
 def test_rotation_lowers_only_rubiandini():
     still, turning = _demo_annulus(40.0, rpm=0.0), _demo_annulus(40.0, rpm=200.0)
-    assert turning.rates["rubiandini_2000"][0] < still.rates["rubiandini_2000"][0]
+    assert turning.rates["rubiandini_1999"][0] < still.rates["rubiandini_1999"][0]
     for m in ("vertical_criteria", "larsen_1997"):
         assert turning.rates[m][0] == pytest.approx(still.rates[m][0], rel=1e-12)
 
@@ -168,7 +168,7 @@ def test_notes_name_method_range_and_governing_method():
     codes = {n.code: n for n in hc.notes}
     larsen = str(codes["larsen_extrapolated"])
     assert "larsen_1997" in larsen and "55-90°" in larsen and "governing there" in larsen
-    assert "rubiandini_2000" in str(codes["rotation_use"])
+    assert "rubiandini_1999" in str(codes["rotation_use"])
     assert "rotary_speed_missing" in codes  # no rpm given: 0 rpm assumed, said so
 
 

@@ -45,7 +45,7 @@ def point_label(name: str) -> str:
 #: How the Cleaning sheet names each method of calc.cleaning.CLEANING_METHODS.
 METHOD_WORDS = {
     "vertical_criteria": "vertical criteria",
-    "rubiandini_2000": "Rubiandini 2000",
+    "rubiandini_1999": "Rubiandini 1999",
     "larsen_1997": "Larsen 1997",
 }
 _NCOL = 18
@@ -99,7 +99,7 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
             "loaded density",
             "CCI",
             "rate: vertical criteria",
-            "rate: Rubiandini 2000",
+            "rate: Rubiandini 1999",
             "rate: Larsen 1997",
             "governs",
             "min. rate",

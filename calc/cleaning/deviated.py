@@ -5,7 +5,7 @@ Two published deviated-hole minimum velocities are applied at every inclination,
 vertical criteria (:mod:`calc.cleaning.indicators`); the most demanding governs
 (:func:`calc.cleaning.hole_cleaning`, calc/METHODS.md §10.13):
 
-``rubiandini_2000``  Moore's vertical slip velocity times Rubiandini's inclination/rotation/
+``rubiandini_1999``  Moore's vertical slip velocity times Rubiandini's inclination/rotation/
                      mud-weight factor, plus Larsen's cuttings travel velocity; 0-90°; uses RPM.
 ``larsen_1997``      Larsen, Pilehvari & Azar (1997) critical velocity
                      (:func:`calc.cleaning.indicators.larsen_critical_velocity`); fitted for
@@ -100,8 +100,9 @@ def rubiandini_factor(inclination, rpm, density):
 
     References
     ----------
-    Rubiandini, R. (2000) Equation for estimating mud minimum rate for cuttings transport in an
-    inclined-until-horizontal well, SPE/IADC 57541 (year and details from memory).
+    Rubiandini, R. (1999) Equation for estimating mud minimum rate for cuttings transport in an
+    inclined-until-horizontal well, SPE/IADC 57541, SPE/IADC Middle East Drilling Technology
+    Conference (the abstract was read; the factor's constants are from memory).
 
     Examples
     --------
@@ -157,7 +158,7 @@ def rubiandini_critical_velocity(
     inclination,
     rpm=0.0,
 ) -> RubiandiniResult:
-    """Minimum annular velocity for cuttings transport at any inclination, Rubiandini (2000).
+    """Minimum annular velocity for cuttings transport at any inclination, Rubiandini (1999).
 
     .. math:: V_{min} = V_{cut} + C_R(\\theta, RPM, \\rho)\\,V_{s,Moore}(V_{min})
 
@@ -190,8 +191,8 @@ def rubiandini_critical_velocity(
 
     References
     ----------
-    Rubiandini, R. (2000) SPE/IADC 57541 (details from memory); Moore (1974) as in Bourgoyne et
-    al. (1986) Applied Drilling Engineering §4.13.
+    Rubiandini, R. (1999) SPE/IADC 57541 (abstract read, constants from memory); Moore (1974)
+    as in Bourgoyne et al. (1986) Applied Drilling Engineering §4.13.
 
     Examples
     --------
@@ -227,7 +228,7 @@ def rubiandini_critical_velocity(
             Note(
                 "info",
                 "rubiandini_beyond_horizontal",
-                "rubiandini_2000: inclination above 90° read as 180° minus the inclination.",
+                "rubiandini_1999: inclination above 90° read as 180° minus the inclination.",
                 "deviated-hole cleaning",
             ),
         )
@@ -239,7 +240,7 @@ def rubiandini_critical_velocity(
         slip_velocity=scalar_or_array(c_r * v_s),
         factor=scalar_or_array(np.broadcast_to(c_r, shape)),
         rpm=rpm_v,
-        method="rubiandini_2000: Rubiandini (2000) SPE/IADC 57541, Moore slip × C_R(θ, RPM, ρ) + "
+        method="rubiandini_1999: Rubiandini (1999) SPE/IADC 57541, Moore slip × C_R(θ, RPM, ρ) + "
         "Larsen V_cut (constants from memory, not checked against the source; "
         "calc/METHODS.md §10.15)",
         notes=notes,
@@ -273,18 +274,23 @@ def rubiandini_angle_slope_bound(result: RubiandiniResult, density) -> np.ndarra
 
 
 DEVIATED_METHODS.register(
-    "rubiandini_2000",
+    "rubiandini_1999",
     "Moore slip × Rubiandini's inclination/rotation/mud-weight factor + Larsen's cuttings "
     "velocity; 0-90°; uses the rotary speed",
-    "Rubiandini, R. (2000) SPE/IADC 57541 (details from memory); see calc/METHODS.md §10.15",
+    "Rubiandini, R. (1999) SPE/IADC 57541 (abstract read; constants from memory); see "
+    "calc/METHODS.md §10.15",
     status=Verification(
         "from_memory",
-        "Factor C_R = 1 + θ(600 - RPM)(3 + ρ_ppg)/202500 (θ ≤ 45°) recalled; its RPM = 0, 12 ppg "
-        "case 1 + 2θ/45 agrees with a second-hand public code comment, not with the paper, "
-        "which was not reached. Tests: C_R identities and the continuity/ordering properties "
-        "(tests/test_cleaning_deviated.py).",
+        "The paper's abstract (SPE-57541-MS, 1999) confirms the structure: minimum rate = "
+        "slip velocity + cuttings velocity (from geometry and ROP), Moore's vertical slip "
+        "corrected for inclination, RPM and mud weight after Larsen's procedure. The factor "
+        "C_R = 1 + θ(600 - RPM)(3 + ρ_ppg)/202500 (θ ≤ 45°) is recalled; its RPM = 0, 12 ppg case "
+        "1 + 2θ/45 agrees with a second-hand public code comment. Tests: C_R identities and the "
+        "continuity/ordering properties (tests/test_cleaning_deviated.py).",
         (
-            "not checked against the source",
+            "factor constants not checked against the source (the full paper was not reached)",
+            "the abstract says the method agrees with Larsen's above 45°; in the demo mud it "
+            "asks for about half Larsen's rate there, so the recalled factor may be wrong",
             "V_cut taken as Larsen's, from memory",
             "Moore slip inherits Moore's unverified constants (calc/METHODS.md §10.3)",
         ),

@@ -51,9 +51,9 @@ RATE_BRACKET = (1e-4, 0.2)
 #: The cleaning methods applied in every interval, in table order: the vertical criteria
 #: (transport ratio, concentration, CCI with the chosen slip method) and the two deviated-hole
 #: methods of :mod:`calc.cleaning.deviated`.
-CLEANING_METHODS = ("vertical_criteria", "rubiandini_2000", "larsen_1997")
+CLEANING_METHODS = ("vertical_criteria", "rubiandini_1999", "larsen_1997")
 #: Which of them use the string rotary speed.
-USES_ROTATION = {"vertical_criteria": False, "rubiandini_2000": True, "larsen_1997": False}
+USES_ROTATION = {"vertical_criteria": False, "rubiandini_1999": True, "larsen_1997": False}
 
 
 @dataclass(frozen=True, eq=False)
@@ -235,7 +235,7 @@ def _method_rates(setting, criteria, require, lar, rub, rate_bracket) -> dict[st
     cr = criteria.critical_ratio(require)
     lo, hi = float(rate_bracket[0]), float(rate_bracket[1])
     out = {"vertical_criteria": _vertical_minimum_rates(setting, criteria, require, rate_bracket)}
-    for name, res in (("rubiandini_2000", rub), ("larsen_1997", lar)):
+    for name, res in (("rubiandini_1999", rub), ("larsen_1997", lar)):
         q = cr * np.asarray(res.critical_rate, dtype=float)
         out[name] = np.where(q > hi, np.inf, np.maximum(q, lo))
     return out
@@ -252,7 +252,7 @@ def _range_notes(criteria, inc, governing) -> list[Note]:
     ranges = (
         ("vertical_criteria", (0.0, float(criteria.vertical_limit)), "vertical_criteria_range"),
         ("larsen_1997", LARSEN_RANGE, "larsen_extrapolated"),
-        ("rubiandini_2000", RUBIANDINI_RANGE, "rubiandini_range"),
+        ("rubiandini_1999", RUBIANDINI_RANGE, "rubiandini_range"),
     )
     for method, (lo, hi), code in ranges:
         out = (inc < lo) | (inc > hi)
@@ -304,7 +304,7 @@ def _cleaning_notes(criteria, require, inc, q_min, levels, governing, rpm, rpm_g
                 "warning",
                 "rotary_speed_missing",
                 "no string rotary speed given: 0 rpm assumed (the most demanding for "
-                "rubiandini_2000).",
+                "rubiandini_1999).",
                 "hole cleaning",
             )
         )
@@ -439,7 +439,7 @@ def hole_cleaning(
     For each interval: annular velocity, slip velocity (``method``), transport ratio, net rise
     velocity, in-situ cuttings concentration from ROP, bit size and rate, loaded density, the
     carrying capacity index, and the minimum velocities of the two deviated-hole methods
-    (Rubiandini 2000, which uses ``rpm``; Larsen, Pilehvari & Azar 1997).  Every criterion is
+    (Rubiandini 1999, which uses ``rpm``; Larsen, Pilehvari & Azar 1997).  Every criterion is
     applied at every inclination; the minimum rate of an interval is the largest of
 
     * the vertical criteria's rate (transport ratio, concentration and CCI thresholds),
