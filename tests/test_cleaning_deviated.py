@@ -21,7 +21,9 @@ from calc.cleaning.slip import haider_levenspiel_drag
 from calc.errors import InputError
 from calc.units import G_N, from_si, to_si
 from tests.cleaning_demo import demo_cuttings, demo_fluid, demo_rate, demo_rop, demo_well
-from tests.inclination_sweep import ANGLES, tangent_case_text
+from tests.inclination_sweep import ANGLES, DEMO, tangent_case_text
+
+DEMO_TEXT = DEMO.read_text(encoding="utf-8")
 
 LATEST = 1  # the demo's latest mud check (D2), rpm 140
 PPG12 = to_si(12.0, "ppg")
@@ -233,3 +235,40 @@ def test_flowing_yield_stress_mud_gives_real_slip(method):
     rest = slip_velocity(**kw, method=method)
     assert rest.velocity < 0.1 * moore
     assert any(nt.code == "slip_mud_at_rest" for nt in rest.notes)
+
+
+# ------------------------------------------------------------------ faces
+def test_sweep_script_edits_only_the_tangent_stations():
+    import tomllib  # lazy: only these tests read the edited case text
+
+    base = tomllib.loads(DEMO_TEXT)["survey"]["stations"]
+    edited = tomllib.loads(tangent_case_text(47.0))["survey"]["stations"]
+    for (md0, inc0, az0), (md1, inc1, az1) in zip(base, edited, strict=True):
+        assert (md0, az0) == (md1, az1)
+        assert inc1 == (47.0 if md0 >= 4500.0 else inc0)
+
+
+def test_report_json_and_cleaning_sheet_show_every_method_and_the_governing_one():
+    import openpyxl  # lazy: only this test reads the workbook
+    from _report_demo import demo_report_path, demo_results  # lazy: builds the demo report
+
+    from addin.report.jsonout import results_data
+
+    c = results_data(demo_results())["cleaning"]
+    assert c["rpm"] == 140.0  # the demo check's rotary speed reaches the calculation
+    assert c["uses_rotation"] == {"vertical_criteria": False, "rubiandini_1999": True,
+                                  "larsen_1997": False}  # fmt: skip
+    assert c["controlling_governing"] == "larsen_1997"
+    assert c["controlling_rate"] == pytest.approx(max(c["controlling_method_rates"].values()))
+    for row in c["intervals"]:
+        rates = row["method_rates"]
+        assert set(rates) == set(c["methods"])
+        assert row["minimum_rate"] == pytest.approx(max(rates.values()), rel=1e-12)
+        assert rates[row["governing"]] == pytest.approx(row["minimum_rate"], rel=1e-12)
+    ws = openpyxl.load_workbook(demo_report_path())["Cleaning"]
+    texts = [str(v) for r in ws.iter_rows(values_only=True) for v in r if v is not None]
+    for head in ("rate: vertical criteria", "rate: Rubiandini 1999", "rate: Larsen 1997",
+                 "governs"):  # fmt: skip
+        assert head in texts
+    assert any(t.startswith("String rotary speed 140 rpm: used by Rubiandini 1999") for t in texts)
+    assert "Larsen 1997" in texts  # the governing column
