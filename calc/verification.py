@@ -23,6 +23,7 @@ from __future__ import annotations
 
 from calc.bit.optimisation import OPTIMISATION_CRITERIA
 from calc.cleaning.bed import BED_METHODS
+from calc.cleaning.deviated import DEVIATED_METHODS
 from calc.cleaning.slip import SLIP_METHODS
 from calc.flow import FRICTION_LAWS
 from calc.hydraulics_method import DEFAULT_METHOD, HYDRAULICS_METHODS, resolve_method
@@ -41,6 +42,7 @@ REGISTRIES: tuple[MethodRegistry, ...] = (
     VISCOMETER_FITS,
     TABLE_FITS,
     SLIP_METHODS,
+    DEVIATED_METHODS,
     OPTIMISATION_CRITERIA,
     BED_METHODS,
 )
@@ -384,11 +386,15 @@ SLIP_METHODS.set_status(
         "from_memory",
         "At sphericity 1 the drag agrees with fluids.drag.Haider_Levenspiel within 7 % and the "
         "settling velocity with fluids.drag.v_terminal within 7 %; reduces to Stokes' law "
-        "(tests/test_cleaning_slip.py).",
+        "(tests/test_cleaning_slip.py); the exact Stokes limit (1e-3) and the Newton-region "
+        "balance hold also with annular flow (tests/test_cleaning_deviated.py).",
         (
             "Haider & Levenspiel (1989) coefficients from memory, not yet checked against the "
             "source; the sphericity dependence is not compared with anything "
             "(calc/METHODS.md §10.7)",
+            "the mud's viscosity is taken at the quadrature sum of the particle and annular wall "
+            "shear rates, √((V_s/d_s)² + (12V_a/(D2−D1))²): this program's combination, not a "
+            "published correlation",
         ),
     ),
 )
@@ -401,6 +407,8 @@ SLIP_METHODS.set_status(
         (
             "validity 0.1 ≤ Re_p ≤ 10⁵ not verified; below the Stokes-like slope the correlation "
             "is continued with slope −1 (this program's choice)",
+            "the mud's viscosity is taken at the quadrature sum of the particle and annular wall "
+            "shear rates: this program's combination, not a published correlation",
         ),
     ),
 )
@@ -578,6 +586,8 @@ def method_caveats(
     ]
     if slip_method is not None:
         parts.append((SLIP_METHODS, slip_method))
+    if slip_method is not None:  # hole cleaning ran: every deviated-hole method applies
+        parts += [(DEVIATED_METHODS, name) for name in DEVIATED_METHODS.names()]
     if bed_method is not None:
         parts.append((BED_METHODS, bed_method))
     seen: dict[str, tuple[str, str, str]] = {}

@@ -16,6 +16,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from calc.cleaning import CleaningCriteria
 from calc.numeric import depth_weights
 from calc.rate_window import operating_window
 from calc.surge import interval_surge, surge_pressure, trip_speed_limit, trip_speed_limits
@@ -148,12 +149,17 @@ def _no_tools(well):
     return dataclasses.replace(well, tool_drops=())
 
 
+#: The vertical cleaning criteria alone (the deviated-hole methods' Q/Q_crit thresholds set so
+#: low they never bind): the non-monotone cleaning margin this test walks lives in them.
+VERTICAL_ONLY = CleaningCriteria(critical_ratio_adequate=1e-9, critical_ratio_poor=1e-9)
+
+
 def _window(q, method=API95, margins=None):
     return operating_window(
         _no_tools(demo_well()), demo_fluid(method), q, window=demo_window(),
         weak_points=demo_weak_points(), margins=demo_margins() if margins is None else margins,
         surface_rating=demo_surface_rating(), method=method, rop=demo_rop(),
-        cuttings=demo_cuttings(),
+        cuttings=demo_cuttings(), criteria=VERTICAL_ONLY,
     )  # fmt: skip
 
 

@@ -252,8 +252,10 @@ def test_ecd_band_quoted_in_the_prose(tour):
     assert f"±{B.RATE_UNCERTAINTY * 100:g} % on the rate" in flat, f"README.md line {line}"
     assert ", ".join(f"`{m}`" for m in B.SPREAD_METHODS[:-1]) in flat.replace(", and", ",")
     case = ns["case"]
-    band = B.ecd_band(ns["well"], case.checks[-1].readings, ns["rho"], ns["q"],
-                      window=case.window, weak_points=case.weak_points, margins=ns["margins"])  # fmt: skip
+    band = B.ecd_band(
+        ns["well"], case.checks[-1].readings, ns["rho"], ns["q"],
+        window=case.window, weak_points=case.weak_points, margins=ns["margins"],
+    )  # fmt: skip
     bit, spp = band.ecd_bit, band.spp
     lo, hi = bit.method_min[1], bit.method_max[1]
     fresh = (
@@ -318,6 +320,9 @@ NOT_RESULTS = {
     "10": "10_000, the example's number of rates, an input",
     "6": "rotor speed ('3- and 6-rpm readings' in the cautions), an input",
     "18": "'calc/METHODS.md §18', a section number of the in-repo methods reference",
+    "10.13": "'calc/METHODS.md §10.13', a section number of the in-repo methods reference",
+    "1997": "year of Larsen, Pilehvari & Azar (citation, a method's name)",
+    "1999": "year of Rubiandini (citation, a method's name)",
 }
 
 

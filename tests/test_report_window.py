@@ -65,12 +65,16 @@ def test_report_window_is_calc_window(ref):
     assert ow.q_low == pytest.approx(ref.q_low, rel=1e-9)
     assert ow.q_high == pytest.approx(ref.q_high, rel=1e-9)
     # the tools carry the case parser's label; tests/demo_well.py names them itself
-    assert ow.binding_low.endswith(" flow window (min)") and ref.binding_low.endswith("(min)")
+    # since the deviated-hole cleaning methods apply at the 30° tangent, the cleaning limit binds
+    # the low end (larsen_1997 there, calc/METHODS.md §10.13), above the tools' 400 gpm
+    assert ow.binding_low == ref.binding_low == "hole cleaning"
     assert ow.binding_high.endswith(" flow window (max)") and ref.binding_high.endswith("(max)")
     np.testing.assert_allclose(ow.spp, ref.spp, rtol=1e-9)
     np.testing.assert_allclose(ow.cleaning_indicator, ref.cleaning_indicator, rtol=1e-9)
-    # demo case: tools' flow window 400-650 gpm binds at both ends (invented case data)
-    assert _gpm(ow.q_low) == pytest.approx(400.0, rel=1e-9)
+    # demo case: tools' flow window 400-650 gpm binds the high end (invented case data); the low
+    # end is the minimum cleaning rate, 508 gpm (regression value, reviewed)
+    assert ow.q_low == pytest.approx(ow.min_cleaning_rate, rel=1e-9)
+    assert _gpm(ow.q_low) == pytest.approx(508.3, abs=0.5)
     assert _gpm(ow.q_high) == pytest.approx(650.0, rel=1e-9)
 
 
@@ -81,7 +85,7 @@ def test_summary_shows_window_ends_with_binding_limits_in_words(wb, ref):
     assert low[1].value == pytest.approx(_gpm(ref.q_low), rel=1e-12)
     assert high[1].value == pytest.approx(_gpm(ref.q_high), rel=1e-12)
     assert low[4].value == high[4].value == "gpm"
-    assert low[5].value == "bound by: minimum of the downhole tools flow window"
+    assert low[5].value == "bound by: hole cleaning no longer adequate"  # the 30° tangent
     assert high[5].value == "bound by: maximum of the downhole tools flow window"
     # the check's 522 gpm lies inside 400-650 gpm
     assert low[8].value == high[8].value == "OK"
@@ -167,7 +171,7 @@ def test_json_window_ends_bindings_and_curves(tmp_path, capsys, ref):
     assert w["feasible"] is True
     assert w["low_rate"] == pytest.approx(_gpm(ref.q_low), rel=1e-12)
     assert w["high_rate"] == pytest.approx(_gpm(ref.q_high), rel=1e-12)
-    assert w["binding_low"] == "downhole tools flow window (min)"  # calc.rate_window's name
+    assert w["binding_low"] == "hole cleaning"  # calc.rate_window's name
     assert w["binding_high_words"] == "maximum of the downhole tools flow window"
     c = w["curves"]
     assert len(c["flow_rate"]) == 200

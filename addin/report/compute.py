@@ -481,7 +481,7 @@ def _cleaning(case, well, fluid, q) -> CleaningRun | None:
     cuttings = Cuttings(
         size=cut["size"], density=cut["density"], sphericity=cut.get("sphericity", 1.0)
     )
-    hc = hole_cleaning(well, fluid, q, rop=v["rop"], cuttings=cuttings)
+    hc = hole_cleaning(well, fluid, q, rop=v["rop"], cuttings=cuttings, rpm=v.get("rpm"))
     return CleaningRun(result=hc, cuttings=cuttings, notes=tuple(hc.notes) + cuttings.notes)
 
 

@@ -12,6 +12,8 @@ from addin.report.sheet_trips import point_label
 from addin.report.sheet_window import allowed_ecd, binding_words
 from addin.report.trace import used_methods
 from addin.rheology_data import rheology_data
+from calc.cleaning import CLEANING_METHODS
+from calc.cleaning.hole import USES_ROTATION
 from calc.units import label, unit_for
 
 __all__ = ["results_data"]
@@ -196,23 +198,40 @@ def _bit_data(res, s) -> dict:
 
 
 def _cleaning_data(hc, s) -> dict:
+    ctrl = hc.spans.index(hc.controlling_interval)
     return {
         "method": hc.method,
         "criteria": hc.criteria_text,
+        "rpm": hc.rpm,
+        "methods": list(CLEANING_METHODS),
+        "uses_rotation": dict(USES_ROTATION),
         "controlling_interval": short_name(hc.controlling_interval),
+        "controlling_top_md": _c(float(hc.top_md[ctrl]), "depth", s),
+        "controlling_bottom_md": _c(float(hc.bottom_md[ctrl]), "depth", s),
         "controlling_rate": _c(hc.controlling_rate, "flow_rate", s),
+        "controlling_governing": str(hc.governing[ctrl]),
+        "controlling_method_rates": {
+            m: _c(float(hc.method_rates[m][ctrl]), "flow_rate", s) for m in CLEANING_METHODS
+        },
         "intervals": [
             {
                 **{k: v for k, v in r.items() if not isinstance(v, float)},
                 "interval": short_name(r["interval"]),
                 "top_md": _c(r["top_md"], "depth", s),
                 "bottom_md": _c(r["bottom_md"], "depth", s),
+                "inclination": r["inclination"],
                 "annular_velocity": _c(r["annular_velocity"], "velocity", s),
                 "slip_velocity": _c(r["slip_velocity"], "velocity", s),
                 "transport_ratio": r["transport_ratio"],
                 "concentration": r["concentration"],
                 "cci": r["cci"],
+                "critical_rate": _c(r["critical_rate"], "flow_rate", s),
+                "rubiandini_critical_rate": _c(r["rubiandini_critical_rate"], "flow_rate", s),
+                "rubiandini_factor": r["rubiandini_factor"],
+                "larsen_angle_factor": r["larsen_angle_factor"],
+                "method_rates": {m: _c(r[f"{m}_rate"], "flow_rate", s) for m in CLEANING_METHODS},
                 "minimum_rate": _c(r["minimum_rate"], "flow_rate", s),
+                "rate_slope_bound_per_degree": _c(r["rate_slope_bound"], "flow_rate", s),
             }
             for r in hc.table()
         ],

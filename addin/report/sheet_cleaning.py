@@ -17,9 +17,12 @@ from addin.report.trace import slip_line, slip_method_of
 from addin.text import display_number as _o
 from addin.text import unit_label as U
 from addin.xlsx_cells import put, set_widths
+from calc.cleaning import CLEANING_METHODS
+from calc.cleaning.deviated import DEVIATED_METHODS
+from calc.cleaning.hole import USES_ROTATION
 from calc.span import Span
 
-__all__ = ["short_name", "write_cleaning"]
+__all__ = ["METHOD_WORDS", "short_name", "write_cleaning"]
 
 
 def short_name(where: Span | str | None) -> str:
@@ -33,12 +36,21 @@ def short_name(where: Span | str | None) -> str:
     return str(where).split(", MD")[0]
 
 
+#: How the Cleaning sheet names each method of calc.cleaning.CLEANING_METHODS.
+METHOD_WORDS = {
+    "vertical_criteria": "vertical criteria",
+    "rubiandini_1999": "Rubiandini 1999",
+    "larsen_1997": "Larsen 1997",
+}
+_NCOL = 18
+
+
 def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
     system = results.case.unit_system
     part = results.cleaning
     ws = wb.create_sheet("Cleaning")
-    set_widths(ws, [46, 9, 9, 7, 10, 10, 9, 8, 9, 9, 8, 10, 11, 11])
-    row = heading(ws, 1, "Hole cleaning (annulus, bit upwards)", span=14, title=True)
+    set_widths(ws, [46, 9, 9, 7, 10, 10, 9, 8, 9, 9, 8, 8, 10, 10, 10, 16, 11, 11])
+    row = heading(ws, 1, "Hole cleaning (annulus, bit upwards)", span=_NCOL, title=True)
     if part is None:
         put(
             ws,
@@ -49,9 +61,18 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
         )
         return {}
     hc = part.result
-    merged_text(ws, row, f"Method: {_method_words(hc)}", span=14, height=24)
-    merged_text(ws, row + 1, f"Criteria: {hc.criteria_text}", span=14, height=24)
-    row += 3
+    merged_text(ws, row, f"Method: {_method_words(hc)}", span=_NCOL, height=36)
+    merged_text(ws, row + 1, f"Criteria: {hc.criteria_text}", span=_NCOL, height=24)
+    rot = ", ".join(METHOD_WORDS[m] for m in CLEANING_METHODS if USES_ROTATION[m])
+    no_rot = ", ".join(METHOD_WORDS[m] for m in CLEANING_METHODS if not USES_ROTATION[m])
+    merged_text(
+        ws,
+        row + 2,
+        f"String rotary speed {hc.rpm:g} rpm: used by {rot}; {no_rot} have no rotation term.",
+        span=_NCOL,
+        height=16,
+    )
+    row += 4
     du, vu, qu = U("depth", system), U("velocity", system), U("flow_rate", system)
     ws.print_title_rows = f"{row}:{row + 1}"
     row = table_header(
@@ -71,35 +92,63 @@ def write_cleaning(wb, results, factors: Factors, title: str, q_ref: str):
             "cuttings conc.",
             "loaded density",
             "CCI",
+            "rate: vertical criteria",
+            "rate: Rubiandini 1999",
+            "rate: Larsen 1997",
+            "governs",
             "min. rate",
             "verdict",
         ],
-        ["", du, du, "°", vu, vu, "–", "1 − Vs/Va", "", "%", U("density", system), "–", qu, ""],
+        [
+            "",
+            du,
+            du,
+            "°",
+            vu,
+            vu,
+            "–",
+            "1 − Vs/Va",
+            "",
+            "%",
+            U("density", system),
+            "–",
+            qu,
+            qu,
+            qu,
+            "",
+            qu,
+            "",
+        ],
     )
     row = _interval_rows(ws, row, hc.table(), system)
     put(
         ws,
         row,
         1,
-        "Transport ratio live check: 1 − slip / annular velocity from the two "
-        "columns on its left. CCI only below the vertical limit; inclined intervals use the "
-        "critical rate of Larsen, Pilehvari & Azar (1997).",
+        "Transport ratio live check: 1 − slip / annular velocity from the two columns on its "
+        "left. Every method is applied at every inclination (no switch); the largest of its "
+        "three rates governs and is the minimum rate. Notes name each "
+        "method used outside its published inclination range.",
         "bf_note",
     )
-    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=14)
+    ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=_NCOL)
     row += 2
     worst = (
         "poor" if "poor" in hc.verdict else "marginal" if "marginal" in hc.verdict else ("adequate")
     )
+    ctrl = hc.spans.index(hc.controlling_interval)
+    gov = METHOD_WORDS[str(hc.governing[ctrl])]
     refs = {"verdict": worst, "controlling": (short_name(hc.controlling_interval),
-                                              hc.controlling_rate)}  # fmt: skip
+                                              hc.controlling_rate),
+            "governing": gov}  # fmt: skip
     put(
         ws,
         row,
         1,
         f"Overall: {worst}. Rate needed for '{hc.require}' cleaning everywhere: "
         f"{_o(hc.controlling_rate, 'flow_rate', system):,.0f} {qu} "
-        f"(controlled by {short_name(hc.controlling_interval)}).",
+        f"(controlled by {short_name(hc.controlling_interval)}, "
+        f"{text.span(hc.controlling_interval, system).split(', ')[-1]}; {gov} governs).",
         "bf_text",
     )
     write_beds(ws, row + 2, results)  # cuttings beds and circulation before a trip
@@ -134,8 +183,11 @@ def _interval_rows(ws, row, rows, system) -> int:
             number_format("density", system),
         )
         put_number(ws, row, 12, r["cci"], "0.00")
-        put_number(ws, row, 13, _o(r["minimum_rate"], "flow_rate", system), "#,##0")
-        put(ws, row, 14, r["verdict"])
+        for j, m in enumerate(CLEANING_METHODS):
+            put_number(ws, row, 13 + j, _o(r[f"{m}_rate"], "flow_rate", system), "#,##0")
+        put(ws, row, 16, METHOD_WORDS[r["governing"]])
+        put_number(ws, row, 17, _o(r["minimum_rate"], "flow_rate", system), "#,##0")
+        put(ws, row, 18, r["verdict"])
         row += 1
     return row
 
@@ -144,7 +196,7 @@ def _method_words(hc) -> str:
     """The cleaning methods by name and primary source (their status is on the Audit sheet)."""
     slip = slip_method_of(hc.method)
     slip_words = f"slip {slip_line(slip)}" if slip else hc.method
-    return (
-        f"{slip_words}; CCI (Robinson); high-angle critical rate larsen_1997 (Larsen, Pilehvari "
-        "& Azar (1997) SPE Drill. & Compl. 12(2):129-135)"
+    deviated = "; ".join(
+        f"{name} ({DEVIATED_METHODS.get(name).source})" for name in DEVIATED_METHODS.names()
     )
+    return f"vertical criteria: {slip_words}, CCI (Robinson); {deviated}"

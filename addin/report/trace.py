@@ -31,6 +31,7 @@ from addin import text
 from addin.report.style import heading, table_header
 from addin.xlsx_cells import put
 from calc.cleaning.bed import BED_METHODS
+from calc.cleaning.deviated import DEVIATED_METHODS
 from calc.cleaning.slip import SLIP_METHODS
 from calc.flow import FRICTION_LAWS
 from calc.hydraulics_method import HYDRAULICS_METHODS, resolve_method
@@ -73,8 +74,9 @@ SLIP_SECTIONS = {
 
 def slip_method_of(method_text: str) -> str | None:
     """The registered slip-velocity method a cleaning result's method text names (it starts
-    with ``"name: source"``, or ``"slip name: source"`` for hole cleaning), or None."""
-    body = method_text.removeprefix("slip ")
+    with ``"name: source"``, or ``"[vertical criteria: ]slip name: source"`` for hole cleaning),
+    or None."""
+    body = method_text.removeprefix("vertical criteria: ").removeprefix("slip ")
     for name in sorted(SLIP_METHODS.names(), key=len, reverse=True):
         if body.startswith(name + ":"):
             return name
@@ -106,6 +108,7 @@ def used_methods(results) -> list[tuple[str, MethodInfo]]:
     slip = _slip_of(results)
     if slip is not None:
         parts.append((SLIP_METHODS, slip))
+        parts += [(DEVIATED_METHODS, name) for name in DEVIATED_METHODS.names()]
     bed = bed_method_of(getattr(results, "beds", None))
     if bed is not None:
         parts.append((BED_METHODS, bed))

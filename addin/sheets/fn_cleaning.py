@@ -15,6 +15,7 @@ from addin.sheets import cells
 from addin.sheets.fn_rheology import viscometer
 from addin.sheets.framework import Cells, Num, Text, sheet_function
 from calc import circulation as cc
+from calc.cleaning.hole import CLEANING_METHODS, USES_ROTATION, annulus_cleaning_rates
 from calc.cleaning.indicators import carrying_capacity_index
 from calc.cleaning.slip import SLIP_METHODS
 from calc.cleaning.transport import Cuttings, annular_transport, annular_velocity
@@ -24,6 +25,7 @@ from calc.hydraulics_method import HYDRAULICS_METHODS
 __all__ = [
     "BF_ANN_VEL",
     "BF_CCI",
+    "BF_CLEANING_RATE",
     "BF_CUTTINGS_CONC",
     "BF_SLIP",
     "BF_TRANSPORT",
@@ -294,3 +296,51 @@ def BF_CCI(
     d2, d1 = annulus(d_hole, d_pipe, uset)
     va = annular_velocity(cells.flow_rates(q, uset), d2, d1)
     return carrying_capacity_index(va, density=rho, k=k, tau_y=tau_y, n=n).cci
+
+
+@sheet_function(FAMILY)
+def BF_CLEANING_RATE(
+    density: Num(_DENSITY),
+    readings: Cells(_READINGS),
+    cuttings_size: Num(_CUT_SIZE),
+    cuttings_density: Num(_CUT_DENSITY),
+    d_hole: Num(_D_HOLE),
+    d_pipe: Num(_D_PIPE),
+    bit_size: Num("Bit diameter (in)"),
+    inclination: Num("Hole inclination (degree, 0-180)"),
+    rop: Num("Rate of penetration (ft/h), > 0"),
+    rpm: Num("String rotary speed (rpm, 0-600; blank = 0, the most demanding)") = None,
+    slip_method: Text(_SLIP) = None,
+    hydraulics_method: Text(_HYD) = None,
+    units: Cells(_UNITS) = None,
+) -> Any:
+    """Spilled table: minimum rate for 'adequate' cleaning of one annular interval at any
+    inclination, per method (vertical criteria, Rubiandini, Larsen), rotary-speed use, and the
+    governing rate.
+    """
+    uset = cells.unit_set(units)
+    rho, tau_y, k, n = annulus_fluid(density, readings, hydraulics_method, uset)
+    cut = Cuttings(
+        cells.number(cuttings_size, "cuttings size", "diameter", uset),
+        cells.number(cuttings_density, "cuttings density", "density", uset),
+    )
+    d2, d1 = annulus(d_hole, d_pipe, uset)
+    bit = cells.number(bit_size, "bit size", "diameter", uset)
+    kwargs = {"method": m} if (m := _slip_method(slip_method)) else {}
+    res = annulus_cleaning_rates(
+        d2, d1, cells.number(inclination, "inclination", None, uset), density=rho, k=k,
+        tau_y=tau_y, n=n, cuttings=cut, rop=cells.number(rop, "ROP", "rop", uset),
+        bit_diameter=bit, rpm=0.0 if cells.blank(rpm) else cells.number(rpm, "rotary speed"),
+        **kwargs,
+    )  # fmt: skip
+    unit = uset.label("flow_rate")
+    gov = str(res.governing[0])
+    rows = [["method", "minimum rate", "unit", "uses rotary speed", "governs"]]
+    for m in CLEANING_METHODS:
+        q = float(res.rates[m][0])
+        rows.append([m, uset.from_si(q, "flow_rate") if np.isfinite(q) else "not reached", unit,
+                     "yes" if USES_ROTATION[m] else "no", "yes" if m == gov else ""])  # fmt: skip
+    q = float(res.minimum[0])
+    rows.append(["minimum (governing)", uset.from_si(q, "flow_rate") if np.isfinite(q) else
+                 "not reached", unit, "", gov])  # fmt: skip
+    return rows

@@ -3,6 +3,7 @@
 Modules: :mod:`~calc.cleaning.slip` (slip-velocity correlations, :data:`SLIP_METHODS`),
 :mod:`~calc.cleaning.transport` (annular velocity, transport ratio, concentration, loading),
 :mod:`~calc.cleaning.indicators` (CCI, Larsen-Pilehvari-Azar, thresholds),
+:mod:`~calc.cleaning.deviated` (Rubiandini, the deviated-hole method registry),
 :mod:`~calc.cleaning.hole` (a whole well: per-interval table, minimum rates, loaded ECD),
 :mod:`~calc.cleaning.bed` (stationary cuttings beds at high angle, circulation before a trip).
 All SI.
@@ -23,7 +24,13 @@ from calc.cleaning.bed import (
     no_bed_rate,
     well_cuttings_beds,
 )
+from calc.cleaning.deviated import (
+    DEVIATED_METHODS,
+    RubiandiniResult,
+    rubiandini_critical_velocity,
+)
 from calc.cleaning.hole import (
+    CLEANING_METHODS,
     HoleCleaningResult,
     LoadedProfile,
     cuttings_ecd_increment,
@@ -63,6 +70,8 @@ __all__ = [
     "BED_METHODS",
     "BED_ONSET",
     "CIRCULATION_FACTORS",
+    "CLEANING_METHODS",
+    "DEVIATED_METHODS",
     "SLIP_METHODS",
     "VERDICTS",
     "CCIResult",
@@ -73,6 +82,7 @@ __all__ = [
     "HoleCleaningResult",
     "LarsenResult",
     "LoadedProfile",
+    "RubiandiniResult",
     "SlipResult",
     "TransportResult",
     "WellBeds",
@@ -98,6 +108,7 @@ __all__ = [
     "loaded_margins",
     "no_bed_rate",
     "robinson_power_law",
+    "rubiandini_critical_velocity",
     "slip_velocity",
     "well_cuttings_beds",
 ]

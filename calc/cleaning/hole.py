@@ -7,6 +7,13 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from calc.circulation.pore_fracture import MarginTable, tabulate_margins
+from calc.cleaning.deviated import (
+    RUBIANDINI_RANGE,
+    RubiandiniResult,
+    check_rotary_speed,
+    rubiandini_angle_slope_bound,
+    rubiandini_critical_velocity,
+)
 from calc.cleaning.indicators import (
     LARSEN_RANGE,
     VERDICTS,
@@ -15,19 +22,25 @@ from calc.cleaning.indicators import (
     LarsenResult,
     carrying_capacity_index,
     cleaning_score,
+    larsen_angle_slope_bound,
     larsen_critical_velocity,
     verdict_levels,
 )
 from calc.cleaning.transport import Cuttings, TransportResult, annular_transport
-from calc.errors import InputError, check_choice, check_nonnegative, check_positive
+from calc.errors import InputError, check_choice, check_positive, check_range
+from calc.flow.area import cross_section_area
 from calc.notes import Note
 from calc.numeric import bisect_increasing, depth_weights, scalar_or_array
 from calc.span import Span
 from calc.values import Value
 
 __all__ = [
+    "CLEANING_METHODS",
+    "USES_ROTATION",
     "HoleCleaningResult",
+    "IntervalRates",
     "LoadedProfile",
+    "annulus_cleaning_rates",
     "cuttings_ecd_increment",
     "hole_cleaning",
     "loaded_ecd_profile",
@@ -36,6 +49,13 @@ __all__ = [
 
 #: Default bracket for minimum-rate searches [m³/s] (≈ 1.6-3200 gpm).
 RATE_BRACKET = (1e-4, 0.2)
+
+#: The cleaning methods applied in every interval, in table order: the vertical criteria
+#: (transport ratio, concentration, CCI with the chosen slip method) and the two deviated-hole
+#: methods of :mod:`calc.cleaning.deviated`.
+CLEANING_METHODS = ("vertical_criteria", "rubiandini_1999", "larsen_1997")
+#: Which of them use the string rotary speed.
+USES_ROTATION = {"vertical_criteria": False, "rubiandini_1999": True, "larsen_1997": False}
 
 
 @dataclass(frozen=True, eq=False)
@@ -57,15 +77,19 @@ class HoleCleaningResult:
     is_tool_joint : ndarray of bool
         The intervals as :meth:`calc.geometry.Well.flow_intervals` gives them.
     vertical : ndarray of bool
-        Interval below ``criteria.vertical_limit`` (vertical criteria apply).
+        Where the vertical criteria (transport ratio, CCI) apply: every interval (there is no
+        inclination switch; above ``criteria.vertical_limit`` a note says they are used outside
+        their near-vertical range).
     transport : TransportResult
         Velocities, slip, transport ratio, concentration, loaded density.
     cci : CCIResult
-        Carrying capacity index (meaningful where ``vertical``).
+        Carrying capacity index.
     larsen : LarsenResult
-        High-angle critical velocity and rate (meaningful where not ``vertical``).
+        Larsen-Pilehvari-Azar critical velocity and rate.
+    rubiandini : RubiandiniResult
+        Rubiandini's minimum velocity and rate (uses ``rpm``).
     critical_ratio : float or ndarray
-        Q/Q_crit (Larsen) [-].
+        Q/Q_crit of the more demanding deviated-hole method, Q/max(Q_Larsen, Q_Rubiandini) [-].
     levels : dict of str to ndarray
         Per-criterion levels 0/1/2 (adequate/marginal/poor; -1 not applicable) and "overall".
     verdict : ndarray of str
@@ -73,6 +97,16 @@ class HoleCleaningResult:
     minimum_rate : ndarray
         Smallest flow rate giving the ``require`` verdict in each interval [m³/s] (``inf`` where
         not reached inside the search bracket).
+    method_rates : dict of str to ndarray
+        Per method of :data:`CLEANING_METHODS`: the smallest rate that method accepts as
+        ``require`` in each interval [m³/s] (``inf`` where not reached).
+    governing : ndarray of str
+        The method whose rate is the largest (governs) in each interval.
+    rpm : float
+        String rotary speed used [rpm].
+    rate_slope_bound : ndarray
+        Upper bound of |d(minimum rate)/d(inclination)| [m³/s per degree]
+        (:attr:`IntervalRates.slope_bound`).
     controlling_interval : Span
         The interval needing the highest rate.
     controlling_rate : float
@@ -98,10 +132,15 @@ class HoleCleaningResult:
     transport: TransportResult
     cci: CCIResult
     larsen: LarsenResult
+    rubiandini: RubiandiniResult
     critical_ratio: float | np.ndarray
     levels: dict[str, np.ndarray]
     verdict: np.ndarray
     minimum_rate: np.ndarray
+    method_rates: dict[str, np.ndarray]
+    governing: np.ndarray
+    rpm: float
+    rate_slope_bound: np.ndarray
     controlling_interval: Span
     controlling_rate: float
     require: str
@@ -130,10 +169,14 @@ class HoleCleaningResult:
                     "net_rise_velocity": float(np.asarray(t.net_rise_velocity)[i]),
                     "concentration": float(np.asarray(t.concentration)[i]),
                     "loaded_density": float(np.asarray(t.loaded_density)[i]),
-                    "cci": float(np.asarray(self.cci.cci)[i]) if self.vertical[i] else None,
-                    "critical_rate": None
-                    if self.vertical[i]
-                    else float(np.asarray(self.larsen.critical_rate)[i]),
+                    "cci": float(np.asarray(self.cci.cci)[i]),
+                    "critical_rate": float(np.asarray(self.larsen.critical_rate)[i]),
+                    "rubiandini_critical_rate": float(np.asarray(self.rubiandini.critical_rate)[i]),
+                    "rubiandini_factor": float(np.asarray(self.rubiandini.factor)[i]),
+                    "larsen_angle_factor": float(np.asarray(self.larsen.angle_factor)[i]),
+                    **{f"{m}_rate": float(self.method_rates[m][i]) for m in CLEANING_METHODS},
+                    "governing": str(self.governing[i]),
+                    "rate_slope_bound": float(self.rate_slope_bound[i]),
                     "minimum_rate": float(self.minimum_rate[i]),
                     "verdict": str(self.verdict[i]),
                 }
@@ -168,15 +211,17 @@ class _Setting:
         return tr, cci, np.asarray(q) / self.critical_rate
 
 
-def _minimum_rates(setting: _Setting, criteria, require, vertical, rate_bracket) -> np.ndarray:
-    """Smallest rate giving ``require`` in each interval [m³/s] (``inf`` where the bracket's top
-    does not): the score rises with the rate, so bisect on log q, every interval at once."""
+def _vertical_minimum_rates(setting: _Setting, criteria, require, rate_bracket) -> np.ndarray:
+    """Smallest rate meeting the vertical criteria (transport ratio, concentration, CCI) at
+    ``require`` in each interval [m³/s] (``inf`` where the bracket's top does not): the score
+    rises with the rate, so bisect on log q, every interval at once."""
+    every = np.ones(setting.d_hole.shape, dtype=bool)
 
     def score(qq):
-        t2, c2, r2 = setting.evaluate(qq)
+        t2, c2, _ = setting.evaluate(qq)
         return cleaning_score(
-            criteria, require, vertical, np.asarray(t2.transport_ratio),
-            np.asarray(t2.concentration), np.asarray(c2.cci), r2,
+            criteria, require, every, np.asarray(t2.transport_ratio),
+            np.asarray(t2.concentration), np.asarray(c2.cci), np.inf,
         )  # fmt: skip
 
     lo = np.full(setting.d_hole.shape, float(rate_bracket[0]))
@@ -187,20 +232,82 @@ def _minimum_rates(setting: _Setting, criteria, require, vertical, rate_bracket)
     return np.where(s_hi < 0, np.inf, q_min)
 
 
-def _cleaning_notes(criteria, require, vertical, inc, q_min, levels, rate_bracket) -> list[Note]:
+def _method_rates(setting, criteria, require, lar, rub, rate_bracket) -> dict[str, np.ndarray]:
+    """Per method of CLEANING_METHODS, the smallest rate it accepts as ``require`` [m³/s]."""
+    cr = criteria.critical_ratio(require)
+    lo, hi = float(rate_bracket[0]), float(rate_bracket[1])
+    out = {"vertical_criteria": _vertical_minimum_rates(setting, criteria, require, rate_bracket)}
+    for name, res in (("rubiandini_1999", rub), ("larsen_1997", lar)):
+        q = cr * np.asarray(res.critical_rate, dtype=float)
+        out[name] = np.where(q > hi, np.inf, np.maximum(q, lo))
+    return out
+
+
+def _names_where(names: np.ndarray, mask: np.ndarray) -> str:
+    return ", ".join(dict.fromkeys(str(x) for x in names[mask])) or "none"
+
+
+def _range_notes(criteria, inc, governing) -> list[Note]:
+    """A note for each method used outside its published inclination range (naming the method,
+    the range and the governing methods there)."""
     notes = []
-    if np.any(~vertical & (inc < LARSEN_RANGE[0])):
+    ranges = (
+        ("vertical_criteria", (0.0, float(criteria.vertical_limit)), "vertical_criteria_range"),
+        ("larsen_1997", LARSEN_RANGE, "larsen_extrapolated"),
+        ("rubiandini_1999", RUBIANDINI_RANGE, "rubiandini_range"),
+    )
+    for method, (lo, hi), code in ranges:
+        out = (inc < lo) | (inc > hi)
+        if not np.any(out):
+            continue
         notes.append(
             Note(
                 "warning",
-                "larsen_extrapolated",
-                "Larsen-Pilehvari-Azar critical rate used between {vertical_limit:g}° and "
-                "{larsen_low:g}°, below its stated range (45-60° is the hardest band).",
+                code,
+                "{method} applied outside its published inclination range {lo:g}-{hi:g}° in "
+                "{count} interval(s) (inclination {low:.1f}° to {high:.1f}°); governing there: "
+                "{governing}.",
                 "hole cleaning",
                 values=(
-                    Value("vertical_limit", float(criteria.vertical_limit)),
-                    Value("larsen_low", float(LARSEN_RANGE[0])),
+                    Value("method", method),
+                    Value("lo", float(lo)),
+                    Value("hi", float(hi)),
+                    Value("count", float(np.sum(out))),
+                    Value("low", float(np.min(inc[out]))),
+                    Value("high", float(np.max(inc[out]))),
+                    Value("governing", _names_where(governing, out)),
                 ),
+            )
+        )
+    return notes
+
+
+def _cleaning_notes(criteria, require, inc, q_min, levels, governing, rpm, rpm_given,
+                    rate_bracket) -> list[Note]:  # fmt: skip
+    notes = _range_notes(criteria, inc, governing)
+    with_rpm = [m for m in CLEANING_METHODS if USES_ROTATION[m]]
+    without = [m for m in CLEANING_METHODS if not USES_ROTATION[m]]
+    notes.append(
+        Note(
+            "info",
+            "rotation_use",
+            "string rotary speed {rpm} rpm used by {with_rpm}; {without} have no rotation term.",
+            "hole cleaning",
+            values=(
+                Value("rpm", float(rpm)),
+                Value("with_rpm", ", ".join(with_rpm)),
+                Value("without", ", ".join(without)),
+            ),
+        )
+    )
+    if not rpm_given:
+        notes.append(
+            Note(
+                "warning",
+                "rotary_speed_missing",
+                "no string rotary speed given: 0 rpm assumed (the most demanding for "
+                "rubiandini_1999).",
+                "hole cleaning",
             )
         )
     if np.any(~np.isfinite(q_min)):
@@ -223,6 +330,98 @@ def _cleaning_notes(criteria, require, vertical, inc, q_min, levels, rate_bracke
     return notes
 
 
+@dataclass(frozen=True)
+class IntervalRates:
+    """Minimum cleaning rates of one or more annular intervals, per method (SI).
+
+    rates       method of :data:`CLEANING_METHODS` → rate [m³/s] (``inf`` where not reached)
+    minimum     the largest of them [m³/s]
+    governing   the method giving it
+    larsen, rubiandini   the deviated-hole results behind their rates
+    slope_bound upper bound of |d(minimum)/dθ| [m³/s per degree]: cr·A·max of the Larsen and
+                Rubiandini velocity-slope bounds (the vertical criteria do not depend on θ);
+                it does not fall with θ, so over a step θ₁ → θ₂ the larger endpoint value
+                bounds the change (calc/METHODS.md §10.13)
+    """
+
+    rates: dict[str, np.ndarray]
+    minimum: np.ndarray
+    governing: np.ndarray
+    larsen: LarsenResult
+    rubiandini: RubiandiniResult
+    slope_bound: np.ndarray
+
+
+def annulus_cleaning_rates(
+    d_hole,
+    d_pipe,
+    inclination,
+    *,
+    density,
+    k,
+    tau_y=0.0,
+    n=1.0,
+    cuttings: Cuttings,
+    rop,
+    bit_diameter,
+    rpm=0.0,
+    method: str = "moore",
+    criteria: CleaningCriteria | None = None,
+    require: str = "adequate",
+    rate_bracket: tuple[float, float] = RATE_BRACKET,
+) -> IntervalRates:
+    """Minimum cleaning rate of annular interval(s) by every method, and which governs.
+
+    The rule of :func:`hole_cleaning` for intervals given by their diameters [m] and
+    inclination [degree] (arrays broadcast): vertical criteria, cr·Q_Rubiandini, cr·Q_Larsen;
+    the largest governs.  ``rop`` [m/s] > 0, ``bit_diameter`` [m], ``rpm`` 0-600.
+
+    Examples
+    --------
+    >>> r = annulus_cleaning_rates(0.2244, 0.127, 30.0, density=1342.0, k=0.186, tau_y=4.09,
+    ...     n=0.737, cuttings=Cuttings(0.00635, 2600.0, 0.8), rop=0.0044, bit_diameter=0.2159,
+    ...     rpm=140.0)
+    >>> str(r.governing[0]), round(float(r.minimum[0]) / 6.309e-5)   # m³/s → gpm
+    ('larsen_1997', 508)
+    """
+    criteria = CleaningCriteria() if criteria is None else criteria
+    require = check_choice("require", require, ("adequate", "marginal"))
+    r = float(check_positive("rate of penetration", rop, "m/s"))
+    rpm_v = float(check_rotary_speed(rpm))
+    d2, d1, inc = np.broadcast_arrays(
+        np.atleast_1d(check_positive("hole diameter", d_hole, "m")),
+        np.atleast_1d(np.asarray(d_pipe, dtype=float)),
+        np.atleast_1d(check_range("inclination", inclination, 0.0, 180.0, "degree")),
+    )
+    gap = 0.5 * (d2 - d1)
+    if np.any(cuttings.size >= gap):
+        raise InputError(
+            "cuttings size", float(cuttings.size), f"< the radial gap {gap.min():.4g} m"
+        )
+    inc_hole = np.where(inc > 90.0, 180.0 - inc, inc)
+    lar = larsen_critical_velocity(
+        r, d2, d1, density=density, k=k, tau_y=tau_y, n=n, cuttings_size=cuttings.size,
+        inclination=inc_hole,
+    )  # fmt: skip
+    rub = rubiandini_critical_velocity(
+        r, d2, d1, density=density, k=k, tau_y=tau_y, n=n, cuttings_size=cuttings.size,
+        cuttings_density=cuttings.density, inclination=inc_hole, rpm=rpm_v,
+    )  # fmt: skip
+    q_dev = np.maximum(np.asarray(lar.critical_rate), np.asarray(rub.critical_rate))
+    setting = _Setting(
+        d_hole=d2, d_pipe=d1, density=float(density), params=(tau_y, k, n), cuttings=cuttings,
+        rop=r, bit_diameter=float(bit_diameter), method=method, critical_rate=q_dev,
+    )  # fmt: skip
+    rates = _method_rates(setting, criteria, require, lar, rub, rate_bracket)
+    stack = np.stack([rates[m] for m in CLEANING_METHODS])
+    governing = np.asarray(CLEANING_METHODS, dtype=object)[np.argmax(stack, axis=0)]
+    b_l = larsen_angle_slope_bound(r, d2, d1, density=density, k=k, tau_y=tau_y, n=n,
+                                   cuttings_size=cuttings.size)  # fmt: skip
+    b_r = rubiandini_angle_slope_bound(rub, density)
+    bound = criteria.critical_ratio(require) * cross_section_area(d2, d1) * np.maximum(b_l, b_r)
+    return IntervalRates(rates, stack.max(axis=0), governing, lar, rub, np.asarray(bound))
+
+
 def hole_cleaning(
     well,
     fluid,
@@ -230,19 +429,29 @@ def hole_cleaning(
     *,
     rop,
     cuttings: Cuttings,
+    rpm=None,
     method: str = "moore",
     criteria: CleaningCriteria | None = None,
     require: str = "adequate",
     rate_bracket: tuple[float, float] = RATE_BRACKET,
 ) -> HoleCleaningResult:
-    """Hole cleaning in every annular interval of a well at flow rate(s) ``q``.
+    """Hole cleaning in every annular interval of a well at flow rate(s) ``q``, 0-90° without a
+    switch.
 
     For each interval: annular velocity, slip velocity (``method``), transport ratio, net rise
-    velocity, in-situ cuttings concentration from ROP, bit size and rate, loaded density; the
-    carrying capacity index for near-vertical intervals and the Larsen-Pilehvari-Azar critical
-    rate for inclined ones; a verdict per interval against ``criteria``; the minimum rate for the
-    ``require`` verdict in each interval (vectorised bisection on the rate) and the interval that
-    controls it.
+    velocity, in-situ cuttings concentration from ROP, bit size and rate, loaded density, the
+    carrying capacity index, and the minimum velocities of the two deviated-hole methods
+    (Rubiandini 1999, which uses ``rpm``; Larsen, Pilehvari & Azar 1997).  Every criterion is
+    applied at every inclination; the minimum rate of an interval is the largest of
+
+    * the vertical criteria's rate (transport ratio, concentration and CCI thresholds),
+    * cr·Q_Rubiandini and cr·Q_Larsen (cr the Q/Q_crit threshold of ``require``),
+
+    and the method giving it governs.  Each of these is continuous in inclination, so the
+    governing rate is too: per degree it changes by no more than the fastest of them
+    (calc/METHODS.md §10.13 states the bound).  The vertical criteria do not depend on
+    inclination and Rubiandini's rate does not fall with it, so in 30-60° (as everywhere) the
+    required rate is at least the near-vertical one.
 
     Parameters
     ----------
@@ -252,10 +461,13 @@ def hole_cleaning(
     q : float or array_like
         Flow rate(s) [m³/s], > 0.  An array adds a leading axis to every per-interval array.
     rop : float
-        Rate of penetration [m/s], ≥ 0.
+        Rate of penetration [m/s], > 0.
     cuttings : Cuttings
+        Must be smaller than every radial gap.
+    rpm : float, optional
+        String rotary speed [rpm], 0-600; None → 0 (a note says so).
     method : str
-        Slip-velocity method (:data:`calc.cleaning.SLIP_METHODS`).
+        Slip-velocity method of the vertical criteria (:data:`calc.cleaning.SLIP_METHODS`).
     criteria : CleaningCriteria, optional
         Verdict thresholds (defaults: common practice, see :class:`CleaningCriteria`).
     require : {"adequate", "marginal"}
@@ -269,19 +481,20 @@ def hole_cleaning(
 
     Notes
     -----
-    Below ``criteria.vertical_limit`` (35°) the vertical criteria apply (transport ratio,
-    concentration, CCI); at and above it the Larsen critical rate and the concentration — Larsen
-    et al. is stated for 55-90°, so between 35° and 55° it is extrapolated (a note says so).
-    Pipe rotation, eccentricity and cuttings beds are not modelled.
+    Methods used outside their published inclination range get a note naming the method, the
+    range and the governing method.  Eccentricity and cuttings beds are not modelled here.
 
     References
     ----------
-    See :mod:`calc.cleaning.slip`, :mod:`calc.cleaning.transport`, :mod:`calc.cleaning.indicators`.
+    See :mod:`calc.cleaning.slip`, :mod:`calc.cleaning.transport`, :mod:`calc.cleaning.indicators`,
+    :mod:`calc.cleaning.deviated`.
     """
     criteria = CleaningCriteria() if criteria is None else criteria
     require = check_choice("require", require, ("adequate", "marginal"))
     qv = check_positive("flow rate", q, "m³/s")
-    r = float(check_nonnegative("rate of penetration", rop, "m/s"))
+    r = float(check_positive("rate of penetration", rop, "m/s"))
+    rpm_given = rpm is not None
+    rpm_v = float(check_rotary_speed(0.0 if rpm is None else rpm))
     rho = check_positive("mud density", fluid.density, "kg/m³")
     if rho.ndim:
         raise InputError("fluid density", "an array", "one density for hole cleaning")
@@ -292,16 +505,20 @@ def hole_cleaning(
     d2 = np.asarray(a.outer_diameter, dtype=float)
     d1 = np.asarray(a.inner_diameter, dtype=float)
     _check_cuttings_fit(cuttings, d2, d1, spans)
-    inc = np.asarray(a.inclination, dtype=float)
-    vertical = inc < criteria.vertical_limit
-    lar = larsen_critical_velocity(
-        r, d2, d1, density=rho, k=params[1], tau_y=params[0], n=params[2],
-        cuttings_size=cuttings.size, inclination=np.clip(inc, 0.0, 90.0),
+    inc = check_range("inclination", np.asarray(a.inclination, dtype=float), 0.0, 180.0, "degree")
+    inc_hole = np.where(inc > 90.0, 180.0 - inc, inc)
+    vertical = np.ones(inc.shape, dtype=bool)
+    ty, k, n = params
+    ir = annulus_cleaning_rates(
+        d2, d1, inc, density=rho, k=k, tau_y=ty, n=n, cuttings=cuttings, rop=r,
+        bit_diameter=float(well.bit.size), rpm=rpm_v, method=method, criteria=criteria,
+        require=require, rate_bracket=rate_bracket,
     )  # fmt: skip
+    lar, rub = ir.larsen, ir.rubiandini
+    q_dev = np.maximum(np.asarray(lar.critical_rate), np.asarray(rub.critical_rate))
     setting = _Setting(
         d_hole=d2, d_pipe=d1, density=rho, params=params, cuttings=cuttings, rop=r,
-        bit_diameter=float(well.bit.size), method=method,
-        critical_rate=np.asarray(lar.critical_rate),
+        bit_diameter=float(well.bit.size), method=method, critical_rate=q_dev,
     )  # fmt: skip
     q_arr = np.asarray(qv, dtype=float)
     tr, cci, ratio = setting.evaluate(q_arr[..., None] if q_arr.ndim else q_arr)
@@ -310,10 +527,11 @@ def hole_cleaning(
         np.asarray(cci.cci), ratio,
     )  # fmt: skip
     verdict = np.asarray(VERDICTS, dtype=object)[levels["overall"]]
-    q_min = _minimum_rates(setting, criteria, require, vertical, rate_bracket)
+    rates, q_min, governing = ir.rates, ir.minimum, ir.governing
     ctrl = int(np.argmax(q_min))
-    notes = list(tr.notes) + list(cci.notes)
-    notes += _cleaning_notes(criteria, require, vertical, inc, q_min, levels, rate_bracket)
+    notes = list(tr.notes) + list(rub.notes)
+    notes += _cleaning_notes(criteria, require, inc_hole, q_min, levels, governing, rpm_v,
+                             rpm_given, rate_bracket)  # fmt: skip
     return HoleCleaningResult(
         q=scalar_or_array(q_arr),
         spans=spans,
@@ -327,16 +545,21 @@ def hole_cleaning(
         transport=tr,
         cci=cci,
         larsen=lar,
+        rubiandini=rub,
         critical_ratio=scalar_or_array(ratio),
         levels=levels,
         verdict=verdict,
         minimum_rate=q_min,
+        method_rates=rates,
+        governing=governing,
+        rpm=rpm_v,
+        rate_slope_bound=ir.slope_bound,
         controlling_interval=spans[ctrl],
         controlling_rate=float(q_min[ctrl]),
         require=require,
         criteria=criteria,
         criteria_text=criteria.describe(),
-        method=f"slip {tr.method}; CCI (Robinson); {lar.method}",
+        method=f"vertical criteria: slip {tr.method}, CCI (Robinson); {rub.method}; {lar.method}",
         notes=tuple(dict.fromkeys(notes)),
     )
 

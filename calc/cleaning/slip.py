@@ -18,9 +18,12 @@ Methods (``method=``, resolved through :data:`SLIP_METHODS`):
 ``api13d``         API RP 13D slip-velocity formula (as remembered, calc/METHODS.md §10.6):
                    μ_a at γ̇ = 12V_s/d_s; iterated.
 ``drag_balance``   Sphere-equivalent drag balance with the Haider & Levenspiel (1989) drag law for
-                   non-spherical particles (sphericity ψ); μ_a at γ̇ = V_s/d_s.
+                   non-spherical particles (sphericity ψ); μ_a at the combined shear rate
+                   √((V_s/d_s)² + γ̇_a²), γ̇_a = 12V_a/(D2 - D1) the annular wall shear rate of
+                   Moore's method (0 where no annular flow is given: mud at rest).
 ``fang_2008``      The same drag balance with the Fang et al. (2008) drag correlation for
-                   cuttings (sphericity ψ), as printed in Guo & Liu (2011) eqs. 2.90-2.96.
+                   cuttings (sphericity ψ), as printed in Guo & Liu (2011) eqs. 2.90-2.96; μ_a
+                   as for ``drag_balance``.
 """
 
 from __future__ import annotations
@@ -43,6 +46,7 @@ __all__ = [
     "SLIP_METHODS",
     "SlipResult",
     "annular_apparent_viscosity",
+    "combined_shear_rate",
     "fang_drag",
     "haider_levenspiel_drag",
     "hb_apparent_viscosity",
@@ -317,14 +321,22 @@ def _moore_branches(c, mu):
     return v, held
 
 
-def _held_note(held, method):
+def _held_note(held, method, flowing=False):
+    """Why a slip velocity is 0: the yield stress exceeds the particle's buoyant-weight stress
+    at the shear rate the method uses (at rest where no annular flow is given)."""
     if np.any(held):
+        why = (
+            "at the shear rate this method uses (its particle stress does not exceed the yield "
+            "stress even in the flowing annulus)"
+            if flowing
+            else "at rest (no annular flow given)"
+        )
         return (
             Note(
                 "info",
                 "cuttings_held",
-                f"{method}: the mud's yield stress holds the cuttings in suspension at rest "
-                "(slip velocity 0) in at least one case.",
+                f"{method}: the mud's yield stress holds the cuttings in suspension {why}: "
+                "slip velocity 0 in at least one case.",
                 "slip velocity",
             ),
         )
@@ -391,7 +403,7 @@ def _walker_mayes(c):
     f = np.where(turbulent & ~held, DISC_DRAG, 0.0)
     regime = np.where(held, "held", np.where(turbulent, "turbulent", "transitional"))
     mu_out = np.where(held, 0.0, mu)  # no finite μ_a where the stress is below the yield stress
-    notes = _held_note(held, "walker_mayes")
+    notes = _held_note(held, "walker_mayes", c.flowing)
     if np.any(turbulent & ~held):
         notes += (
             Note(
@@ -422,25 +434,75 @@ def _api13d(c):
     re = np.where(held, 0.0, c.rho * v * c.d / mu)
     f = np.where(held, 0.0, a / np.where(held, 1.0, re) + b)
     gamma = 12.0 * v / c.d
-    return v, re, f, mu, gamma, np.where(held, "held", "quadratic drag"), _held_note(held, "api13d")
+    return (
+        v,
+        re,
+        f,
+        mu,
+        gamma,
+        np.where(held, "held", "quadratic drag"),
+        _held_note(held, "api13d", c.flowing),
+    )
+
+
+def combined_shear_rate(particle_rate, annular_rate):
+    """Magnitude of the shear rate a settling particle sees in a flowing annulus [1/s].
+
+    .. math:: \\dot\\gamma = \\sqrt{\\dot\\gamma_p^2 + \\dot\\gamma_a^2},\\quad
+              \\dot\\gamma_p = V_s/d_s,\\quad \\dot\\gamma_a = 12V_a/(D_2 - D_1)
+
+    γ̇_a is the annular wall shear rate Moore's method evaluates μ_a at (Bourgoyne et al. 1986,
+    §4.13); the quadrature sum is the magnitude (second invariant) of two superposed orthogonal
+    simple shears — our combination, not a published correlation (calc/METHODS.md §10.2).  In a
+    Newtonian fluid it changes nothing (μ does not depend on γ̇).
+
+    >>> float(combined_shear_rate(3.0, 4.0))
+    5.0
+    """
+    return scalar_or_array(np.hypot(particle_rate, annular_rate))
+
+
+def _at_rest_note(c, method):
+    """Drag-balance methods without annular flow: the yield stress acts at the particle's own
+    shear rate only, so slip in a yield-stress mud is that of still mud (small or 0)."""
+    if not c.flowing and np.any(c.tau_y > 0):
+        return (
+            Note(
+                "info",
+                "slip_mud_at_rest",
+                f"{method}: no annular flow given, so the mud is taken at rest; its yield stress "
+                "then acts at the particle's own shear rate and the slip is that of still mud "
+                "(give the annular velocity and diameters for a flowing annulus).",
+                "slip velocity",
+            ),
+        )
+    return ()
+
+
+def _mu_combined(c):
+    def mu_of_v(v):
+        return hb_apparent_viscosity(combined_shear_rate(v / c.d, c.gamma_a), c.tau_y, c.k, c.n)
+
+    return mu_of_v
 
 
 @SLIP_METHODS.register(
     "drag_balance",
-    "sphere-equivalent drag balance, Haider-Levenspiel drag with sphericity; μ_a at V_s/d_s",
+    "sphere-equivalent drag balance, Haider-Levenspiel drag with sphericity; μ_a at the combined "
+    "particle and annular shear rate √((V_s/d_s)² + (12V_a/(D2-D1))²)",
     "Haider, A. & Levenspiel, O. (1989) Powder Technology 58:63-70; drag balance as in "
-    "Bird, Stewart & Lightfoot (2002) Transport Phenomena, 2nd ed., §6.3",
+    "Bird, Stewart & Lightfoot (2002) Transport Phenomena, 2nd ed., §6.3; annular shear rate as "
+    "in Moore's method",
 )
 def _drag_balance(c):
-    def mu_of_v(v):
-        return hb_apparent_viscosity(v / c.d, c.tau_y, c.k, c.n)
+    mu_of_v = _mu_combined(c)
 
     v, held = _solve_drag_balance(c, mu_of_v, lambda re: haider_levenspiel_drag(re, c.psi), 0.05)
     vv = np.where(held, 1e-12, v)
     mu = np.asarray(mu_of_v(vv))
     re = np.where(held, 0.0, c.rho * v * c.d / mu)
     f = np.where(held, 0.0, haider_levenspiel_drag(np.where(held, 1.0, re), c.psi))
-    notes = _held_note(held, "drag_balance")
+    notes = _held_note(held, "drag_balance", c.flowing) + _at_rest_note(c, "drag_balance")
     if np.any(re > 2.6e5):
         notes += (
             Note(
@@ -450,18 +512,19 @@ def _drag_balance(c):
                 "slip velocity",
             ),
         )
-    return v, re, f, mu, v / c.d, np.where(held, "held", "drag law"), notes
+    gamma = combined_shear_rate(v / c.d, c.gamma_a)
+    return v, re, f, mu, gamma, np.where(held, "held", "drag law"), notes
 
 
 @SLIP_METHODS.register(
     "fang_2008",
-    "drag balance with the Fang et al. (2008) cuttings drag correlation; μ_a at V_s/d_s",
+    "drag balance with the Fang et al. (2008) cuttings drag correlation; μ_a at the combined "
+    "particle and annular shear rate",
     "Fang et al. (2008), as printed in Guo & Liu (2011) Applied Drilling Circulation Systems, "
-    "eqs. 2.90-2.96",
+    "eqs. 2.90-2.96; annular shear rate as in Moore's method",
 )
 def _fang(c):
-    def mu_of_v(v):
-        return hb_apparent_viscosity(v / c.d, c.tau_y, c.k, c.n)
+    mu_of_v = _mu_combined(c)
 
     def drag(re):
         return fang_drag(re, c.psi)
@@ -475,7 +538,7 @@ def _fang(c):
     mu = np.asarray(mu_of_v(vv))
     re = np.where(held, 0.0, c.rho * v * c.d / mu)
     f = np.where(held, 0.0, drag(np.where(held, 1.0, re)))
-    notes = _held_note(held, "fang_2008")
+    notes = _held_note(held, "fang_2008", c.flowing) + _at_rest_note(c, "fang_2008")
     if np.any((re > 0) & ((re < 0.1) | (re > 1e5))):
         notes += (
             Note(
@@ -486,7 +549,8 @@ def _fang(c):
                 "slip velocity",
             ),
         )
-    return v, re, f, mu, v / c.d, np.where(held, "held", "drag law"), notes
+    gamma = combined_shear_rate(v / c.d, c.gamma_a)
+    return v, re, f, mu, gamma, np.where(held, "held", "drag law"), notes
 
 
 def slip_velocity(
@@ -534,10 +598,13 @@ def slip_velocity(
     thickness : array_like, optional
         Cuttings thickness [m] (``walker_mayes``; defaults to ``size``).
     annular_velocity : array_like, optional
-        Mean annular velocity V_a [m/s] (needed by ``moore`` and ``chien``).
+        Mean annular velocity V_a [m/s] (needed by ``moore`` and ``chien``; with ``d_hole`` and
+        ``d_pipe`` it gives ``drag_balance`` and ``fang_2008`` the annular shear rate).
     d_hole, d_pipe : array_like, optional
         Annulus outer and inner diameters [m] (needed by ``moore``; when given, the cuttings
-        must be smaller than the radial gap).
+        must be smaller than the radial gap).  Without V_a, D2, D1 the drag-balance methods
+        take the mud at rest: a yield stress may then hold the cuttings (slip 0, a note says
+        why).
 
     Returns
     -------
@@ -596,12 +663,14 @@ def slip_velocity(
         gap = 0.5 * (d2 - d1)
         if np.any(d >= gap):
             raise InputError("cuttings size", float(np.max(d)), f"< the radial annular gap {gap}")
-    arrays = np.broadcast_arrays(d, rho_s, rho, kk, ty, nn, psi, t, v_a, d2, d1)
+    flowing = annular_velocity is not None and d_hole is not None and d_pipe is not None
+    g_a = 12.0 * v_a / (d2 - d1) if flowing else np.asarray(0.0)
+    arrays = np.broadcast_arrays(d, rho_s, rho, kk, ty, nn, psi, t, v_a, d2, d1, g_a)
     shape = arrays[0].shape
     c = SimpleNamespace(
         d=arrays[0], drho=arrays[1] - arrays[2], rho=arrays[2], k=arrays[3], tau_y=arrays[4],
         n=arrays[5], psi=arrays[6], t=arrays[7], v_a=arrays[8], d_hole=arrays[9],
-        d_pipe=arrays[10], shape=shape,
+        d_pipe=arrays[10], gamma_a=arrays[11], flowing=flowing, shape=shape,
     )  # fmt: skip
     v, re, f, mu, gamma, regime, notes = info.func(c)
     return SlipResult(
