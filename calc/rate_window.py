@@ -144,14 +144,14 @@ def _end(q, m_all, names, inside: int, outside: int, default: str):
     return float(q[inside] + t[k] * (q[outside] - q[inside])), names[k]
 
 
-def _cleaning_side(well, fluid, qv, *, rop, cuttings, slip_method, criteria, require):
+def _cleaning_side(well, fluid, qv, *, rop, cuttings, slip_method, criteria, require, rpm=None):
     """Hole cleaning over the sweep: the worst interval's score per rate and the loads."""
     zero = np.zeros_like(qv)
     if cuttings is None:
         return _Cleaning(zero, zero, zero, 0.0, None, None)
     hc = hole_cleaning(
         well, fluid, qv, rop=rop, cuttings=cuttings, method=slip_method, criteria=criteria,
-        require=require,
+        require=require, rpm=rpm,
     )  # fmt: skip
     tr = hc.transport
     score = cleaning_score(
@@ -245,6 +245,7 @@ def _sweep(
     margins,
     surface_rating,
     ecd_basis,
+    rpm=None,
 ) -> _Sweep:
     """The margin curve of every limit at the rates ``qv`` (one vectorised circulate call)."""
     res = circulate(
@@ -256,7 +257,7 @@ def _sweep(
     limits = {}
     cl = _cleaning_side(
         well, fluid, qv, rop=rop, cuttings=cuttings, slip_method=slip_method, criteria=criteria,
-        require=require,
+        require=require, rpm=rpm,
     )  # fmt: skip
     loaded = ecd
     if cuttings is not None:
@@ -436,6 +437,7 @@ def operating_window(
     eccentricity: float = 0.0,
     hydrostatic: str = "exact",
     ecd_basis: str = "loaded",
+    rpm: float | None = None,
 ) -> OperatingWindow:
     """Range of flow rates meeting the ECD, pressure-rating, cleaning and tool limits together.
 
@@ -460,8 +462,9 @@ def operating_window(
         check and the cleaning limit.
     cuttings : Cuttings, optional
         Without cuttings no cleaning limit is applied (a note says so).
-    slip_method, criteria, require
-        Passed to :func:`calc.cleaning.hole_cleaning`.
+    slip_method, criteria, require, rpm
+        Passed to :func:`calc.cleaning.hole_cleaning` (``rpm``: the string rotary speed
+        [rev/min] that Rubiandini's method uses; None: 0 rpm with a note, the most demanding).
     eccentricity, hydrostatic
         Passed to :func:`calc.circulation.circulate`.
     ecd_basis : {"loaded", "clean"}
@@ -522,7 +525,7 @@ def operating_window(
         rop=rop, cuttings=cuttings, slip_method=slip_method, criteria=criteria, require=require,
         method=method, eccentricity=eccentricity, hydrostatic=hydrostatic, window=window,
         weak_points=tuple(weak_points), margins=margins, surface_rating=surface_rating,
-        ecd_basis=ecd_basis,
+        ecd_basis=ecd_basis, rpm=rpm,
     )  # fmt: skip
     sw = _sweep(well, fluid, qv, **kw)
     res, mt, limits, cl, loaded = sw.result, sw.result.margins, sw.limits, sw.cleaning, sw.loaded

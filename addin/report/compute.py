@@ -510,6 +510,7 @@ def _operating_window(case, well, fluid, method, cleaning) -> OperatingWindow | 
         rop=case.checks[-1].values["rop"] if cleaning else 0.0,
         cuttings=cut,
         ecd_basis=WINDOW_ECD_BASIS,
+        rpm=case.checks[-1].values.get("rpm") if cleaning else None,
     )
 
 

@@ -480,6 +480,8 @@ def _setup(results) -> list[tuple[str, str, str]]:
         ),
     ]
     rating = "None" if lim["surface_rating"] is None else _num(lim["surface_rating"])
+    rpm_v = case.checks[-1].values.get("rpm")
+    rpm = "None" if rpm_v is None else _num(rpm_v)
     rows.append(
         (
             "circulation",
@@ -509,7 +511,7 @@ def _setup(results) -> list[tuple[str, str, str]]:
                 "calc.cleaning.hole_cleaning",
                 f"well, fluid, {_num(q)}, rop={_num(case.check_value(-1, 'rop'))}, "
                 f"cuttings=calc.cleaning.Cuttings(size={_num(c.size)}, "
-                f"density={_num(c.density)}, sphericity={_num(c.sphericity)})",
+                f"density={_num(c.density)}, sphericity={_num(c.sphericity)}), rpm={rpm}",
             )
         )
     if _loaded_on(results):
@@ -537,7 +539,8 @@ def _setup(results) -> list[tuple[str, str, str]]:
                 "calc.rate_window.operating_window",
                 f"well, fluid, numpy.linspace({_num(qs[0])}, {_num(qs[-1])}, {qs.size}), "
                 f"window=case.window, weak_points=case.weak_points, margins=margins, "
-                f"surface_rating={rating}, method={m.name!r}, rop={rop}, cuttings={cut}",
+                f"surface_rating={rating}, method={m.name!r}, rop={rop}, cuttings={cut}, "
+                f"rpm={rpm if results.cleaning is not None else None}",
             )
         )
     if results.surge is not None:
