@@ -234,11 +234,7 @@ def _grid(ws, name: str, lim: Limits, budget: list[int]) -> list[list]:
     except WorkbookError:
         raise
     except Exception as exc:  # broken sheet XML: invalid characters, undefined entities, ...
-        last = (
-            f"after cell {get_column_letter(len(rows[-1]) or 1)}{len(rows)}"
-            if rows
-            else "at its start"
-        )
+        last = f"row {len(rows) + 1}"  # rows are read in order, gaps included
         first = str(exc).splitlines()[0][:120] if str(exc) else type(exc).__name__
         raise WorkbookError(
             f"{name}: sheet '{ws.title}' {last}",
