@@ -25,6 +25,7 @@ from typing import Any
 import numpy as np
 from openpyxl.utils.cell import column_index_from_string as col_index
 from openpyxl.utils.cell import coordinate_from_string, get_column_letter
+from openpyxl.utils.exceptions import CellCoordinatesException
 
 import addin.sheets.functions  # noqa: F401  (defines every family)
 from addin.sheets.framework import FUNCTIONS
@@ -113,7 +114,10 @@ def calculate(path: str | os.PathLike) -> dict[tuple[str, str], Any]:
         sheet = sheet_part.strip("'").split("]", 1)[-1]
         values = np.atleast_2d(np.asarray(getattr(ranges, "value", ranges), dtype=object))
         first = cells.split(":")[0]
-        col_letter, row0 = coordinate_from_string(first)
+        try:
+            col_letter, row0 = coordinate_from_string(first)
+        except (ValueError, CellCoordinatesException):  # not a cell (seen: a node "#REF!")
+            continue
         col0 = col_index(col_letter)
         for i, row in enumerate(values):
             for j, v in enumerate(row):
@@ -373,8 +377,8 @@ def store_values(
     total = 0
     arrays: list[tuple[str, str, str]] = []
     with zipfile.ZipFile(src) as zin:
-        infos = zin.infolist()
-        members = {i.filename: zin.read(i) for i in infos}
+        infos = {i.filename: i for i in zin.infolist()}
+        members = {n: zin.read(i) for n, i in infos.items()}
         parts = {part: name for name, part in sheet_parts(zin).items()}
     for name, data in list(members.items()):
         if name in parts:
@@ -394,6 +398,7 @@ def store_values(
             sheet, k = f"{FORMULA_SHEET} {k}", k + 1
         _add_sheet(members, sheet, _formula_sheet_xml(arrays))
     with zipfile.ZipFile(dst, "w", zipfile.ZIP_DEFLATED) as zout:
-        for name, data in members.items():
-            zout.writestr(name, data)
+        for name, data in members.items():  # same member dates as the input (added: 1980)
+            info = infos.get(name) or zipfile.ZipInfo(name, date_time=(1980, 1, 1, 0, 0, 0))
+            zout.writestr(info, data, compress_type=zipfile.ZIP_DEFLATED)
     return Stored(total, tuple(arrays), sheet)
