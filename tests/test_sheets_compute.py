@@ -97,7 +97,7 @@ def test_computed_copy_keeps_formulas_and_stores_values(tmp_path):
     assert ("Mud & rheology", "F1:F2", "BF_HB(A1:B6)") in [
         tuple(row) for row in listed.iter_rows(min_row=3, values_only=True)
     ]  # … and its text listed
-    assert ("MUD & RHEOLOGY", "D6", "#DIV/0!") in errors
+    assert ("Mud & rheology", "D6", "#DIV/0!") in errors
     with zipfile.ZipFile(out) as z:
         assert b"fullCalcOnLoad" not in z.read("xl/workbook.xml")
         assert z.read("xl/styles.xml") == zipfile.ZipFile(src).read("xl/styles.xml")
@@ -119,7 +119,7 @@ def test_cli_exit_codes_and_atomic_write(tmp_path):
     run = _cli("sheets", "compute", src, "-o", out)
     assert run.returncode == 0, run.stderr
     assert "formulas kept" in run.stdout and "BF array formulas" in run.stdout
-    assert "MUD & RHEOLOGY!D6 computes to #DIV/0!" in run.stderr
+    assert "Mud & rheology!D6 computes to #DIV/0!" in run.stderr
     before = out.read_bytes()
     run = _cli("sheets", "compute", src, "-o", out)
     assert run.returncode == 3 and "--force" in run.stderr
@@ -229,3 +229,37 @@ def test_libreoffice_shows_numbers_in_the_shipped_demo_workbook(tmp_path):
                     assert num == pytest.approx(want, rel=1e-9), (title, c.coordinate, got)
                     checked += 1
     assert checked >= 40  # numbers where the BF_ formulas are
+
+
+def test_macros_and_external_links_are_not_copied(tmp_path):
+    """A macro-enabled book (xlwings imports the functions into a VBA module) is computed, but
+    the copy carries neither the VBA project nor external links (ECMA-376 part names)."""
+    src, bad, out = tmp_path / "in.xlsx", tmp_path / "macro.xlsm", tmp_path / "out.xlsx"
+    _small_book(src)
+    with zipfile.ZipFile(src) as zin, zipfile.ZipFile(bad, "w") as zout:
+        for info in zin.infolist():
+            data = zin.read(info)
+            if info.filename == "[Content_Types].xml":
+                data = data.replace(
+                    b"application/vnd.openxmlformats-officedocument.spreadsheetml.sheet.main+xml",
+                    b"application/vnd.ms-excel.sheet.macroEnabled.main+xml",
+                ).replace(
+                    b"</Types>",
+                    b'<Override PartName="/xl/vbaProject.bin" '
+                    b'ContentType="application/vnd.ms-office.vbaProject"/></Types>',
+                )
+            if info.filename == "xl/_rels/workbook.xml.rels":
+                data = data.replace(
+                    b"</Relationships>",
+                    b'<Relationship Id="rIdVba" Type="http://schemas.microsoft.com/office/2006/'
+                    b'relationships/vbaProject" Target="vbaProject.bin"/></Relationships>',
+                )
+            zout.writestr(info, data)
+        zout.writestr("xl/vbaProject.bin", b"\xd0\xcf\x11\xe0 not a real VBA project")
+    stored, _ = compute_file(bad, out)
+    assert stored.dropped == ("xl/vbaProject.bin",)
+    with zipfile.ZipFile(out) as z:
+        assert "xl/vbaProject.bin" not in z.namelist()
+        assert b"vbaProject" not in z.read("xl/_rels/workbook.xml.rels")
+        assert b"macroEnabled" not in z.read("[Content_Types].xml")
+    assert openpyxl.load_workbook(out, data_only=True).active["D1"].value == pytest.approx(19.0)

@@ -22,12 +22,13 @@ from __future__ import annotations
 import contextlib
 import io
 import sys
+import zipfile
 from pathlib import Path
 
 from addin.commands.exit_codes import EXIT_OK
 from addin.safe_io import OutputExistsError, atomic_write
 from addin.sheets import engine
-from addin.workbook_input import check_workbook
+from addin.workbook_input import check_workbook, sheet_parts
 from addin.workbook_layout import WorkbookError
 
 __all__ = ["compute_file", "run"]
@@ -73,8 +74,10 @@ def compute_file(src, out, *, force: bool = False, keep_arrays: bool = False):
         ) from exc
     with atomic_write(out, overwrite=force) as tmp:
         stored = engine.store_values(src, tmp, values, keep_arrays=keep_arrays)
+    with zipfile.ZipFile(src) as z:  # the engine upper-cases sheet names: name them as typed
+        title = {name.upper(): name for name in sheet_parts(z)}
     errors = sorted(
-        (sheet, ref, v)
+        (title.get(sheet, sheet), ref, v)
         for (sheet, ref), v in values.items()
         if isinstance(v, str) and (v in engine.ERROR_VALUES or v.startswith("#BF!"))
     )
@@ -92,6 +95,8 @@ def run(args) -> int:
             f"; {len(stored.arrays)} array formulas stored as values, their text on sheet "
             f"'{stored.formula_sheet}'"
         )
+    if stored.dropped:
+        line += f"; not copied: {', '.join(stored.dropped)} (macros and external links)"
     print(line + ")")
     for sheet, ref, v in errors[:_SHOWN]:
         print(f"boreflow: warning: {args.workbook}: {sheet}!{ref} computes to {v}", file=sys.stderr)

@@ -282,6 +282,8 @@ class Stored:
     cells: int
     arrays: tuple[tuple[str, str, str], ...]
     formula_sheet: str | None
+    #: parts not copied: a VBA project (macros) and external links
+    dropped: tuple[str, ...] = ()
 
 
 #: Title of the sheet that lists the array formulas replaced by values.
@@ -358,6 +360,49 @@ def _add_sheet(members: dict[str, bytes], title: str, xml: str) -> None:
     )
 
 
+_MACRO_MAIN = b"application/vnd.ms-excel.sheet.macroEnabled.main+xml"
+_PLAIN_MAIN = b"application/vnd.openxmlformats-officedocument.spreadsheetml.sheet.main+xml"
+
+
+def _dropped_part(name: str) -> bool:
+    low = name.lower()
+    return low.startswith(("xl/vbaproject", "xl/externallinks/")) or (
+        low.endswith(".bin") and ("vba" in low)
+    )
+
+
+def _drop_macros_and_links(members: dict[str, bytes]) -> tuple[str, ...]:
+    """Remove a VBA project and external links from the package (the copy never carries
+    macros or links to other files), with their relations and content types."""
+    gone = tuple(n for n in members if _dropped_part(n))
+    for n in gone:
+        del members[n]
+    if not gone:
+        return gone
+    for name in list(members):
+        if name.endswith(".rels"):
+            text = members[name].decode("utf-8")
+            text = re.sub(
+                r"<Relationship\b[^>]*Target=\"[^\"]*(?:vbaProject|externalLink)[^\"]*\"[^>]*/>",
+                "",
+                text,
+                flags=re.I,
+            )
+            members[name] = text.encode("utf-8")
+    ct = members["[Content_Types].xml"].replace(_MACRO_MAIN, _PLAIN_MAIN)
+    ct = re.sub(
+        rb'<Override\b[^>]*PartName="/xl/(?:vbaProject|externalLinks/)[^"]*"[^>]*/>', b"", ct
+    )
+    members["[Content_Types].xml"] = ct
+    members["xl/workbook.xml"] = re.sub(
+        rb"<(\w+:)?externalReferences\b.*?</(\w+:)?externalReferences>|<(\w+:)?externalReferences\s*/>",
+        b"",
+        members["xl/workbook.xml"],
+        flags=re.S,
+    )
+    return gone
+
+
 def store_values(
     src: str | os.PathLike, dst: str | os.PathLike, values, *, keep_arrays: bool = False
 ) -> Stored:
@@ -369,7 +414,8 @@ def store_values(
     a program that cannot compute the functions shows the stored values.  Array formulas
     replaced by values (unless ``keep_arrays``) are listed on an added sheet
     (:data:`FORMULA_SHEET`).  openpyxl cannot write a formula together with its value
-    (it writes an empty ``<v/>``), hence this copy at the XML level.
+    (it writes an empty ``<v/>``), hence this copy at the XML level.  A VBA project
+    (macros) and external links are not copied (:attr:`Stored.dropped`).
     """
     by_sheet: dict[str, dict[str, Any]] = {}
     for (sheet, ref), v in values.items():
@@ -390,6 +436,7 @@ def store_values(
             arrays += [(parts[name], ref, text) for ref, text in replaced]
         elif name == "xl/workbook.xml":
             members[name] = re.sub(rb'\sfullCalcOnLoad="(?:1|true)"', b"", data)
+    dropped = _drop_macros_and_links(members)
     sheet = None
     if arrays:
         taken = {n.upper() for n in parts.values()}
@@ -401,4 +448,4 @@ def store_values(
         for name, data in members.items():  # same member dates as the input (added: 1980)
             info = infos.get(name) or zipfile.ZipInfo(name, date_time=(1980, 1, 1, 0, 0, 0))
             zout.writestr(info, data, compress_type=zipfile.ZIP_DEFLATED)
-    return Stored(total, tuple(arrays), sheet)
+    return Stored(total, tuple(arrays), sheet, dropped)
