@@ -22,6 +22,9 @@ Subcommands:
     A report for every case (folders are searched for *.toml and *.xlsx, ``@list.txt`` reads
     paths from a file), with a progress bar on stderr and a summary table on stdout.
 
+``boreflow sheets compute IN.xlsx -o OUT.xlsx [--force] [--keep-arrays]``
+    A workbook of ``BF_…`` formulas computed headlessly; the copy stores every value.
+
 ``boreflow methods [--json | --markdown]``
     Every registered method of every registry (hydraulics methods first, the default at the
     top): description, primary source, verification status in words, evidence and caveats.
@@ -51,6 +54,7 @@ from addin.commands import calc as calc_cmd
 from addin.commands import methods as methods_cmd
 from addin.commands import report as report_cmd
 from addin.commands import rheology as rheology_cmd
+from addin.commands import sheets as sheets_cmd
 from addin.commands.exit_codes import (
     EXIT_BAD_INPUT,
     EXIT_BROKEN_PIPE,
@@ -215,6 +219,27 @@ def _add_batch(sub) -> None:
     bt.set_defaults(func=batch_cmd.run)
 
 
+def _add_sheets(sub) -> None:
+    sh = sub.add_parser(
+        "sheets",
+        help="workbooks of BF_ worksheet functions without a spreadsheet program",
+        description="sheets compute IN.xlsx -o OUT.xlsx: evaluate every BF_ formula headlessly "
+        "and write a copy in which every formula cell holds its value (formulas kept; array "
+        "formulas stored as values and listed on a sheet 'BF array formulas').",
+    )
+    ssub = sh.add_subparsers(dest="action", metavar="ACTION", required=True, parser_class=_Parser)
+    c = ssub.add_parser("compute", help="compute a workbook and write a copy with the values")
+    c.add_argument("workbook", help="workbook (.xlsx), e.g. workbooks/demo-workbook.xlsx")
+    c.add_argument("-o", "--output", required=True, help="the computed copy (.xlsx)")
+    c.add_argument("--force", action="store_true", help="replace an existing output file")
+    c.add_argument(
+        "--keep-arrays",
+        action="store_true",
+        help="keep array formulas live too (LibreOffice then recomputes them: #NAME?)",
+    )
+    c.set_defaults(func=sheets_cmd.run)
+
+
 _EPILOG = """first run (the invented demo case):
   boreflow report workbooks/demo-case.toml -o demo-report.xlsx
 
@@ -247,6 +272,7 @@ def build_parser() -> argparse.ArgumentParser:
     _add_calc(sub)
     _add_batch(sub)
     _add_methods(sub)
+    _add_sheets(sub)
     return parser
 
 

@@ -12,13 +12,21 @@ Safety (a workbook from e-mail is untrusted input)
       VBA project; external links are not followed (``keep_links=False``);
     * cells are read as stored values (``data_only=True``); formulas are not evaluated, and a
       formula cell without a stored value is reported, not guessed;
-    * the number of sheets and of cells read is limited.
+    * the number of sheets and of cells read is limited; the cells a sheet stores are counted
+      in its XML before openpyxl loads it (a sheet of millions of cells in one row is refused
+      in a second, not read for half a minute);
+    * the ``<dimension>`` tag a file declares is not trusted: the reader resets it and reads
+      every row the sheet holds (read-only openpyxl would otherwise stop at the declared range
+      and silently drop the rest);
+    * a sheet whose XML is broken (invalid characters, undefined entities) or a cell holding a
+      non-finite number is refused naming the sheet and the last cell read.
 """
 
 from __future__ import annotations
 
 import difflib
 import math
+import re
 import zipfile
 from dataclasses import dataclass
 from pathlib import Path
@@ -30,7 +38,16 @@ from openpyxl.utils import get_column_letter
 from addin.workbook_layout import BLOCKS, MARK, Block, WorkbookError, unit_labels
 from calc.units import UNIT_SYSTEMS
 
-__all__ = ["Limits", "open_workbook_safely", "read_blocks"]
+__all__ = [
+    "MAIN_NS",
+    "REL_NS",
+    "Limits",
+    "check_workbook",
+    "count_stored_cells",
+    "open_workbook_safely",
+    "read_blocks",
+    "sheet_parts",
+]
 
 
 @dataclass(frozen=True)
@@ -45,6 +62,9 @@ class Limits:
     max_cells: int = 200_000
     max_rows: int = 5000
     max_cols: int = 60
+    #: cells stored in all sheets' XML together (counted before loading; see
+    #: :func:`count_stored_cells`)
+    max_stored_cells: int = 1_000_000
 
 
 # ---------------------------------------------------------------------------- safe opening
@@ -90,10 +110,74 @@ def _check_zip(path: Path, lim: Limits) -> None:
         )
 
 
+MAIN_NS = "http://schemas.openxmlformats.org/spreadsheetml/2006/main"
+REL_NS = "http://schemas.openxmlformats.org/officeDocument/2006/relationships"
+PKG_REL_NS = "http://schemas.openxmlformats.org/package/2006/relationships"
+_CELL_TAG = re.compile(rb"<(?:\w+:)?c[\s/>]")
+
+
+def sheet_parts(zf: zipfile.ZipFile) -> dict[str, str]:
+    """``{sheet name: zip member of its XML}`` from ``xl/workbook.xml`` and its relations
+    (parsed with defusedxml)."""
+    # lazy: defusedxml may be absent (open_workbook_safely refuses then, with a clear error)
+    from defusedxml.ElementTree import fromstring
+
+    book = fromstring(zf.read("xl/workbook.xml"))
+    try:
+        rels = fromstring(zf.read("xl/_rels/workbook.xml.rels"))
+    except KeyError:
+        return {}
+    target = {r.get("Id"): r.get("Target", "") for r in rels.iter(f"{{{PKG_REL_NS}}}Relationship")}
+    out = {}
+    for sh in book.iter(f"{{{MAIN_NS}}}sheet"):
+        t = target.get(sh.get(f"{{{REL_NS}}}id"), "")
+        out[sh.get("name")] = t.lstrip("/") if t.startswith("/") else "xl/" + t
+    return out
+
+
+def count_stored_cells(path, limits: Limits | None = None) -> int:
+    """The number of cells the sheets of an .xlsx store (``<c>`` elements), counted by
+    streaming each sheet's XML; :class:`WorkbookError` naming the sheet once the count passes
+    ``limits.max_stored_cells`` (before openpyxl loads anything)."""
+    lim = limits or Limits()
+    p = Path(path)
+    total = 0
+    try:
+        with zipfile.ZipFile(p) as z:
+            names = {part: name for name, part in sheet_parts(z).items()}
+            for info in z.infolist():
+                if not (
+                    info.filename.startswith("xl/worksheets/") and info.filename.endswith(".xml")
+                ):
+                    continue
+                tail = b""
+                with z.open(info) as fh:
+                    while chunk := fh.read(1 << 20):
+                        buf = tail + chunk
+                        total += len(_CELL_TAG.findall(buf))
+                        tail = buf[-8:] if not _CELL_TAG.search(buf[-8:]) else b""
+                        if total > lim.max_stored_cells:
+                            sheet = names.get(info.filename, info.filename)
+                            raise WorkbookError(
+                                f"{p.name}: sheet '{sheet}'",
+                                f"more than {lim.max_stored_cells:,} stored cells",
+                                f"at most {lim.max_stored_cells:,} cells in the workbook",
+                                "too large",
+                            )
+    except WorkbookError:
+        raise
+    except Exception as exc:  # damaged zip or hostile workbook.xml
+        raise WorkbookError(
+            str(p), f"{type(exc).__name__}: {exc}"[:160], "a valid .xlsx", "unreadable"
+        ) from exc
+    return total
+
+
 def open_workbook_safely(path, limits: Limits | None = None):
     """Open an untrusted .xlsx for reading values only; raise :class:`WorkbookError` if unsafe.
 
-    Returns an openpyxl workbook in read-only, values-only mode.
+    Returns an openpyxl workbook in read-only, values-only mode, every sheet's declared
+    dimensions reset (so all its rows are read, whatever its ``<dimension>`` tag says).
     """
     lim = limits or Limits()
     p = Path(path)
@@ -104,6 +188,7 @@ def open_workbook_safely(path, limits: Limits | None = None):
             str(p), "defusedxml missing", "install defusedxml (a boreflow dependency)", "unsafe"
         )
     _check_zip(p, lim)
+    count_stored_cells(p, lim)
     try:
         wb = openpyxl.load_workbook(
             p, read_only=True, data_only=True, keep_vba=False, keep_links=False
@@ -132,6 +217,8 @@ def open_workbook_safely(path, limits: Limits | None = None):
     if len(wb.sheetnames) > lim.max_sheets:
         wb.close()
         raise WorkbookError(str(p), f"{len(wb.sheetnames)} sheets", f"at most {lim.max_sheets}")
+    for ws in wb.worksheets:
+        ws.reset_dimensions()  # never trust the file's <dimension> tag (it may understate)
     return wb
 
 
@@ -141,6 +228,24 @@ def open_workbook_safely(path, limits: Limits | None = None):
 def _grid(ws, name: str, lim: Limits, budget: list[int]) -> list[list]:
     """All cell values of a sheet as a list of rows (bounded)."""
     rows = []
+    try:
+        for row in _rows(ws, name, lim, budget):
+            rows.append(row)
+    except WorkbookError:
+        raise
+    except Exception as exc:  # broken sheet XML: invalid characters, undefined entities, ...
+        last = f"row {len(rows) + 1}"  # rows are read in order, gaps included
+        first = str(exc).splitlines()[0][:120] if str(exc) else type(exc).__name__
+        raise WorkbookError(
+            f"{name}: sheet '{ws.title}' {last}",
+            first,
+            "well-formed sheet XML (no control characters, no undefined entities)",
+            "unreadable",
+        ) from exc
+    return rows
+
+
+def _rows(ws, name: str, lim: Limits, budget: list[int]):
     for r, row in enumerate(ws.iter_rows(values_only=True), start=1):
         if r > lim.max_rows:
             raise WorkbookError(
@@ -155,8 +260,26 @@ def _grid(ws, name: str, lim: Limits, budget: list[int]) -> list[list]:
             raise WorkbookError(
                 name, f"> {lim.max_cells} cells", f"at most {lim.max_cells}", "too large"
             )
-        rows.append(row)
-    return rows
+        for c, v in enumerate(row):
+            if isinstance(v, float) and not math.isfinite(v):
+                raise WorkbookError(_where(name, ws.title, r - 1, c), v, "a finite number")
+        yield row
+
+
+def check_workbook(path, limits: Limits | None = None) -> int:
+    """Open an untrusted .xlsx safely and read every cell of every sheet once (bounded); raise
+    :class:`WorkbookError` naming file, sheet and cell on anything broken or too large.
+    Returns the number of cells read."""
+    lim = limits or Limits()
+    name = Path(path).name
+    wb = open_workbook_safely(path, lim)
+    budget = [0]
+    try:
+        for ws in wb.worksheets:
+            _grid(ws, name, lim, budget)
+    finally:
+        wb.close()
+    return budget[0]
 
 
 def _empty(v) -> bool:

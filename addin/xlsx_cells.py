@@ -111,7 +111,8 @@ def set_text(cell, text) -> None:
     """Store ``text`` in an openpyxl cell as literal text, never as a formula.
 
     The value is stored as a string cell; text that a spreadsheet would take for a formula also
-    gets the quote-prefix flag, so editing the cell keeps it text.
+    gets the quote-prefix flag, so editing the cell keeps it text.  Set the cell's named style
+    *before* calling this: assigning ``cell.style`` afterwards clears the flag.
     """
     value = "" if text is None else str(text)
     cell.value = value
@@ -123,11 +124,11 @@ def set_text(cell, text) -> None:
 def put(ws, row: int, col: int, value, style: str = "bf_cell"):
     """Write a value; text always goes in as text (never as a formula)."""
     cell = ws.cell(row=row, column=col)
+    cell.style = style  # first: assigning a named style resets quotePrefix
     if isinstance(value, str):
         set_text(cell, value)
     else:
         cell.value = value
-    cell.style = style
     return cell
 
 

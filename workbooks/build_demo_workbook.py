@@ -1,11 +1,18 @@
 """Build workbooks/demo-workbook.xlsx: a daily hydraulics sheet driven by boreflow functions.
 
-    python workbooks/build_demo_workbook.py [--check D1|D2] [--out PATH]
+    python workbooks/build_demo_workbook.py [--check D1|D2] [--out PATH] [--live]
 
 The inputs come from the invented demo case (workbooks/demo-case.toml): one mud check, the
 string, the hole, the bit.  Every result cell is a ``BF_…`` formula (or a SUM of them), so the
 sheet recomputes when an input changes once the functions are enabled (see
 workbooks/worksheet-functions.md); ``addin.sheets.engine.calculate`` computes it headlessly.
+
+The workbook is shipped *computed*: the build runs ``boreflow sheets compute`` on it, so every
+formula cell also stores its value and LibreOffice, macOS and Linux users see numbers instead
+of ``#NAME?``.  Ordinary formulas stay live; the array formulas (the fits table, the rate sweep,
+the units list, the gel-break and surge columns) are stored as values, with their text on the
+sheet "BF array formulas" (LibreOffice recomputes array formulas on opening).  ``--live``
+writes the uncomputed workbook with every array formula live (for Excel with the functions).
 
 Layout (a design of our own): one sheet "Daily hydraulics" in six bands, inputs in blue-grey
 cells on the left of each band, results to the right — 1 mud check and readings,
@@ -243,7 +250,20 @@ def _surge_band(case, lay, put, head, r, ref, readings, u, first_ann, last, surv
     return r + 1
 
 
-def build(out: Path = OUT, check_label: str = "D1") -> Layout:
+def build(out: Path = OUT, check_label: str = "D1", *, computed: bool = False) -> Layout:
+    """Write the demo workbook to ``out``; with ``computed`` also store every value (as
+    ``boreflow sheets compute`` does).  Returns the layout (where every result is)."""
+    if computed:
+        # lazy: the computing step needs the formula engine; building the formulas does not
+        from addin.commands.sheets import compute_file
+
+        plain = Path(out).with_suffix(".live.xlsx")
+        lay = build(plain, check_label)
+        try:
+            compute_file(plain, out, force=True)
+        finally:
+            plain.unlink(missing_ok=True)
+        return lay
     case = tomllib.loads(CASE.read_text(encoding="utf-8"))
     check = next(c for c in case["check"] if c["label"].startswith(check_label))
     st = case["survey"]["stations"]
@@ -553,8 +573,11 @@ def main(argv=None) -> int:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--check", default="D1", help="mud check label prefix (D1 or D2)")
     ap.add_argument("--out", default=str(OUT))
+    ap.add_argument(
+        "--live", action="store_true", help="formulas only, no stored values (array formulas live)"
+    )
     a = ap.parse_args(argv)
-    build(Path(a.out), a.check)
+    build(Path(a.out), a.check, computed=not a.live)
     print(f"wrote {a.out}")
     return 0
 

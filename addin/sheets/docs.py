@@ -72,8 +72,9 @@ not available on macOS.
 ### macOS
 
 Classic xlwings does not offer user-defined functions on macOS.  There, compute the same
-workbook headlessly (`addin.sheets.engine.calculate("book.xlsx")` evaluates every `BF_…`
-formula with the Python package `formulas`), or use boreflow from Python or its command line.
+workbook headlessly with `boreflow sheets compute book.xlsx -o book-computed.xlsx` (see the
+top of this page; from Python: `addin.sheets.engine.calculate("book.xlsx")`), or use boreflow
+from Python or its command line.
 
 ### If a cell shows …
 
@@ -240,7 +241,16 @@ def render() -> str:
             cell, point them at a range of viscometer readings or geometry, and get PV, n, K,
             τy, a pressure loss, an ECD or a hole-cleaning indicator in your units.  Every
             number is computed by boreflow's `calc` package; the functions only translate
-            cells to and from it."""
+            cells to and from it.
+
+            **Without the add-in** (macOS, Linux, LibreOffice, a file viewer):
+            `boreflow sheets compute book.xlsx -o book-computed.xlsx` evaluates every `BF_…`
+            formula headlessly (Python package `formulas`) and writes a copy in which every
+            formula cell also stores its value.  Ordinary formulas are kept beside their
+            values (so Excel with the functions still recomputes them); array formulas are
+            stored as values and their text is listed on a sheet "BF array formulas",
+            because LibreOffice recomputes array formulas on opening (`--keep-arrays` keeps
+            them live).  The shipped `workbooks/demo-workbook.xlsx` is computed this way."""
         ),
         "",
         _ENABLE,
