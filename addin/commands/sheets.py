@@ -53,11 +53,13 @@ def compute_file(src, out, *, force: bool = False, keep_arrays: bool = False):
         raise WorkbookError(str(src), "the input itself", "an output file other than the input")
     check_workbook(src)
     try:
-        # lazy: the formula engine is an optional dependency (boreflow[test])
+        # lazy: the formula engine is an optional dependency (boreflow[sheets])
         import formulas  # noqa: F401
     except ImportError as exc:
         raise WorkbookError(
-            str(src), "formula engine missing", "install the Python package `formulas`"
+            str(src),
+            "formula engine missing",
+            'install it: pip install "boreflow[sheets]" (the Python package `formulas`)',
         ) from exc
     try:
         with contextlib.redirect_stderr(io.StringIO()):  # the engine's progress bars
