@@ -61,7 +61,13 @@ def run(args) -> int:
         tvd = _q(args.tvd, "depth", s, "--tvd")
         p = hydrostatic_pressure(rho, tvd, hydrostatic=args.hydrostatic)
         _show(
-            {"hydrostatic pressure": (p, "pressure"), "gradient": (p / tvd, "pressure_gradient")},
+            {
+                "hydrostatic pressure": (p, "pressure"),
+                "gradient": (  # per unit depth: defined at TVD 0 too (cli)
+                    hydrostatic_pressure(rho, 1.0, hydrostatic=args.hydrostatic),
+                    "pressure_gradient",
+                ),
+            },
             s,
             args.json,
         )
