@@ -46,9 +46,12 @@ from __future__ import annotations
 
 import argparse
 import os
+import re
 import signal
 import sys
 import threading
+
+import numpy as np
 
 import calc
 from addin.commands import batch as batch_cmd
@@ -68,7 +71,7 @@ from addin.commands.exit_codes import (
 from addin.commands.output import SanitisingStream, error_text
 from calc.errors import InputError
 from calc.hydraulics_method import CONSTANT_SETS, DEFAULT_METHOD, HYDRAULICS_METHODS
-from calc.units import UNIT_SYSTEMS, label, unit_for
+from calc.units import UNIT_SYSTEMS, from_si, label, to_si, unit_for
 
 __all__ = ["build_parser", "main"]
 
@@ -348,6 +351,57 @@ def _broken_pipe() -> int:
     return EXIT_BROKEN_PIPE
 
 
+# ------------------------------------------------------------------ cli: errors in the user's unit
+#: ``calc`` options holding a quantity: option -> (attribute, quantity kind).
+_QUANTITY_OPTIONS = {
+    "--density": ("density", "density"),
+    "--tvd": ("tvd", "depth"),
+    "--rate": ("rate", "flow_rate"),
+    "--hole": ("hole", "diameter"),
+    "--pipe": ("pipe", "diameter"),
+    "--size": ("size", "diameter"),
+}
+_NUMBER = r"[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?"
+_BOUND = re.compile(rf"^\s*([<>≤≥]=?)\s*({_NUMBER})\s*(\S+)\s*$")
+_USER_VALUE = re.compile(rf"^\s*({_NUMBER})\s*(.*?)\s*$")
+
+
+def _user_unit_error(args, exc: InputError) -> str | None:
+    """A ``calc`` input error said with the option and the value as the user typed them, in the
+    unit the user gave (their text's unit, else the ``--units`` system's), the bound converted
+    to that unit: ``--density = -11 ppg: not allowed; allowed: > 0 ppg (density)``.  None when
+    the error is not about one of the options."""
+    if getattr(args, "command", None) != "calc" or getattr(args, "quantity", "") == "circulate":
+        return None
+    if isinstance(exc.value, (str, bool)) or np.ndim(exc.value) != 0:
+        return None
+    system = args.units
+    for option, (attr, kind) in _QUANTITY_OPTIONS.items():
+        given = getattr(args, attr, None)
+        m = _USER_VALUE.match(str(given)) if given is not None else None
+        if not m:
+            continue
+        unit = m.group(2) or unit_for(kind, system)
+        try:
+            si = float(to_si(float(m.group(1)), unit, kind, option))
+        except (InputError, ValueError):
+            continue
+        if not np.isclose(si, float(exc.value), rtol=1e-9, atol=1e-12):
+            continue
+        allowed = exc.allowed
+        b = _BOUND.match(exc.allowed)
+        if b:
+            try:
+                bound_si = float(to_si(float(b.group(2)), b.group(3), kind, option))
+                allowed = f"{b.group(1)} {float(from_si(bound_si, unit, kind)):.6g} {label(unit)}"
+            except (InputError, ValueError):
+                pass
+        return (
+            f"{option} = {m.group(1)} {label(unit)}: {exc.problem}; allowed: {allowed} ({exc.name})"
+        )
+    return None
+
+
 # ------------------------------------------------------------------ cli: signals and output
 class _Terminated(BaseException):
     """SIGTERM arrived: unwinds like KeyboardInterrupt, so every ``finally`` (the temporary
@@ -398,7 +452,8 @@ def _main(argv=None) -> int:
         print(f"boreflow: error: {exc}", file=sys.stderr)
         return EXIT_BAD_INPUT
     except InputError as exc:
-        print(f"boreflow: error: {error_text(exc)}", file=sys.stderr)
+        said = _user_unit_error(locals().get("args"), exc) or error_text(exc)
+        print(f"boreflow: error: {said}", file=sys.stderr)
         return EXIT_BAD_INPUT
     except FileExistsError as exc:
         print(f"boreflow: error: {exc}", file=sys.stderr)

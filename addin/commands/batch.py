@@ -16,6 +16,7 @@ from __future__ import annotations
 
 import csv
 import io
+import math
 import sys
 import time
 import traceback
@@ -88,6 +89,17 @@ _QUANTITY_COLUMNS = {
 }
 
 
+def _four_digits(v: float) -> str:
+    """At least four significant digits, no exponent: 2952 psi, 203.6 bar, 20355472 Pa.
+
+    >>> _four_digits(2951.8), _four_digits(203.56), _four_digits(2.0355e7)
+    ('2952', '203.6', '20355000')
+    """
+    if not math.isfinite(v) or v == 0:
+        return f"{v:.0f}"
+    return f"{v:.{max(0, 3 - math.floor(math.log10(abs(v))))}f}"
+
+
 def _header(col: str, system: str) -> str:
     """A summary column's header: the quantity's columns carry their unit, ``ecd_bit [ppg]``."""
     kind = _QUANTITY_COLUMNS.get(col)
@@ -99,7 +111,7 @@ def _summary(results, s: str) -> dict[str, str]:
     circ = results.circulation
     tight = None if circ.margins is None else circ.margins.tightest
     return {
-        "standpipe_pressure": f"{_display(circ.standpipe_pressure, 'pressure', s):.0f}",
+        "standpipe_pressure": _four_digits(_display(circ.standpipe_pressure, "pressure", s)),
         "ecd_bit": f"{_display(circ.ecd_bit, 'density', s):.3f}",
         "tightest_margin": ""
         if tight is None
