@@ -5,6 +5,7 @@ from __future__ import annotations
 from addin.case import load_case
 from addin.commands.exit_codes import EXIT_OK
 from addin.commands.output import json_text
+from addin.report.jsonout import rheology_json
 from addin.rheology_data import rheology_data
 from calc.errors import InputError
 
@@ -118,5 +119,5 @@ def run(args) -> int:
         )
     system = args.units or case.unit_system
     data = rheology_data(case, system)
-    print(json_text(data) if args.json else rheology_text(data))
+    print(json_text(rheology_json(data)) if args.json else rheology_text(data))
     return EXIT_OK
