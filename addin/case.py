@@ -29,6 +29,7 @@ from __future__ import annotations
 import difflib
 import hashlib
 import json
+import math
 import re
 import tomllib
 from collections.abc import Mapping
@@ -698,7 +699,10 @@ _CONTROL_CHARS = re.compile(r"[\x00-\x08\x0b\x0c\x0e-\x1f\x7f-\x9f]")
 
 
 def _check_text(node, source: str, path: str = "") -> None:
-    """Refuse control characters in any text of a parsed case, naming the key and position."""
+    """Refuse control characters in any text of a parsed case, naming the key and position,
+    and the non-finite numbers TOML allows (``nan``, ``inf``): no case value may be one."""
+    if isinstance(node, float) and not math.isfinite(node):
+        raise InputError(_where(source, path), str(node), "a finite number", problem="not a number")
     if isinstance(node, str):
         m = _CONTROL_CHARS.search(node)
         if m:

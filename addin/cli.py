@@ -137,8 +137,7 @@ def _method_option(p) -> None:
     names = HYDRAULICS_METHODS.names()
     p.add_argument(
         "--method",
-        choices=names,
-        default=None,
+        default=None,  # checked by the registry, whose message lists every name
         metavar="METHOD",
         help=f"hydraulics method: one of {', '.join(names)} (default: the case's "
         f"[case].method, else {DEFAULT_METHOD}; 'boreflow methods' describes each)",
@@ -158,11 +157,10 @@ def _add_constants(p) -> None:
     """``--constants``: the field-constant set of the hydraulics method (calc/METHODS.md §7.9)."""
     p.add_argument(
         "--constants",
-        choices=list(CONSTANT_SETS),
         default=None,
         metavar="SET",
-        help="field constants: exact (derived from SI, default) or as_printed (the published "
-        "rounded constants; api13d_1995_power_law only)",
+        help=f"field constants: one of {', '.join(CONSTANT_SETS)}; exact (derived from SI, "
+        "default) or as_printed (the published rounded constants; api13d_1995_power_law only)",
     )
 
 

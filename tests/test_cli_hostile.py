@@ -301,3 +301,19 @@ def test_nozzle_count_notation(capsys):
     a = capsys.readouterr().out
     assert run(*base, "12,12,12,11,11,11") == 0
     assert capsys.readouterr().out == a
+
+
+@pytest.mark.parametrize(
+    "old, new, key",
+    [("ports = 6", "ports = nan", "bit.ports"), ("ports = 6", "ports = inf", "bit.ports")],
+)
+def test_non_finite_numbers_in_a_case_are_bad_input(tmp_path, capsys, old, new, key):
+    """TOML 1.0 allows nan and inf literals; no case value may be one."""
+    text = _demo_text()
+    assert old in text
+    case = tmp_path / "nf.toml"
+    case.write_text(text.replace(old, new, 1))
+    assert run("report", case, "-o", tmp_path / "r.xlsx") == 2
+    err = capsys.readouterr().err
+    assert key in err and "finite" in err
+    assert not (tmp_path / "r.xlsx").exists()

@@ -75,7 +75,8 @@ def test_units_help_lists_the_systems(capsys, cmd):
 
 def test_unknown_method_is_bad_input(capsys, tmp_path):
     assert run("report", DEMO, "-o", tmp_path / "r.xlsx", "--method", "nonsense") == 2
-    assert "invalid choice" in capsys.readouterr().err
+    err = capsys.readouterr().err
+    assert "nonsense" in err and all(n in err for n in HYDRAULICS_METHODS.names())
 
 
 @pytest.mark.parametrize(
@@ -124,3 +125,8 @@ def test_batch_summary_has_one_unit_per_column(tmp_path, capsys):
     assert "." in metric["standpipe_pressure [bar]"]  # four significant digits, not 204
     ecd_ppg = float(field["ecd_bit [ppg]"])
     assert float(metric["ecd_bit [kg/m³]"]) / 119.8264 == pytest.approx(ecd_ppg, abs=1e-3)
+
+
+def test_batch_unknown_method_is_refused_before_any_case(tmp_path, capsys):
+    assert run("batch", DEMO, "-o", tmp_path / "o", "--method", "nonsense", "-q") == 2
+    assert not (tmp_path / "o").exists()

@@ -29,6 +29,7 @@ from addin.commands.report import output_path, run_one
 from addin.report.compute import scalar
 from addin.safe_io import OutputExistsError, atomic_write_bytes, csv_safe
 from calc.errors import InputError
+from calc.hydraulics_method import resolve_method
 from calc.units import label, unit_for
 
 __all__ = ["run"]
@@ -146,6 +147,8 @@ def run(args) -> int:
     if summary is not None and summary.exists() and not args.force:
         raise OutputExistsError(summary)  # before any case runs: exit 3, nothing written
     system = args.units
+    if args.method is not None:
+        resolve_method(args.method)  # an unknown name is bad input for the whole batch (exit 2)
     names = [c.stem for c in cases]
     dupes = {n for n in names if names.count(n) > 1}
     if dupes:
