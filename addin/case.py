@@ -29,6 +29,7 @@ from __future__ import annotations
 import difflib
 import hashlib
 import json
+import math
 import re
 import tomllib
 from collections.abc import Mapping
@@ -436,6 +437,14 @@ class Case:
         w = self.sections.get("pressure_window")
         if not w:
             return None
+        for key in ("tvd", "pore", "fracture"):  # cli: an empty list is refused, not a crash
+            if len(w[key]) == 0:
+                raise InputError(
+                    _where(self.source, f"pressure_window.{key}"),
+                    "[]",
+                    "at least one station",
+                    problem="empty",
+                )
         return self._build("pressure_window", PressureWindow, w["tvd"], w["pore"], w["fracture"])
 
     @property
@@ -668,20 +677,77 @@ def load_case(path) -> Case:
             ".toml case file or .xlsx workbook",
             problem="unknown file type",
         )
-    if p.is_file() and p.stat().st_size > 5 * 2**20:
-        raise InputError(
-            f"case file {p.name}", f"{p.stat().st_size} bytes", "at most 5 MiB", problem="too large"
-        )
-    try:
-        text = p.read_text(encoding="utf-8")
-    except OSError as exc:
-        raise InputError(
-            "case file", str(path), "a readable TOML file", problem=exc.strerror or "cannot be read"
-        ) from exc
+    text = _read_case_text(p)  # cli: bounded read, encoding and nesting checks
     try:
         data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         raise InputError(
             f"case file {p.name}", str(exc), "valid TOML", problem="syntax error"
         ) from exc
+    except RecursionError as exc:  # arrays nested thousands deep
+        raise InputError(
+            f"case file {p.name}", "nesting too deep", "valid TOML", problem="syntax error"
+        ) from exc
+    _check_text(data, p.name)
     return parse_case(data, p.name)
+
+
+# ---------------------------------------------------------------- cli: reading the case text
+#: Control characters a case's text may not hold (tab, line feed and carriage return may): a
+#: workbook cell cannot store them (XML 1.0 §2.2) and a terminal would act on them.
+_CONTROL_CHARS = re.compile(r"[\x00-\x08\x0b\x0c\x0e-\x1f\x7f-\x9f]")
+
+
+def _check_text(node, source: str, path: str = "") -> None:
+    """Refuse control characters in any text of a parsed case, naming the key and position,
+    and the non-finite numbers TOML allows (``nan``, ``inf``): no case value may be one."""
+    if isinstance(node, float) and not math.isfinite(node):
+        raise InputError(_where(source, path), str(node), "a finite number", problem="not a number")
+    if isinstance(node, str):
+        m = _CONTROL_CHARS.search(node)
+        if m:
+            raise InputError(
+                _where(source, path),
+                f"character U+{ord(m.group()):04X} at position {m.start() + 1}",
+                "printable text (no control characters)",
+                problem="control character",
+            )
+    elif isinstance(node, dict):
+        for k, v in node.items():
+            _check_text(k, source, path)
+            _check_text(v, source, f"{path}.{k}" if path else str(k))
+    elif isinstance(node, list):
+        for i, v in enumerate(node):
+            _check_text(v, source, f"{path}[{i}]")
+
+
+#: The largest case file read (a case is a few kB; 5 MiB leaves room for long surveys).
+CASE_FILE_CAP = 5 * 2**20
+
+
+def _read_case_text(p: Path) -> str:
+    """The text of case file ``p``: at most :data:`CASE_FILE_CAP` bytes read from any kind of
+    file (a device or pipe such as ``/dev/zero`` has no size to check first), UTF-8 with an
+    optional byte-order mark (which is dropped); every failure an :class:`InputError` naming
+    the file."""
+    try:
+        with open(p, "rb") as fh:
+            raw = fh.read(CASE_FILE_CAP + 1)
+    except OSError as exc:
+        raise InputError(
+            "case file", str(p), "a readable TOML file", problem=exc.strerror or "cannot be read"
+        ) from exc
+    if len(raw) > CASE_FILE_CAP:
+        raise InputError(
+            f"case file {p.name}", "more than 5 MiB", "at most 5 MiB", problem="too large"
+        )
+    try:
+        return raw.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        line = raw[: exc.start].count(b"\n") + 1
+        raise InputError(
+            f"case file {p.name}",
+            f"byte 0x{raw[exc.start]:02x} at line {line}",
+            "UTF-8 text (save the file as UTF-8)",
+            problem="not UTF-8",
+        ) from exc

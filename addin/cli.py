@@ -39,6 +39,8 @@ Exit codes
 4  the output could not be written (missing folder, permissions, disk full); any previous
    file is left intact
 5  batch: at least one case failed (the others were written; see the summary table)
+143  stopped by SIGTERM: the temporary file of a write in progress is removed, no report is
+   left half-written
 141  the reader of the output went away (``boreflow rheology CASE | head``): the rest of the
    output is dropped quietly, as other command-line tools do (128 + SIGPIPE)
 """
@@ -47,8 +49,14 @@ from __future__ import annotations
 
 import argparse
 import os
+import re
+import signal
 import sys
+import threading
 
+import numpy as np
+
+import calc
 from addin.commands import batch as batch_cmd
 from addin.commands import calc as calc_cmd
 from addin.commands import methods as methods_cmd
@@ -61,11 +69,13 @@ from addin.commands.exit_codes import (
     EXIT_EXISTS,
     EXIT_INTERNAL,
     EXIT_INTERRUPTED,
+    EXIT_TERMINATED,
     EXIT_WRITE,
 )
-from addin.commands.output import error_text
+from addin.commands.output import SanitisingStream, error_text
 from calc.errors import InputError
-from calc.units import UNIT_SYSTEMS
+from calc.hydraulics_method import CONSTANT_SETS, DEFAULT_METHOD, HYDRAULICS_METHODS
+from calc.units import UNIT_SYSTEMS, from_si, label, to_si, unit_for
 
 __all__ = ["build_parser", "main"]
 
@@ -79,16 +89,70 @@ class _Parser(argparse.ArgumentParser):
         raise _ArgError(message)
 
 
+# ------------------------------------------------------------------ cli: units and choices in help
+def _unit_help(kind: str) -> str:
+    """The unit of a ``kind`` option in every unit system, for its help text:
+    ``ppg with --units oilfield, kg/m³ with metric or si``."""
+    by_unit: dict[str, list[str]] = {}
+    for system in UNIT_SYSTEMS:
+        by_unit.setdefault(label(unit_for(kind, system)), []).append(system)
+    parts = [f"{u} ({' or '.join(systems)})" for u, systems in by_unit.items()]
+    return "a number in " + ", ".join(parts) + " by --units, or text with a unit"
+
+
+def _units_option(p, *, default, dest="units", what="inputs and output") -> None:
+    """``--units``: the unit system, with its choices."""
+    fallback = default or "the case's [case].units"
+    p.add_argument(
+        "--units",
+        dest=dest,
+        choices=list(UNIT_SYSTEMS),
+        default=default,
+        metavar="SYSTEM",
+        help=f"unit system of {what}: one of {', '.join(UNIT_SYSTEMS)} (default {fallback})",
+    )
+
+
+def _nozzle_list(value: str) -> str:
+    """``--nozzles``: whole 1/32-in sizes, comma separated; ``3x12`` is three 12s.  Returns the
+    plain comma list (``12,12,12``); anything else is an error naming the bad item (exit 2).
+
+    >>> _nozzle_list("3x12, 11")
+    '12,12,12,11'
+    """
+    sizes: list[str] = []
+    for item in value.replace(" ", "").split(","):
+        if not item:
+            continue
+        count, _, size = item.rpartition("x") if "x" in item.lower() else ("1", "", item)
+        if not (count.isdigit() and size.isdigit() and 0 < int(count) <= 32 and int(size) > 0):
+            raise argparse.ArgumentTypeError(
+                f"{item!r} in {value!r}: allowed nozzle sizes are whole numbers of 1/32 in, "
+                "comma separated (e.g. 12,12,12 or 3x12)"
+            )
+        sizes += [str(int(size))] * int(count)
+    if not sizes:
+        raise argparse.ArgumentTypeError(f"{value!r}: at least one nozzle size")
+    return ",".join(sizes)
+
+
+def _method_option(p) -> None:
+    """``--method``: the hydraulics method, its choices from the registry."""
+    names = HYDRAULICS_METHODS.names()
+    p.add_argument(
+        "--method",
+        default=None,  # checked by the registry, whose message lists every name
+        metavar="METHOD",
+        help=f"hydraulics method: one of {', '.join(names)} (default: the case's "
+        f"[case].method, else {DEFAULT_METHOD}; 'boreflow methods' describes each)",
+    )
+
+
 # ------------------------------------------------------------------ the subcommands
 def _add_rheology(sub) -> None:
     p = sub.add_parser("rheology", help="rheology of the mud checks and slurries of a case")
     p.add_argument("case", help="case file (TOML), e.g. workbooks/demo-case.toml")
-    p.add_argument(
-        "--units",
-        choices=list(UNIT_SYSTEMS),
-        default=None,
-        help="unit system for output (default: the case's [case].units)",
-    )
+    _units_option(p, default=None, what="the output")
     p.add_argument("--json", action="store_true", help="machine-readable JSON output")
     p.set_defaults(func=rheology_cmd.run)
 
@@ -98,8 +162,9 @@ def _add_constants(p) -> None:
     p.add_argument(
         "--constants",
         default=None,
-        help="field constants: exact (derived from SI, default) or as_printed (the published "
-        "rounded constants; api13d_1995_power_law only)",
+        metavar="SET",
+        help=f"field constants: one of {', '.join(CONSTANT_SETS)}; exact (derived from SI, "
+        "default) or as_printed (the published rounded constants; api13d_1995_power_law only)",
     )
 
 
@@ -116,12 +181,13 @@ def _add_report(sub) -> None:
     )
     p.add_argument("-o", "--output", help="report file (default: CASE-report.xlsx here)")
     p.add_argument("--force", action="store_true", help="replace an existing report")
-    p.add_argument("--json", action="store_true", help="also print every result as JSON")
     p.add_argument(
-        "--method",
-        default=None,
-        help="hydraulics method (default: the case's, else api13d_2010_hb)",
+        "--json",
+        action="store_true",
+        help="also print every result as JSON (in the case's units, each named; "
+        "schema: workbooks/report-json-schema.json)",
     )
+    _method_option(p)
     _add_constants(p)
     p.set_defaults(func=report_cmd.run)
 
@@ -138,19 +204,16 @@ def _add_calc(sub) -> None:
     )
 
     def common(q):
-        q.add_argument(
-            "--units",
-            choices=list(UNIT_SYSTEMS),
-            default="oilfield",
-            help="unit system of inputs and output (default oilfield)",
-        )
+        _units_option(q, default="oilfield")
         q.add_argument("--json", action="store_true", help="JSON output")
         q.set_defaults(func=calc_cmd.run)
         return q
 
     h = common(csub.add_parser("hydrostatic", help="pressure of a static column ρ·g·TVD"))
-    h.add_argument("--density", required=True)
-    h.add_argument("--tvd", required=True)
+    h.add_argument("--density", required=True, help="mud density: " + _unit_help("density"))
+    h.add_argument(
+        "--tvd", required=True, help="true vertical depth (0 or more): " + _unit_help("depth")
+    )
     h.add_argument(
         "--hydrostatic",
         choices=["exact", "0.052"],
@@ -158,32 +221,39 @@ def _add_calc(sub) -> None:
         help="g convention (default exact gₙ)",
     )
     a = common(csub.add_parser("annular-velocity", help="mean velocity Q / annulus area"))
-    a.add_argument("--rate", required=True)
-    a.add_argument("--hole", required=True, help="hole or casing inside diameter")
-    a.add_argument("--pipe", required=True, help="pipe outside diameter")
+    a.add_argument("--rate", required=True, help="flow rate: " + _unit_help("flow_rate"))
+    a.add_argument(
+        "--hole", required=True, help="hole or casing inside diameter: " + _unit_help("diameter")
+    )
+    a.add_argument("--pipe", required=True, help="pipe outside diameter: " + _unit_help("diameter"))
     b = common(csub.add_parser("bit", help="TFA, nozzle velocity, bit ΔP, power, HSI, impact"))
-    b.add_argument("--rate", required=True)
-    b.add_argument("--density", required=True)
-    b.add_argument("--size", required=True, help="bit diameter")
-    b.add_argument("--nozzles", required=True, help="sizes in 1/32 in, e.g. 12,12,12,11,11,11")
-    b.add_argument("--cd", type=float, default=0.95, help="discharge coefficient (0.95)")
+    b.add_argument("--rate", required=True, help="flow rate: " + _unit_help("flow_rate"))
+    b.add_argument("--density", required=True, help="mud density: " + _unit_help("density"))
+    b.add_argument("--size", required=True, help="bit diameter: " + _unit_help("diameter"))
+    b.add_argument(
+        "--nozzles",
+        required=True,
+        type=_nozzle_list,
+        help="nozzle sizes in 1/32 in whatever --units (the trade's nozzle numbers), comma "
+        "separated, e.g. 12,12,12,11,11,11",
+    )
+    b.add_argument(
+        "--cd",
+        type=float,
+        default=0.95,
+        help="nozzle discharge coefficient, dimensionless (default 0.95)",
+    )
     k = csub.add_parser("circulate", help="SPP breakdown and ECD for a case at a rate")
-    k.add_argument("case")
-    k.add_argument("--rate", help="flow rate (default: the latest check's)")
+    k.add_argument("case", help="case file (.toml) or input workbook (.xlsx)")
     k.add_argument(
-        "--method",
-        default=None,
-        help="hydraulics method (default: the case's, else api13d_2010_hb)",
+        "--rate",
+        help="flow rate (default: the latest check's): a number in the case's flow-rate unit "
+        "(" + _unit_help("flow_rate").removeprefix("a number in ") + ")",
     )
+    _method_option(k)
     _add_constants(k)
-    k.add_argument(
-        "--units",
-        dest="units_given",
-        choices=list(UNIT_SYSTEMS),
-        default=None,
-        help="output units (default the case's)",
-    )
-    k.add_argument("--json", action="store_true")
+    _units_option(k, default=None, dest="units_given", what="the output")
+    k.add_argument("--json", action="store_true", help="JSON output")
     k.set_defaults(func=calc_cmd.run, units="oilfield")
 
 
@@ -211,10 +281,21 @@ def _add_batch(sub) -> None:
         "file, a folder (its *.toml and *.xlsx) or @list.txt (one path per line). Failed "
         "cases are listed, the others still written; exit status 5 if any failed.",
     )
-    bt.add_argument("paths", nargs="+", metavar="PATH")
-    bt.add_argument("-o", "--output", required=True, metavar="FOLDER")
-    bt.add_argument("--force", action="store_true", help="replace existing reports")
-    bt.add_argument("--summary", metavar="FILE.csv", help="also write the summary as CSV")
+    bt.add_argument("paths", nargs="+", metavar="PATH", help="case file, folder or @list.txt")
+    bt.add_argument(
+        "-o", "--output", required=True, metavar="FOLDER", help="report folder (created if need be)"
+    )
+    bt.add_argument(
+        "--force", action="store_true", help="replace existing reports and --summary file"
+    )
+    bt.add_argument(
+        "--summary",
+        metavar="FILE.csv",
+        help="also write the summary as CSV (an existing file is refused before any case runs, "
+        "exit 3, unless --force)",
+    )
+    _units_option(bt, default="oilfield", what="the summary table (every case converted)")
+    _method_option(bt)
     bt.add_argument("-q", "--quiet", action="store_true", help="no progress bar")
     bt.set_defaults(func=batch_cmd.run)
 
@@ -252,6 +333,7 @@ exit codes:
   3  output exists (use --force to replace it)
   4  cannot write the output (the previous file is left intact)
   5  batch: some cases failed (the others were written)
+  143  stopped by SIGTERM (temporary files removed)
   141  output pipe closed by its reader (e.g. | head): rest of the output dropped
 """
 
@@ -266,6 +348,9 @@ def build_parser() -> argparse.ArgumentParser:
         epilog=_EPILOG,
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
+    parser.add_argument(
+        "--version", action="version", version=f"boreflow {calc.__version__}"
+    )  # cli: --version
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
     _add_rheology(sub)
     _add_report(sub)
@@ -290,8 +375,86 @@ def _broken_pipe() -> int:
     return EXIT_BROKEN_PIPE
 
 
+# ------------------------------------------------------------------ cli: errors in the user's unit
+#: ``calc`` options holding a quantity: option -> (attribute, quantity kind).
+_QUANTITY_OPTIONS = {
+    "--density": ("density", "density"),
+    "--tvd": ("tvd", "depth"),
+    "--rate": ("rate", "flow_rate"),
+    "--hole": ("hole", "diameter"),
+    "--pipe": ("pipe", "diameter"),
+    "--size": ("size", "diameter"),
+}
+_NUMBER = r"[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?"
+_BOUND = re.compile(rf"^\s*([<>≤≥]=?)\s*({_NUMBER})\s*(\S+)\s*$")
+_USER_VALUE = re.compile(rf"^\s*({_NUMBER})\s*(.*?)\s*$")
+
+
+def _user_unit_error(args, exc: InputError) -> str | None:
+    """A ``calc`` input error said with the option and the value as the user typed them, in the
+    unit the user gave (their text's unit, else the ``--units`` system's), the bound converted
+    to that unit: ``--density = -11 ppg: not allowed; allowed: > 0 ppg (density)``.  None when
+    the error is not about one of the options."""
+    if getattr(args, "command", None) != "calc" or getattr(args, "quantity", "") == "circulate":
+        return None
+    if isinstance(exc.value, (str, bool)) or np.ndim(exc.value) != 0:
+        return None
+    system = args.units
+    for option, (attr, kind) in _QUANTITY_OPTIONS.items():
+        given = getattr(args, attr, None)
+        m = _USER_VALUE.match(str(given)) if given is not None else None
+        if not m:
+            continue
+        unit = m.group(2) or unit_for(kind, system)
+        try:
+            si = float(to_si(float(m.group(1)), unit, kind, option))
+        except (InputError, ValueError):
+            continue
+        if not np.isclose(si, float(exc.value), rtol=1e-9, atol=1e-12):
+            continue
+        allowed = exc.allowed
+        b = _BOUND.match(exc.allowed)
+        if b:
+            try:
+                bound_si = float(to_si(float(b.group(2)), b.group(3), kind, option))
+                allowed = f"{b.group(1)} {float(from_si(bound_si, unit, kind)):.6g} {label(unit)}"
+            except (InputError, ValueError):
+                pass
+        return (
+            f"{option} = {m.group(1)} {label(unit)}: {exc.problem}; allowed: {allowed} ({exc.name})"
+        )
+    return None
+
+
+# ------------------------------------------------------------------ cli: signals and output
+class _Terminated(BaseException):
+    """SIGTERM arrived: unwinds like KeyboardInterrupt, so every ``finally`` (the temporary
+    file of :func:`addin.safe_io.atomic_write`) runs before the exit code 143."""
+
+
+def _on_sigterm(signum, frame):
+    raise _Terminated
+
+
 def main(argv=None) -> int:
-    """Run the command line; returns the exit code (0 ok, 2 bad input)."""
+    """Run the command line; returns the exit code (the table in the module docstring)."""
+    previous = None
+    if threading.current_thread() is threading.main_thread():
+        previous = signal.signal(signal.SIGTERM, _on_sigterm)
+    out, err = sys.stdout, sys.stderr
+    sys.stdout, sys.stderr = SanitisingStream(out), SanitisingStream(err, keep="\n\t\r")
+    try:
+        return _main(argv)
+    except _Terminated:
+        print("boreflow: terminated; nothing half-written was left behind", file=sys.stderr)
+        return EXIT_TERMINATED
+    finally:
+        sys.stdout, sys.stderr = out, err
+        if previous is not None:
+            signal.signal(signal.SIGTERM, previous)
+
+
+def _main(argv=None) -> int:
     parser = build_parser()
     try:
         args = parser.parse_args(argv)
@@ -313,7 +476,8 @@ def main(argv=None) -> int:
         print(f"boreflow: error: {exc}", file=sys.stderr)
         return EXIT_BAD_INPUT
     except InputError as exc:
-        print(f"boreflow: error: {error_text(exc)}", file=sys.stderr)
+        said = _user_unit_error(locals().get("args"), exc) or error_text(exc)
+        print(f"boreflow: error: {said}", file=sys.stderr)
         return EXIT_BAD_INPUT
     except FileExistsError as exc:
         print(f"boreflow: error: {exc}", file=sys.stderr)

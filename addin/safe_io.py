@@ -7,7 +7,11 @@ Atomic write
     fails if the target appeared meanwhile (no check-then-write race).  The folder is ``fsync``-ed
     afterwards so the rename itself survives a power cut.  On any failure the temporary file is
     removed and the previous target, if any, is untouched.  A process killed mid-write leaves at
-    most a hidden ``.~boreflow-*.tmp`` file beside the target, never a half-written target.
+    most a hidden ``.~boreflow-*.tmp`` file beside the target, never a half-written target;
+    such leftovers of our own (that name pattern, older than :data:`STALE_SECONDS`) are removed
+    by the next write into that folder (:func:`remove_stale_temps`).  The final file gets the
+    permissions an ordinary ``open()`` would give it (``0o666`` less the umask), not the
+    ``0o600`` of the temporary file.
 
 Formula-like text
     A spreadsheet treats text that starts with ``=``, ``+``, ``-`` or ``@`` as a formula when a
@@ -21,6 +25,7 @@ from __future__ import annotations
 import contextlib
 import os
 import tempfile
+import time
 from collections.abc import Callable, Iterator
 from pathlib import Path
 
@@ -31,6 +36,7 @@ __all__ = [
     "atomic_write_bytes",
     "csv_safe",
     "is_formula_like",
+    "remove_stale_temps",
 ]
 
 #: First characters that make a spreadsheet read text as a formula (OWASP "CSV injection" list,
@@ -38,6 +44,48 @@ __all__ = [
 FORMULA_TRIGGERS = ("=", "+", "-", "@", "\t", "\r")
 
 TEMP_PREFIX = ".~boreflow-"
+TEMP_SUFFIX = ".tmp"
+#: A temporary file of ours untouched for this long belongs to a killed run (a report takes
+#: seconds to write): the next write into the folder removes it.
+STALE_SECONDS = 300.0
+
+
+def _umask() -> int:
+    """The process umask (read by setting and restoring it; there is no read-only call)."""
+    mask = os.umask(0o022)
+    os.umask(mask)
+    return mask
+
+
+def remove_stale_temps(folder, *, older_than: float = STALE_SECONDS) -> list[Path]:
+    """Remove our own leftover temporary files (``.~boreflow-*.tmp``) older than ``older_than``
+    seconds from ``folder``; returns the removed paths.  Other files are never touched.
+
+    >>> import tempfile, pathlib
+    >>> d = pathlib.Path(tempfile.mkdtemp())
+    >>> old = d / ".~boreflow-abc.tmp"; _ = old.write_text("x"); os.utime(old, (0, 0))
+    >>> keep = d / "other.tmp"; _ = keep.write_text("x"); os.utime(keep, (0, 0))
+    >>> [p.name for p in remove_stale_temps(d)], sorted(p.name for p in d.iterdir())
+    (['.~boreflow-abc.tmp'], ['other.tmp'])
+    """
+    removed: list[Path] = []
+    now = time.time()
+    try:
+        entries = list(Path(folder).iterdir())
+    except OSError:
+        return removed
+    for q in entries:
+        if not (q.name.startswith(TEMP_PREFIX) and q.name.endswith(TEMP_SUFFIX)):
+            continue
+        try:
+            st = q.lstat()
+            if not q.is_file() or q.is_symlink() or now - st.st_mtime < older_than:
+                continue
+            q.unlink()
+            removed.append(q)
+        except OSError:  # another run removed it, or no permission: leave it
+            continue
+    return removed
 
 
 class OutputExistsError(FileExistsError):
@@ -112,7 +160,8 @@ def atomic_write(path, *, overwrite: bool = False) -> Iterator[Path]:
         raise FileNotFoundError(f"{folder}: output folder does not exist")
     if target.exists() and not overwrite:
         raise OutputExistsError(target)
-    fd, name = tempfile.mkstemp(prefix=TEMP_PREFIX, suffix=".tmp", dir=folder)
+    remove_stale_temps(folder)
+    fd, name = tempfile.mkstemp(prefix=TEMP_PREFIX, suffix=TEMP_SUFFIX, dir=folder)
     os.close(fd)
     tmp = Path(name)
     try:
@@ -120,6 +169,7 @@ def atomic_write(path, *, overwrite: bool = False) -> Iterator[Path]:
         with open(tmp, "rb+") as fh:
             fh.flush()
             os.fsync(fh.fileno())
+        os.chmod(tmp, 0o666 & ~_umask())  # as open() would create it, not mkstemp's 0o600
         _commit(tmp, target, overwrite)
         _fsync_dir(folder)
     finally:

@@ -132,10 +132,10 @@ def test_missing_output_folder_is_exit_4(tmp_path, capsys):
 def test_calc_quick_numbers(capsys):
     assert run("calc", "hydrostatic", "--density", 11.0, "--tvd", 10000, "--json") == 0
     d = json.loads(capsys.readouterr().out)
-    assert d["hydrostatic pressure"]["value"] == pytest.approx(11.0 * 10000 * 12 / 231)
+    assert d["hydrostatic_pressure"]["value"] == pytest.approx(11.0 * 10000 * 12 / 231)
     assert run("calc", "annular-velocity", "--rate", 522, "--hole", 8.5, "--pipe", 5, "--json") == 0
     d = json.loads(capsys.readouterr().out)
-    assert d["annular velocity"]["value"] == pytest.approx(24.51 * 522 / (8.5**2 - 5**2), rel=1e-4)
+    assert d["annular_velocity"]["value"] == pytest.approx(24.51 * 522 / (8.5**2 - 5**2), rel=1e-4)
     assert (
         run(
             "calc",
@@ -153,7 +153,7 @@ def test_calc_quick_numbers(capsys):
         == 0
     )
     d = json.loads(capsys.readouterr().out)
-    assert d["total flow area"]["value"] == pytest.approx((3 * 144 + 3 * 121) / 1303.8, rel=2e-4)
+    assert d["total_flow_area"]["value"] == pytest.approx((3 * 144 + 3 * 121) / 1303.8, rel=2e-4)
     assert run("calc", "hydrostatic", "--density", "heavy", "--tvd", 1) == 2
 
 

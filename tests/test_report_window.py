@@ -178,9 +178,9 @@ def test_json_window_ends_bindings_and_curves(tmp_path, capsys, ref):
     np.testing.assert_allclose(c["standpipe_pressure"], from_si(ref.spp, "psi"), rtol=1e-9)
     np.testing.assert_allclose(c["ecd_pore_point"], from_si(ref.ecd_pore_point, "ppg"), rtol=1e-9)
     np.testing.assert_allclose(c["cleaning_indicator"], ref.cleaning_indicator, rtol=1e-9)
-    assert w["limit_margins"]["surface rating"]["unit"] == "psi"
+    assert w["limit_margins"]["surface_rating"]["unit"] == "psi"
     np.testing.assert_allclose(
-        w["limit_margins"]["surface rating"]["values"],
+        w["limit_margins"]["surface_rating"]["values"],
         from_si(ref.limits["surface rating"], "psi"), rtol=1e-9,
     )  # fmt: skip
 

@@ -1,24 +1,36 @@
 """``boreflow batch PATH...``: a report for every case, a progress bar and a summary table.
 
 The summary's numbers (standpipe pressure, ECD at the bit, tightest margin, cleaning verdict)
-are taken from each run's computed results and converted to the case's units here, at the edge.
+are taken from each run's computed results and converted here, at the edge, to the batch's one
+unit system (``--units``, default oilfield) whatever each case's own units: every column holds
+one unit, named in its header (``standpipe_pressure [psi]``).
+
+A case that fails, for any reason (bad input, a write error, or an unexpected exception, which
+is a bug), is recorded in its row with its message and the batch goes on with the next case;
+the exit code is then 5 and the summary is still printed and written.  An existing ``--summary``
+file follows the reports' rule: without ``--force`` it is refused *before any case is run*
+(exit 3, nothing written), with ``--force`` it is replaced.
 """
 
 from __future__ import annotations
 
 import csv
 import io
+import math
 import sys
 import time
+import traceback
 from pathlib import Path
 
 from addin import text
-from addin.commands.exit_codes import EXIT_BATCH_FAILED, EXIT_OK
+from addin.commands.exit_codes import EXIT_BATCH_FAILED, EXIT_OK, EXIT_WRITE
 from addin.commands.output import error_text
-from addin.commands.report import run_one
+from addin.commands.report import output_path, run_one
 from addin.report.compute import scalar
-from addin.safe_io import atomic_write_bytes, csv_safe
+from addin.safe_io import OutputExistsError, atomic_write_bytes, csv_safe
 from calc.errors import InputError
+from calc.hydraulics_method import resolve_method
+from calc.units import label, unit_for
 
 __all__ = ["run"]
 
@@ -31,7 +43,15 @@ def _expand(paths) -> list[Path]:
     for p in paths:
         if p.startswith("@"):
             lst = Path(p[1:])
-            lines = lst.read_text(encoding="utf-8").splitlines()
+            try:
+                lines = lst.read_text(encoding="utf-8").splitlines()
+            except (OSError, UnicodeDecodeError) as exc:  # an input that cannot be read: exit 2
+                raise InputError(
+                    "batch list file",
+                    p,
+                    "a readable UTF-8 text file, one case path per line",
+                    problem=getattr(exc, "strerror", None) or "cannot be read",
+                ) from exc
             out.extend(
                 _expand(
                     [ln.strip() for ln in lines if ln.strip() and not ln.lstrip().startswith("#")]
@@ -62,13 +82,37 @@ def _display(value, kind: str, system: str) -> float:
     return text.display_number(scalar(value), kind, system)
 
 
-def _summary(results) -> dict[str, str]:
-    """The summary-table cells of one run, from its computed results, in the case's units."""
-    s = results.case.unit_system
+#: The summary columns holding a quantity: column -> quantity kind (its unit goes in the header).
+_QUANTITY_COLUMNS = {
+    "standpipe_pressure": "pressure",
+    "ecd_bit": "density",
+    "tightest_margin": "density",
+}
+
+
+def _four_digits(v: float) -> str:
+    """At least four significant digits, no exponent: 2952 psi, 203.6 bar, 20355472 Pa.
+
+    >>> _four_digits(2951.8), _four_digits(203.56), _four_digits(2.0355e7)
+    ('2952', '203.6', '20355000')
+    """
+    if not math.isfinite(v) or v == 0:
+        return f"{v:.0f}"
+    return f"{v:.{max(0, 3 - math.floor(math.log10(abs(v))))}f}"
+
+
+def _header(col: str, system: str) -> str:
+    """A summary column's header: the quantity's columns carry their unit, ``ecd_bit [ppg]``."""
+    kind = _QUANTITY_COLUMNS.get(col)
+    return col if kind is None else f"{col} [{label(unit_for(kind, system))}]"
+
+
+def _summary(results, s: str) -> dict[str, str]:
+    """The summary-table cells of one run, from its computed results, in unit system ``s``."""
     circ = results.circulation
     tight = None if circ.margins is None else circ.margins.tightest
     return {
-        "standpipe_pressure": f"{_display(circ.standpipe_pressure, 'pressure', s):.0f}",
+        "standpipe_pressure": _four_digits(_display(circ.standpipe_pressure, "pressure", s)),
         "ecd_bit": f"{_display(circ.ecd_bit, 'density', s):.3f}",
         "tightest_margin": ""
         if tight is None
@@ -76,8 +120,19 @@ def _summary(results) -> dict[str, str]:
         "cleaning": ""
         if not results.cleaning
         else min((r["verdict"] for r in results.cleaning.result.table()), key=_VERDICT_ORDER.index),
-        "units": s,
+        "case_units": results.case.unit_system,
     }
+
+
+def _failure(exc: BaseException) -> str:
+    """A failed case's message: input and write errors as such, anything else as a bug."""
+    if isinstance(exc, InputError):
+        return error_text(exc)
+    if isinstance(exc, OSError):
+        return f"cannot write: {exc}"
+    where = traceback.extract_tb(exc.__traceback__)[-1:] if exc.__traceback__ else []
+    at = f" at {Path(where[0].filename).name}:{where[0].lineno}" if where else ""
+    return f"internal error{at}: {type(exc).__name__}: {exc} (please report it with the case)"
 
 
 def run(args) -> int:
@@ -85,9 +140,15 @@ def run(args) -> int:
     cases = _expand(args.paths)
     if not cases:
         raise InputError("batch paths", " ".join(args.paths), "case files, folders or @list")
-    outdir = Path(args.output)
-    if not outdir.is_dir():
-        raise InputError("--output", str(outdir), "an existing folder")
+    outdir = output_path(args.output, "--output")
+    if outdir.exists() and not outdir.is_dir():
+        raise InputError("--output", str(outdir), "a folder", problem="is a file")
+    summary = output_path(args.summary, "--summary") if args.summary is not None else None
+    if summary is not None and summary.exists() and not args.force:
+        raise OutputExistsError(summary)  # before any case runs: exit 3, nothing written
+    system = args.units
+    if args.method is not None:
+        resolve_method(args.method)  # an unknown name is bad input for the whole batch (exit 2)
     names = [c.stem for c in cases]
     dupes = {n for n in names if names.count(n) > 1}
     if dupes:
@@ -96,6 +157,7 @@ def run(args) -> int:
             ", ".join(sorted(dupes)),
             "distinct file names (reports are named after the case)",
         )
+    outdir.mkdir(parents=True, exist_ok=True)  # a failure here is a write error: exit 4
     rows, failed = [], 0
     tty = sys.stderr.isatty()
     t_all = time.perf_counter()
@@ -104,18 +166,18 @@ def run(args) -> int:
             print(_bar(i, len(cases), c.name), end="" if tty else "\n", file=sys.stderr, flush=True)
         out = outdir / f"{c.stem}-report.xlsx"
         try:
-            res, dt = run_one(c, out, force=args.force)
+            res, dt = run_one(c, out, force=args.force, method=args.method)
             rows.append(
                 {
                     "case": c.name,
                     "status": "ok",
                     "report": out.name,
                     "seconds": f"{dt:.2f}",
-                    **_summary(res),
+                    **_summary(res, system),
                     "message": "",
                 }
             )
-        except (InputError, OSError) as exc:
+        except Exception as exc:  # every failure is recorded and the batch goes on
             failed += 1
             rows.append(
                 {
@@ -127,8 +189,8 @@ def run(args) -> int:
                     "ecd_bit": "",
                     "tightest_margin": "",
                     "cleaning": "",
-                    "units": "",
-                    "message": error_text(exc) if isinstance(exc, InputError) else str(exc),
+                    "case_units": "",
+                    "message": _failure(exc),
                 }
             )
     if not args.quiet:
@@ -143,20 +205,25 @@ def run(args) -> int:
         "ecd_bit",
         "tightest_margin",
         "cleaning",
-        "units",
+        "case_units",
         "seconds",
         "message",
     ]
-    widths = {k: max(len(k), *(len(str(r[k])) for r in rows)) for k in cols[:-1]}
-    print("  ".join(k.ljust(widths[k]) for k in cols[:-1]) + "  message")
+    heads = {k: _header(k, system) for k in cols}
+    widths = {k: max(len(heads[k]), *(len(str(r[k])) for r in rows)) for k in cols[:-1]}
+    print("  ".join(heads[k].ljust(widths[k]) for k in cols[:-1]) + "  message")
     for r in rows:
         print("  ".join(str(r[k]).ljust(widths[k]) for k in cols[:-1]) + "  " + r["message"])
-    print(f"{len(rows) - failed} of {len(rows)} reports written to {outdir}")
-    if args.summary:
+    print(f"{len(rows) - failed} of {len(rows)} reports written to {outdir} (units: {system})")
+    if summary is not None:
         buf = io.StringIO()
         w = csv.writer(buf)
-        w.writerow([*cols, "report"])
+        w.writerow([heads[k] for k in cols] + ["report"])
         for r in rows:
             w.writerow([csv_safe(r[k]) for k in [*cols, "report"]])
-        atomic_write_bytes(args.summary, buf.getvalue().encode("utf-8"), overwrite=args.force)
+        try:
+            atomic_write_bytes(summary, buf.getvalue().encode("utf-8"), overwrite=args.force)
+        except OSError as exc:  # the failures above still decide the exit code
+            print(f"boreflow: error: summary not written: {exc}", file=sys.stderr)
+            return EXIT_BATCH_FAILED if failed else EXIT_WRITE
     return EXIT_BATCH_FAILED if failed else EXIT_OK

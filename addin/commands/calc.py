@@ -7,6 +7,7 @@ from addin.case import load_case, parse_quantity
 from addin.commands.exit_codes import EXIT_OK
 from addin.commands.output import json_text
 from addin.report.compute import report_fluid, scalar
+from addin.report.jsonout import json_key
 from calc.bit import Bit, bit_hydraulics
 from calc.circulation import Margins, hydrostatic_pressure
 from calc.circulation.loop import circulate
@@ -34,7 +35,8 @@ def _show(d: dict, system: str, as_json: bool) -> None:
         print(
             json_text(
                 {
-                    k: {
+                    json_key(k.split(" (")[0]): {  # cli: snake_case key, the words in "label"
+                        "label": k,
                         "value": None
                         if v is None
                         else (float(from_si(v, unit_for(kind, system), kind)) if kind else v),
@@ -61,7 +63,13 @@ def run(args) -> int:
         tvd = _q(args.tvd, "depth", s, "--tvd")
         p = hydrostatic_pressure(rho, tvd, hydrostatic=args.hydrostatic)
         _show(
-            {"hydrostatic pressure": (p, "pressure"), "gradient": (p / tvd, "pressure_gradient")},
+            {
+                "hydrostatic pressure": (p, "pressure"),
+                "gradient": (  # per unit depth: defined at TVD 0 too (cli)
+                    hydrostatic_pressure(rho, 1.0, hydrostatic=args.hydrostatic),
+                    "pressure_gradient",
+                ),
+            },
             s,
             args.json,
         )

@@ -10,6 +10,7 @@ __all__ = [
     "EXIT_INTERNAL",
     "EXIT_INTERRUPTED",
     "EXIT_OK",
+    "EXIT_TERMINATED",
     "EXIT_WRITE",
 ]
 
@@ -21,3 +22,4 @@ EXIT_WRITE = 4
 EXIT_BATCH_FAILED = 5
 EXIT_BROKEN_PIPE = 141  # 128 + SIGPIPE (13), the shell's code for a closed output pipe
 EXIT_INTERRUPTED = 130  # 128 + SIGINT (2), the shell's code for an interrupted command
+EXIT_TERMINATED = 143  # 128 + SIGTERM (15): stopped by a kill; temporary files removed

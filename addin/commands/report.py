@@ -11,8 +11,23 @@ from addin.commands.output import json_text
 from addin.report import compute, write_report
 from addin.report.jsonout import results_data
 from addin.safe_io import OutputExistsError
+from calc.errors import InputError
 
-__all__ = ["run", "run_one"]
+__all__ = ["output_path", "run", "run_one"]
+
+
+def output_path(value: str, option: str = "--output") -> Path:
+    """The path of an output option; empty or blank text is an error (never a silent default).
+
+    >>> output_path("out/r.xlsx").as_posix()
+    'out/r.xlsx'
+    >>> output_path("  ")
+    Traceback (most recent call last):
+    calc.errors.InputError: --output = '  ': empty; allowed: a file or folder name
+    """
+    if not value.strip() or "\0" in value:
+        raise InputError(option, value, "a file or folder name", problem="empty")
+    return Path(value)
 
 
 def run_one(case_path, out_path, *, force=False, method=None, constants=None):
@@ -33,7 +48,11 @@ def run_one(case_path, out_path, *, force=False, method=None, constants=None):
 
 def run(args) -> int:
     """Write the report of ``args.case``; print its path, or every result as JSON."""
-    out = Path(args.output) if args.output else Path(Path(args.case).stem + "-report.xlsx")
+    out = (
+        output_path(args.output)
+        if args.output is not None
+        else Path(Path(args.case).stem + "-report.xlsx")
+    )
     results, dt = run_one(
         args.case, out, force=args.force, method=args.method, constants=args.constants
     )

@@ -5,7 +5,9 @@ from __future__ import annotations
 from addin.case import load_case
 from addin.commands.exit_codes import EXIT_OK
 from addin.commands.output import json_text
+from addin.report.jsonout import rheology_json
 from addin.rheology_data import rheology_data
+from calc.errors import InputError
 
 __all__ = ["rheology_text", "run"]
 
@@ -111,7 +113,11 @@ def rheology_text(data: dict) -> str:
 def run(args) -> int:
     """Print the rheology of ``args.case`` in ``args.units`` (default the case's), text or JSON."""
     case = load_case(args.case)
+    if not case.checks and not case.slurries:  # an empty file is not a rheology: exit 2
+        raise InputError(
+            case.source, "no [[check]] and no [[slurry]]", "at least one of them", problem="empty"
+        )
     system = args.units or case.unit_system
     data = rheology_data(case, system)
-    print(json_text(data) if args.json else rheology_text(data))
+    print(json_text(rheology_json(data)) if args.json else rheology_text(data))
     return EXIT_OK

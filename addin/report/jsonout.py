@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import re
+
 import numpy as np
 
 from addin import text
@@ -16,7 +18,57 @@ from calc.cleaning import CLEANING_METHODS
 from calc.cleaning.hole import USES_ROTATION
 from calc.units import label, unit_for
 
-__all__ = ["results_data"]
+__all__ = ["json_key", "results_data", "rheology_json"]
+
+
+#: JSON keys of model-parameter symbols (the text output keeps the symbols).
+_SYMBOL_KEYS = {"K": "k", "n": "n", "μ": "mu", "μp": "mu_p", "τy": "tau_y"}
+
+
+def json_key(words: str) -> str:
+    """A stable snake_case JSON key for display words or a symbol.
+
+    >>> json_key("surface rating"), json_key("τy"), json_key("hole cleaning (max)")
+    ('surface_rating', 'tau_y', 'hole_cleaning_max')
+    """
+    if words in _SYMBOL_KEYS:
+        return _SYMBOL_KEYS[words]
+    key = re.sub(r"[^a-z0-9]+", "_", str(words).lower()).strip("_") or "value"
+    return key if key[0].isalpha() else f"x_{key}"
+
+
+def rheology_json(data: dict) -> dict:
+    """:func:`addin.rheology_data.rheology_data` with snake_case keys for JSON: fit parameters
+    keyed ``k``/``n``/``tau_y``/``mu``/``mu_p`` (the symbol kept as ``symbol``), gels keyed
+    ``gel_10s``/``gel_10min``/``gel_30min``, reading differences as a list of
+    ``{"rpm", "difference_deg"}``.  The text output reads the original."""
+
+    def fluid(d: dict) -> dict:
+        d = dict(d)
+        d["gels"] = {f"gel_{k}": v for k, v in d["gels"].items()}
+        d["fits"] = [
+            {
+                **f,
+                "parameters": {json_key(k): {**v, "symbol": k} for k, v in f["parameters"].items()},
+            }
+            for f in d["fits"]
+        ]
+        return d
+
+    out = dict(data)
+    out["checks"] = [fluid(d) for d in data["checks"]]
+    out["slurries"] = [fluid(d) for d in data["slurries"]]
+    out["comparisons"] = [
+        {
+            **c,
+            "reading_differences_deg": [
+                {"rpm": float(k), "difference_deg": v}
+                for k, v in c["reading_differences_deg"].items()
+            ],
+        }
+        for c in data["comparisons"]
+    ]
+    return out
 
 
 def _c(v, kind, system):
@@ -58,7 +110,7 @@ def results_data(results) -> dict:
         "units": {k: label(unit_for(k, s)) for k in kinds},
         "method_status": _status_data(results),
     }
-    out["rheology"] = rheology_data(case, s)
+    out["rheology"] = rheology_json(rheology_data(case, s))
     out["circulation"] = _circulation_data(results, s)
     if res.margins is not None:
         out["margins"] = _margins_data(res.margins, s)
@@ -109,10 +161,11 @@ def _status_data(results) -> list[dict]:
 
 
 def _circulation_data(results, s) -> dict:
-    """Rate, density, SPP breakdown (keyed by their words, as the --json output always was),
-    BHP, ECD and the per-interval table of the string and annulus."""
+    """Rate, density, SPP breakdown (keyed by the calc keys ``surface``, ``string``, ``bit``,
+    ``annulus``, ``tools``, ``back_pressure``; their words in ``breakdown_labels``), BHP, ECD
+    and the per-interval table of the string and annulus."""
     res = results.circulation
-    bd = {text.BREAKDOWN_LABELS[k]: _c(v, "pressure", s) for k, v in res.breakdown().items()}
+    bd = {k: _c(v, "pressure", s) for k, v in res.breakdown().items()}
     iv = results.well.flow_intervals()
     intervals = []
     for path, rows, group in (
@@ -147,6 +200,7 @@ def _circulation_data(results, s) -> dict:
         "density": _c(res.density, "density", s),
         "standpipe_pressure": _c(res.standpipe_pressure, "pressure", s),
         "breakdown": bd,
+        "breakdown_labels": {k: text.BREAKDOWN_LABELS[k] for k in bd},
         "static_bhp": _c(res.static_bhp, "pressure", s),
         "circulating_bhp": _c(res.circulating_bhp, "pressure", s),
         "esd_bit": _c(res.esd_bit, "density", s),
@@ -439,6 +493,16 @@ def _band_data(band, s) -> dict:
     }
 
 
+def _limit_key(name: str) -> str:
+    """The stable JSON key of a margin curve: ``fracture``, ``pore``, ``surface_rating``,
+    ``hole_cleaning``, ``tool_flow_window_min``/``_max`` (the tool's own name, which comes from
+    the case, stays in the entry's ``name``)."""
+    for end in ("min", "max"):
+        if name.endswith(f" flow window ({end})"):
+            return f"tool_flow_window_{end}"
+    return json_key(name)
+
+
 def _limit_kind(name: str):
     """Unit kind of a calc.rate_window margin curve, by the limit's name
     (OperatingWindow.limits)."""
@@ -490,7 +554,8 @@ def _window_data(results, s) -> dict:
             "max_concentration": _c(ow.max_concentration, None, s),
         },
         "limit_margins": {
-            name: {
+            _limit_key(name): {
+                "name": name,
                 "unit": "relative"
                 if _limit_kind(name) == "dimensionless"
                 else label(unit_for(_limit_kind(name), s)),
