@@ -99,6 +99,15 @@ def _add_constants(p) -> None:
     )
 
 
+def _add_allow_unusual(p) -> None:
+    p.add_argument(
+        "--allow-unusual",
+        action="store_true",
+        help="go on with inputs outside their usual range (still refused when physically "
+        "impossible); the report's Run section records it (calc/METHODS.md, plausibility)",
+    )
+
+
 def _add_report(sub) -> None:
     p = sub.add_parser(
         "report",
@@ -119,6 +128,7 @@ def _add_report(sub) -> None:
         help="hydraulics method (default: the case's, else api13d_2010_hb)",
     )
     _add_constants(p)
+    _add_allow_unusual(p)
     p.set_defaults(func=report_cmd.run)
 
 
@@ -141,6 +151,7 @@ def _add_calc(sub) -> None:
             help="unit system of inputs and output (default oilfield)",
         )
         q.add_argument("--json", action="store_true", help="JSON output")
+        _add_allow_unusual(q)
         q.set_defaults(func=calc_cmd.run)
         return q
 
@@ -180,6 +191,7 @@ def _add_calc(sub) -> None:
         help="output units (default the case's)",
     )
     k.add_argument("--json", action="store_true")
+    _add_allow_unusual(k)
     k.set_defaults(func=calc_cmd.run, units="oilfield")
 
 
@@ -212,6 +224,7 @@ def _add_batch(sub) -> None:
     bt.add_argument("--force", action="store_true", help="replace existing reports")
     bt.add_argument("--summary", metavar="FILE.csv", help="also write the summary as CSV")
     bt.add_argument("-q", "--quiet", action="store_true", help="no progress bar")
+    _add_allow_unusual(bt)
     bt.set_defaults(func=batch_cmd.run)
 
 
