@@ -229,6 +229,6 @@ def unusual_error(found) -> InputError:
         first.where,
         first.shown,
         f"usual {range_text(first.quantity, first.unit, 'usual')}{more}; check the value, "
-        "or give --allow-unusual to go on (the report's Run section records it)",
+        "or give --allow-unusual to go on (a report records it in its Run section)",
         problem="unusual",
     )

@@ -136,7 +136,8 @@ def run(args) -> int:
                 exc.problem,
             ) from exc
         size = _q(args.size, "diameter", s, "--size")
-        guard_check(args.cd, "discharge_coefficient", "--cd", args.cd)
+        cd = guard_check(args.cd, "discharge_coefficient", "--cd", args.cd)
+        _FOUND.extend([cd] if cd else [])
         rate = _q(args.rate, "flow_rate", s, "--rate")
         rho = _q(args.density, "density", s, "--density")
         _unusual(args)

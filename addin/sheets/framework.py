@@ -178,7 +178,6 @@ ARG_GUARDS: dict[str, tuple[str | None, str]] = {
     "rpm": (None, "rpm"),
     "discharge_coefficient": (None, "discharge_coefficient"),
     "accel_time": (None, "accel_time"),
-    "rate_uncertainty": (None, "fraction"),
 }
 
 
@@ -193,7 +192,6 @@ _LABELS = {
     "rop": "ROP",
     "discharge_coefficient": "discharge coefficient",
     "accel_time": "acceleration time",
-    "rate_uncertainty": "rate uncertainty",
 }
 
 
