@@ -33,7 +33,7 @@ import math
 import re
 import tomllib
 from collections.abc import Mapping
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any
 
@@ -45,6 +45,8 @@ from addin.case_schema import (
     SLURRY_SCHEMA,
     Field,
 )
+from addin.guard import ImplausibleInput, case_verdict, collecting
+from addin.guard import check as guard_check
 from addin.workbook_input import read_blocks
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT, Bit
 from calc.circulation import PressureWindow, WeakPoint
@@ -90,8 +92,12 @@ def _unknown(source, path, key, known):
     )
 
 
-def parse_quantity(value, kind: str, system: str, where: str = "value") -> float:
+def parse_quantity(value, kind: str, system: str, where: str = "value", guard: str = "") -> float:
     """A case value as SI: a number in ``system``'s unit for ``kind``, or ``"<number> <unit>"``.
+
+    This is the one place a typed quantity becomes SI: with ``guard`` (a quantity of
+    :data:`calc.plausibility.RANGES`) the value is checked against its possible and usual
+    ranges there (:func:`addin.guard.check`), in the unit the user gave.
 
     >>> round(parse_quantity("2.6 sg", "density", "oilfield"), 6)
     2600.0
@@ -101,7 +107,7 @@ def parse_quantity(value, kind: str, system: str, where: str = "value") -> float
     if isinstance(value, bool) or value is None:
         raise InputError(where, value, f"a number or '<number> <unit>' ({kind})")
     if isinstance(value, (int, float)):
-        return to_si(float(value), unit_for(kind, system), kind, where)
+        return _guarded(float(value), unit_for(kind, system), kind, where, guard, True)
     if isinstance(value, str):
         m = _NUMBER_UNIT.match(value)
         if not m:
@@ -110,30 +116,54 @@ def parse_quantity(value, kind: str, system: str, where: str = "value") -> float
             )
         number, unit = float(m.group(1)), m.group(2)
         if not unit:
-            return to_si(number, unit_for(kind, system), kind, where)
+            return _guarded(number, unit_for(kind, system), kind, where, guard, True)
         try:
-            return to_si(number, unit, kind, where)
+            si = to_si(number, unit, kind, where)
         except InputError as exc:
             raise InputError(where, value, exc.allowed, exc.problem) from exc
+        return _guarded(number, unit, kind, where, guard, False, si)
     raise InputError(where, value, f"a number or '<number> <unit>' ({kind})")
 
 
-def _plain_number(value, where):
+def _guarded(number, unit, kind, where, guard, from_system, si=None) -> float:
+    if not math.isfinite(number):
+        raise InputError(where, number, f"a finite number ({kind.replace('_', ' ')})")
+    if si is None:
+        si = to_si(number, unit, kind, where)
+    guard_check(si, guard, where, number, unit, from_system)
+    return si
+
+
+def _plain_number(value, where, guard: str = ""):
     if isinstance(value, bool) or not isinstance(value, (int, float)):
         raise InputError(where, value, "a number")
-    return float(value)
+    x = float(value)
+    if not math.isfinite(x):
+        raise InputError(where, x, "a finite number")
+    guard_check(x, guard, where, x)
+    return x
 
 
 def _dial(value, where) -> dict[float, float]:
     if not isinstance(value, Mapping):
         raise InputError(where, value, "readings keyed by rpm, e.g. { 600 = 56, 300 = 37 }")
-    out = {}
+    out: dict[float, float] = {}
+    keys: dict[float, str] = {}
     for key, reading in value.items():
         try:
             rpm = float(key)
         except ValueError as exc:
             raise InputError(f"{where}.{key}", key, "a rotor speed in rpm, e.g. 600") from exc
-        out[rpm] = _plain_number(reading, f"{where}.{key}")
+        if rpm in keys:
+            raise InputError(
+                f"{where}.{key}",
+                key,
+                f"each rotor speed once (also given as {keys[rpm]!r})",
+                problem="duplicate speed",
+            )
+        keys[rpm] = str(key)
+        _plain_number(rpm, f"{where}.{key} (rotor speed)", "dial_speed")
+        out[rpm] = _plain_number(reading, f"{where}.{key}", "dial_reading")
     return out
 
 
@@ -163,13 +193,15 @@ def _value(val, fld: Field, system, source, path):
     if kind == "text":
         if not isinstance(val, str):
             raise InputError(where, val, "text")
+        if fld.required and not val.strip():
+            raise InputError(where, val, "a non-empty text", problem="empty")
         return val
     if kind == "bool":
         if not isinstance(val, bool):
             raise InputError(where, val, "true or false")
         return val
     if kind == "number":
-        return _plain_number(val, where)
+        return _plain_number(val, where, fld.guard)
     if kind == "dial":
         return _dial(val, where)
     if kind == "table":
@@ -188,26 +220,27 @@ def _value(val, fld: Field, system, source, path):
                 raise InputError(w, row, "[md, inclination, azimuth]")
             rows.append(
                 (
-                    parse_quantity(row[0], "depth", system, w + "[0]"),
-                    _plain_number(row[1], w + "[1]"),
-                    _plain_number(row[2], w + "[2]"),
+                    parse_quantity(row[0], "depth", system, w + "[0]", "depth"),
+                    _plain_number(row[1], w + "[1]", "inclination"),
+                    _plain_number(row[2], w + "[2]", "azimuth"),
                 )
             )
         return rows
     if kind == "length_or_fill":
         if val == "fill":
             return "fill"
-        return parse_quantity(val, "length", system, where)
+        return parse_quantity(val, "length", system, where, fld.guard)
     if kind in ("range", "list"):
         if not isinstance(val, list) or (kind == "range" and len(val) != 2):
             raise InputError(where, val, "[low, high]" if kind == "range" else "a list")
         items = [
-            _value(v, Field(fld.of), system, source, f"{path}[{i}]") for i, v in enumerate(val)
+            _value(v, Field(fld.of, guard=fld.guard), system, source, f"{path}[{i}]")
+            for i, v in enumerate(val)
         ]
         if kind == "range" and items[0] > items[1]:
             raise InputError(where, val, "[low, high] with low <= high")
         return items
-    return parse_quantity(val, kind, system, where)
+    return parse_quantity(val, kind, system, where, fld.guard)
 
 
 # ------------------------------------------------------------------ schemas
@@ -265,6 +298,10 @@ class Case:
     doc: Mapping[str, Any] = field(default_factory=dict)
     where: Mapping[str, str] = field(default_factory=dict)
     hash: str = ""
+    #: values outside their usual range (:class:`addin.guard.Finding`), and whether the run
+    #: went on anyway (``--allow-unusual``)
+    unusual: tuple = ()
+    unusual_allowed: bool = False
 
     # -------------------------------------------------------------- calc inputs
     @property
@@ -557,7 +594,31 @@ def _readings(values, where, mode, label, temperature) -> ViscometerReadings:
 
 
 def parse_case(data: Mapping, source: str = "<case>") -> Case:
-    """Parse a case already read from TOML (a mapping)."""
+    """Parse a case already read from TOML (a mapping).
+
+    Every value is checked against its plausibility ranges (:mod:`addin.guard`): impossible
+    values raise (naming the unit system when several numbers fit another one), unusual ones
+    are kept in :attr:`Case.unusual`.
+    """
+    with collecting() as found:
+        try:
+            case = _parse_case(data, source)
+        except InputError:
+            case_verdict(found, _declared_system(data), source)  # an impossible value first
+            raise
+        unusual = case_verdict(found, case.unit_system, source)
+    return replace(case, unusual=tuple(unusual)) if unusual else case
+
+
+def _declared_system(data) -> str:
+    try:
+        units = str(data.get("case", {}).get("units", "oilfield")).strip().lower()
+    except AttributeError:
+        return "oilfield"
+    return units if units in UNIT_SYSTEMS else "oilfield"
+
+
+def _parse_case(data: Mapping, source: str) -> Case:
     if not isinstance(data, Mapping):
         raise InputError(source, data, "a TOML document")
     for key in data:
@@ -648,7 +709,8 @@ def _locate(exc: InputError, source: str, where: Mapping[str, str]) -> InputErro
     while probe:
         if probe in where:
             cell = where[probe].split(": ", 1)[-1]
-            new = InputError(
+            cls = ImplausibleInput if isinstance(exc, ImplausibleInput) else InputError
+            new = cls(
                 f"{source}: {cell} ({name[len(prefix) :]})", exc.value, exc.allowed, exc.problem
             )
             return new

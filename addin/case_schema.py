@@ -36,12 +36,15 @@ class Field:
     required  the key must be present
     sub       schema of a nested table
     of        kind of the items of a range or list
+    guard     the quantity of :data:`calc.plausibility.RANGES` whose possible and usual ranges
+              the value (or each item) is checked against ("" = none)
     """
 
     kind: str
     required: bool = False
     sub: Mapping[str, Field] | None = None
     of: str | None = None
+    guard: str = ""
 
 
 CASE_SCHEMA = {
@@ -69,7 +72,9 @@ _RHEOLOGY_KEYS = {
     "dial": Field("dial"),
     "dial_up": Field("dial"),
     "dial_down": Field("dial"),
-    "gels": Field("table", sub={k: Field("stress") for k in ("10s", "10min", "30min")}),
+    "gels": Field(
+        "table", sub={k: Field("stress", guard="gel") for k in ("10s", "10min", "30min")}
+    ),
     "viscometer": Field("table", sub=VISCOMETER_SCHEMA),
 }
 
@@ -79,30 +84,33 @@ CHECK_SCHEMA: dict[str, Field] = {
     "time": Field("text"),
     "sample": Field("text"),
     "fluid": Field("text"),
-    "bit_depth": Field("depth"),
-    "density": Field("density"),
-    "cup_temperature": Field("temperature"),
+    "bit_depth": Field("depth", guard="depth"),
+    "density": Field("density", guard="fluid_density"),
+    "cup_temperature": Field("temperature", guard="temperature"),
     **_RHEOLOGY_KEYS,
     "program": Field(
         "table",
         sub={
-            "density": Field("range", of="density"),
-            "pv": Field("range", of="viscosity"),
-            "yp": Field("range", of="stress"),
-            "lsyp": Field("range", of="stress"),
+            "density": Field("range", of="density", guard="fluid_density"),
+            "pv": Field("range", of="viscosity", guard="pv"),
+            "yp": Field("range", of="stress", guard="yp"),
+            "lsyp": Field("range", of="stress", guard="yp"),
         },
     ),
-    "flow_rate": Field("flow_rate"),
-    "rop": Field("rop"),
-    "rpm": Field("number"),
-    "measured_spp": Field("pressure"),
-    "pwd": Field("table", sub={"ecd": Field("density"), "md": Field("depth")}),
+    "flow_rate": Field("flow_rate", guard="flow_rate"),
+    "rop": Field("rop", guard="rop"),
+    "rpm": Field("number", guard="rpm"),
+    "measured_spp": Field("pressure", guard="spp"),
+    "pwd": Field(
+        "table",
+        sub={"ecd": Field("density", guard="emw"), "md": Field("depth", guard="depth")},
+    ),
     "cuttings": Field(
         "table",
         sub={
-            "density": Field("density"),
-            "size": Field("diameter"),
-            "sphericity": Field("number"),
+            "density": Field("density", guard="cuttings_density"),
+            "size": Field("diameter", guard="cuttings_size"),
+            "sphericity": Field("number", guard="sphericity"),
         },
     ),
     "properties": Field("free"),
@@ -111,19 +119,19 @@ CHECK_SCHEMA: dict[str, Field] = {
 
 SLURRY_SCHEMA: dict[str, Field] = {
     "name": Field("text", required=True),
-    "density": Field("density"),
-    "temperature": Field("temperature"),
+    "density": Field("density", guard="fluid_density"),
+    "temperature": Field("temperature", guard="temperature"),
     "volume": Field("volume"),
     **_RHEOLOGY_KEYS,
     "remark": Field("text"),
 }
 
 LIMITS_SCHEMA = {
-    "fracture_margin": Field("density"),
-    "pore_margin": Field("density"),
-    "surface_rating": Field("pressure"),
-    "trip_fracture_margin": Field("density"),
-    "trip_pore_margin": Field("density"),
+    "fracture_margin": Field("density", guard="density_margin"),
+    "pore_margin": Field("density", guard="density_margin"),
+    "surface_rating": Field("pressure", guard="rating"),
+    "trip_fracture_margin": Field("density", guard="density_margin"),
+    "trip_pore_margin": Field("density", guard="density_margin"),
 }
 #: Input resolutions of the ECD band (calc.circulation.ecd_band; calc/METHODS.md §18); every key
 #: optional: dial_resolution [degree] 0.5, balance "standard" (0.1 ppg) or "pressurised"
@@ -131,85 +139,85 @@ LIMITS_SCHEMA = {
 UNCERTAINTY_SCHEMA = {
     "dial_resolution": Field("number"),
     "balance": Field("text"),
-    "balance_resolution": Field("density"),
-    "rate_uncertainty": Field("number"),
+    "balance_resolution": Field("density", guard="density_margin"),
+    "rate_uncertainty": Field("number", guard="fraction"),
 }
 SURVEY_SCHEMA = {"stations": Field("stations", required=True)}
 #: The columns of a ``stations`` row and their kinds (md is converted; angles are plain degrees).
 STATION_COLUMNS: tuple[tuple[str, str], ...] = (("md", "depth"), ("inc", "angle"), ("azi", "angle"))
 CASING_SCHEMA = {
     "name": Field("text", required=True),
-    "od": Field("diameter"),
-    "id": Field("diameter", required=True),
-    "drift": Field("diameter"),
-    "top": Field("depth"),
-    "shoe": Field("depth", required=True),
-    "shoe_test": Field("density"),
+    "od": Field("diameter", guard="hole_diameter"),
+    "id": Field("diameter", required=True, guard="hole_diameter"),
+    "drift": Field("diameter", guard="hole_diameter"),
+    "top": Field("depth", guard="depth"),
+    "shoe": Field("depth", required=True, guard="depth"),
+    "shoe_test": Field("density", guard="emw"),
 }
 OPEN_HOLE_SCHEMA = {
-    "bit_size": Field("diameter", required=True),
-    "diameter": Field("diameter"),
-    "washout_factor": Field("number"),
+    "bit_size": Field("diameter", required=True, guard="hole_diameter"),
+    "diameter": Field("diameter", guard="hole_diameter"),
+    "washout_factor": Field("number", guard="washout_factor"),
 }
 PRESSURE_WINDOW_SCHEMA = {
-    "tvd": Field("list", required=True, of="depth"),
-    "pore": Field("list", required=True, of="density"),
-    "fracture": Field("list", required=True, of="density"),
+    "tvd": Field("list", required=True, of="depth", guard="depth"),
+    "pore": Field("list", required=True, of="density", guard="emw"),
+    "fracture": Field("list", required=True, of="density", guard="emw"),
 }
 WEAK_POINT_SCHEMA = {
     "name": Field("text", required=True),
-    "md": Field("depth", required=True),
-    "fracture": Field("density", required=True),
-    "pore": Field("density"),
+    "md": Field("depth", required=True, guard="depth"),
+    "fracture": Field("density", required=True, guard="emw"),
+    "pore": Field("density", guard="emw"),
 }
 PUMP_SCHEMA = {
     "name": Field("text", required=True),
-    "liner": Field("diameter"),
-    "stroke": Field("diameter"),
-    "efficiency": Field("number"),
-    "rated_power": Field("power"),
-    "liner_rating": Field("pressure"),
+    "liner": Field("diameter", guard="liner"),
+    "stroke": Field("diameter", guard="stroke"),
+    "efficiency": Field("number", guard="efficiency"),
+    "rated_power": Field("power", guard="rated_power"),
+    "liner_rating": Field("pressure", guard="rating"),
 }
 SURFACE_LINE_SCHEMA = {
     "name": Field("text", required=True),
-    "length": Field("length", required=True),
-    "id": Field("diameter", required=True),
+    "length": Field("length", required=True, guard="line_length"),
+    "id": Field("diameter", required=True, guard="line_diameter"),
 }
 BIT_SCHEMA = {
     "name": Field("text"),
-    "size": Field("diameter", required=True),
-    "nozzles": Field("list", of="number"),
-    "tfa": Field("area"),
-    "ports": Field("number"),
-    "discharge_coefficient": Field("number"),
+    "size": Field("diameter", required=True, guard="hole_diameter"),
+    "nozzles": Field("list", of="number", guard="nozzle_32nds"),
+    "tfa": Field("area", guard="tfa"),
+    "ports": Field("number", guard="ports"),
+    "discharge_coefficient": Field("number", guard="discharge_coefficient"),
 }
 STRING_SCHEMA = {
     "name": Field("text", required=True),
-    "od": Field("diameter", required=True),
-    "id": Field("diameter", required=True),
-    "length": Field("length_or_fill", required=True),
-    "tool_joint_od": Field("diameter"),
-    "tool_joint_id": Field("diameter"),
-    "joint_length": Field("length"),
-    "tool_joint_length": Field("length"),
+    "od": Field("diameter", required=True, guard="pipe_diameter"),
+    "id": Field("diameter", required=True, guard="pipe_diameter"),
+    "length": Field("length_or_fill", required=True, guard="string_length"),
+    "tool_joint_od": Field("diameter", guard="pipe_diameter"),
+    "tool_joint_id": Field("diameter", guard="pipe_diameter"),
+    "joint_length": Field("length", guard="joint_length"),
+    "tool_joint_length": Field("length", guard="tool_joint_length"),
     "float_valve": Field("bool"),
 }
 TOOL_PRESSURE_SCHEMA = {
     "name": Field("text"),
-    "reference_drop": Field("pressure", required=True),
-    "reference_density": Field("density", required=True),
-    "reference_rate": Field("flow_rate", required=True),
-    "flow_window": Field("range", of="flow_rate"),
+    "reference_drop": Field("pressure", required=True, guard="tool_drop"),
+    "reference_density": Field("density", required=True, guard="fluid_density"),
+    "reference_rate": Field("flow_rate", required=True, guard="flow_rate"),
+    "flow_window": Field("range", of="flow_rate", guard="flow_rate"),
     "covers": Field("list", of="text"),
 }
 TRIP_SCHEMA = {
-    "stand_length": Field("length"),
+    "stand_length": Field("length", guard="stand_length"),
     "string_end": Field("text"),
-    "speeds": Field("list", required=True, of="trip_speed"),
-    "acceleration_time_s": Field("number"),
+    "speeds": Field("list", required=True, of="trip_speed", guard="trip_speed"),
+    "acceleration_time_s": Field("number", guard="accel_time"),
     "stand_gel": Field("text"),
     "circulation_gel": Field("text"),
-    "schedule_band": Field("length"),
+    "schedule_band": Field("length", guard="string_length"),
 }
 
 #: Top-level sections: name → (is an array of tables, schema or None if not parsed here yet).

@@ -113,29 +113,6 @@ def _units_option(p, *, default, dest="units", what="inputs and output") -> None
     )
 
 
-def _nozzle_list(value: str) -> str:
-    """``--nozzles``: whole 1/32-in sizes, comma separated; ``3x12`` is three 12s.  Returns the
-    plain comma list (``12,12,12``); anything else is an error naming the bad item (exit 2).
-
-    >>> _nozzle_list("3x12, 11")
-    '12,12,12,11'
-    """
-    sizes: list[str] = []
-    for item in value.replace(" ", "").split(","):
-        if not item:
-            continue
-        count, _, size = item.rpartition("x") if "x" in item.lower() else ("1", "", item)
-        if not (count.isdigit() and size.isdigit() and 0 < int(count) <= 32 and int(size) > 0):
-            raise argparse.ArgumentTypeError(
-                f"{item!r} in {value!r}: allowed nozzle sizes are whole numbers of 1/32 in, "
-                "comma separated (e.g. 12,12,12 or 3x12)"
-            )
-        sizes += [str(int(size))] * int(count)
-    if not sizes:
-        raise argparse.ArgumentTypeError(f"{value!r}: at least one nozzle size")
-    return ",".join(sizes)
-
-
 def _method_option(p) -> None:
     """``--method``: the hydraulics method, its choices from the registry."""
     names = HYDRAULICS_METHODS.names()
@@ -168,6 +145,15 @@ def _add_constants(p) -> None:
     )
 
 
+def _add_allow_unusual(p) -> None:
+    p.add_argument(
+        "--allow-unusual",
+        action="store_true",
+        help="go on with inputs outside their usual range (still refused when physically "
+        "impossible); the report's Run section records it (calc/METHODS.md, plausibility)",
+    )
+
+
 def _add_report(sub) -> None:
     p = sub.add_parser(
         "report",
@@ -189,6 +175,7 @@ def _add_report(sub) -> None:
     )
     _method_option(p)
     _add_constants(p)
+    _add_allow_unusual(p)
     p.set_defaults(func=report_cmd.run)
 
 
@@ -206,6 +193,7 @@ def _add_calc(sub) -> None:
     def common(q):
         _units_option(q, default="oilfield")
         q.add_argument("--json", action="store_true", help="JSON output")
+        _add_allow_unusual(q)
         q.set_defaults(func=calc_cmd.run)
         return q
 
@@ -233,9 +221,8 @@ def _add_calc(sub) -> None:
     b.add_argument(
         "--nozzles",
         required=True,
-        type=_nozzle_list,
         help="nozzle sizes in 1/32 in whatever --units (the trade's nozzle numbers), comma "
-        "separated, e.g. 12,12,12,11,11,11",
+        "separated, e.g. 12,12,12,11,11,11 or 3x12,3x11",
     )
     b.add_argument(
         "--cd",
@@ -254,6 +241,7 @@ def _add_calc(sub) -> None:
     _add_constants(k)
     _units_option(k, default=None, dest="units_given", what="the output")
     k.add_argument("--json", action="store_true", help="JSON output")
+    _add_allow_unusual(k)
     k.set_defaults(func=calc_cmd.run, units="oilfield")
 
 
@@ -297,6 +285,7 @@ def _add_batch(sub) -> None:
     _units_option(bt, default="oilfield", what="the summary table (every case converted)")
     _method_option(bt)
     bt.add_argument("-q", "--quiet", action="store_true", help="no progress bar")
+    _add_allow_unusual(bt)
     bt.set_defaults(func=batch_cmd.run)
 
 

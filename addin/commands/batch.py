@@ -166,7 +166,13 @@ def run(args) -> int:
             print(_bar(i, len(cases), c.name), end="" if tty else "\n", file=sys.stderr, flush=True)
         out = outdir / f"{c.stem}-report.xlsx"
         try:
-            res, dt = run_one(c, out, force=args.force, method=args.method)
+            res, dt = run_one(
+                c,
+                out,
+                force=args.force,
+                method=args.method,
+                allow_unusual=getattr(args, "allow_unusual", False),
+            )
             rows.append(
                 {
                     "case": c.name,

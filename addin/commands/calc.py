@@ -2,24 +2,48 @@
 
 from __future__ import annotations
 
+import sys
+
 from addin import text
-from addin.case import load_case, parse_quantity
+from addin.case import CaseInputError, load_case, parse_quantity
 from addin.commands.exit_codes import EXIT_OK
 from addin.commands.output import json_text
+from addin.guard import case_verdict, collecting, finding_text, unusual_error
+from addin.guard import check as guard_check
 from addin.report.compute import report_fluid, scalar
 from addin.report.jsonout import json_key
-from calc.bit import Bit, bit_hydraulics
+from calc.bit import Bit, bit_hydraulics, parse_nozzles
 from calc.circulation import Margins, hydrostatic_pressure
 from calc.circulation.loop import circulate
 from calc.cleaning import annular_velocity
+from calc.errors import InputError, check_order
 from calc.units import from_si, label, unit_for
 
 __all__ = ["run"]
 
 
+#: The plausibility quantity (calc/plausibility.py) of each option, by option name.
+_GUARD = {
+    "--density": "fluid_density",
+    "--tvd": "depth",
+    "--rate": "flow_rate",
+    "--hole": "hole_diameter",
+    "--pipe": "pipe_diameter",
+    "--size": "hole_diameter",
+}
+
+
 def _q(value, kind, system, name):
-    """A command-line value: a number in the system's unit, or 'number unit'."""
-    return parse_quantity(_num_or_text(value), kind, system, name)
+    """A command-line value: a number in the system's unit, or 'number unit', checked against
+    the option's plausibility ranges (impossible: error; unusual: noted in ``_UNUSUAL``)."""
+    with collecting() as found:
+        si = parse_quantity(_num_or_text(value), kind, system, name, _GUARD.get(name, ""))
+    _FOUND.extend(case_verdict(found, system, "command line"))
+    return si
+
+
+#: unusual values of this run (refused unless --allow-unusual)
+_FOUND: list = []
 
 
 def _num_or_text(v):
@@ -27,6 +51,26 @@ def _num_or_text(v):
         return float(v)
     except ValueError:
         return v
+
+
+def _nozzles(text_in: str) -> tuple[int, ...]:
+    sizes = parse_nozzles(text_in).sizes
+    for i, n in enumerate(sizes, start=1):
+        if n:  # 0 is a blanked port
+            _FOUND.extend(
+                f for f in [guard_check(n, "nozzle_32nds", f"--nozzles (nozzle {i}, 1/32 in)")] if f
+            )
+    return sizes
+
+
+def _unusual(args) -> None:
+    found, _FOUND[:] = list(_FOUND), []
+    if not found:
+        return
+    if not getattr(args, "allow_unusual", False):
+        raise unusual_error(found)
+    for f in found:
+        print(f"boreflow: warning: {finding_text(f)} (accepted: --allow-unusual)", file=sys.stderr)
 
 
 def _show(d: dict, system: str, as_json: bool) -> None:
@@ -57,10 +101,18 @@ def _show(d: dict, system: str, as_json: bool) -> None:
 
 def run(args) -> int:
     """Print the quantities of ``args.quantity`` in ``args.units`` (text or JSON)."""
+    _FOUND.clear()
     s = args.units
     if args.quantity == "hydrostatic":
         rho = _q(args.density, "density", s, "--density")
         tvd = _q(args.tvd, "depth", s, "--tvd")
+        try:  # TVD 0 is the surface: 0 psi (legal)
+            check_order("--tvd", tvd, ">=", 0.0, "the surface", "depth")
+        except InputError as exc:
+            raise CaseInputError(
+                s, exc.name, exc.value, exc.allowed, exc.problem, kind=exc.kind, values=exc.values
+            ) from exc
+        _unusual(args)
         p = hydrostatic_pressure(rho, tvd, hydrostatic=args.hydrostatic)
         _show(
             {
@@ -74,22 +126,36 @@ def run(args) -> int:
             args.json,
         )
     elif args.quantity == "annular-velocity":
-        v = annular_velocity(
-            _q(args.rate, "flow_rate", s, "--rate"),
-            _q(args.hole, "diameter", s, "--hole"),
-            _q(args.pipe, "diameter", s, "--pipe"),
-        )
+        q = _q(args.rate, "flow_rate", s, "--rate")
+        hole = _q(args.hole, "diameter", s, "--hole")
+        pipe = _q(args.pipe, "diameter", s, "--pipe")
+        try:
+            check_order("--pipe (pipe OD)", pipe, "<", hole, "the hole diameter --hole", "diameter")
+        except InputError as exc:
+            raise CaseInputError(
+                s, exc.name, exc.value, exc.allowed, exc.problem, kind=exc.kind, values=exc.values
+            ) from exc
+        _unusual(args)
+        v = annular_velocity(q, hole, pipe)
         _show({"annular velocity": (v, "velocity")}, s, args.json)
     elif args.quantity == "bit":
-        nozzles = tuple(int(x) for x in args.nozzles.replace(" ", "").split(",") if x)
-        bit = Bit(
-            _q(args.size, "diameter", s, "--size"), nozzles=nozzles, discharge_coefficient=args.cd
-        )
-        bh = bit_hydraulics(
-            _q(args.rate, "flow_rate", s, "--rate"),
-            _q(args.density, "density", s, "--density"),
-            bit,
-        )
+        try:
+            nozzles = _nozzles(args.nozzles)
+        except InputError as exc:
+            raise InputError(
+                f"--nozzles {args.nozzles!r}: {exc.name}",
+                exc.value,
+                exc.allowed + " (e.g. 12,12,12,11,11,11 or 3x12,3x11)",
+                exc.problem,
+            ) from exc
+        size = _q(args.size, "diameter", s, "--size")
+        cd = guard_check(args.cd, "discharge_coefficient", "--cd", args.cd)
+        _FOUND.extend([cd] if cd else [])
+        rate = _q(args.rate, "flow_rate", s, "--rate")
+        rho = _q(args.density, "density", s, "--density")
+        _unusual(args)
+        bit = Bit(size, nozzles=nozzles, discharge_coefficient=args.cd)
+        bh = bit_hydraulics(rate, rho, bit)
         _show(
             {
                 "total flow area": (bh.tfa, "area"),
@@ -110,6 +176,8 @@ def run(args) -> int:
             if args.rate
             else case.check_value(-1, "flow_rate")
         )
+        _FOUND.extend(case.unusual)
+        _unusual(args)
         chk = case.checks[-1]
         method = case.hydraulics_method(args.method, args.constants)
         fluid = report_fluid(chk.readings, case.check_value(-1, "density"), method, chk.label)

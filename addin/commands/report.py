@@ -2,12 +2,14 @@
 
 from __future__ import annotations
 
+import sys
 import time
 from pathlib import Path
 
 from addin.case import load_case
 from addin.commands.exit_codes import EXIT_OK
 from addin.commands.output import json_text
+from addin.guard import accept_unusual
 from addin.report import compute, write_report
 from addin.report.jsonout import results_data
 from addin.safe_io import OutputExistsError
@@ -30,20 +32,25 @@ def output_path(value: str, option: str = "--output") -> Path:
     return Path(value)
 
 
-def run_one(case_path, out_path, *, force=False, method=None, constants=None):
+def run_one(case_path, out_path, *, force=False, method=None, constants=None, allow_unusual=False):
     """Load, compute and write one report; returns (results, seconds).
 
-    ``method``/``constants`` override the case's ``[case].method``/``[case].constants``."""
+    ``method``/``constants`` override the case's ``[case].method``/``[case].constants``; a
+    case with unusual values is refused unless ``allow_unusual`` (addin/guard.py)."""
     t0 = time.perf_counter()
     out = Path(out_path)
     if out.exists() and not force:  # refuse before any work, and write nothing
         raise OutputExistsError(out)
     if not out.parent.is_dir():
         raise FileNotFoundError(f"{out.parent}: output folder does not exist")
-    case = load_case(case_path)
+    case = accept_unusual(load_case(case_path), allow_unusual, _warn)
     results = compute(case, method=case.hydraulics_method(method, constants))
     write_report(results, out, overwrite=force)
     return results, time.perf_counter() - t0
+
+
+def _warn(line: str) -> None:
+    print(line, file=sys.stderr)
 
 
 def run(args) -> int:
@@ -54,7 +61,12 @@ def run(args) -> int:
         else Path(Path(args.case).stem + "-report.xlsx")
     )
     results, dt = run_one(
-        args.case, out, force=args.force, method=args.method, constants=args.constants
+        args.case,
+        out,
+        force=args.force,
+        method=args.method,
+        constants=args.constants,
+        allow_unusual=getattr(args, "allow_unusual", False),
     )
     if args.json:
         print(json_text(results_data(results)))

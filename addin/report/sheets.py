@@ -5,6 +5,7 @@ from __future__ import annotations
 from openpyxl.styles import Font, PatternFill
 
 from addin import text
+from addin.guard import finding_text
 from addin.report.audit import AGREE_TOL
 from addin.report.style import (
     heading,
@@ -231,6 +232,14 @@ def _header_pairs(results):
     return left, right
 
 
+def _unusual_rows(case) -> list[tuple[str, str]]:
+    """Run-section rows of the inputs outside their usual range that ``--allow-unusual``
+    let through (addin/guard.py); none for a case within its usual ranges."""
+    if not case.unusual_allowed:
+        return []
+    return [("unusual input (accepted: --allow-unusual)", finding_text(f)) for f in case.unusual]
+
+
 def _run_block(ws, row, results) -> int:
     """The run information: version, run time, inputs hash and case source."""
     row = heading(ws, row, "Run", span=12)
@@ -239,6 +248,7 @@ def _run_block(ws, row, results) -> int:
         ("run time", results.run_time),
         ("inputs hash (SHA-256)", results.case.hash),
         ("case source", results.case.source),
+        *_unusual_rows(results.case),
     ):
         put(ws, row, 1, k, "bf_note")
         put(ws, row, 2, str(v), "bf_cell")

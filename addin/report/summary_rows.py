@@ -14,6 +14,7 @@ from calc.circulation import (
     margin_status,
     spp_deviation_percent,
 )
+from calc.plausibility import assess
 
 __all__ = ["summary_rows"]
 
@@ -36,7 +37,47 @@ def summary_rows(results, refs) -> list[dict]:
     rows += _band_rows(results)
     rows += _bit_rows(results, refs)
     rows += _other_rows(refs)
-    return rows
+    return _credible(results, rows)
+
+
+#: The status of every row of a run whose results are physically impossible: no row of it
+#: may say "OK" (or a mere "NEAR LIMIT") then.
+NOT_CREDIBLE = "NOT CREDIBLE"
+
+
+def _impossible_results(results) -> list[str]:
+    """Why the results cannot describe a real well ([] when they can): a standpipe pressure
+    beyond every rating (calc/plausibility.py ``spp_result``), or an ECD above the fracture
+    gradient at every check point."""
+    why = []
+    if assess("spp_result", scalar(results.circulation.standpipe_pressure)) == "impossible":
+        why.append("the standpipe pressure is beyond any pump or rating")
+    ld = results.loaded
+    mt = ld.margins if ld is not None and ld.margins is not None else results.circulation.margins
+    if mt is not None:
+        fm = np.asarray(mt.fracture_margin, dtype=float).reshape(-1)
+        if fm.size and np.all(fm < 0):
+            why.append("the ECD is above the fracture gradient at every check point")
+    return why
+
+
+def _credible(results, rows: list[dict]) -> list[dict]:
+    """Rows unchanged for credible results; else every OK/NEAR LIMIT status replaced by
+    :data:`NOT_CREDIBLE` and a first row saying why (check the inputs)."""
+    why = _impossible_results(results)
+    if not why:
+        return rows
+    for r in rows:
+        if r.get("status") in ("OK", "NEAR LIMIT"):
+            r["status"] = NOT_CREDIBLE
+    head = dict(
+        name="results credible?",
+        kind=None,
+        text="no: " + "; ".join(why) + " (check the inputs)",
+        unit="",
+        status=NOT_CREDIBLE,
+    )
+    return [head, *rows]
 
 
 def _pressure_rows(results, refs) -> list[dict]:

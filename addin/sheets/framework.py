@@ -45,7 +45,8 @@ import numpy as np
 import xlwings as xw
 
 from addin import text
-from addin.sheets.cells import unit_set
+from addin.guard import check as guard_check
+from addin.sheets.cells import number, unit_set
 from calc.errors import InputError
 
 __all__ = [
@@ -160,10 +161,88 @@ def _units_of_call(raw, args, kwargs):
         return unit_set(None)
 
 
+#: Worksheet arguments checked against their physically possible range before the call
+#: (calc/plausibility.py): argument name → (quantity kind of its unit, plausibility quantity).
+#: An impossible value gives ``#BF! <argument> = <value in the cell's unit>: physically
+#: impossible; allowed: <range> …``; an unusual one is computed (a cell cannot warn).
+ARG_GUARDS: dict[str, tuple[str | None, str]] = {
+    "density": ("density", "fluid_density"),
+    "q": ("flow_rate", "flow_rate"),
+    "d_hole": ("diameter", "hole_diameter"),
+    "bit_size": ("diameter", "hole_diameter"),
+    "d_pipe": ("diameter", "pipe_diameter"),
+    "cuttings_size": ("diameter", "cuttings_size"),
+    "cuttings_density": ("density", "cuttings_density"),
+    "tvd": ("depth", "depth"),
+    "rop": ("rop", "rop"),
+    "rpm": (None, "rpm"),
+    "discharge_coefficient": (None, "discharge_coefficient"),
+    "accel_time": (None, "accel_time"),
+}
+
+
+_LABELS = {
+    "q": "flow rate",
+    "d_hole": "hole diameter",
+    "d_pipe": "pipe OD",
+    "bit_size": "bit size",
+    "cuttings_size": "cuttings size",
+    "cuttings_density": "cuttings density",
+    "tvd": "TVD",
+    "rop": "ROP",
+    "discharge_coefficient": "discharge coefficient",
+    "accel_time": "acceleration time",
+}
+
+
+def _cell_numbers(value):
+    """The single numbers (or 'number unit' texts) of an argument: a cell or a range."""
+    if isinstance(value, list | tuple):
+        for item in value:
+            yield from _cell_numbers(item)
+    elif isinstance(value, bool) or value is None:
+        return
+    elif isinstance(value, int | float | str):
+        yield value
+
+
+def _check_arguments(raw, args, kwargs) -> None:
+    """Refuse physically impossible arguments (:data:`ARG_GUARDS`) with the value in the
+    unit of the call; values the function would refuse anyway (text, blanks) are left to it."""
+    try:
+        bound = inspect.signature(raw).bind_partial(*args, **kwargs).arguments
+    except TypeError:
+        return
+    if not any(k in ARG_GUARDS for k in bound):
+        return
+    uset = _units_of_call(raw, args, kwargs)
+    for name, (kind, quantity) in ARG_GUARDS.items():
+        if name not in bound:
+            continue
+        for v in _cell_numbers(bound[name]):
+            try:
+                si = number(v, name, kind, uset)
+            except InputError:
+                continue  # not a number: the function's own message says so
+            if si <= 0 and name != "tvd":
+                continue  # zero and negative values: the function's own checks word them
+            if isinstance(v, str):
+                num_text, _, unit = v.strip().partition(" ")
+                try:
+                    shown_number, unit = float(num_text), unit.strip()
+                except ValueError:
+                    continue
+            else:
+                shown_number = float(v)
+                unit = uset.unit(kind) if kind else ""
+            guard_check(si, quantity, _LABELS.get(name, name), shown_number, unit, True)
+
+
 def _call_guarded(raw, args, kwargs):
     try:
         with warnings.catch_warnings(), np.errstate(all="ignore"):
             warnings.simplefilter("ignore", RuntimeWarning)
+            _check_arguments(raw, args, kwargs)
             out = raw(*args, **kwargs)
         return clean_result(out)
     except InputError as exc:
