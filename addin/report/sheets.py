@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import numpy as np
 from openpyxl.styles import Font, PatternFill
 
 from addin import text
@@ -287,8 +288,13 @@ def _key_results(ws, row, results, refs, system) -> int:
                 ),
             ).style = "bf_note"
         put(ws, row, 5, U(kind, system) if kind else item.get("unit", "–"), "bf_unit")
+        status = item.get("status", "")
+        unlimited = _no_limit(item)
         for col, key in ((6, "limit"), (7, "margin"), (8, "required")):
             v = item.get(key)
+            if unlimited and key in ("limit", "margin"):
+                put(ws, row, col, "no limit given" if key == "limit" else "–", "bf_note")
+                continue
             if v is not None:
                 k2 = "density" if kind == "density" else kind
                 if key in ("margin", "required") and kind == "density":
@@ -296,13 +302,26 @@ def _key_results(ws, row, results, refs, system) -> int:
                 elif k2:
                     v = out(v, k2, system)
                 put_number(ws, row, col, v, fmt)
+        if unlimited:
+            status = "NOT CHECKED"
         if item.get("bound"):
             put(ws, row, 6, item["bound"], "bf_note")
             ws.merge_cells(start_row=row, start_column=6, end_row=row, end_column=8)
             ws.row_dimensions[row].height = 12.0 * (1 + len(item["bound"]) // 60)
-        _status(ws, row, 9, item.get("status", ""))
+        _status(ws, row, 9, status)
         row += 1
     return row
+
+
+def _no_limit(item) -> bool:
+    """True where a row has a limit or margin that is not a finite number: the case gives no
+    such limit (e.g. no ``[pressure_window]``, so the fracture gradient at the bit is unknown);
+    the row then says so and carries no OK status."""
+    for key in ("limit", "margin"):
+        v = item.get(key)
+        if v is not None and not np.isfinite(float(v)):
+            return True
+    return False
 
 
 def _trend_table(ws, row, results, system) -> int:
