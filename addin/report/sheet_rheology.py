@@ -58,7 +58,7 @@ def write_rheology(wb, results, factors: Factors, title: str):
     row = _fits_table(ws, row, checks, system)
     last = checks[-1]
     if last.comparison is not None:
-        row = _change_table(ws, row, last.comparison, system)
+        row = _change_table(ws, row, last.comparison, system, checks[-2].readings.geometry)
     data_row = _rheogram(ws, row, checks, read_rows, system)
     setup_print(ws, title)
     last_col = max(10, 3 + 3 * len(checks))
@@ -235,8 +235,11 @@ def _fits_table(ws, row, checks, system):
     return row + 1
 
 
-def _change_table(ws, row, cmp_, system):
-    """The latest check against the previous one: values, change, flags.  Returns next row."""
+def _change_table(ws, row, cmp_, system, geometry):
+    """The latest check against the previous one: values, change, flags.  Returns next row.
+
+    ``cmp_.max_curve_difference`` is in dial degrees of the previous check's instrument
+    (calc.rheology.compare); ``geometry`` (that instrument) turns it into a stress."""
     su = U("stress", system)
     row = heading(
         ws,
@@ -262,12 +265,25 @@ def _change_table(ws, row, cmp_, system):
     row = note_row(
         ws,
         row,
-        f"Largest difference between the fitted curves: "
-        f"{_out(cmp_.max_curve_difference, 'stress', system):.2f} {su} at "
+        f"Largest difference between the fitted curves: {cmp_.max_curve_difference:.2f} dial "
+        f"degrees = {curve_difference_stress(cmp_, geometry, system):.2f} {su} at "
         f"{cmp_.max_difference_at:,.0f} 1/s.",
         span=6,
     )
     return row + 1
+
+
+def curve_difference_stress(cmp_, geometry, system) -> float:
+    """The comparison's largest curve difference [dial degrees] as a stress in ``system``'s unit:
+    degrees × the instrument's stress per reading (Pa), then to the display unit.
+
+    >>> from calc.rheology.viscometer import STANDARD_GEOMETRY
+    >>> from types import SimpleNamespace
+    >>> round(curve_difference_stress(SimpleNamespace(max_curve_difference=1.0),
+    ...                               STANDARD_GEOMETRY, "oilfield"), 4)
+    1.0666
+    """
+    return _out(cmp_.max_curve_difference * geometry.stress_per_reading, "stress", system)
 
 
 def _rheogram(ws, row, checks, read_rows, system):
