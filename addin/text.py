@@ -18,6 +18,8 @@ function's unit set (any object with a ``unit(kind)`` method).
 
 from __future__ import annotations
 
+from dataclasses import dataclass
+
 import numpy as np
 
 from calc.errors import InputError, check_choice
@@ -31,6 +33,7 @@ __all__ = [
     "BAND_INPUT_WORDS",
     "BREAKDOWN_LABELS",
     "STATUS_WORDS",
+    "NoteGroup",
     "band_input",
     "band_quantity",
     "band_value",
@@ -40,6 +43,7 @@ __all__ = [
     "display_number",
     "display_values",
     "error",
+    "group_notes",
     "method_spread",
     "model",
     "model_parameters",
@@ -280,6 +284,86 @@ def note_line(n: Note, system: str = "oilfield") -> str:
     """'LEVEL [subject]: text' in the unit system (the command line's form of a note)."""
     where = subject(n, system)
     return f"{n.level.upper()}{' [' + where + ']' if where else ''}: {note(n, system)}"
+
+
+#: Note levels, worst first (the order of a grouped note list).
+_LEVEL_ORDER = ("caution", "warning", "info")
+
+
+@dataclass(frozen=True)
+class NoteGroup:
+    """Notes of one code and one wording, shown as one line: the worst level, how many, where
+    (the affected places, MD extent), and the message (the first note's, saying when the
+    others' numbers differ)."""
+
+    level: str
+    code: str
+    count: int
+    about: str
+    message: str
+
+
+def _group_about(notes, system) -> str:
+    """Where a group of notes lies: one note's subject; else 'N places, MD a-b unit' (with the
+    items, at most three) for spans, or the distinct subjects (at most three, then '+N more')."""
+    if len(notes) == 1:
+        return subject(notes[0], system)
+    spans = [n.subject for n in notes if isinstance(n.subject, Span)]
+    mds = [m for s in spans for m in (s.top_md, s.bottom_md) if m is not None]
+    names = list(dict.fromkeys(
+        x for n in notes if (x := (span(n.subject, system, depths=False) if isinstance(
+            n.subject, Span) else str(n.subject)))
+    ))  # fmt: skip
+    parts = []
+    if mds:
+        lo, hi = min(mds), max(mds)
+        where = depth_point(lo, system) if lo == hi else depth_span(lo, hi, system)
+        parts.append(f"{len(notes)} places, {where}")
+    if names:
+        shown = "; ".join(names[:3]) + (f"; +{len(names) - 3} more" if len(names) > 3 else "")
+        parts.append(shown)
+    return ", ".join(parts) if parts else f"{len(notes)} places"
+
+
+def group_notes(notes, system: str = "oilfield") -> list[NoteGroup]:
+    """One line per (code, affected place): notes raised once per station or interval (a
+    :class:`~calc.span.Span` subject) are merged with a count and their MD extent; notes of one
+    code about one named thing become one line listing their distinct messages (a bullet each);
+    worst level first, then the larger count, then the
+    order of first appearance.  calc's notes are unchanged (a face concern).
+
+    >>> a = Note("caution", "ecd_near_fracture", "ECD near fracture", Span("annulus", "",
+    ...          top_md=3000.0, bottom_md=3000.0))
+    >>> b = Note("caution", "ecd_near_fracture", "ECD near fracture", Span("annulus", "",
+    ...          top_md=3300.0, bottom_md=3300.0))
+    >>> g = group_notes([Note("info", "x", "other"), a, b])
+    >>> [(x.code, x.count) for x in g], g[0].about
+    ([('ecd_near_fracture', 2), ('x', 1)], '2 places, MD 9,843-10,827 ft')
+    """
+    groups: dict[tuple[str, str], list[Note]] = {}
+    for n in notes:
+        where = "@span" if isinstance(n.subject, Span) else str(n.subject)
+        groups.setdefault((n.code, where), []).append(n)
+    out = []
+    for i, ((code, _), ns) in enumerate(groups.items()):
+        level = min((n.level for n in ns), key=_level_rank)
+        by_text: dict[str, list[Note]] = {}
+        for n in sorted(ns, key=lambda n: _level_rank(n.level)):
+            by_text.setdefault(n.text, []).append(n)
+        lines = []
+        for same in by_text.values():
+            first = note(same[0], system)
+            if len({note(n, system) for n in same}) > 1:
+                first += f" (the first of {len(same)}; the others differ in their values)"
+            lines.append(first)
+        message = lines[0] if len(lines) == 1 else "\n".join("• " + x for x in lines)
+        out.append((_level_rank(level), -len(ns), i, NoteGroup(
+            level, code, len(ns), _group_about(ns, system), message)))  # fmt: skip
+    return [g for *_, g in sorted(out, key=lambda t: t[:3])]
+
+
+def _level_rank(level: str) -> int:
+    return _LEVEL_ORDER.index(level) if level in _LEVEL_ORDER else len(_LEVEL_ORDER)
 
 
 #: Model parameters of these kinds keep one unit in every system: relaxation times (Cross,

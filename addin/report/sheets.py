@@ -54,35 +54,40 @@ def write_inputs(wb, results, title):
 
 def write_cautions(wb, results, title):
     ws = wb.create_sheet("Cautions")
-    set_widths(ws, [10, 22, 30, 90])
-    row = heading(ws, 1, "Cautions and notes", span=4, title=True)
-    merged_text(ws, row, cautions.CELL, span=4, height=28, style="bf_text")
+    set_widths(ws, [10, 7, 24, 40, 72])
+    row = heading(ws, 1, "Cautions and notes", span=5, title=True)
+    merged_text(ws, row, cautions.CELL, span=5, height=28, style="bf_text")
     row += 2
-    row = heading(ws, row, "Engineering caution", span=4)
-    row = note_row(ws, row, cautions.SHORT, span=4, style="bf_text", font_pt=9)
+    row = heading(ws, row, "Engineering caution", span=5)
+    row = note_row(ws, row, cautions.SHORT, span=5, style="bf_text", font_pt=9)
     row += 1
     for line in cautions.LINES:
         put(ws, row, 1, "•", "bf_text")
-        row = note_row(ws, row, line, col=2, span=3, style="bf_text", font_pt=9)
+        row = note_row(ws, row, line, col=2, span=4, style="bf_text", font_pt=9)
     row += 1
     row = heading(
-        ws, row, "Notes from this run (inputs interpreted, doubtful values, cautions)", span=4
+        ws,
+        row,
+        "Notes from this run (inputs interpreted, doubtful values, cautions): one line per "
+        "kind of note and wording, worst first; 'count' = how many places or items it was "
+        "raised for",
+        span=5,
     )
     ws.print_title_rows = f"{row}:{row}"
-    row = table_header(ws, row, 1, ["level", "code", "about", "message"])
-    order = {"caution": 0, "warning": 1, "info": 2}
-    for n in sorted(results.notes, key=lambda n: order.get(n.level, 3)):
-        put(ws, row, 1, n.level.upper(), "bf_cell")
-        if n.level == "caution":
+    row = table_header(ws, row, 1, ["level", "count", "code", "about", "message"])
+    for g in text.group_notes(results.notes, results.case.unit_system):
+        put(ws, row, 1, g.level.upper(), "bf_cell")
+        if g.level == "caution":
             ws.cell(row=row, column=1).font = Font(bold=True, color=PALETTE["bad"], size=9)
-        put(ws, row, 2, n.code, "bf_cell")
-        about, message = (
-            text.subject(n, results.case.unit_system),
-            text.note(n, results.case.unit_system),
+        put_number(ws, row, 2, g.count, "0")
+        put(ws, row, 3, g.code, "bf_text")
+        put(ws, row, 4, g.about, "bf_text")
+        put(ws, row, 5, g.message, "bf_text")
+        lines = max(
+            sum(1 + len(x) // 85 for x in g.message.split("\n")),
+            1 + len(g.about) // 38,
+            1 + len(g.code) // 24,
         )
-        put(ws, row, 3, about, "bf_text")
-        put(ws, row, 4, message, "bf_text")
-        lines = max(1 + len(message) // 110, 1 + len(about) // 44)
         ws.row_dimensions[row].height = 12.0 * lines
         row += 1
     if not results.notes:
