@@ -32,6 +32,7 @@ __all__ = [
     "BAND_BASIS",
     "BAND_INPUT_WORDS",
     "BREAKDOWN_LABELS",
+    "CLEANING_STATUS",
     "STATUS_WORDS",
     "NoteGroup",
     "band_input",
@@ -55,6 +56,7 @@ __all__ = [
     "span",
     "status_label",
     "subject",
+    "tightest_where",
     "unit_label",
     "value",
 ]
@@ -194,7 +196,43 @@ def check_point(p, system: str = "oilfield") -> str:
 
 
 #: Words for the margin states of :func:`calc.circulation.margin_status`.
-STATUS_WORDS = {"ok": "OK", "near_limit": "NEAR LIMIT", "exceeded": "EXCEEDED"}
+STATUS_WORDS = {"ok": "OK", "near_limit": "MARGINAL", "exceeded": "OUTSIDE LIMIT"}
+
+#: Words for the hole-cleaning verdicts (calc.cleaning): a poor verdict is not a limit crossed.
+CLEANING_STATUS = {"adequate": "OK", "marginal": "MARGINAL", "poor": "POOR"}
+
+
+def tightest_where(margins, system: str = "oilfield", step: float = 0.005, tight=None) -> str:
+    """The tightest check point of ``margins`` (calc.circulation margins with ``tightest``) in
+    words, naming every point tied with it: a point whose margin of the same limit differs by
+    less than ``step`` in the display unit of density (half the 0.01 shown).
+
+    ``tight`` (default ``margins.tightest``) is the point the caller reports.
+    Returns 'A' or 'A and B' or 'A, B and N more points within 0.01 <unit>'."""
+    t = margins.tightest if tight is None else tight
+    arr = margins.fracture_margin if t.limit == "fracture" else margins.pore_margin
+    arr = np.asarray(arr, dtype=float).reshape(len(margins.points), -1)[:, 0]
+    m0 = display_number(float(np.asarray(t.margin).reshape(-1)[0]), "density", system)
+    zero = display_number(0.0, "density", system)
+    first = check_point(t.point, system)
+    tied = [
+        check_point(p, system)
+        for p, m in zip(margins.points, arr, strict=True)
+        if np.isfinite(m)
+        and abs(display_number(float(m), "density", system) - zero - (m0 - zero)) < step
+        and p is not t.point
+    ]
+    named = [w for w in dict.fromkeys(tied) if w != first]
+    named.sort(key=lambda w: w.startswith("MD "))  # named points (weak points …) first
+    if not named:
+        return first
+    if len(named) == 1:
+        return f"{first} and {named[0]}"
+    return (
+        f"{first}; {named[0]}; and {len(named) - 1} more points within "
+        f"{2 * step:g} {unit_label('density', system)}"
+    )
+
 
 #: Words for the verification kinds of :data:`calc.registry.STATUS_KINDS` (calc/METHODS.md §0.3).
 STATUS_LABELS = {

@@ -137,8 +137,10 @@ def write_audit(ws, results, factors, title):
 
 _STATUS_FILL = {
     "OK": PALETTE["ok"],
-    "NEAR LIMIT": PALETTE["warn"],
-    "EXCEEDED": PALETTE["bad"],
+    text.STATUS_WORDS["near_limit"]: PALETTE["warn"],
+    text.STATUS_WORDS["exceeded"]: PALETTE["bad"],
+    text.CLEANING_STATUS["poor"]: PALETTE["bad"],
+    "NOT CHECKED": PALETTE["muted"],
     "CHECK": PALETTE["warn"],
     "INFO": PALETTE["muted"],
 }

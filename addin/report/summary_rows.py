@@ -123,7 +123,12 @@ def _ecd_rows(results, refs) -> list[dict]:
     t = ecd.get("tightest")
     if t is not None:
         m = float(np.asarray(t.margin))
-        where = text.check_point(t.point, case.unit_system)
+        mts = ecd.get("tightest_margins")
+        where = (
+            text.tightest_where(mts, case.unit_system, tight=t)
+            if mts is not None
+            else text.check_point(t.point, case.unit_system)
+        )
         rows.append(
             dict(
                 name=f"tightest margin: {where} ({t.limit}{', loaded ECD' if loaded else ''})",
@@ -226,7 +231,7 @@ def _other_rows(refs) -> list[dict]:
     rows = []
     cl = refs.get("cleaning") or {}
     if cl:
-        status = {"adequate": "OK", "marginal": "NEAR LIMIT", "poor": "EXCEEDED"}[cl["verdict"]]
+        status = text.CLEANING_STATUS[cl["verdict"]]
         rows.append(
             dict(
                 name="hole cleaning verdict (worst interval)",
@@ -249,7 +254,7 @@ def _other_rows(refs) -> list[dict]:
                         kind="flow_rate",
                         value=q_end,
                         bound=f"bound by: {words}",
-                        status="OK" if ok else "EXCEEDED",
+                        status="OK" if ok else text.STATUS_WORDS["exceeded"],
                     )
                 )
         else:
@@ -260,7 +265,7 @@ def _other_rows(refs) -> list[dict]:
                     text="none",
                     unit="",
                     bound=wr["low"][1],
-                    status="EXCEEDED",
+                    status=text.STATUS_WORDS["exceeded"],
                 )
             )
     tr = refs.get("trips") or {}
