@@ -33,6 +33,8 @@ __all__ = [
     "BAND_INPUT_WORDS",
     "BREAKDOWN_LABELS",
     "CLEANING_STATUS",
+    "PROGRAMME_PROPERTIES",
+    "PROGRAMME_WORDS",
     "STATUS_WORDS",
     "NoteGroup",
     "band_input",
@@ -52,6 +54,7 @@ __all__ = [
     "note_line",
     "number_text",
     "parameter_unit",
+    "programme_status",
     "quantity",
     "span",
     "status_label",
@@ -200,6 +203,36 @@ STATUS_WORDS = {"ok": "OK", "near_limit": "MARGINAL", "exceeded": "OUTSIDE LIMIT
 
 #: Words for the hole-cleaning verdicts (calc.cleaning): a poor verdict is not a limit crossed.
 CLEANING_STATUS = {"adequate": "OK", "marginal": "MARGINAL", "poor": "POOR"}
+
+
+#: The mud-programme properties of a check (case key → label, quantity kind) in table order.
+PROGRAMME_PROPERTIES = {
+    "density": ("density", "density"),
+    "pv": ("PV", "viscosity"),
+    "yp": ("YP", "stress"),
+    "lsyp": ("LSYP", "stress"),
+}
+
+#: Status words of a property against its mud-programme range.
+PROGRAMME_WORDS = {"in": "OK", "below": "BELOW PROGRAMME", "above": "ABOVE PROGRAMME"}
+
+
+def programme_status(value_si, low_si, high_si, kind: str, system: str = "oilfield") -> str:
+    """A property against its programme range, compared as displayed (the system's unit, to
+    the 0.01 the report shows): PROGRAMME_WORDS 'in' / 'below' / 'above'; "" if unknown.
+
+    >>> from calc.units import to_si
+    >>> programme_status(0.024, 0.012, 0.022, "viscosity")  # 24 cP against 12-22 cP
+    'ABOVE PROGRAMME'
+    >>> programme_status(to_si(11.2, "ppg"), to_si(10.8, "ppg"), to_si(11.3, "ppg"), "density")
+    'OK'
+    """
+    v, lo, hi = (display_number(x, kind, system) for x in (value_si, low_si, high_si))
+    if v is None or lo is None or hi is None:
+        return ""
+    v, lo, hi = round(v, 2), round(lo, 2), round(hi, 2)
+    key = "below" if v < lo else "above" if v > hi else "in"
+    return PROGRAMME_WORDS[key]
 
 
 def tightest_where(margins, system: str = "oilfield", step: float = 0.005, tight=None) -> str:

@@ -3,8 +3,10 @@
 from __future__ import annotations
 
 import numpy as np
+from openpyxl.styles import Font
 from openpyxl.utils import get_column_letter
 
+from addin import text
 from addin.report.audit import Factors, cell_ref, write_checked
 from addin.report.charts import rheogram
 from addin.report.style import (
@@ -15,9 +17,10 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
+from addin.report.summary_rows import programme_values
 from addin.text import display_number as _out
 from addin.text import unit_label as U
-from addin.xlsx_cells import put, set_widths
+from addin.xlsx_cells import PALETTE, put, set_widths
 from calc.circulation.fluid import model_parameters
 
 __all__ = ["write_rheology"]
@@ -124,8 +127,8 @@ def _properties_table(ws, row, results, factors: Factors, dial_cells):
     for c in checks:
         heads += [f"{c.label}\nboreflow", f"{c.label}\nlive check", "agree?"]
         units += ["", "formula", ""]
-    heads += ["programme"]
-    units += ["low – high"]
+    heads += ["programme", f"{checks[-1].label}\nvs programme"]
+    units += ["low – high", ""]
     row = table_header(ws, row, 1, heads, units)
     f_cp = factors.named(
         "SI per cP",
@@ -171,9 +174,16 @@ def _properties_table(ws, row, results, factors: Factors, dial_cells):
             )
             refs[(name.split()[0], j)] = vref
         if prog:
-            rng = results.case.doc["check"][-1].get("program", {}).get(prog)
-            if isinstance(rng, list) and len(rng) == 2:
-                put(ws, row, 3 + 3 * len(checks), f"{rng[0]} – {rng[1]}", "bf_cell")
+            rng = (results.case.checks[-1].values.get("program") or {}).get(prog)
+            if isinstance(rng, (list, tuple)) and len(rng) == 2:
+                lo, hi = (text.quantity(x, kind, system) for x in rng)
+                put(ws, row, 3 + 3 * len(checks), f"{lo} – {hi}", "bf_cell")
+                v = programme_values(results).get(prog)
+                if v is not None:
+                    word = text.programme_status(v, rng[0], rng[1], kind, system)
+                    c = put(ws, row, 4 + 3 * len(checks), word, "bf_cell")
+                    if word != text.PROGRAMME_WORDS["in"]:
+                        c.font = Font(name="Arial", size=9, bold=True, color=PALETTE["bad"])
         row += 1
     for gel in ("10s", "10min", "30min"):
         put(ws, row, 1, f"gel strength {gel}")

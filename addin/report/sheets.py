@@ -141,6 +141,8 @@ _STATUS_FILL = {
     text.STATUS_WORDS["exceeded"]: PALETTE["bad"],
     text.CLEANING_STATUS["poor"]: PALETTE["bad"],
     "NOT CHECKED": PALETTE["muted"],
+    text.PROGRAMME_WORDS["below"]: PALETTE["warn"],
+    text.PROGRAMME_WORDS["above"]: PALETTE["warn"],
     "CHECK": PALETTE["warn"],
     "INFO": PALETTE["muted"],
 }

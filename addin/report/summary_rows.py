@@ -36,6 +36,43 @@ def summary_rows(results, refs) -> list[dict]:
     rows += _band_rows(results)
     rows += _bit_rows(results, refs)
     rows += _other_rows(refs)
+    rows += programme_rows(results)
+    return rows
+
+
+def programme_values(results) -> dict[str, float | None]:
+    """The latest check's programme properties [SI] (density, PV, YP, LSYP; None if unknown)."""
+    rd = results.checks[-1].readings
+    out = {"density": results.case.checks[-1].values.get("density")}
+    for key in ("pv", "yp", "lsyp"):
+        try:
+            out[key] = float(getattr(rd, key))
+        except Exception:  # readings lack the speeds this property needs
+            out[key] = None
+    return out
+
+
+def programme_rows(results) -> list[dict]:
+    """The latest check's density, PV, YP and LSYP against the case's mud programme."""
+    chk = results.case.checks[-1]
+    prog = chk.values.get("program") or {}
+    system = results.case.unit_system
+    vals = programme_values(results)
+    rows = []
+    for key, (label, kind) in text.PROGRAMME_PROPERTIES.items():
+        rng = prog.get(key)
+        if not (isinstance(rng, (list, tuple)) and len(rng) == 2) or vals.get(key) is None:
+            continue
+        lo, hi = (text.quantity(x, kind, system) for x in rng)
+        rows.append(
+            dict(
+                name=f"{label} against the mud programme ({chk.label})",
+                kind=kind,
+                value=vals[key],
+                bound=f"programme {lo} – {hi}",
+                status=text.programme_status(vals[key], rng[0], rng[1], kind, system),
+            )
+        )
     return rows
 
 
