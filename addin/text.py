@@ -420,7 +420,9 @@ def group_notes(notes, system: str = "oilfield") -> list[NoteGroup]:
         level = min((n.level for n in ns), key=_level_rank)
         by_text: dict[str, list[Note]] = {}
         for n in sorted(ns, key=lambda n: _level_rank(n.level)):
-            by_text.setdefault(n.text, []).append(n)
+            # per-place notes: one wording, numbers may differ; about one thing: each message
+            key = n.text if isinstance(n.subject, Span) else note(n, system)
+            by_text.setdefault(key, []).append(n)
         lines = []
         for same in by_text.values():
             first = note(same[0], system)

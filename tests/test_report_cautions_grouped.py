@@ -74,3 +74,14 @@ def test_distinct_messages_about_one_thing_stay_readable():
     ns = [Note("warning", "method_caveat", t, "method") for t in ("first caveat", "second")]
     (g,) = text.group_notes(ns)
     assert g.count == 2 and "first caveat" in g.message and "second" in g.message
+
+
+def test_filled_wordings_about_one_thing_are_all_listed():
+    from calc.notes import Note
+    from calc.values import Value
+
+    ns = [Note("warning", "method_caveat", "{c}", "method", values=(Value("c", t),))
+          for t in ("alpha caveat", "beta caveat")]  # fmt: skip
+    (g,) = text.group_notes(ns)
+    assert "alpha caveat" in g.message and "beta caveat" in g.message
+    assert "the others differ" not in g.message
