@@ -34,3 +34,15 @@ def test_report_sheets_have_page_setup():
     wb = openpyxl.load_workbook(demo_report_path())
     for ws in wb.worksheets:
         _check(ws)
+
+
+def test_inputs_hash_is_not_cut_off():
+    """The Inputs sheet's source and hash line wraps inside a merged range, so the 64 hex
+    digits of the SHA-256 are printed whole."""
+    from tests._report_demo import demo_results
+
+    ws = openpyxl.load_workbook(demo_report_path())["Inputs"]
+    text = ws.cell(row=2, column=1).value
+    assert demo_results().case.hash in text and len(demo_results().case.hash) == 64
+    assert any(str(r).startswith("A2:") for r in ws.merged_cells.ranges)
+    assert ws.cell(row=2, column=1).alignment.wrap_text

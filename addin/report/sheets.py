@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 import numpy as np
-from openpyxl.styles import Font, PatternFill
+from openpyxl.styles import Alignment, Font, PatternFill
 
 from addin import text
 from addin.report.audit import AGREE_TOL
@@ -42,7 +42,10 @@ def write_inputs(wb, results, title):
         "as the same case)",
         "bf_title",
     )
-    put(ws, 2, 1, f"source: {case.source}    inputs hash (SHA-256): {case.hash}", "bf_note")
+    c = put(ws, 2, 1, f"source: {case.source}\ninputs hash (SHA-256): {case.hash}", "bf_note")
+    c.alignment = Alignment(wrap_text=True, vertical="top")
+    ws.merge_cells(start_row=2, start_column=1, end_row=2, end_column=5)
+    ws.row_dimensions[2].height = 24
     ws.append([])
     write_case_sheets(wb, case.doc, {"Inputs": tuple(b.key for b in LAYOUT)})
     setup_print(ws, title)
