@@ -27,7 +27,7 @@ def test_summary_uses_only_the_defined_words():
     rows = list(ws.iter_rows(values_only=True))
     statuses = {r[8] for r in rows if isinstance(r[8], str) and r[8].isupper()}
     allowed = set(text.STATUS_WORDS.values()) | set(text.CLEANING_STATUS.values())
-    allowed |= {"CHECK", "INFO", "NOT CHECKED", "status"}
+    allowed |= set(text.PROGRAMME_WORDS.values()) | {"CHECK", "INFO", "NOT CHECKED", "status"}
     assert statuses <= allowed, statuses - allowed
     assert "EXCEEDED" not in statuses and "NEAR LIMIT" not in statuses
 
