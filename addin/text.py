@@ -18,6 +18,8 @@ function's unit set (any object with a ``unit(kind)`` method).
 
 from __future__ import annotations
 
+from dataclasses import dataclass
+
 import numpy as np
 
 from calc.errors import InputError, check_choice
@@ -30,7 +32,11 @@ __all__ = [
     "BAND_BASIS",
     "BAND_INPUT_WORDS",
     "BREAKDOWN_LABELS",
+    "CLEANING_STATUS",
+    "PROGRAMME_PROPERTIES",
+    "PROGRAMME_WORDS",
     "STATUS_WORDS",
+    "NoteGroup",
     "band_input",
     "band_quantity",
     "band_value",
@@ -40,6 +46,7 @@ __all__ = [
     "display_number",
     "display_values",
     "error",
+    "group_notes",
     "method_spread",
     "model",
     "model_parameters",
@@ -47,10 +54,12 @@ __all__ = [
     "note_line",
     "number_text",
     "parameter_unit",
+    "programme_status",
     "quantity",
     "span",
     "status_label",
     "subject",
+    "tightest_where",
     "unit_label",
     "value",
 ]
@@ -190,7 +199,73 @@ def check_point(p, system: str = "oilfield") -> str:
 
 
 #: Words for the margin states of :func:`calc.circulation.margin_status`.
-STATUS_WORDS = {"ok": "OK", "near_limit": "NEAR LIMIT", "exceeded": "EXCEEDED"}
+STATUS_WORDS = {"ok": "OK", "near_limit": "MARGINAL", "exceeded": "OUTSIDE LIMIT"}
+
+#: Words for the hole-cleaning verdicts (calc.cleaning): a poor verdict is not a limit crossed.
+CLEANING_STATUS = {"adequate": "OK", "marginal": "MARGINAL", "poor": "POOR"}
+
+
+#: The mud-programme properties of a check (case key → label, quantity kind) in table order.
+PROGRAMME_PROPERTIES = {
+    "density": ("density", "density"),
+    "pv": ("PV", "viscosity"),
+    "yp": ("YP", "stress"),
+    "lsyp": ("LSYP", "stress"),
+}
+
+#: Status words of a property against its mud-programme range.
+PROGRAMME_WORDS = {"in": "OK", "below": "BELOW PROGRAMME", "above": "ABOVE PROGRAMME"}
+
+
+def programme_status(value_si, low_si, high_si, kind: str, system: str = "oilfield") -> str:
+    """A property against its programme range, compared as displayed (the system's unit, to
+    the 0.01 the report shows): PROGRAMME_WORDS 'in' / 'below' / 'above'; "" if unknown.
+
+    >>> from calc.units import to_si
+    >>> programme_status(0.024, 0.012, 0.022, "viscosity")  # 24 cP against 12-22 cP
+    'ABOVE PROGRAMME'
+    >>> programme_status(to_si(11.2, "ppg"), to_si(10.8, "ppg"), to_si(11.3, "ppg"), "density")
+    'OK'
+    """
+    v, lo, hi = (display_number(x, kind, system) for x in (value_si, low_si, high_si))
+    if v is None or lo is None or hi is None:
+        return ""
+    v, lo, hi = round(v, 2), round(lo, 2), round(hi, 2)
+    key = "below" if v < lo else "above" if v > hi else "in"
+    return PROGRAMME_WORDS[key]
+
+
+def tightest_where(margins, system: str = "oilfield", step: float = 0.005, tight=None) -> str:
+    """The tightest check point of ``margins`` (calc.circulation margins with ``tightest``) in
+    words, naming every point tied with it: a point whose margin of the same limit differs by
+    less than ``step`` in the display unit of density (half the 0.01 shown).
+
+    ``tight`` (default ``margins.tightest``) is the point the caller reports.
+    Returns 'A' or 'A and B' or 'A, B and N more points within 0.01 <unit>'."""
+    t = margins.tightest if tight is None else tight
+    arr = margins.fracture_margin if t.limit == "fracture" else margins.pore_margin
+    arr = np.asarray(arr, dtype=float).reshape(len(margins.points), -1)[:, 0]
+    m0 = display_number(float(np.asarray(t.margin).reshape(-1)[0]), "density", system)
+    zero = display_number(0.0, "density", system)
+    first = check_point(t.point, system)
+    tied = [
+        check_point(p, system)
+        for p, m in zip(margins.points, arr, strict=True)
+        if np.isfinite(m)
+        and abs(display_number(float(m), "density", system) - zero - (m0 - zero)) < step
+        and p is not t.point
+    ]
+    named = [w for w in dict.fromkeys(tied) if w != first]
+    named.sort(key=lambda w: w.startswith("MD "))  # named points (weak points …) first
+    if not named:
+        return first
+    if len(named) == 1:
+        return f"{first} and {named[0]}"
+    return (
+        f"{first}; {named[0]}; and {len(named) - 1} more points within "
+        f"{2 * step:g} {unit_label('density', system)}"
+    )
+
 
 #: Words for the verification kinds of :data:`calc.registry.STATUS_KINDS` (calc/METHODS.md §0.3).
 STATUS_LABELS = {
@@ -280,6 +355,88 @@ def note_line(n: Note, system: str = "oilfield") -> str:
     """'LEVEL [subject]: text' in the unit system (the command line's form of a note)."""
     where = subject(n, system)
     return f"{n.level.upper()}{' [' + where + ']' if where else ''}: {note(n, system)}"
+
+
+#: Note levels, worst first (the order of a grouped note list).
+_LEVEL_ORDER = ("caution", "warning", "info")
+
+
+@dataclass(frozen=True)
+class NoteGroup:
+    """Notes of one code and one wording, shown as one line: the worst level, how many, where
+    (the affected places, MD extent), and the message (the first note's, saying when the
+    others' numbers differ)."""
+
+    level: str
+    code: str
+    count: int
+    about: str
+    message: str
+
+
+def _group_about(notes, system) -> str:
+    """Where a group of notes lies: one note's subject; else 'N places, MD a-b unit' (with the
+    items, at most three) for spans, or the distinct subjects (at most three, then '+N more')."""
+    if len(notes) == 1:
+        return subject(notes[0], system)
+    spans = [n.subject for n in notes if isinstance(n.subject, Span)]
+    mds = [m for s in spans for m in (s.top_md, s.bottom_md) if m is not None]
+    names = list(dict.fromkeys(
+        x for n in notes if (x := (span(n.subject, system, depths=False) if isinstance(
+            n.subject, Span) else str(n.subject)))
+    ))  # fmt: skip
+    parts = []
+    if mds:
+        lo, hi = min(mds), max(mds)
+        where = depth_point(lo, system) if lo == hi else depth_span(lo, hi, system)
+        parts.append(f"{len(notes)} places, {where}")
+    if names:
+        shown = "; ".join(names[:3]) + (f"; +{len(names) - 3} more" if len(names) > 3 else "")
+        parts.append(shown)
+    return ", ".join(parts) if parts else f"{len(notes)} places"
+
+
+def group_notes(notes, system: str = "oilfield") -> list[NoteGroup]:
+    """One line per (code, affected place): notes raised once per station or interval (a
+    :class:`~calc.span.Span` subject) are merged with a count and their MD extent; notes of one
+    code about one named thing become one line listing their distinct messages (a bullet each);
+    worst level first, then the larger count, then the
+    order of first appearance.  calc's notes are unchanged (a face concern).
+
+    >>> a = Note("caution", "ecd_near_fracture", "ECD near fracture", Span("annulus", "",
+    ...          top_md=3000.0, bottom_md=3000.0))
+    >>> b = Note("caution", "ecd_near_fracture", "ECD near fracture", Span("annulus", "",
+    ...          top_md=3300.0, bottom_md=3300.0))
+    >>> g = group_notes([Note("info", "x", "other"), a, b])
+    >>> [(x.code, x.count) for x in g], g[0].about
+    ([('ecd_near_fracture', 2), ('x', 1)], '2 places, MD 9,843-10,827 ft')
+    """
+    groups: dict[tuple[str, str], list[Note]] = {}
+    for n in notes:
+        where = "@span" if isinstance(n.subject, Span) else str(n.subject)
+        groups.setdefault((n.code, where), []).append(n)
+    out = []
+    for i, ((code, _), ns) in enumerate(groups.items()):
+        level = min((n.level for n in ns), key=_level_rank)
+        by_text: dict[str, list[Note]] = {}
+        for n in sorted(ns, key=lambda n: _level_rank(n.level)):
+            # per-place notes: one wording, numbers may differ; about one thing: each message
+            key = n.text if isinstance(n.subject, Span) else note(n, system)
+            by_text.setdefault(key, []).append(n)
+        lines = []
+        for same in by_text.values():
+            first = note(same[0], system)
+            if len({note(n, system) for n in same}) > 1:
+                first += f" (the first of {len(same)}; the others differ in their values)"
+            lines.append(first)
+        message = lines[0] if len(lines) == 1 else "\n".join("• " + x for x in lines)
+        out.append((_level_rank(level), -len(ns), i, NoteGroup(
+            level, code, len(ns), _group_about(ns, system), message)))  # fmt: skip
+    return [g for *_, g in sorted(out, key=lambda t: t[:3])]
+
+
+def _level_rank(level: str) -> int:
+    return _LEVEL_ORDER.index(level) if level in _LEVEL_ORDER else len(_LEVEL_ORDER)
 
 
 #: Model parameters of these kinds keep one unit in every system: relaxation times (Cross,

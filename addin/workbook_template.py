@@ -10,10 +10,17 @@ from __future__ import annotations
 
 from typing import NamedTuple
 
+from openpyxl.utils import get_column_letter
+
 from addin.workbook_layout import BLOCKS, MARK, Block, unit_labels
 from addin.xlsx_cells import add_styles, put, set_widths
 
-__all__ = ["TEMPLATE_SHEETS", "write_block", "write_case_sheets"]
+__all__ = [
+    "TEMPLATE_SHEETS",
+    "page_setup",
+    "write_block",
+    "write_case_sheets",
+]
 
 
 def _flatten(value, prefix: str = "") -> list[tuple[str, object]]:
@@ -210,3 +217,29 @@ def write_case_sheets(wb, doc: dict, sheets: dict[str, tuple[str, ...]] | None =
             if key in doc:
                 row = write_block(ws, row, BLOCKS[key], doc[key], unit_of)
         set_widths(ws, [30, 22, 12] + [14] * 10)
+
+
+def page_setup(ws, title: str, *, header_rows: str | None = None, footer: str = "") -> None:
+    """Print set-up of a generated worksheet: print area = the used range, A4, fit to one page
+    wide (as many pages tall as needed), landscape where wider than 8 columns, ``header_rows``
+    (e.g. "1:1") repeated on every page, the title and sheet name in the header, page numbers
+    in the footer."""
+    last = ws.max_column
+    ws.print_area = f"A1:{get_column_letter(last)}{max(ws.max_row, 1)}"
+    ws.page_setup.paperSize = ws.PAPERSIZE_A4
+    ws.page_setup.orientation = "landscape" if last > 8 else "portrait"
+    ws.page_setup.fitToWidth = 1
+    ws.page_setup.fitToHeight = 0
+    ws.sheet_properties.pageSetUpPr.fitToPage = True
+    ws.page_margins.left = ws.page_margins.right = 0.4
+    ws.page_margins.top = ws.page_margins.bottom = 0.7
+    if header_rows:
+        ws.print_title_rows = header_rows
+    ws.oddHeader.left.text = title.replace("&", "&&")
+    ws.oddHeader.left.size = 8
+    ws.oddHeader.right.text = "&A"
+    ws.oddHeader.right.size = 8
+    ws.oddFooter.left.text = footer.replace("&", "&&")
+    ws.oddFooter.left.size = 7
+    ws.oddFooter.right.text = "page &P of &N"
+    ws.oddFooter.right.size = 7

@@ -283,7 +283,7 @@ def test_notes_margins_pore_rating_and_tool_window():
     slow = circulate(well, hb_fluid(), to_si(300.0, "gpm"))
     assert "tool_flow_window" in {n.code for n in slow.notes}
     lam = circulate(well, hb_fluid(), to_si(100.0, "gpm"))
-    assert "annular_velocity_below_critical" in {n.code for n in lam.notes}
+    assert "below_critical_velocity" in {n.code for n in lam.notes}
 
 
 def test_transitional_flow_note():

@@ -175,17 +175,16 @@ def test_audit_shows_status_and_every_caveat_of_the_methods_used(workbook):
     assert text.status_label("from_memory") in audit
 
 
-def test_cautions_has_one_note_per_caveat(workbook):
+def test_cautions_lists_every_caveat(workbook):
+    """The Cautions sheet groups notes by code and subject (addin.text.group_notes): the method
+    caveats are one line, counted, each caveat a bullet of its own."""
     ws = workbook["Cautions"]
-    notes = [
-        ws.cell(r, 4).value
-        for r in range(1, ws.max_row + 1)
-        if ws.cell(r, 2).value == "method_caveat"
-    ]
+    rows = [r for r in range(1, ws.max_row + 1) if ws.cell(r, 3).value == "method_caveat"]
+    assert len(rows) == 1
     want = method_caveats(DEFAULT_METHOD, "moore")
-    assert len(notes) == len(want)
-    for (family, name, caveat), note in zip(want, notes, strict=True):
-        assert note == f"{family} {name}: {caveat}"
+    assert ws.cell(rows[0], 2).value == len(want)
+    bullets = ws.cell(rows[0], 5).value.split("\n")
+    assert bullets == [f"• {family} {name}: {caveat}" for family, name, caveat in want]
 
 
 def test_json_carries_the_status_of_the_methods_used():

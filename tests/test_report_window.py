@@ -201,7 +201,7 @@ def test_no_window_gives_a_clear_status(tmp_path):
     assert not res.window.feasible
     book = openpyxl.load_workbook(write_report(res, tmp_path / "t.xlsx"))
     row = _row(book["Summary"], "operating window (see 'Rate window')")
-    assert row[1].value == "none" and row[8].value == "EXCEEDED"
+    assert row[1].value == "none" and row[8].value == "OUTSIDE LIMIT"
     assert row[5].value.startswith("no rate satisfies every limit at once (failing: ")
     ws = book["Rate window"]
     assert _row(ws, "operating window")[2].value == "none"

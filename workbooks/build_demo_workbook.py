@@ -42,6 +42,7 @@ from openpyxl.worksheet.formula import ArrayFormula
 HERE = Path(__file__).resolve().parent
 sys.path.insert(0, str(HERE.parent))
 
+from addin.workbook_template import page_setup  # noqa: E402
 from calc.geometry import Survey  # noqa: E402
 
 CASE = HERE / "demo-case.toml"
@@ -562,6 +563,10 @@ def build(out: Path = OUT, check_label: str = "D1", *, computed: bool = False) -
     conf["A1"], conf["B1"] = "UDF Modules", "addin.sheets.functions"
     conf["A2"], conf["B2"] = "Show Console", "False"
 
+    for sheet in wb.worksheets:
+        if sheet.title != "xlwings.conf":
+            page_setup(sheet, "boreflow demo workbook (invented data)", header_rows="1:1",
+                       footer="boreflow worksheet functions demo; estimates")  # fmt: skip
     out = Path(out)
     tmp = out.with_suffix(".tmp.xlsx")
     wb.save(tmp)

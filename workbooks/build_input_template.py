@@ -24,7 +24,7 @@ sys.path.insert(0, str(ROOT))
 
 from addin.safe_io import atomic_write  # noqa: E402
 from addin.workbook_layout import MARK  # noqa: E402
-from addin.workbook_template import write_case_sheets  # noqa: E402
+from addin.workbook_template import page_setup, write_case_sheets  # noqa: E402
 from addin.xlsx_cells import add_styles, put, set_widths  # noqa: E402
 
 HELP = (
@@ -53,6 +53,9 @@ def build(out: Path, force: bool) -> Path:
         put(ws, i, 1, line, "bf_title" if i == 1 else "bf_text")
     set_widths(ws, [120])
     write_case_sheets(wb, doc)
+    for sheet in wb.worksheets:
+        page_setup(sheet, "boreflow input workbook (template)", header_rows="1:1",
+                   footer="boreflow input workbook; blocks marked §")  # fmt: skip
     with atomic_write(out, overwrite=force) as tmp:
         wb.save(tmp)
     return out

@@ -24,6 +24,7 @@ from __future__ import annotations
 from pathlib import Path
 
 import openpyxl
+from openpyxl.utils import get_column_letter
 
 from addin.report.audit import Factors
 from addin.report.compute import Results, compute
@@ -68,6 +69,9 @@ def build_report(results: Results):
     write_methods_and_trace(audit, results, summary_rows(results, refs), factors.next_row + 2)
     # Audit last in tab order
     wb.move_sheet("Audit", offset=len(wb.sheetnames) - 1 - wb.sheetnames.index("Audit"))
+    for ws in wb.worksheets:  # a print area on every sheet (the used range unless set)
+        if not ws.print_area:
+            ws.print_area = f"A1:{get_column_letter(ws.max_column)}{ws.max_row}"
     wb.active = 0
     return wb
 

@@ -37,9 +37,11 @@ def write_ecd(wb, results, factors: Factors, title: str):
     if results.circulation.margins is not None:
         row = _margins_block(ws, row, results)
         refs["tightest"] = results.circulation.margins.tightest
+        refs["tightest_margins"] = results.circulation.margins
         if loaded is not None and loaded.margins is not None:
             refs["tightest_clean"] = refs["tightest"]
             refs["tightest"] = loaded.margins.tightest
+            refs["tightest_margins"] = loaded.margins
         row += 1
     refs.update(_profile_block(ws, row, results, title))
     return refs
@@ -238,7 +240,7 @@ def _margins_block(ws, row, results) -> int:
         put(ws, row, 10, text.STATUS_WORDS[status])
         row += 1
     t = mt.tightest
-    where = text.check_point(t.point, system)
+    where = text.tightest_where(mt, system)
     basis = (
         "Margins: fracture − loaded ECD and clean ECD − pore"
         if loaded
@@ -249,8 +251,9 @@ def _margins_block(ws, row, results) -> int:
         row,
         f"Tightest point: {where} (MD {_o(t.md, 'depth', system):,.0f} "
         f"{du}), {t.limit} margin {_o(t.margin, 'density', system):.2f} {dn} against "
-        f"{_o(t.required, 'density', system):.2f} {dn} required. {basis}; status NEAR LIMIT "
-        "below the required margin.",
+        f"{_o(t.required, 'density', system):.2f} {dn} required. {basis}; status "
+        f"{text.STATUS_WORDS['near_limit']} below the required margin, "
+        f"{text.STATUS_WORDS['exceeded']} below zero.",
         span=10,
     )
 

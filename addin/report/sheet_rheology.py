@@ -3,8 +3,10 @@
 from __future__ import annotations
 
 import numpy as np
+from openpyxl.styles import Font
 from openpyxl.utils import get_column_letter
 
+from addin import text
 from addin.report.audit import Factors, cell_ref, write_checked
 from addin.report.charts import rheogram
 from addin.report.style import (
@@ -15,9 +17,10 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
+from addin.report.summary_rows import programme_values
 from addin.text import display_number as _out
 from addin.text import unit_label as U
-from addin.xlsx_cells import put, set_widths
+from addin.xlsx_cells import PALETTE, put, set_widths
 from calc.circulation.fluid import model_parameters
 
 __all__ = ["write_rheology"]
@@ -58,7 +61,7 @@ def write_rheology(wb, results, factors: Factors, title: str):
     row = _fits_table(ws, row, checks, system)
     last = checks[-1]
     if last.comparison is not None:
-        row = _change_table(ws, row, last.comparison, system)
+        row = _change_table(ws, row, last.comparison, system, checks[-2].readings.geometry)
     data_row = _rheogram(ws, row, checks, read_rows, system)
     setup_print(ws, title)
     last_col = max(10, 3 + 3 * len(checks))
@@ -124,8 +127,8 @@ def _properties_table(ws, row, results, factors: Factors, dial_cells):
     for c in checks:
         heads += [f"{c.label}\nboreflow", f"{c.label}\nlive check", "agree?"]
         units += ["", "formula", ""]
-    heads += ["programme"]
-    units += ["low – high"]
+    heads += ["programme", f"{checks[-1].label}\nvs programme"]
+    units += ["low – high", ""]
     row = table_header(ws, row, 1, heads, units)
     f_cp = factors.named(
         "SI per cP",
@@ -171,9 +174,16 @@ def _properties_table(ws, row, results, factors: Factors, dial_cells):
             )
             refs[(name.split()[0], j)] = vref
         if prog:
-            rng = results.case.doc["check"][-1].get("program", {}).get(prog)
-            if isinstance(rng, list) and len(rng) == 2:
-                put(ws, row, 3 + 3 * len(checks), f"{rng[0]} – {rng[1]}", "bf_cell")
+            rng = (results.case.checks[-1].values.get("program") or {}).get(prog)
+            if isinstance(rng, (list, tuple)) and len(rng) == 2:
+                lo, hi = (text.quantity(x, kind, system) for x in rng)
+                put(ws, row, 3 + 3 * len(checks), f"{lo} – {hi}", "bf_cell")
+                v = programme_values(results).get(prog)
+                if v is not None:
+                    word = text.programme_status(v, rng[0], rng[1], kind, system)
+                    c = put(ws, row, 4 + 3 * len(checks), word, "bf_cell")
+                    if word != text.PROGRAMME_WORDS["in"]:
+                        c.font = Font(name="Arial", size=9, bold=True, color=PALETTE["bad"])
         row += 1
     for gel in ("10s", "10min", "30min"):
         put(ws, row, 1, f"gel strength {gel}")
@@ -235,8 +245,11 @@ def _fits_table(ws, row, checks, system):
     return row + 1
 
 
-def _change_table(ws, row, cmp_, system):
-    """The latest check against the previous one: values, change, flags.  Returns next row."""
+def _change_table(ws, row, cmp_, system, geometry):
+    """The latest check against the previous one: values, change, flags.  Returns next row.
+
+    ``cmp_.max_curve_difference`` is in dial degrees of the previous check's instrument
+    (calc.rheology.compare); ``geometry`` (that instrument) turns it into a stress."""
     su = U("stress", system)
     row = heading(
         ws,
@@ -262,12 +275,25 @@ def _change_table(ws, row, cmp_, system):
     row = note_row(
         ws,
         row,
-        f"Largest difference between the fitted curves: "
-        f"{_out(cmp_.max_curve_difference, 'stress', system):.2f} {su} at "
+        f"Largest difference between the fitted curves: {cmp_.max_curve_difference:.2f} dial "
+        f"degrees = {curve_difference_stress(cmp_, geometry, system):.2f} {su} at "
         f"{cmp_.max_difference_at:,.0f} 1/s.",
         span=6,
     )
     return row + 1
+
+
+def curve_difference_stress(cmp_, geometry, system) -> float:
+    """The comparison's largest curve difference [dial degrees] as a stress in ``system``'s unit:
+    degrees × the instrument's stress per reading (Pa), then to the display unit.
+
+    >>> from calc.rheology.viscometer import STANDARD_GEOMETRY
+    >>> from types import SimpleNamespace
+    >>> round(curve_difference_stress(SimpleNamespace(max_curve_difference=1.0),
+    ...                               STANDARD_GEOMETRY, "oilfield"), 4)
+    1.0666
+    """
+    return _out(cmp_.max_curve_difference * geometry.stress_per_reading, "stress", system)
 
 
 def _rheogram(ws, row, checks, read_rows, system):

@@ -2,7 +2,8 @@
 
 from __future__ import annotations
 
-from openpyxl.styles import Font, PatternFill
+import numpy as np
+from openpyxl.styles import Alignment, Font, PatternFill
 
 from addin import text
 from addin.guard import finding_text
@@ -42,7 +43,10 @@ def write_inputs(wb, results, title):
         "as the same case)",
         "bf_title",
     )
-    put(ws, 2, 1, f"source: {case.source}    inputs hash (SHA-256): {case.hash}", "bf_note")
+    c = put(ws, 2, 1, f"source: {case.source}\ninputs hash (SHA-256): {case.hash}", "bf_note")
+    c.alignment = Alignment(wrap_text=True, vertical="top")
+    ws.merge_cells(start_row=2, start_column=1, end_row=2, end_column=5)
+    ws.row_dimensions[2].height = 24
     ws.append([])
     write_case_sheets(wb, case.doc, {"Inputs": tuple(b.key for b in LAYOUT)})
     setup_print(ws, title)
@@ -54,35 +58,40 @@ def write_inputs(wb, results, title):
 
 def write_cautions(wb, results, title):
     ws = wb.create_sheet("Cautions")
-    set_widths(ws, [10, 22, 30, 90])
-    row = heading(ws, 1, "Cautions and notes", span=4, title=True)
-    merged_text(ws, row, cautions.CELL, span=4, height=28, style="bf_text")
+    set_widths(ws, [10, 7, 24, 40, 72])
+    row = heading(ws, 1, "Cautions and notes", span=5, title=True)
+    merged_text(ws, row, cautions.CELL, span=5, height=28, style="bf_text")
     row += 2
-    row = heading(ws, row, "Engineering caution", span=4)
-    row = note_row(ws, row, cautions.SHORT, span=4, style="bf_text", font_pt=9)
+    row = heading(ws, row, "Engineering caution", span=5)
+    row = note_row(ws, row, cautions.SHORT, span=5, style="bf_text", font_pt=9)
     row += 1
     for line in cautions.LINES:
         put(ws, row, 1, "•", "bf_text")
-        row = note_row(ws, row, line, col=2, span=3, style="bf_text", font_pt=9)
+        row = note_row(ws, row, line, col=2, span=4, style="bf_text", font_pt=9)
     row += 1
     row = heading(
-        ws, row, "Notes from this run (inputs interpreted, doubtful values, cautions)", span=4
+        ws,
+        row,
+        "Notes from this run (inputs interpreted, doubtful values, cautions): one line per "
+        "kind of note and wording, worst first; 'count' = how many places or items it was "
+        "raised for",
+        span=5,
     )
     ws.print_title_rows = f"{row}:{row}"
-    row = table_header(ws, row, 1, ["level", "code", "about", "message"])
-    order = {"caution": 0, "warning": 1, "info": 2}
-    for n in sorted(results.notes, key=lambda n: order.get(n.level, 3)):
-        put(ws, row, 1, n.level.upper(), "bf_cell")
-        if n.level == "caution":
+    row = table_header(ws, row, 1, ["level", "count", "code", "about", "message"])
+    for g in text.group_notes(results.notes, results.case.unit_system):
+        put(ws, row, 1, g.level.upper(), "bf_cell")
+        if g.level == "caution":
             ws.cell(row=row, column=1).font = Font(bold=True, color=PALETTE["bad"], size=9)
-        put(ws, row, 2, n.code, "bf_cell")
-        about, message = (
-            text.subject(n, results.case.unit_system),
-            text.note(n, results.case.unit_system),
+        put_number(ws, row, 2, g.count, "0")
+        put(ws, row, 3, g.code, "bf_text")
+        put(ws, row, 4, g.about, "bf_text")
+        put(ws, row, 5, g.message, "bf_text")
+        lines = max(
+            sum(1 + len(x) // 85 for x in g.message.split("\n")),
+            1 + len(g.about) // 38,
+            1 + len(g.code) // 24,
         )
-        put(ws, row, 3, about, "bf_text")
-        put(ws, row, 4, message, "bf_text")
-        lines = max(1 + len(message) // 110, 1 + len(about) // 44)
         ws.row_dimensions[row].height = 12.0 * lines
         row += 1
     if not results.notes:
@@ -132,8 +141,12 @@ def write_audit(ws, results, factors, title):
 
 _STATUS_FILL = {
     "OK": PALETTE["ok"],
-    "NEAR LIMIT": PALETTE["warn"],
-    "EXCEEDED": PALETTE["bad"],
+    text.STATUS_WORDS["near_limit"]: PALETTE["warn"],
+    text.STATUS_WORDS["exceeded"]: PALETTE["bad"],
+    text.CLEANING_STATUS["poor"]: PALETTE["bad"],
+    "NOT CHECKED": PALETTE["muted"],
+    text.PROGRAMME_WORDS["below"]: PALETTE["warn"],
+    text.PROGRAMME_WORDS["above"]: PALETTE["warn"],
     "CHECK": PALETTE["warn"],
     "INFO": PALETTE["muted"],
 }
@@ -297,8 +310,13 @@ def _key_results(ws, row, results, refs, system) -> int:
                 ),
             ).style = "bf_note"
         put(ws, row, 5, U(kind, system) if kind else item.get("unit", "–"), "bf_unit")
+        status = item.get("status", "")
+        unlimited = _no_limit(item)
         for col, key in ((6, "limit"), (7, "margin"), (8, "required")):
             v = item.get(key)
+            if unlimited and key in ("limit", "margin"):
+                put(ws, row, col, "no limit given" if key == "limit" else "–", "bf_note")
+                continue
             if v is not None:
                 k2 = "density" if kind == "density" else kind
                 if key in ("margin", "required") and kind == "density":
@@ -306,13 +324,26 @@ def _key_results(ws, row, results, refs, system) -> int:
                 elif k2:
                     v = out(v, k2, system)
                 put_number(ws, row, col, v, fmt)
+        if unlimited:
+            status = "NOT CHECKED"
         if item.get("bound"):
             put(ws, row, 6, item["bound"], "bf_note")
             ws.merge_cells(start_row=row, start_column=6, end_row=row, end_column=8)
             ws.row_dimensions[row].height = 12.0 * (1 + len(item["bound"]) // 60)
-        _status(ws, row, 9, item.get("status", ""))
+        _status(ws, row, 9, status)
         row += 1
     return row
+
+
+def _no_limit(item) -> bool:
+    """True where a row has a limit or margin that is not a finite number: the case gives no
+    such limit (e.g. no ``[pressure_window]``, so the fracture gradient at the bit is unknown);
+    the row then says so and carries no OK status."""
+    for key in ("limit", "margin"):
+        v = item.get(key)
+        if v is not None and not np.isfinite(float(v)):
+            return True
+    return False
 
 
 def _trend_table(ws, row, results, system) -> int:

@@ -37,11 +37,12 @@ def summary_rows(results, refs) -> list[dict]:
     rows += _band_rows(results)
     rows += _bit_rows(results, refs)
     rows += _other_rows(refs)
+    rows += programme_rows(results)
     return _credible(results, rows)
 
 
 #: The status of every row of a run whose results are physically impossible: no row of it
-#: may say "OK" (or a mere "NEAR LIMIT") then.
+#: may say "OK" (or a mere "MARGINAL") then.
 NOT_CREDIBLE = "NOT CREDIBLE"
 
 
@@ -62,13 +63,13 @@ def _impossible_results(results) -> list[str]:
 
 
 def _credible(results, rows: list[dict]) -> list[dict]:
-    """Rows unchanged for credible results; else every OK/NEAR LIMIT status replaced by
+    """Rows unchanged for credible results; else every OK/MARGINAL status replaced by
     :data:`NOT_CREDIBLE` and a first row saying why (check the inputs)."""
     why = _impossible_results(results)
     if not why:
         return rows
     for r in rows:
-        if r.get("status") in ("OK", "NEAR LIMIT"):
+        if r.get("status") in ("OK", "MARGINAL"):
             r["status"] = NOT_CREDIBLE
     head = dict(
         name="results credible?",
@@ -78,6 +79,42 @@ def _credible(results, rows: list[dict]) -> list[dict]:
         status=NOT_CREDIBLE,
     )
     return [head, *rows]
+
+
+def programme_values(results) -> dict[str, float | None]:
+    """The latest check's programme properties [SI] (density, PV, YP, LSYP; None if unknown)."""
+    rd = results.checks[-1].readings
+    out = {"density": results.case.checks[-1].values.get("density")}
+    for key in ("pv", "yp", "lsyp"):
+        try:
+            out[key] = float(getattr(rd, key))
+        except Exception:  # readings lack the speeds this property needs
+            out[key] = None
+    return out
+
+
+def programme_rows(results) -> list[dict]:
+    """The latest check's density, PV, YP and LSYP against the case's mud programme."""
+    chk = results.case.checks[-1]
+    prog = chk.values.get("program") or {}
+    system = results.case.unit_system
+    vals = programme_values(results)
+    rows = []
+    for key, (label, kind) in text.PROGRAMME_PROPERTIES.items():
+        rng = prog.get(key)
+        if not (isinstance(rng, (list, tuple)) and len(rng) == 2) or vals.get(key) is None:
+            continue
+        lo, hi = (text.quantity(x, kind, system) for x in rng)
+        rows.append(
+            dict(
+                name=f"{label} against the mud programme ({chk.label})",
+                kind=kind,
+                value=vals[key],
+                bound=f"programme {lo} – {hi}",
+                status=text.programme_status(vals[key], rng[0], rng[1], kind, system),
+            )
+        )
+    return rows
 
 
 def _pressure_rows(results, refs) -> list[dict]:
@@ -164,7 +201,12 @@ def _ecd_rows(results, refs) -> list[dict]:
     t = ecd.get("tightest")
     if t is not None:
         m = float(np.asarray(t.margin))
-        where = text.check_point(t.point, case.unit_system)
+        mts = ecd.get("tightest_margins")
+        where = (
+            text.tightest_where(mts, case.unit_system, tight=t)
+            if mts is not None
+            else text.check_point(t.point, case.unit_system)
+        )
         rows.append(
             dict(
                 name=f"tightest margin: {where} ({t.limit}{', loaded ECD' if loaded else ''})",
@@ -267,7 +309,7 @@ def _other_rows(refs) -> list[dict]:
     rows = []
     cl = refs.get("cleaning") or {}
     if cl:
-        status = {"adequate": "OK", "marginal": "NEAR LIMIT", "poor": "EXCEEDED"}[cl["verdict"]]
+        status = text.CLEANING_STATUS[cl["verdict"]]
         rows.append(
             dict(
                 name="hole cleaning verdict (worst interval)",
@@ -290,7 +332,7 @@ def _other_rows(refs) -> list[dict]:
                         kind="flow_rate",
                         value=q_end,
                         bound=f"bound by: {words}",
-                        status="OK" if ok else "EXCEEDED",
+                        status="OK" if ok else text.STATUS_WORDS["exceeded"],
                     )
                 )
         else:
@@ -301,7 +343,7 @@ def _other_rows(refs) -> list[dict]:
                     text="none",
                     unit="",
                     bound=wr["low"][1],
-                    status="EXCEEDED",
+                    status=text.STATUS_WORDS["exceeded"],
                 )
             )
     tr = refs.get("trips") or {}

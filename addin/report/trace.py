@@ -423,6 +423,18 @@ def _band(results, row):
     return [("value", "@band", "", f"_.quantities[{i}].half_width", name, kind, _eq("§18.1"))]
 
 
+def _programme(results, row):
+    """A property of the latest check against its mud programme: density as read, PV / YP /
+    LSYP from the readings (API RP 13B-1 definitions, calc.rheology.viscometer)."""
+    label = row["name"].split(" against", 1)[0]
+    key = next(k for k, (lab, _) in text.PROGRAMME_PROPERTIES.items() if lab == label)
+    if key == "density":
+        return [("value", "case.check_value", "-1, 'density'", "_", "case input", "", "—")]
+    eq = _eq("§1.5" if key == "lsyp" else "§1.3")
+    method = "API RP 13B-1 field definitions"
+    return [("value", "@case", "", f"_.checks[-1].readings.{key}", method, "common_practice", eq)]
+
+
 #: Summary rows (by the start of their name) → how each is traced.  A new Summary row needs
 #: an entry here (tests/test_audit_trace.py fails on an untraced row).
 TRACE: tuple[TraceEntry, ...] = (
@@ -446,6 +458,10 @@ TRACE: tuple[TraceEntry, ...] = (
     TraceEntry("max. pulling speed", _trip),
     TraceEntry("input-uncertainty band", _band_info),
     TraceEntry("± band:", _band),
+    *(
+        TraceEntry(f"{lab} against the mud programme", _programme)
+        for lab, _ in text.PROGRAMME_PROPERTIES.values()
+    ),
 )
 
 #: The setup rows, in order: each is ``name = function(inputs)``; later rows and the traced

@@ -348,7 +348,7 @@ def _flow_notes(lp: _Pass, parts: WellParts, inp: _Inputs) -> list[Note]:
     below = np.asarray(lp.aflow.velocity) < np.asarray(lp.aflow.critical_velocity)
     note = interval_note(
         "info",
-        "annular_velocity_below_critical",
+        "below_critical_velocity",
         "annular velocity below the critical velocity",
         "laminar flow there",
         below,
