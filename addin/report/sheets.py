@@ -397,7 +397,8 @@ def _trend_table(ws, row, results, system) -> int:
     ]
     words = (
         "Each check is computed at its own bit depth, flow rate, density and rheology with the "
-        "same method; deviation = (model − measured)/measured. Tightest margin to the "
+        "same method; deviation = (model − measured)/measured. Tightest margin (clean mud, no "
+        "cuttings load; the key results above use the cuttings-loaded ECD) to the "
         "fracture/pore limit at: " + "; ".join(where) + "."
     )
     merged_text(ws, row, words, span=12, height=24)
