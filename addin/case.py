@@ -255,6 +255,20 @@ class CaseInputError(InputError):
         super().__init__(*args, **kwargs)
         self.unit_system = unit_system
 
+    @classmethod
+    def of(cls, unit_system: str, exc: InputError, name: str | None = None) -> CaseInputError:
+        """``exc`` (a calc :class:`~calc.errors.InputError`) in ``unit_system``, its input
+        renamed to ``name`` (the file and key) where given; raise it ``from exc``."""
+        return cls(
+            unit_system,
+            exc.name if name is None else name,
+            exc.value,
+            exc.allowed,
+            exc.problem,
+            kind=exc.kind,
+            values=exc.values,
+        )
+
 
 # ------------------------------------------------------------------ results
 @dataclass(frozen=True, eq=False)
@@ -341,14 +355,8 @@ class Case:
         except InputError as exc:
             if exc.name.startswith(self.source):
                 raise
-            raise CaseInputError(
-                self.unit_system,
-                f"{_where(self.source, path)}: {exc.name}",
-                exc.value,
-                exc.allowed,
-                exc.problem,
-                kind=exc.kind,
-                values=exc.values,
+            raise CaseInputError.of(
+                self.unit_system, exc, f"{_where(self.source, path)}: {exc.name}"
             ) from exc
 
     @property

@@ -109,9 +109,7 @@ def run(args) -> int:
         try:  # TVD 0 is the surface: 0 psi (legal)
             check_order("--tvd", tvd, ">=", 0.0, "the surface", "depth")
         except InputError as exc:
-            raise CaseInputError(
-                s, exc.name, exc.value, exc.allowed, exc.problem, kind=exc.kind, values=exc.values
-            ) from exc
+            raise CaseInputError.of(s, exc) from exc
         _unusual(args)
         p = hydrostatic_pressure(rho, tvd, hydrostatic=args.hydrostatic)
         _show(
@@ -132,9 +130,7 @@ def run(args) -> int:
         try:
             check_order("--pipe (pipe OD)", pipe, "<", hole, "the hole diameter --hole", "diameter")
         except InputError as exc:
-            raise CaseInputError(
-                s, exc.name, exc.value, exc.allowed, exc.problem, kind=exc.kind, values=exc.values
-            ) from exc
+            raise CaseInputError.of(s, exc) from exc
         _unusual(args)
         v = annular_velocity(q, hole, pipe)
         _show({"annular velocity": (v, "velocity")}, s, args.json)

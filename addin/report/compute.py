@@ -396,15 +396,7 @@ def band_inputs(case, density: float) -> dict:
         key = _BAND_KEYS.get(exc.name)
         if key is None:
             raise
-        raise CaseInputError(
-            case.unit_system,
-            f"{case.source}: uncertainty.{key}",
-            exc.value,
-            exc.allowed,
-            exc.problem,
-            kind=exc.kind,
-            values=exc.values,
-        ) from exc
+        raise CaseInputError.of(case.unit_system, exc, f"{case.source}: uncertainty.{key}") from exc
     return kw
 
 

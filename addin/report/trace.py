@@ -235,62 +235,48 @@ def _ecd_shoe(results, row):
     ]
 
 
+def _bit_limit_rows(results, ecd_bit: float) -> list:
+    """Limit, margin and required fracture margin at the bit for an ECD there [kg/m³] (the
+    clean or the cuttings-loaded one): none without a margin table."""
+    i = _margins_index(results, "bit")
+    if i is None:
+        return []
+    f_bit = _num(np.asarray(results.circulation.margins.fracture).reshape(-1)[i])
+    name, kind = _hyd(results)
+    return [
+        _circ(results, "limit", f"_.margins.fracture[{i}]", "§9.6"),
+        (
+            "margin",
+            "calc.circulation.fracture_margin",
+            f"{f_bit}, {_num(ecd_bit)}",
+            "_",
+            name,
+            kind,
+            _eq("§9.6"),
+        ),
+        _circ(results, "required", "_.margins.margins.fracture", "§9.6"),
+    ]
+
+
 def _ecd_bit_loaded(results, row):
     """ECD at the bit with the cuttings load: the clean ECD plus the load's increment."""
     res = results.circulation
     name, kind = _hyd(results)
-    out = [
-        (
-            "value",
-            "calc.cleaning.cuttings_ecd_increment",
-            f"well, cleaning.transport.loaded_density, {_num(res.density)}, {_num(res.bit_md)}",
-            "circulation.ecd_bit + _",
-            name,
-            kind,
-            _eq("§9.3", "§10.14"),
-        )
-    ]
-    i = _margins_index(results, "bit")
-    if i is not None:
-        mt = res.margins
-        f_bit = _num(np.asarray(mt.fracture).reshape(-1)[i])
-        out.append(_circ(results, "limit", f"_.margins.fracture[{i}]", "§9.6"))
-        out.append(
-            (
-                "margin",
-                "calc.circulation.fracture_margin",
-                f"{f_bit}, {_num(results.loaded.ecd_bit)}",
-                "_",
-                name,
-                kind,
-                _eq("§9.6"),
-            )
-        )
-        out.append(_circ(results, "required", "_.margins.margins.fracture", "§9.6"))
-    return out
+    value = (
+        "value",
+        "calc.cleaning.cuttings_ecd_increment",
+        f"well, cleaning.transport.loaded_density, {_num(res.density)}, {_num(res.bit_md)}",
+        "circulation.ecd_bit + _",
+        name,
+        kind,
+        _eq("§9.3", "§10.14"),
+    )
+    return [value, *_bit_limit_rows(results, results.loaded.ecd_bit)]
 
 
 def _ecd_bit(results, row):
-    out = [_circ(results, "value", "_.ecd_bit", "§9.3")]
-    i = _margins_index(results, "bit")
-    if i is not None:
-        mt = results.circulation.margins
-        out.append(_circ(results, "limit", f"_.margins.fracture[{i}]", "§9.6"))
-        f_bit = _num(np.asarray(mt.fracture).reshape(-1)[i])
-        name, kind = _hyd(results)
-        out.append(
-            (
-                "margin",
-                "calc.circulation.fracture_margin",
-                f"{f_bit}, {_num(results.circulation.ecd_bit)}",
-                "_",
-                name,
-                kind,
-                _eq("§9.6"),
-            )
-        )
-        out.append(_circ(results, "required", "_.margins.margins.fracture", "§9.6"))
-    return out
+    value = _circ(results, "value", "_.ecd_bit", "§9.3")
+    return [value, *_bit_limit_rows(results, results.circulation.ecd_bit)]
 
 
 def _tightest(results, row):
