@@ -261,6 +261,17 @@ def _add_methods(sub) -> None:
     p.set_defaults(func=methods_cmd.run)
 
 
+def _jobs(text: str) -> int:
+    """``--jobs``: a whole number of worker processes, 1 to 256."""
+    try:
+        n = int(text)
+    except ValueError:
+        n = 0
+    if not 1 <= n <= 256:
+        raise argparse.ArgumentTypeError(f"--jobs = {text!r}: allowed is a whole number 1 to 256")
+    return n
+
+
 def _add_batch(sub) -> None:
     bt = sub.add_parser(
         "batch",
@@ -285,6 +296,22 @@ def _add_batch(sub) -> None:
     _units_option(bt, default="oilfield", what="the summary table (every case converted)")
     _method_option(bt)
     bt.add_argument("-q", "--quiet", action="store_true", help="no progress bar")
+    bt.add_argument(
+        "-j",
+        "--jobs",
+        type=_jobs,
+        default=1,
+        metavar="N",
+        help="run the cases on N worker processes of this machine (default 1: one after "
+        "another); with --scheduler, the number of workers of a local cluster",
+    )
+    bt.add_argument(
+        "--scheduler",
+        metavar="ADDRESS",
+        help="run the cases on a Dask distributed cluster: a running scheduler's address "
+        '(tcp://host:8786) or "local" for a cluster on this machine (needs the optional '
+        'fleet extra: pip install "boreflow[fleet]")',
+    )
     _add_allow_unusual(bt)
     bt.set_defaults(func=batch_cmd.run)
 

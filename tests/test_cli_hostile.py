@@ -24,9 +24,8 @@ import pytest
 from _report_demo import DEMO, ROOT
 
 import calc
-from addin import safe_io
+from addin import fleet, safe_io
 from addin.cli import main
-from addin.commands import batch as batch_cmd
 
 
 def run(*args):
@@ -80,14 +79,14 @@ def test_batch_goes_on_after_an_unexpected_exception(tmp_path, capsys, monkeypat
     cases.mkdir()
     for name in ("a", "b", "c"):
         shutil.copy(DEMO, cases / f"{name}.toml")
-    real = batch_cmd.run_one
+    real = fleet.run_one
 
     def flaky(case, out, **kw):
         if Path(case).stem == "b":
             raise TypeError("simulated bug")
         return real(case, out, **kw)
 
-    monkeypatch.setattr(batch_cmd, "run_one", flaky)
+    monkeypatch.setattr(fleet, "run_one", flaky)
     summary = tmp_path / "s.csv"
     assert run("batch", cases, "-o", tmp_path / "out", "--summary", summary, "-q") == 5
     rows = {r["case"]: r for r in csv.DictReader(summary.open())}
