@@ -25,7 +25,18 @@ __all__ = [
 ]
 
 
+#: Longest text an error message repeats whole; longer text is shown by its start and length.
+_TEXT_SHOWN = 80
+
+
 def _fmt(value) -> str:
+    """The value as an error message shows it.
+
+    >>> _fmt("x" * 100)
+    "'xxxxxxxxxxxxxxxxxxxx…' (a text of 100 characters)"
+    """
+    if isinstance(value, str) and len(value) > _TEXT_SHOWN:
+        return f"{value[:20]!r}… (a text of {len(value):,} characters)".replace("'…", "…'", 1)
     if isinstance(value, float):
         return f"{value:.6g}"
     if isinstance(value, np.ndarray) and value.size > 6:

@@ -114,7 +114,7 @@ def _scalar_to_si(value, name: str, kind: str | None, uset: "UnitSet | None") ->
         si = cu.to_si(x, unit, kind=kind, name=name)
     except InputError as exc:
         if exc.name.startswith("unit"):
-            raise InputError(f"unit of {name}", unit, exc.allowed) from exc
+            raise InputError(f"unit of {name}", unit, exc.allowed, exc.problem) from exc
         raise
     if not math.isfinite(si):
         raise InputError(name, value, "a number small enough to convert to SI")
