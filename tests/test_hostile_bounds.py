@@ -66,3 +66,48 @@ def test_bf_convert_with_a_cell_sized_unit_is_fast_and_names_the_argument(args):
     assert took < 0.5, took  # was 6.7 s a cell
     assert out.startswith("#BF! unit") and "too long" in out
     assert f"{EXCEL_CELL_MAX - (2 if args[1] == '' else 0):,} characters" in out
+
+
+# ------------------------------------------------------------------ viscometer rows
+
+# One six-speed reading set; PV = θ600 − θ300 = 56 − 37 = 19 cP (API RP 13B-1 definition).
+_SIX = [[600, 56], [300, 37], [200, 29], [100, 20], [6, 8], [3, 7]]
+
+
+def _repeated(n):
+    return [list(_SIX[i % 6]) for i in range(n)]
+
+
+def test_bf_pv_of_a_million_repeated_rows_is_refused_quickly():
+    from addin.sheets.fn_rheology import BF_PV
+
+    out, took = _timed(BF_PV, _repeated(1_000_000))
+    assert took < 3.0, took  # was 143 s
+    assert out.startswith("#BF! readings = ") and "too many" in out
+    assert "at most 1,000" in out
+
+
+def test_bf_pv_of_two_rows_a_million_wide_is_refused_quickly():
+    from addin.sheets.fn_rheology import BF_PV
+
+    grid = [[r[0] for r in _repeated(1_000_000)], [r[1] for r in _repeated(1_000_000)]]
+    out, took = _timed(BF_PV, grid)
+    assert took < 3.0, took
+    assert "too many" in out
+
+
+def test_repeated_speeds_within_the_bound_still_give_pv():
+    from addin.sheets import cells
+    from addin.sheets.fn_rheology import BF_PV
+
+    assert BF_PV(_repeated(cells.MAX_READINGS)) == pytest.approx(19.0, rel=1e-12)
+    assert "1,001 readings" in BF_PV(_repeated(cells.MAX_READINGS + 1))
+
+
+def test_an_over_selected_whole_column_still_reads():
+    from addin.sheets.fn_rheology import BF_PV
+
+    grid = [["rpm", "dial"], *_SIX] + [[None, None]] * 1_048_569  # A1:B1048576
+    out, took = _timed(BF_PV, grid)
+    assert out == pytest.approx(19.0, rel=1e-12)
+    assert took < 15.0, took
