@@ -18,6 +18,7 @@ __all__ = [
     "as_float_array",
     "check_choice",
     "check_finite",
+    "check_less",
     "check_nonnegative",
     "check_order",
     "check_positive",
@@ -25,7 +26,18 @@ __all__ = [
 ]
 
 
+#: Longest text an error message repeats whole; longer text is shown by its start and length.
+_TEXT_SHOWN = 80
+
+
 def _fmt(value) -> str:
+    """The value as an error message shows it.
+
+    >>> _fmt("x" * 100)
+    "'xxxxxxxxxxxxxxxxxxxx…' (a text of 100 characters)"
+    """
+    if isinstance(value, str) and len(value) > _TEXT_SHOWN:
+        return f"{value[:20]!r}… (a text of {len(value):,} characters)".replace("'…", "…'", 1)
     if isinstance(value, float):
         return f"{value:.6g}"
     if isinstance(value, np.ndarray) and value.size > 6:
@@ -174,3 +186,31 @@ def check_order(
             values=(Value("bound", bound, kind),),
         )
     return value
+
+
+def check_less(name, value, bound, what: str, kind: str) -> None:
+    """Require ``value < bound`` element by element (arrays broadcast; SI values of one
+    quantity ``kind``), e.g. every pipe smaller than its hole.  The error names the first
+    element that is not, with both values carrying their kind, so a face can say them in the
+    user's units.  ``name`` is the input's name, or a callable giving it from the element's
+    index (to name an interval).
+
+    >>> check_less("pipe OD", [0.127, 0.127], [0.2159, 0.3], "the hole diameter", "diameter")
+    >>> try:
+    ...     check_less(lambda i: f"pipe OD (interval {i + 1})", [0.127, 0.25], 0.2159,
+    ...                "the hole diameter", "diameter")
+    ... except InputError as e:
+    ...     print(e)
+    pipe OD (interval 2) = 0.25 m: not allowed; allowed: < the hole diameter (0.2159 m)
+    """
+    v, b = np.broadcast_arrays(np.asarray(value, dtype=float), np.asarray(bound, dtype=float))
+    bad = (v >= b).ravel()
+    if np.any(bad):
+        i = int(np.flatnonzero(bad)[0])
+        raise InputError(
+            name(i) if callable(name) else name,
+            float(v.ravel()[i]),
+            f"< {what} ({{bound}})",
+            kind=kind,
+            values=(Value("bound", float(b.ravel()[i]), kind),),
+        )

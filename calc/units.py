@@ -104,6 +104,13 @@ _POWER_RE = re.compile(r"(?<=[A-Za-z])([23])(?![0-9])")  # ft2 → ft**2, m3 →
 _SUPER = {"²": "**2", "³": "**3", "·": "*", "⋅": "*", "μ": "u", "µ": "u"}
 
 
+#: Longest unit text accepted (characters).  The longest spelling the program writes or
+#: documents is under 20 characters (``lbf·s^n/100ft²``); the bound keeps parsing time
+#: small and fixed (pint's parser and the alias patterns grow faster than linearly with
+#: the length of unknown text: 40,000 characters took over 10 s).
+MAX_UNIT_TEXT = 64
+
+
 def label(unit: str) -> str:
     """Display label for a unit text, e.g. ``label("lbf_per_100ft_sq") == "lbf/100ft²"``.
 
@@ -136,7 +143,8 @@ def parse_unit(text: str, kind: str | None = None) -> pint.Unit:
     Raises
     ------
     InputError
-        unknown unit text, or a unit of the wrong dimension for ``kind``.
+        unknown unit text, text longer than :data:`MAX_UNIT_TEXT` characters, or a unit of
+        the wrong dimension for ``kind``.
 
     Examples
     --------
@@ -149,6 +157,13 @@ def parse_unit(text: str, kind: str | None = None) -> pint.Unit:
         return ureg.dimensionless
     if not isinstance(text, str) or not text.strip():
         raise InputError("unit", text, "a unit name such as 'psi', 'ppg', 'gpm', 'kg/m3'")
+    if len(text) > MAX_UNIT_TEXT:
+        raise InputError(
+            "unit",
+            text,
+            f"a unit name of at most {MAX_UNIT_TEXT} characters such as 'psi', 'ppg', 'gpm'",
+            problem="too long",
+        )
     expr = _normalise(text)
     try:
         unit = ureg.parse_units(expr)

@@ -114,7 +114,7 @@ def _scalar_to_si(value, name: str, kind: str | None, uset: "UnitSet | None") ->
         si = cu.to_si(x, unit, kind=kind, name=name)
     except InputError as exc:
         if exc.name.startswith("unit"):
-            raise InputError(f"unit of {name}", unit, exc.allowed) from exc
+            raise InputError(f"unit of {name}", unit, exc.allowed, exc.problem) from exc
         raise
     if not math.isfinite(si):
         raise InputError(name, value, "a number small enough to convert to SI")
@@ -245,6 +245,34 @@ def _looks_numeric(v) -> bool:
     )
 
 
+#: Most speed and dial pairs one readings range may hold.  A rotational viscometer test reads
+#: 6 to 12 speeds, a ramp up and down twice that (common practice); the bound is far above
+#: that and keeps a mistaken whole-sheet range (a million rows took 143 s) from running long.
+MAX_READINGS = 1_000
+
+
+def _filled_lines(lines, stop: int) -> int:
+    """How many of ``lines`` (rows or columns) hold a non-blank cell, counting up to
+    ``stop + 1`` at the most (so that a huge range is not read through)."""
+    n = 0
+    for line in lines:
+        if not all(blank(v) for v in line):
+            n += 1
+            if n > stop:
+                break
+    return n
+
+
+def _too_many_readings(name: str, shown: str):
+    raise InputError(
+        name,
+        shown,
+        f"at most {MAX_READINGS:,} speed and dial pairs (one viscometer test: a few speeds, "
+        "each read once or on a ramp up and down)",
+        problem="too many",
+    )
+
+
 def readings(value, name: str = "readings") -> tuple[np.ndarray, np.ndarray]:
     """A range of viscometer readings → (rotor speeds [rpm], dial readings [degrees]).
 
@@ -262,17 +290,25 @@ def readings(value, name: str = "readings") -> tuple[np.ndarray, np.ndarray]:
     (array([600., 300.]), array([56., 37.]))
     """
     grid = as_grid(value)
-    # drop rows and columns that are entirely blank (an over-selected range)
-    grid = [r for r in grid if not all(blank(v) for v in r)]
-    if grid:
-        keep = [j for j in range(len(grid[0])) if not all(blank(r[j]) for r in grid)]
-        grid = [[r[j] for j in keep] for r in grid]
+    # refuse a range with too many filled rows or columns before reading all of it (a header
+    # line may come on top of the readings)
+    wide = len(grid[0]) > MAX_READINGS + 1
+    for lines in (grid, zip(*grid, strict=True)) if wide else (grid,):
+        if _filled_lines(lines, MAX_READINGS + 1) > MAX_READINGS + 1:
+            _too_many_readings(name, f"more than {MAX_READINGS:,} readings")
+    if not set(map(type, chain.from_iterable(grid))) <= {float, int}:
+        # drop rows and columns that are entirely blank (an over-selected range)
+        grid = [r for r in grid if not all(blank(v) for v in r)]
+        if grid:
+            keep = [j for j in range(len(grid[0])) if not all(blank(r[j]) for r in grid)]
+            if len(keep) < len(grid[0]):
+                grid = [[r[j] for j in keep] for r in grid]
     if not grid or not grid[0]:
         raise InputError(name, None, "a range of dial readings", problem="is blank")
     # skip a header row / column made of text labels
-    if len(grid) > 1 and _all_text([v for v in grid[0] if not blank(v)]):
+    if len(grid) > 1 and _all_text(v for v in grid[0] if not blank(v)):
         grid = grid[1:]
-    if grid and len(grid[0]) > 1 and _all_text([r[0] for r in grid if not blank(r[0])]):
+    if grid and len(grid[0]) > 1 and _all_text(r[0] for r in grid if not blank(r[0])):
         grid = [r[1:] for r in grid]
     rows, cols = len(grid), len(grid[0]) if grid else 0
     if rows == 0 or cols == 0:
@@ -298,6 +334,8 @@ def readings(value, name: str = "readings") -> tuple[np.ndarray, np.ndarray]:
             f"a {rows}×{cols} range",
             "one row or column of readings, or two columns (rpm | dial), or two rows",
         )
+    if len(pairs) > MAX_READINGS:
+        _too_many_readings(name, f"{len(pairs):,} readings")
     speed_out, dial_out = [], []
     for k, (s, d) in enumerate(pairs):
         if blank(d):

@@ -35,7 +35,14 @@ from calc.circulation.fluid import HydraulicsFluid, hydraulics_fluid_from_readin
 from calc.circulation.hydrostatics import equivalent_circulating_density
 from calc.circulation.loop import circulate
 from calc.circulation.pore_fracture import CheckPoint, Margins, PressureWindow
-from calc.errors import InputError, check_finite, check_nonnegative, check_positive, check_range
+from calc.errors import (
+    InputError,
+    check_finite,
+    check_less,
+    check_nonnegative,
+    check_positive,
+    check_range,
+)
 from calc.flow import annulus_flow
 from calc.hydraulics_method import HYDRAULICS_METHODS, HydraulicsMethod, resolve_method
 from calc.notes import Note
@@ -670,15 +677,9 @@ def annulus_ecd_band(
         raise InputError(
             "annular intervals", (d2.size, d1.size, ln.size), "one hole, pipe and length each"
         ) from exc
-    if np.any(d1 >= d2):
-        i = int(np.flatnonzero(d1 >= d2)[0])
-        raise InputError(
-            f"pipe diameter (interval {i + 1})",
-            float(d1[i]),
-            "< the hole diameter ({hole})",
-            kind="diameter",
-            values=(Value("hole", float(d2[i]), "diameter"),),
-        )
+    check_less(
+        lambda i: f"pipe diameter (interval {i + 1})", d1, d2, "the hole diameter", "diameter"
+    )
     depth = float(check_positive("tvd", tvd, "m"))
     preset = resolve_method(method)
 

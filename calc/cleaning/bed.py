@@ -29,7 +29,7 @@ import numpy as np
 
 from calc.cleaning.indicators import LARSEN_RANGE, CleaningCriteria, larsen_critical_velocity
 from calc.cleaning.transport import Cuttings
-from calc.errors import InputError, check_nonnegative, check_positive, check_range
+from calc.errors import InputError, check_less, check_nonnegative, check_positive, check_range
 from calc.flow import annulus_flow
 from calc.flow.area import cross_section_area
 from calc.hydraulics_method import resolve_method
@@ -118,8 +118,7 @@ def bed_geometry(height, d_hole, d_pipe) -> BedGeometry:
     """
     d2 = check_positive("hole diameter", d_hole, "m")
     d1 = check_nonnegative("pipe diameter", d_pipe, "m")
-    if np.any(d1 >= d2):
-        raise InputError("pipe diameter", float(np.max(d1)), "< hole diameter")
+    check_less("pipe diameter", d1, d2, "hole diameter", "diameter")
     h = check_range("bed height", height, 0.0, float(np.max(d2)), "m")
     a2, arc2, c2 = _segment(d2, h)
     hp = np.minimum(h, d1)
@@ -298,8 +297,7 @@ def cuttings_bed(
     qv = check_positive("flow rate", q, "m³/s")
     d2 = check_positive("hole diameter", d_hole, "m")
     d1 = check_nonnegative("pipe diameter", d_pipe, "m")
-    if np.any(d1 >= d2):
-        raise InputError("pipe diameter", float(np.max(d1)), "< hole diameter")
+    check_less("pipe diameter", d1, d2, "hole diameter", "diameter")
     inc = check_range("inclination", inclination, 0.0, 180.0, "degree")
     onset = float(check_range("bed onset inclination", onset, 0.0, 90.0, "degree"))
     lar = larsen_critical_velocity(

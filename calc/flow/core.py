@@ -12,6 +12,7 @@ import numpy as np
 from calc.errors import (
     InputError,
     check_choice,
+    check_less,
     check_nonnegative,
     check_positive,
     check_range,
@@ -88,16 +89,13 @@ def _build_case(
         key: np.atleast_1d(a).ravel().astype(float) for key, a in zip(keys, arrays, strict=True)
     }
     if geometry == "annulus":
-        bad = flat["d_inner"] >= flat["d_outer"]
-        if np.any(bad):
-            i = np.flatnonzero(bad)[0]
-            raise InputError(
-                "pipe outside diameter d_pipe",
-                float(flat["d_inner"][i]),
-                "< hole diameter d_hole ({hole})",
-                kind="diameter",
-                values=(Value("hole", float(flat["d_outer"][i]), "diameter"),),
-            )
+        check_less(
+            "pipe outside diameter d_pipe",
+            flat["d_inner"],
+            flat["d_outer"],
+            "hole diameter d_hole",
+            "diameter",
+        )
     d_h = flat["d_outer"] - flat["d_inner"]
     bad = flat["roughness"] >= 0.5 * d_h
     if np.any(bad):

@@ -252,6 +252,16 @@ def lamb_diameter(d_hole, d_pipe):
     return np.sqrt(d2**2 + d1**2 - (d2**2 - d1**2) / np.log(d2 / d1))
 
 
+def _unique_rows(arrs):
+    """The distinct rows of the parameter columns ``arrs`` (equal shapes) and the index that
+    takes the distinct rows back to all of them.  Stations of one section share their inputs,
+    so the nested root solves run once per distinct case; each element is solved on its own
+    (the solvers are element by element), so the results are those of the full arrays."""
+    cols = np.stack([np.atleast_1d(a).ravel() for a in arrs], axis=1)
+    uniq, back = np.unique(cols, axis=0, return_inverse=True)
+    return tuple(np.ascontiguousarray(uniq[:, j]) for j in range(len(arrs))), back.ravel()
+
+
 def _gl_on(a, b):
     """Nodes (N, M) and weights (N, M) of Gauss-Legendre on [a, b] (a, b arrays (N,))."""
     half = 0.5 * (b - a)[:, None]
@@ -376,7 +386,7 @@ def hb_annulus_gradient(q, d_hole, d_pipe, tau_y, k, n):
         *(np.asarray(x, dtype=float) for x in (q, d_hole, d_pipe, tau_y, k, n))
     )
     shape = arrs[0].shape
-    qq, d2, d1, ty, kk, nn = (np.atleast_1d(a).ravel() for a in arrs)
+    (qq, d2, d1, ty, kk, nn), back = _unique_rows(arrs)
     gap = 0.5 * (d2 - d1)
     v = mean_velocity(qq, d2, d1)
     g_est = 2.0 * hb_slot_wall_stress(v, gap, ty, kk, nn) / gap
@@ -393,4 +403,4 @@ def hb_annulus_gradient(q, d_hole, d_pipe, tau_y, k, n):
             break
         lo[bad] *= 0.25
     out = itp_solve(resid, lo, hi, rtol=1e-11, f_lo=f_lo)
-    return out.reshape(shape)
+    return out[back].reshape(shape)
