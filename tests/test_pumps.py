@@ -159,3 +159,37 @@ def test_demo_window_top_end_is_bound_by_the_liner_rating():
     assert from_si(spp, "psi") == pytest.approx(4000.0, abs=2.0)  # linear interpolation
     assert "rated hydraulic power" in win.limits
     assert win.q_low == pytest.approx(without.q_low, rel=1e-12)
+
+
+def test_worksheet_functions_match_the_geometric_formula():
+    """BF_PUMP_OUTPUT / BF_PUMP_RATE / BF_PUMP_SPM against the swept volume (Bourgoyne et al.
+    1986 §4.2, from memory) in field units: 1 bbl = 9,702 in³ (42 US gal × 231 in³, the
+    definitions of the barrel and the gallon)."""
+    from addin.sheets.functions import BF_PUMP_OUTPUT, BF_PUMP_RATE, BF_PUMP_SPM
+
+    bbl = math.pi / 4 * 6.5**2 * 12 * 3 * 0.97 / 9702.0
+    assert BF_PUMP_OUTPUT(6.5, 12, 0.97) == pytest.approx(bbl, rel=1e-12)
+    duplex = math.pi / 4 * (2 * 6.0**2 - 2.5**2) * 16 * 2 * 0.9 / 9702.0
+    assert BF_PUMP_OUTPUT(6.0, 16, 0.9, "duplex", 2.5) == pytest.approx(duplex, rel=1e-12)
+    gpm = 2 * bbl * 42.0 * 52  # two pumps, 52 spm, 42 gal/bbl
+    assert BF_PUMP_RATE(6.5, 12, 0.97, 52, 2) == pytest.approx(gpm, rel=1e-12)
+    assert BF_PUMP_SPM(6.5, 12, 0.97, gpm, 2) == pytest.approx(52.0, rel=1e-12)
+    rates = BF_PUMP_RATE(6.5, 12, 0.97, [[40.0], [60.0]])
+    assert np.shape(rates) == (2, 1) and rates[1][0] == pytest.approx(bbl * 42 * 60, rel=1e-12)
+
+
+@pytest.mark.parametrize(
+    "args, words",
+    [
+        ((6.5, 12, 1.2, 52), "pump efficiency = 1.2"),
+        ((6.5, 12, 0.97, -5), "pump speed (strokes per minute) = -5"),
+        ((6.5, 12, 0.97, 300), "pump speed (strokes per minute) = 300"),
+        ((6.5, 12, 0.97, 52, 1.5), "pumps running = 1.5"),
+    ],
+)
+def test_worksheet_bad_input_is_a_cell_error(args, words):
+    from addin.sheets.functions import BF_PUMP_RATE
+
+    out = BF_PUMP_RATE(*args)
+    assert isinstance(out, str) and out.startswith("#BF!") and words in out
+    assert "allowed" in out
