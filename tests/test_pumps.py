@@ -193,3 +193,55 @@ def test_worksheet_bad_input_is_a_cell_error(args, words):
     out = BF_PUMP_RATE(*args)
     assert isinstance(out, str) and out.startswith("#BF!") and words in out
     assert "allowed" in out
+
+
+def _demo_doc():
+    import tomllib
+
+    from tests.demo_well import CASE_FILE
+
+    return tomllib.loads(CASE_FILE.read_text(encoding="utf-8"))
+
+
+def test_case_pump_spm_count_must_match_the_pumps():
+    from addin.case import parse_case
+
+    doc = _demo_doc()
+    doc["check"][-1]["pump_spm"] = [52, 52, 40]
+    case = parse_case(doc, "three.toml")
+    with pytest.raises(InputError) as exc:
+        case.pump_spm(-1)
+    assert "check[2].pump_spm" in exc.value.name and "(2)" in str(exc.value)
+
+
+def test_case_pump_at_zero_spm_is_not_running_and_a_rate_mismatch_is_noted():
+    from addin.case import parse_case
+    from addin.report.compute import pump_run
+
+    doc = _demo_doc()
+    doc["check"][-1]["pump_spm"] = [104, 0]
+    doc["pump"][1]["liner_rating"] = 3000.0
+    case = parse_case(doc, "one-pump.toml")
+    running = case.running_pumps(-1)
+    assert [p.name for p in running] == ["pump 1"]  # pump 2's 3,000 psi liners do not limit
+    run = pump_run(case, case.check_value(-1, "flow_rate"))
+    assert not run.notes  # 104 spm on one pump ≈ 522 gpm
+    doc["check"][-1]["pump_spm"] = [60, 60]  # ≈ 602 gpm against 522 gpm
+    case = parse_case(doc, "fast.toml")
+    run = pump_run(case, case.check_value(-1, "flow_rate"))
+    assert [n.code for n in run.notes] == ["pump_rate_mismatch"]
+
+
+def test_case_bad_pump_inputs_are_located_errors():
+    from addin.case import parse_case
+
+    doc = _demo_doc()
+    doc["pump"][0]["kind"] = "quintuplex"
+    with pytest.raises(InputError) as exc:
+        _ = parse_case(doc, "bad.toml").pumps
+    assert "pump[1]" in exc.value.name and "triplex" in str(exc.value)
+    doc = _demo_doc()
+    doc["check"][-1]["pump_spm"] = [52, 400]
+    with pytest.raises(InputError) as exc:  # beyond the possible 0-250 spm
+        parse_case(doc, "fast.toml")
+    assert "pump_spm" in str(exc.value) and "400" in str(exc.value)

@@ -84,6 +84,7 @@ __all__ = [
     "TripRun",
     "band_inputs",
     "compute",
+    "pump_run",
     "report_fluid",
     "scalar",
 ]
@@ -336,7 +337,7 @@ def compute(
     loaded = _loaded(well, res, cleaning, step)
     beds = _beds(case, well, fluid, q, cleaning, method)
     surge = _trips(case, well, fluid, method)
-    pumps = _pumps(case, q)
+    pumps = pump_run(case, q)
     window = _operating_window(case, well, fluid, method, cleaning, pumps)
     two_part = _two_part(case, well, fluid, q, method, cleaning, float(res.bit_md))
     if isinstance(two_part, Note):  # no positive multiplier reproduces the measurements
@@ -379,7 +380,7 @@ def compute(
     )
 
 
-def _pumps(case, q) -> PumpRun | None:
+def pump_run(case, q) -> PumpRun | None:
     """The case's pumps, the latest check's spm and the rate they give (None without pumps)."""
     pumps = case.pumps
     if not pumps:
