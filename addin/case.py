@@ -62,6 +62,7 @@ from calc.geometry import (
     Well,
 )
 from calc.hydraulics_method import HydraulicsMethod, resolve_method
+from calc.pumps import Pump
 from calc.rheology import STANDARD_GEOMETRY, ViscometerGeometry, ViscometerReadings
 from calc.rheology.viscometer import FIELD_STRESS
 from calc.units import UNIT_SYSTEMS, to_si, unit_for
@@ -500,6 +501,53 @@ class Case:
             )
             for i, w in enumerate(self.sections.get("weak_point", ()), start=1)
         )
+
+    @property
+    def pumps(self) -> tuple:
+        """The ``[[pump]]`` sections as :class:`calc.pumps.Pump` (empty unless every pump gives
+        its ``liner`` and ``stroke``; kind default triplex, efficiency default 1)."""
+        raw = self.sections.get("pump", ())
+        if not raw or any("liner" not in p or "stroke" not in p for p in raw):
+            return ()
+        return tuple(
+            self._build(
+                f"pump[{i}]",
+                Pump,
+                p["name"],
+                p["liner"],
+                p["stroke"],
+                p.get("efficiency", 1.0),
+                kind=str(p.get("kind", "triplex")).strip().lower(),
+                rod=p.get("rod", 0.0),
+                rated_power=p.get("rated_power"),
+                liner_rating=p.get("liner_rating"),
+            )
+            for i, p in enumerate(raw, start=1)
+        )
+
+    def pump_spm(self, index: int = -1) -> tuple[float, ...] | None:
+        """A check's ``pump_spm`` (one per pump, in the ``[[pump]]`` order), None if not given;
+        a count other than the pumps' is an InputError naming the key."""
+        spm = self.checks[index].values.get("pump_spm")
+        if spm is None:
+            return None
+        n = index + 1 if index >= 0 else len(self.checks) + index + 1
+        pumps = self.pumps
+        if len(spm) != len(pumps) or any(x is None for x in spm):
+            raise InputError(
+                _where(self.source, f"check[{n}].pump_spm"),
+                list(spm),
+                f"one speed per [[pump]] with liner and stroke ({len(pumps)})",
+            )
+        return tuple(float(x) for x in spm)
+
+    def running_pumps(self, index: int = -1) -> tuple:
+        """The pumps running at a check: those with spm > 0 in its ``pump_spm``, every pump
+        when it gives none (their liner rating and rated power limit the operating window)."""
+        spm = self.pump_spm(index)
+        if spm is None:
+            return self.pumps
+        return tuple(p for p, n in zip(self.pumps, spm, strict=True) if n > 0)
 
     @property
     def trip(self) -> Mapping[str, Any] | None:

@@ -98,6 +98,7 @@ CHECK_SCHEMA: dict[str, Field] = {
         },
     ),
     "flow_rate": Field("flow_rate", guard="flow_rate"),
+    "pump_spm": Field("list", of="number", guard="spm"),
     "rop": Field("rop", guard="rop"),
     "rpm": Field("number", guard="rpm"),
     "measured_spp": Field("pressure", guard="spp"),
@@ -172,8 +173,10 @@ WEAK_POINT_SCHEMA = {
 }
 PUMP_SCHEMA = {
     "name": Field("text", required=True),
+    "kind": Field("text"),
     "liner": Field("diameter", guard="liner"),
     "stroke": Field("diameter", guard="stroke"),
+    "rod": Field("diameter", guard="pump_rod"),
     "efficiency": Field("number", guard="efficiency"),
     "rated_power": Field("power", guard="rated_power"),
     "liner_rating": Field("pressure", guard="rating"),

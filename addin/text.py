@@ -55,6 +55,7 @@ __all__ = [
     "number_text",
     "parameter_unit",
     "programme_status",
+    "pump_speed",
     "quantity",
     "span",
     "status_label",
@@ -582,3 +583,23 @@ def method_spread(qb, system: str = "oilfield") -> str:
         f"methods {_band_number(lo[1], qb.kind, system)} {lab} ({lo[0]}) to "
         f"{_band_number(hi[1], qb.kind, system)} {lab} ({hi[0]})"
     )
+
+
+def pump_speed(pumps, q=None) -> str:
+    """Strokes per minute of the pumps (an :class:`addin.report.compute.PumpRun`) in words:
+    at rate ``q`` [m³/s] the same spm on each running pump ("62.6 spm × 2 pumps"); without
+    ``q`` the check's own ``pump_spm`` ("52 + 52 spm").  "" without pumps or a speed.
+
+    >>> from types import SimpleNamespace
+    >>> pump_speed(SimpleNamespace(spm=(52.0, 52.0)))
+    '52 + 52 spm'
+    """
+    if pumps is None:
+        return ""
+    if q is None:
+        return "" if pumps.spm is None else " + ".join(f"{x:g}" for x in pumps.spm) + " spm"
+    n = pumps.spm_at(q)
+    if n is None:
+        return ""
+    k = len(pumps.running)
+    return f"{n:.1f} spm × {k} pump{'s' if k > 1 else ''}"

@@ -113,6 +113,8 @@ _KIND = {"number": "dimensionless", "bool": "flag", "length_or_fill": "length"}
 _DIAL_SPEEDS = ("600", "300", "200", "100", "60", "30", "6", "3")
 #: the two ends of a range, as label suffixes of a columns block's ``key[0]``/``key[1]`` rows.
 _ENDS = ("low", "high")
+#: Rows given to a list in a column block (a check's ``pump_spm``: up to this many pumps).
+LIST_ROWS = 4
 #: nozzle sizes are plain numbers in the case file, shown with the nozzle unit (32nds of an inch).
 _DISPLAY_KIND = {("bit", "nozzles"): "nozzle"}
 
@@ -185,8 +187,10 @@ LABELS: dict[str, dict[str, str]] = {
     },
     "pump": {
         "name": "name",
+        "kind": "kind (triplex or duplex)",
         "liner": "liner size",
         "stroke": "stroke length",
+        "rod": "piston-rod diameter (duplex)",
         "efficiency": "volumetric efficiency (fraction)",
         "rated_power": "rated power",
         "liner_rating": "liner pressure rating",
@@ -234,6 +238,7 @@ LABELS: dict[str, dict[str, str]] = {
         "program.yp": "programme YP",
         "program.lsyp": "programme LSYP",
         "flow_rate": "flow rate",
+        "pump_spm": "pump speed [strokes/min]",
         "rop": "rate of penetration",
         "rpm": "string rotary speed [rpm]",
         "measured_spp": "measured standpipe pressure",
@@ -286,6 +291,10 @@ def _fields(block: str, layout: str, schema, prefix: str = "") -> list[Field]:
             item = _DISPLAY_KIND.get((block, key), _KIND.get(fld.of, fld.of))
             if layout == "columns" and kind == "range":
                 out += [Field(f"{key}[{i}]", f"{label}, {e}", item) for i, e in enumerate(_ENDS)]
+            elif layout == "columns":  # a list in a column: one row per item (pump_spm)
+                out += [
+                    Field(f"{key}[{i}]", f"{label}, pump {i + 1}", item) for i in range(LIST_ROWS)
+                ]
             else:
                 out.append(Field(key, label, item, many=layout == "values"))
         else:

@@ -45,6 +45,10 @@ stand_length        > 0 – 50 m                   15 – 30 m (doubles,        
                                                  triples)
 liner               > 0 – 12 in                  3 – 9 in                   common practice
 stroke              > 0 – 24 in                  6 – 16 in                  common practice
+pump_rod            0 – 6 in                     1.5 – 4 in (duplex)        common practice
+spm                 0 – 250 spm                  0 – 150 spm                common practice
+                                                                            (triplex ~100–175
+                                                                            rated, from memory)
 cuttings_size       > 0 – 100 mm                 0.1 – 30 mm                common practice
 nozzle_32nds        1 – 40 /32 in                6 – 32 /32 in              common practice
 tfa                 > 0 – 20 in²                 0.05 – 3 in²               common practice
@@ -144,6 +148,8 @@ RANGES: dict[str, Plausibility] = {
         _r("stand_length", "length", "m", (0.0, 50.0), (15.0, 30.0), low_open=True),
         _r("liner", "diameter", "in", (0.0, 12.0), (3.0, 9.0), low_open=True),
         _r("stroke", "diameter", "in", (0.0, 24.0), (6.0, 16.0), low_open=True),
+        _r("pump_rod", "diameter", "in", (0.0, 6.0), (1.5, 4.0)),
+        _r("spm", "number", None, (0.0, 250.0), (0.0, 150.0)),
         _r("cuttings_size", "diameter", "mm", (0.0, 100.0), (0.1, 30.0), low_open=True),
         _r("nozzle_32nds", "number", None, (1.0, 40.0), (6.0, 32.0)),
         _r("tfa", "area", "in**2", (0.0, 20.0), (0.05, 3.0), low_open=True),

@@ -10,6 +10,9 @@ A rate q is inside the window when, simultaneously,
   clean-mud ECD),
 * ECD(z) ≥ pore(z) + margin at every check depth (clean ECD: the lower, conservative value),
 * standpipe pressure ≤ the pump / surface rating,
+* with ``pumps``: standpipe pressure ≤ the lowest liner rating of the running pumps, and each
+  pump's share of the hydraulic power p·Q ≤ its rated hydraulic power
+  (:func:`calc.pumps.pump_limits`),
 * every annular interval is cleaned (verdict at least ``require``, :mod:`calc.cleaning`),
 * q lies in the flow window of every downhole tool that states one.
 
@@ -40,6 +43,7 @@ from calc.cleaning.indicators import cleaning_score
 from calc.errors import InputError, check_choice, check_positive
 from calc.notes import Note
 from calc.numeric import first_change, grid_with_switches
+from calc.pumps import pump_limits
 from calc.span import Span
 from calc.values import Value
 
@@ -59,8 +63,9 @@ class OperatingWindow:
                             "lowest rate swept" / "highest rate swept", or the failing limits'
                             names joined by " and " when no rate is feasible)
     limits                  name → margin curve over q (≥ 0 inside; units per limit:
-                            kg/m³ for ECD limits, Pa for SPP, m³/s for tool windows,
-                            relative for cleaning)
+                            kg/m³ for ECD limits, Pa for SPP and liner rating, W for
+                            rated hydraulic power, m³/s for tool windows, relative for
+                            cleaning)
     spp                     standpipe pressure [Pa]; ``surface_rating`` [Pa] (inf: none)
     ecd_fracture_point      ECD at the check point tightest against fracture [kg/m³]
     fracture_at_point       that point's fracture EMW [kg/m³]
@@ -246,6 +251,7 @@ def _sweep(
     surface_rating,
     ecd_basis,
     rpm=None,
+    pumps=(),
 ) -> _Sweep:
     """The margin curve of every limit at the rates ``qv`` (one vectorised circulate call)."""
     res = circulate(
@@ -273,6 +279,8 @@ def _sweep(
     spp = np.asarray(res.standpipe_pressure, dtype=float)
     if surface_rating is not None:
         limits["surface rating"] = float(surface_rating) - spp
+    if pumps:
+        limits.update(pump_limits(pumps, spp, qv))
     limits.update(_tool_limits(well, qv))
     return _Sweep(res, limits, cl, loaded, ecd, frac_m, pore_m, spp)
 
@@ -438,6 +446,7 @@ def operating_window(
     hydrostatic: str = "exact",
     ecd_basis: str = "loaded",
     rpm: float | None = None,
+    pumps=(),
 ) -> OperatingWindow:
     """Range of flow rates meeting the ECD, pressure-rating, cleaning and tool limits together.
 
@@ -473,6 +482,10 @@ def operating_window(
         :func:`calc.cleaning.hole_cleaning`, which falls as the transport ratio rises with the
         rate) when ``cuttings`` and ``rop`` > 0 are given; ``"clean"`` ignores it.  The pore
         limit always holds the clean ECD (the lower value).
+    pumps : sequence of calc.pumps.Pump
+        The running pumps: their lowest liner rating and their rated hydraulic powers become
+        the limits ``"liner rating"`` and ``"rated hydraulic power"``
+        (:func:`calc.pumps.pump_limits`); empty: no pump limits.
 
     Returns
     -------
@@ -515,6 +528,17 @@ def operating_window(
 
     >>> round(from_si(circulate(well, fluid, win.q_high).standpipe_pressure, "psi"))
     3000
+
+    Two triplex pumps with 2,800 psi liners bind first:
+
+    >>> from calc.pumps import Pump
+    >>> pump = Pump("p", to_si(6.0, "in"), to_si(12, "in"), 0.97, liner_rating=to_si(2800, "psi"))
+    >>> win = operating_window(well, fluid, to_si(np.linspace(200, 900, 141), "gpm"), window=w,
+    ...                        surface_rating=to_si(3000.0, "psi"), pumps=[pump, pump])
+    >>> win.binding_high
+    'liner rating'
+    >>> round(from_si(circulate(well, fluid, win.q_high).standpipe_pressure, "psi"))
+    2800
     """
     qv = np.atleast_1d(check_positive("flow rate", q, "m³/s")).astype(float)
     if qv.ndim != 1 or qv.size < 2 or np.any(np.diff(qv) <= 0):
@@ -525,7 +549,7 @@ def operating_window(
         rop=rop, cuttings=cuttings, slip_method=slip_method, criteria=criteria, require=require,
         method=method, eccentricity=eccentricity, hydrostatic=hydrostatic, window=window,
         weak_points=tuple(weak_points), margins=margins, surface_rating=surface_rating,
-        ecd_basis=ecd_basis, rpm=rpm,
+        ecd_basis=ecd_basis, rpm=rpm, pumps=tuple(pumps),
     )  # fmt: skip
     sw = _sweep(well, fluid, qv, **kw)
     res, mt, limits, cl, loaded = sw.result, sw.result.margins, sw.limits, sw.cleaning, sw.loaded

@@ -193,3 +193,18 @@ def demo_options(index: int = 0) -> dict:
         margins=demo_margins(),
         surface_rating=demo_surface_rating(),
     )
+
+
+def demo_pumps():
+    """The demo's [[pump]] sections as calc.pumps.Pump (oilfield units converted)."""
+    from calc.pumps import Pump
+
+    return tuple(
+        Pump(
+            p["name"], inch(p["liner"]), inch(p["stroke"]), p["efficiency"],
+            kind=p.get("kind", "triplex"),
+            rated_power=to_si(float(p["rated_power"].split()[0]), "hp"),
+            liner_rating=to_si(p["liner_rating"], "psi"),
+        )
+        for p in case()["pump"]
+    )  # fmt: skip

@@ -27,6 +27,7 @@ from tests.cleaning_demo import (
     demo_well,
     demo_window,
 )
+from tests.demo_well import demo_pumps
 
 LATEST = 1  # the demo case's second (latest) mud check, D2 05:30
 
@@ -43,7 +44,7 @@ def ref():
         demo_well(LATEST), demo_fluid(LATEST), np.linspace(0.3 * q0, 1.8 * q0, 200),
         window=demo_window(), weak_points=demo_weak_points(), margins=demo_margins(),
         surface_rating=demo_surface_rating(), rop=demo_rop(LATEST),
-        cuttings=demo_cuttings(LATEST),
+        cuttings=demo_cuttings(LATEST), pumps=demo_pumps(),
     )  # fmt: skip
 
 
@@ -68,14 +69,16 @@ def test_report_window_is_calc_window(ref):
     # since the deviated-hole cleaning methods apply at the 30° tangent, the cleaning limit binds
     # the low end (larsen_1997 there, calc/METHODS.md §10.13), above the tools' 400 gpm
     assert ow.binding_low == ref.binding_low == "hole cleaning"
-    assert ow.binding_high.endswith(" flow window (max)") and ref.binding_high.endswith("(max)")
+    # the pumps' 4,000 psi liners bind the high end (issue 12: 650 gpm needs ~4,240 psi)
+    assert ow.binding_high == ref.binding_high == "liner rating"
     np.testing.assert_allclose(ow.spp, ref.spp, rtol=1e-9)
     np.testing.assert_allclose(ow.cleaning_indicator, ref.cleaning_indicator, rtol=1e-9)
-    # demo case: tools' flow window 400-650 gpm binds the high end (invented case data); the low
-    # end is the minimum cleaning rate, 508 gpm (regression value, reviewed)
+    # demo case: the liner rating (4,000 psi) binds the high end below the tools' 650 gpm
+    # (invented case data; at the end the SPP is the rating to the sweep's interpolation); the
+    # low end is the minimum cleaning rate, 508 gpm (regression value, reviewed)
     assert ow.q_low == pytest.approx(ow.min_cleaning_rate, rel=1e-9)
     assert _gpm(ow.q_low) == pytest.approx(508.3, abs=0.5)
-    assert _gpm(ow.q_high) == pytest.approx(650.0, rel=1e-9)
+    assert _gpm(ow.q_high) == pytest.approx(627.9, abs=0.05)
 
 
 def test_summary_shows_window_ends_with_binding_limits_in_words(wb, ref):
@@ -85,9 +88,12 @@ def test_summary_shows_window_ends_with_binding_limits_in_words(wb, ref):
     assert low[1].value == pytest.approx(_gpm(ref.q_low), rel=1e-12)
     assert high[1].value == pytest.approx(_gpm(ref.q_high), rel=1e-12)
     assert low[4].value == high[4].value == "gpm"
-    assert low[5].value == "bound by: hole cleaning no longer adequate"  # the 30° tangent
-    assert high[5].value == "bound by: maximum of the downhole tools flow window"
-    # the check's 522 gpm lies inside 400-650 gpm
+    # the 30° tangent; strokes per minute of each pump beside the rate (5.016 gal/stk each)
+    assert low[5].value == "bound by: hole cleaning no longer adequate; 50.7 spm × 2 pumps"
+    assert high[5].value == (
+        "bound by: standpipe pressure reaches the pumps' liner rating; 62.6 spm × 2 pumps"
+    )
+    # the check's 522 gpm lies inside 508-628 gpm
     assert low[8].value == high[8].value == "OK"
 
 
@@ -95,7 +101,7 @@ def test_rate_window_sheet_table_units_and_values(wb, ref):
     ws = wb["Rate window"]
     assert ws["A1"].value.startswith("Flow-rate operating window")
     assert _row(ws, "lowest rate")[2].value == pytest.approx(_gpm(ref.q_low), rel=1e-12)
-    assert _row(ws, "highest rate")[4].value.startswith("maximum of the downhole tools")
+    assert _row(ws, "highest rate")[4].value.startswith("standpipe pressure reaches the pumps'")
     assert _row(ws, "this check's rate")[4].value == "inside the window"
     head = _row(ws, "Rate sweep")[0].row + 1
     names = [ws.cell(row=head, column=c).value for c in range(1, 14)]
@@ -172,7 +178,7 @@ def test_json_window_ends_bindings_and_curves(tmp_path, capsys, ref):
     assert w["low_rate"] == pytest.approx(_gpm(ref.q_low), rel=1e-12)
     assert w["high_rate"] == pytest.approx(_gpm(ref.q_high), rel=1e-12)
     assert w["binding_low"] == "hole cleaning"  # calc.rate_window's name
-    assert w["binding_high_words"] == "maximum of the downhole tools flow window"
+    assert w["binding_high_words"] == "standpipe pressure reaches the pumps' liner rating"
     c = w["curves"]
     assert len(c["flow_rate"]) == 200
     np.testing.assert_allclose(c["standpipe_pressure"], from_si(ref.spp, "psi"), rtol=1e-9)

@@ -186,6 +186,13 @@ VALID = {
     "balance_resolution": None,
     "rate_uncertainty": None,
     "accel_time": 2.0,
+    "liner": 6.5,  # the demo's pumps
+    "stroke": 12.0,
+    "efficiency": 0.97,
+    "spm": 52.0,
+    "pumps": None,
+    "pump_kind": None,
+    "rod": None,
 }
 
 

@@ -27,7 +27,9 @@ from calc.circulation import (
     MarginTable,
     Profile,
     TightestPoint,
+    TwoPartCalibration,
     calibrate_friction,
+    calibrate_two_part,
     check_band_inputs,
     circulate,
     ecd_band,
@@ -49,6 +51,7 @@ from calc.errors import InputError
 from calc.geometry import Well
 from calc.hydraulics_method import HydraulicsMethod  # None → the case's method or calc's default
 from calc.notes import Note
+from calc.pumps import Pump, pumps_rate, pumps_spm
 from calc.rate_window import OperatingWindow, operating_window
 from calc.rheology import (
     CheckComparison,
@@ -76,10 +79,12 @@ __all__ = [
     "CheckResults",
     "CleaningRun",
     "LoadedECD",
+    "PumpRun",
     "Results",
     "TripRun",
     "band_inputs",
     "compute",
+    "pump_run",
     "report_fluid",
     "scalar",
 ]
@@ -202,6 +207,39 @@ class TripRun:
     acceleration_time: float = DEFAULT_ACCELERATION_TIME
 
 
+#: Relative gap between the rate the pumps' spm give and the check's flow rate beyond which a
+#: note is given (common practice: about the spread of volumetric efficiency between pumps).
+PUMP_RATE_TOLERANCE = 0.03
+
+
+@dataclass(frozen=True)
+class PumpRun:
+    """The case's pumps at the latest check (SI).
+
+    pumps        every pump (:class:`calc.pumps.Pump`)
+    running      the pumps running (spm > 0 in ``pump_spm``; every pump without it)
+    spm          the latest check's ``pump_spm`` (None if not given)
+    q_from_spm   the rate those spm give [m³/s] (None without ``spm``)
+    notes        a note when ``q_from_spm`` and the check's rate differ by more than 3 %
+    """
+
+    pumps: tuple[Pump, ...]
+    running: tuple[Pump, ...]
+    spm: tuple[float, ...] | None
+    q_from_spm: float | None
+    notes: tuple[Note, ...] = ()
+
+    def spm_at(self, q) -> float | None:
+        """Strokes per minute of each running pump at total rate ``q`` [m³/s] (the same on each,
+        :func:`calc.pumps.pumps_spm`); None without running pumps or above the pumps' speed."""
+        if not self.running:
+            return None
+        try:
+            return float(pumps_spm(self.running, q))
+        except InputError:  # the rate needs more strokes than a pump can make
+            return None
+
+
 @dataclass(frozen=True)
 class Results:
     """All results of one report run (the latest check drives hydraulics)."""
@@ -224,6 +262,8 @@ class Results:
     loaded: LoadedECD | None = None  # with the cuttings load (needs cleaning)
     beds: WellBeds | None = None  # stationary cuttings beds (needs cleaning)
     band: EcdBand | None = None  # the input-uncertainty band (clean circulating mud)
+    pumps: PumpRun | None = None  # the pumps (needs [[pump]] with liner and stroke)
+    two_part: TwoPartCalibration | None = None  # string and annulus calibration (needs pwd)
 
     @property
     def calibration(self) -> FrictionCalibration | None:
@@ -297,7 +337,15 @@ def compute(
     loaded = _loaded(well, res, cleaning, step)
     beds = _beds(case, well, fluid, q, cleaning, method)
     surge = _trips(case, well, fluid, method)
-    window = _operating_window(case, well, fluid, method, cleaning)
+    pumps = pump_run(case, q)
+    window = _operating_window(case, well, fluid, method, cleaning, pumps)
+    two_part = _two_part(case, well, fluid, q, method, cleaning, float(res.bit_md))
+    if isinstance(two_part, Note):  # no positive multiplier reproduces the measurements
+        notes.append(two_part)
+        two_part = None
+    for part in (pumps, two_part):
+        if part is not None:
+            notes.extend(part.notes)
     if beds is not None:
         notes.extend(beds.notes)
     for part in (cleaning, surge):
@@ -327,7 +375,71 @@ def compute(
         loaded=loaded,
         beds=beds,
         band=band,
+        pumps=pumps,
+        two_part=two_part,
     )
+
+
+def pump_run(case, q) -> PumpRun | None:
+    """The case's pumps, the latest check's spm and the rate they give (None without pumps)."""
+    pumps = case.pumps
+    if not pumps:
+        return None
+    spm = case.pump_spm(-1)
+    running = case.running_pumps(-1)
+    q_spm = None if spm is None else pumps_rate(pumps, spm)
+    notes = ()
+    if q_spm is not None and abs(q_spm - q) > PUMP_RATE_TOLERANCE * q:
+        notes = (
+            Note(
+                "warning",
+                "pump_rate_mismatch",
+                "the pumps' strokes per minute give {pump_rate}, the check's flow rate is "
+                "{rate}: check the spm, the liners and the volumetric efficiency",
+                "pumps",
+                values=(Value("pump_rate", q_spm, "flow_rate"), Value("rate", q, "flow_rate")),
+            ),
+        )
+    return PumpRun(pumps=pumps, running=running, spm=spm, q_from_spm=q_spm, notes=notes)
+
+
+def gauge_increment(case, well, cleaning) -> float:
+    """The cuttings load's ECD increment at the latest check's downhole gauge [kg/m³] (0
+    without cleaning): what the two-part calibration leaves out of the friction it fits."""
+    if cleaning is None:
+        return 0.0
+    v = case.checks[-1].values
+    return float(
+        cuttings_ecd_increment(
+            well, cleaning.result.transport.loaded_density, v["density"], v["pwd"]["md"]
+        )
+    )
+
+
+def _two_part(case, well, fluid, q, method, cleaning, bit_md) -> TwoPartCalibration | Note | None:
+    """calc.circulation.calibrate_two_part for the latest check when it has a downhole gauge
+    above the bit (with its measured SPP when given); the gauge is fitted with the
+    cuttings-loaded ECD when the report has the cuttings load.  None otherwise, or when no
+    positive multiplier reproduces the measurements (then a note saying why)."""
+    v = case.checks[-1].values
+    pwd = v.get("pwd", {})
+    md, ecd = pwd.get("md"), pwd.get("ecd")
+    if md is None or ecd is None or not 0 < md <= bit_md:
+        return None
+    try:
+        return calibrate_two_part(
+            well, fluid, q, measured_spp=v.get("measured_spp"), gauge_ecd=ecd, gauge_md=md,
+            gauge_increment=gauge_increment(case, well, cleaning), method=method,
+            **_circulate_options(case),
+        )  # fmt: skip
+    except InputError as exc:  # e.g. a gauge below the static density: shown uncalibrated
+        return Note(
+            "warning",
+            "two_part_not_calibrated",
+            "two-part calibration not possible: {reason}",
+            "calibration",
+            values=(Value("reason", str(exc)),),
+        )
 
 
 def _loaded(well, res, cleaning, step) -> LoadedECD | None:
@@ -477,7 +589,7 @@ def _cleaning(case, well, fluid, q) -> CleaningRun | None:
     return CleaningRun(result=hc, cuttings=cuttings, notes=tuple(hc.notes) + cuttings.notes)
 
 
-def _operating_window(case, well, fluid, method, cleaning) -> OperatingWindow | None:
+def _operating_window(case, well, fluid, method, cleaning, pumps=None) -> OperatingWindow | None:
     """calc.rate_window.operating_window over the WINDOW_SWEEP rates, in one vectorised call.
 
     Limits of the case (pressure window, weak points, margins, surface rating) and, when the
@@ -503,6 +615,7 @@ def _operating_window(case, well, fluid, method, cleaning) -> OperatingWindow | 
         cuttings=cut,
         ecd_basis=WINDOW_ECD_BASIS,
         rpm=case.checks[-1].values.get("rpm") if cleaning else None,
+        pumps=pumps.running if pumps is not None else (),
     )
 
 

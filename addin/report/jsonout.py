@@ -130,6 +130,10 @@ def results_data(results) -> dict:
         out["calibration"] = _calibration_data(results.calibration, s)
     if results.band is not None:
         out["ecd_band"] = _band_data(results.band, s)
+    if getattr(results, "pumps", None) is not None:
+        out["pumps"] = _pumps_data(results, s)
+    if getattr(results, "two_part", None) is not None:
+        out["two_part_calibration"] = _two_part_data(results.two_part, s)
     out["trend"] = [_trend_data(t, s) for t in results.trend]
     out["notes"] = [
         {
@@ -493,6 +497,53 @@ def _band_data(band, s) -> dict:
     }
 
 
+def _pumps_data(results, s) -> dict:
+    """The pumps (calc.pumps): volume per stroke, the check's spm, the rate they give and the
+    spm (the same on each running pump) at the check's rate and the window's ends."""
+    pr, ow = results.pumps, results.window
+    at = {"check_rate": results.case.check_value(-1, "flow_rate")}
+    if ow is not None and ow.feasible:
+        at.update(window_low=ow.q_low, window_high=ow.q_high)
+    return {
+        "pumps": [
+            {
+                "name": p.name,
+                "kind": p.kind,
+                "displacement": _c(p.displacement, "volume", s),
+                "displacement_unit": label(unit_for("volume", s)) + "/stroke",
+                "liner_rating": _c(p.liner_rating, "pressure", s),
+                "rated_power": _c(p.rated_power, "power", s),
+            }
+            for p in pr.pumps
+        ],
+        "running": [p.name for p in pr.running],
+        "spm": None if pr.spm is None else list(pr.spm),
+        "rate_from_spm": _c(pr.q_from_spm, "flow_rate", s),
+        "spm_each_at": {k: pr.spm_at(q) for k, q in at.items()},
+    }
+
+
+def _two_part_data(tp, s) -> dict:
+    """calc.circulation.calibrate_two_part of the latest check (labelled CALIBRATION)."""
+    return {
+        "part": tp.part,
+        "labels": list(tp.labels),
+        "string_multiplier": tp.string_multiplier,
+        "annulus_multiplier": tp.annulus_multiplier,
+        "measured_spp": _c(tp.measured_spp, "pressure", s),
+        "predicted_spp": _c(tp.predicted_spp, "pressure", s),
+        "calibrated_spp": _c(tp.calibrated_spp, "pressure", s),
+        "spp_gap_removed_by_string": _c(tp.spp_absorbed_string, "pressure", s),
+        "spp_gap_removed_by_annulus": _c(tp.spp_absorbed_annulus, "pressure", s),
+        "gauge_md": _c(tp.gauge_md, "depth", s),
+        "gauge_ecd": _c(tp.gauge_ecd, "density", s),
+        "predicted_gauge_ecd": _c(tp.predicted_gauge_ecd, "density", s),
+        "calibrated_gauge_ecd": _c(tp.calibrated_gauge_ecd, "density", s),
+        "gauge_cuttings_increment": _c(tp.gauge_increment, "density", s),
+        "calibrated_ecd_bit_clean": _c(scalar(tp.calibrated.ecd_bit), "density", s),
+    }
+
+
 def _limit_key(name: str) -> str:
     """The stable JSON key of a margin curve: ``fracture``, ``pore``, ``surface_rating``,
     ``hole_cleaning``, ``tool_flow_window_min``/``_max`` (the tool's own name, which comes from
@@ -508,8 +559,10 @@ def _limit_kind(name: str):
     (OperatingWindow.limits)."""
     if name in ("fracture", "pore"):
         return "density"
-    if name == "surface rating":
+    if name in ("surface rating", "liner rating"):
         return "pressure"
+    if name == "rated hydraulic power":
+        return "power"
     if "flow window" in name:
         return "flow_rate"
     return "dimensionless"  # hole cleaning: relative margin

@@ -47,6 +47,10 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
     )
     row += 2
     q_ref = input_row(ws, row, "flow rate", _o(res.q, "flow_rate", system), "flow_rate", system)
+    spm = text.pump_speed(results.pumps) or text.pump_speed(results.pumps, scalar(res.q))
+    if spm:  # strokes per minute beside the rate (the case has pumps)
+        put(ws, row, 4, spm, "bf_cell")
+        ws.merge_cells(start_row=row, start_column=4, end_row=row, end_column=6)
     row += 2
     row, first, refs = _breakdown_block(ws, row, results, system)
     refs["q"] = q_ref
@@ -55,6 +59,8 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
     cal = results.calibration
     if cal is not None:
         row = _calibration_block(ws, row, cal, results, factors, system)
+    if results.two_part is not None:
+        row = _two_part_block(ws, row, results.two_part, system)
     ws.row_breaks.append(Break(id=row))
     row, refs["min_av"] = _interval_table(ws, row + 1, results, factors, system, q_ref)
     merged_text(
@@ -309,3 +315,75 @@ def _calibration_block(ws, row, cal, results, factors, system):
         put(ws, row, 5, U(kind, system), "bf_unit")
         row += 1
     return row + 1
+
+
+def _two_part_block(ws, row, tp, system):
+    """The two-part calibration (calc.circulation.calibrate_two_part): string and annulus
+    multipliers, each labelled a calibration, with the share of each mismatch it absorbs."""
+    row = heading(ws, row, "Calibration of string and annulus separately", span=8)
+    what = {
+        "string and annulus": "the annular multiplier makes the predicted ECD at the downhole "
+        "gauge equal its reading; the string multiplier (surface lines and drill string) then "
+        "makes the standpipe pressure equal the measured one",
+        "whole loop": "only the standpipe pressure is measured: one multiplier for string and "
+        "annulus together (the two parts cannot be told apart)",
+        "annulus": "only the downhole gauge is given: the annular multiplier is calibrated, the "
+        "string is not (multiplier 1)",
+    }[tp.part]
+    load = (
+        " The gauge is compared with the cuttings-loaded ECD (the load is not scaled)."
+        if tp.gauge_increment > 0
+        else ""
+    )
+    merged_text(
+        ws, row,
+        f"CALIBRATION, not a measurement ({tp.part}): {what}. The multipliers hold for this "
+        f"rate, mud and well state; every other number in this report is uncalibrated.{load}",
+        span=11, height=38, style="bf_text",
+    )  # fmt: skip
+    row += 1
+    row = table_header(ws, row, 1, ["quantity", "value", "", "", "unit", "remark"])
+    pu, dn = U("pressure", system), U("density", system)
+    lines = [
+        ("string friction multiplier (calibration)", tp.string_multiplier, "dimensionless", ""),
+        ("annular friction multiplier (calibration)", tp.annulus_multiplier, "dimensionless", ""),
+    ]
+    if tp.measured_spp is not None:
+        gap = tp.predicted_spp - tp.measured_spp
+        lines += [
+            ("standpipe pressure: measured", tp.measured_spp, "pressure", ""),
+            ("standpipe pressure: predicted, uncalibrated", tp.predicted_spp, "pressure",
+             f"gap {_o(gap, 'pressure', system):+,.0f} {pu}"),
+            ("   gap removed by the string multiplier", tp.spp_absorbed_string, "pressure",
+             _share(tp.spp_absorbed_string, gap)),
+            ("   gap removed by the annular multiplier", tp.spp_absorbed_annulus, "pressure",
+             _share(tp.spp_absorbed_annulus, gap)),
+            ("standpipe pressure, calibrated", tp.calibrated_spp, "pressure", ""),
+        ]  # fmt: skip
+    if tp.gauge_ecd is not None:
+        lines += [
+            ("downhole gauge ECD: read", tp.gauge_ecd, "density",
+             f"at {_o(tp.gauge_md, 'depth', system):,.0f} {U('depth', system)} MD"),
+            ("downhole gauge ECD: predicted, uncalibrated", tp.predicted_gauge_ecd, "density",
+             f"gap {_o(tp.gauge_absorbed_annulus, 'density', system):+.3f} {dn}, all removed by "
+             "the annular multiplier"),
+            ("downhole gauge ECD, calibrated", tp.calibrated_gauge_ecd, "density", ""),
+        ]  # fmt: skip
+    lines.append(
+        ("ECD at the bit, calibrated (clean mud)", scalar(tp.calibrated.ecd_bit), "density", "")
+    )
+    for name, v, kind, remark in lines:
+        put(ws, row, 1, name)
+        fmt = "0.000" if kind == "dimensionless" else number_format(kind, system)
+        put_number(ws, row, 2, v if kind == "dimensionless" else _o(v, kind, system), fmt)
+        put(ws, row, 5, U(kind, system) if kind != "dimensionless" else "–", "bf_unit")
+        if remark:
+            put(ws, row, 6, remark, "bf_note")
+            ws.merge_cells(start_row=row, start_column=6, end_row=row, end_column=11)
+        row += 1
+    return row + 1
+
+
+def _share(part, gap) -> str:
+    """ "62 % of the gap" (or "" when the gap is 0)."""
+    return f"{100.0 * part / gap:.0f} % of the gap" if gap else ""

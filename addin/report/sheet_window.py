@@ -24,7 +24,7 @@ from addin.report.style import (
     table_header,
 )
 from addin.report.trace import method_line, slip_line, slip_method_of
-from addin.text import check_point
+from addin.text import check_point, pump_speed
 from addin.text import display_values as _o
 from addin.text import unit_label as U
 from addin.xlsx_cells import PALETTE, put, set_widths
@@ -64,6 +64,10 @@ def binding_words(ow, end: str, *, long: bool = False, system: str = "oilfield")
         return "ECD falls to pore + margin" + where
     if name == "surface rating":
         return "standpipe pressure reaches the surface rating"
+    if name == "liner rating":
+        return "standpipe pressure reaches the pumps' liner rating"
+    if name == "rated hydraulic power":
+        return "a pump reaches its rated hydraulic power"
     if name == "hole cleaning":
         if long and ow.controlling_interval:
             return f"hole cleaning no longer adequate ({short_name(ow.controlling_interval)})"
@@ -75,6 +79,12 @@ def binding_words(ow, end: str, *, long: bool = False, system: str = "oilfield")
     if name in ("lowest rate swept", "highest rate swept"):
         return f"no limit inside the sweep (its {name.split()[0]} rate)"
     return name
+
+
+def _spm(results, q) -> str:
+    """ "; 62.6 spm × 2 pumps" at rate ``q`` when the case has pumps ("" otherwise)."""
+    words = pump_speed(getattr(results, "pumps", None), q)
+    return f"; {words}" if words else ""
 
 
 def _position(ow, q) -> str:
@@ -177,7 +187,14 @@ def _intro(ws, row, results, ow, system, span) -> int:
         f"check's rate); {load}. A rate is inside when ECD ≤ fracture − "
         f"{_o(ow.fracture_margin, 'density', system):.2f} {dn} and ≥ pore + "
         f"{_o(ow.pore_margin, 'density', system):.2f} {dn} at every check point, standpipe "
-        "pressure ≤ the surface rating, every annular interval is adequately cleaned and every "
+        "pressure ≤ the surface rating"
+        + (", ≤ the running pumps' lowest liner rating" if "liner rating" in ow.limits else "")
+        + (
+            ", each pump within its rated hydraulic power at its share of the rate"
+            if "rated hydraulic power" in ow.limits
+            else ""
+        )
+        + ", every annular interval is adequately cleaned and every "
         "downhole tool's flow window holds; each end is interpolated on the limit that fails "
         "just outside it."
     )
@@ -196,9 +213,11 @@ def _window_lines(ws, row, results, ow, system, span) -> int:
     lines = []
     if ow.feasible:
         lines += [
-            ("lowest rate", ow.q_low, binding_words(ow, "low", long=True, system=system)),
-            ("highest rate", ow.q_high, binding_words(ow, "high", long=True, system=system)),
-        ]
+            ("lowest rate", ow.q_low, binding_words(ow, "low", long=True, system=system)
+             + _spm(results, ow.q_low)),
+            ("highest rate", ow.q_high, binding_words(ow, "high", long=True, system=system)
+             + _spm(results, ow.q_high)),
+        ]  # fmt: skip
     else:
         lines.append(("operating window", None, binding_words(ow, "low")))
     lines.append(("this check's rate", q0, _position(ow, q0)))
@@ -224,10 +243,18 @@ def _window_lines(ws, row, results, ow, system, span) -> int:
         ws.merge_cells(start_row=row, start_column=5, end_row=row, end_column=span)
         row += 1
     rating = _o(ow.surface_rating, "pressure", system)
+    pumps = getattr(results, "pumps", None)
+    liners = [p.liner_rating for p in pumps.running if p.liner_rating] if pumps else []
     return note_row(
         ws,
         row,
         (f"Surface rating {rating:,.0f} {pu}; " if rating is not None else "No surface rating; ")
+        + (
+            f"liner rating {_o(min(liners), 'pressure', system):,.0f} {pu} (lowest of the "
+            f"{len(pumps.running)} running pumps); "
+            if liners
+            else ""
+        )
         + f"required ECD margins {_o(ow.fracture_margin, 'density', system):.2f} {dn} below "
         f"fracture and {_o(ow.pore_margin, 'density', system):.2f} {dn} above pore (case "
         "[limits]). Charts: dashed lines are the limits, dotted verticals the window ends.",
@@ -365,8 +392,14 @@ def write_window(wb, results, title: str):
     ws.print_area = f"A1:M{print_end}"
     return {
         "feasible": ow.feasible,
-        "low": (ow.q_low, binding_words(ow, "low")),
-        "high": (ow.q_high, binding_words(ow, "high")),
+        "low": (
+            ow.q_low,
+            binding_words(ow, "low") + (_spm(results, ow.q_low) if ow.feasible else ""),
+        ),
+        "high": (
+            ow.q_high,
+            binding_words(ow, "high") + (_spm(results, ow.q_high) if ow.feasible else ""),
+        ),
         "check_rate": (q0, _position(ow, q0)),
         "sweep_rows": (r0, r1),
     }

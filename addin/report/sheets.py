@@ -238,11 +238,20 @@ def _header_pairs(results):
         ),
         (
             "flow rate",
-            f"{out(chk.values['flow_rate'], 'flow_rate', system):,.0f} {U('flow_rate', system)}",
+            f"{out(chk.values['flow_rate'], 'flow_rate', system):,.0f} {U('flow_rate', system)}"
+            + _spm_suffix(results, chk.values["flow_rate"]),
         ),
         ("hydraulics method", results.method),
     ]
     return left, right
+
+
+def _spm_suffix(results, q) -> str:
+    """ " (52 + 52 spm)" beside a flow rate when the case has pumps ("" otherwise): the check's
+    own strokes per minute, else those the rate needs on each running pump."""
+    pumps = getattr(results, "pumps", None)
+    words = text.pump_speed(pumps) or text.pump_speed(pumps, q)
+    return f" ({words})" if words else ""
 
 
 def _unusual_rows(case) -> list[tuple[str, str]]:

@@ -216,6 +216,22 @@ def _ecd_rows(results, refs) -> list[dict]:
                 status=_status_margin(m, float(t.required)),
             )
         )
+    tp = getattr(results, "two_part", None)
+    if tp is not None:  # the two-part calibration's ECD at the bit (with the load when shown)
+        e_cal = scalar(tp.calibrated.ecd_bit) + (ld.increment_bit if ld is not None else 0.0)
+        m_cal = None if f_bit is None else float(fracture_margin(f_bit, e_cal))
+        rows.append(
+            dict(
+                name=f"ECD at the bit{tag}, CALIBRATED ({tp.part}; string × "
+                f"{tp.string_multiplier:.3f}, annulus × {tp.annulus_multiplier:.3f})",
+                kind="density",
+                value=e_cal,
+                limit=f_bit,
+                margin=m_cal,
+                required=req_f,
+                status=_status_margin(m_cal, req_f),
+            )
+        )
     rows.append(dict(name="static mud weight (ESD)", kind="density", value=scalar(res.esd_bit)))
     if "pwd" in ecd:
         pred, gauge, _ = ecd["pwd"]

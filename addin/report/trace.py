@@ -313,6 +313,28 @@ def _pwd(results, row):
     ]
 
 
+def _ecd_bit_calibrated(results, row):
+    """ECD at the bit of the two-part calibration (setup row ``two_part``), plus the cuttings
+    load's increment at the bit when the Summary shows loaded ECDs."""
+    name, kind = _hyd(results)
+    if results.loaded is not None:
+        res = results.circulation
+        value = (
+            "value",
+            "calc.cleaning.cuttings_ecd_increment",
+            f"well, cleaning.transport.loaded_density, {_num(res.density)}, {_num(res.bit_md)}",
+            "two_part.calibrated.ecd_bit + _",
+            name,
+            kind,
+            _eq("§9.3", "§10.14", "§23.3"),
+        )
+        e = float(results.two_part.calibrated.ecd_bit) + results.loaded.increment_bit
+    else:
+        value = ("value", "@two_part", "", "_.calibrated.ecd_bit", name, kind, _eq("§23.3"))
+        e = float(results.two_part.calibrated.ecd_bit)
+    return [value, *_bit_limit_rows(results, e)]
+
+
 def _hydrostatic(results, row):
     return [_circ(results, "value", "_.static_bhp", "§9.1")]
 
@@ -426,6 +448,8 @@ def _programme(results, row):
 TRACE: tuple[TraceEntry, ...] = (
     TraceEntry("standpipe pressure, predicted", _spp),
     TraceEntry("standpipe pressure, measured", _spp_measured),
+    TraceEntry("ECD at the bit, cuttings-loaded, CALIBRATED", _ecd_bit_calibrated),
+    TraceEntry("ECD at the bit, CALIBRATED", _ecd_bit_calibrated),
     TraceEntry("ECD at the bit, cuttings-loaded", _ecd_bit_loaded),
     TraceEntry("ECD at the bit", _ecd_bit),
     TraceEntry("ECD at the ", _ecd_shoe),
@@ -455,7 +479,7 @@ TRACE: tuple[TraceEntry, ...] = (
 #: return value").
 SETUP_NAMES = (
     "case", "well", "fluid", "margins", "circulation", "band", "cleaning", "loaded", "window",
-    "trips",
+    "trips", "two_part",
 )  # fmt: skip
 
 
@@ -542,7 +566,8 @@ def _setup(results) -> list[tuple[str, str, str]]:
                 f"well, fluid, numpy.linspace({_num(qs[0])}, {_num(qs[-1])}, {qs.size}), "
                 f"window=case.window, weak_points=case.weak_points, margins=margins, "
                 f"surface_rating={rating}, method={m.name!r}, rop={rop}, cuttings={cut}, "
-                f"rpm={rpm if results.cleaning is not None else None}",
+                f"rpm={rpm if results.cleaning is not None else None}"
+                + (", pumps=case.running_pumps(-1)" if getattr(results, "pumps", None) else ""),
             )
         )
     if results.surge is not None:
@@ -555,6 +580,25 @@ def _setup(results) -> list[tuple[str, str, str]]:
                 f"fracture_margin={_num(lim['trip_fracture_margin'])}, "
                 f"pore_margin={_num(lim['trip_pore_margin'])}, string_end={end!r}, "
                 f"method={m.name!r}{_trip_extras(results.surge)}",
+            )
+        )
+    tp = getattr(results, "two_part", None)
+    if tp is not None:
+        meas = "None" if tp.measured_spp is None else _num(tp.measured_spp)
+        inc = (
+            f"calc.cleaning.cuttings_ecd_increment(well, cleaning.transport.loaded_density, "
+            f"{_num(density)}, {_num(tp.gauge_md)})"
+            if results.cleaning is not None
+            else "0.0"
+        )
+        rows.append(
+            (
+                "two_part",
+                "calc.circulation.calibrate_two_part",
+                f"well, fluid, {_num(q)}, measured_spp={meas}, gauge_ecd={_num(tp.gauge_ecd)}, "
+                f"gauge_md={_num(tp.gauge_md)}, gauge_increment={inc}, method={m.name!r}, "
+                f"window=case.window, weak_points=case.weak_points, margins=margins, "
+                f"surface_rating={rating}",
             )
         )
     return rows

@@ -32,6 +32,7 @@ _FAMILY_TITLES = {
     "pressure": "Hydrostatic pressure, ESD and ECD",
     "cleaning": "Hole cleaning",
     "surge": "Surge, swab and trip speed",
+    "pumps": "Mud pumps (strokes and rate)",
 }
 
 _ENABLE = """\

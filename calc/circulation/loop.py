@@ -8,7 +8,7 @@ notes (:func:`_flow_notes`), assembly of the result (:func:`_assemble`) and the 
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 
@@ -59,6 +59,7 @@ def circulate(
     margins: Margins | None = None,
     surface_rating: float | None = None,
     margin_step: float = MARGIN_STEP,
+    annulus_multiplier: float | None = None,
 ) -> CirculationResult:
     """Pressure losses around the circulating system, ECD and margins, for one rate or a sweep.
 
@@ -108,6 +109,10 @@ def circulate(
         Surface-system pressure rating [Pa]; a note is given where the SPP exceeds it.
     margin_step : float
         Spacing of the margin check points from the last shoe to the bit [m].
+    annulus_multiplier : float, optional
+        Calibration factor on the annular friction alone, > 0 (then ``friction_multiplier``
+        scales the surface lines and the string only; :func:`calc.circulation.calibrate_two_part`).
+        None: ``friction_multiplier`` scales the annulus too.
 
     Returns
     -------
@@ -178,6 +183,11 @@ def circulate(
         fluid, q, method, eccentricity, back_pressure, friction_multiplier, hydrostatic,
         window, weak_points, margins, surface_rating, margin_step,
     )  # fmt: skip
+    if annulus_multiplier is not None:  # own multiplier on the annulus (two-part calibration)
+        am = check_positive("annulus friction multiplier", annulus_multiplier)
+        if am.size not in (1, int(np.prod(inp.shape))) or am.ndim > len(inp.shape):
+            raise InputError("annulus friction multiplier shape", am.shape, f"{inp.shape}")
+        inp = replace(inp, amult=np.broadcast_to(am, inp.shape).ravel())
     parts = wp.parts(well)
     lp = _loop_pass(well, fluid, parts, inp)
     notes: list[Note] = [*fluid.notes, *lp.notes]
@@ -208,6 +218,7 @@ class _Inputs:
     window: PressureWindow | None
     weak_points: tuple[WeakPoint, ...]
     surface_rating: float | None
+    amult: np.ndarray | None = None  # annulus multiplier (None: ``mult``)
 
 
 def _validate(
@@ -312,7 +323,8 @@ def _loop_pass(well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs) -> 
     aflow = wp.annulus(
         Q, parts.ann_hole[None, :], parts.ann_pipe[None, :], R, ann_args, method, inp.ecc, const
     )
-    a_losses = aflow.gradient * parts.ann_len[None, :] * M
+    MA = M if inp.amult is None else inp.amult[:, None]
+    a_losses = aflow.gradient * parts.ann_len[None, :] * MA
     spp = inp.pb + s_losses.sum(-1) + p_losses.sum(-1) + t_losses.sum(-1) + bit_loss
     spp = spp + a_losses.sum(-1)
     bit = wp.bit_hydraulics(well, inp.q, inp.rho, spp, const)
