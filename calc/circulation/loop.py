@@ -8,6 +8,7 @@ notes (:func:`_flow_notes`), assembly of the result (:func:`_assemble`) and the 
 
 from __future__ import annotations
 
+import dataclasses
 from dataclasses import dataclass
 
 import numpy as np
@@ -37,6 +38,8 @@ from calc.circulation.result import (
 from calc.circulation.well_parts import WellParts
 from calc.errors import InputError, check_choice, check_positive, check_range
 from calc.flow import FlowResult
+from calc.flow.minor_losses import check_joint_losses
+from calc.flow.rotation import check_rpm
 from calc.hydraulics_method import HydraulicsMethod
 from calc.notes import Note
 from calc.values import Value
@@ -59,6 +62,8 @@ def circulate(
     margins: Margins | None = None,
     surface_rating: float | None = None,
     margin_step: float = MARGIN_STEP,
+    rpm: float = 0.0,
+    joint_losses: str = "bore_friction",
 ) -> CirculationResult:
     """Pressure losses around the circulating system, ECD and margins, for one rate or a sweep.
 
@@ -91,7 +96,9 @@ def circulate(
         for the pipe, annulus and bit drops, calc/METHODS.md §7.9).  Fit the fluid with the same
         method (:func:`~calc.circulation.hydraulics_fluid`).
     eccentricity : float
-        Pipe offset in the annulus, e = 2δ/(D_hole − D_pipe), 0 ≤ e < 1.
+        Pipe offset in the annulus, e = 2δ/(D_hole − D_pipe), 0 ≤ e < 1; annulus rows around a
+        string component with a ``standoff`` take e = (1 − s)·sin θ instead
+        (:func:`calc.flow.eccentricity.eccentricity_from_standoff`, calc/METHODS.md §22).
     back_pressure : float
         Surface annular back-pressure [Pa], ≥ 0 (adds to SPP, circulating BHP and ECD only).
     friction_multiplier : float
@@ -108,6 +115,13 @@ def circulate(
         Surface-system pressure rating [Pa]; a note is given where the SPP exceeds it.
     margin_step : float
         Spacing of the margin check points from the last shoe to the bit [m].
+    rpm : float
+        String rotary speed [rpm], 0 ≤ rpm ≤ 600 (default 0: no rotation); the annular gradient
+        carries the laminar helical-flow factor of :func:`calc.flow.rotation.rotation_factor`.
+    joint_losses : {"bore_friction", "bore_change_k"}
+        Tool-joint losses in the string: bore friction only (default), or also a sharp
+        contraction and a Borda–Carnot expansion per joint
+        (:mod:`calc.flow.minor_losses`, calc/METHODS.md §22).
 
     Returns
     -------
@@ -178,6 +192,9 @@ def circulate(
         fluid, q, method, eccentricity, back_pressure, friction_multiplier, hydrostatic,
         window, weak_points, margins, surface_rating, margin_step,
     )  # fmt: skip
+    inp = dataclasses.replace(
+        inp, rpm=float(check_rpm(rpm)), joint_losses=check_joint_losses(joint_losses)
+    )
     parts = wp.parts(well)
     lp = _loop_pass(well, fluid, parts, inp)
     notes: list[Note] = [*fluid.notes, *lp.notes]
@@ -208,6 +225,8 @@ class _Inputs:
     window: PressureWindow | None
     weak_points: tuple[WeakPoint, ...]
     surface_rating: float | None
+    rpm: float = 0.0
+    joint_losses: str = "bore_friction"
 
 
 def _validate(
@@ -292,6 +311,7 @@ def _loop_pass(well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs) -> 
         sflow, s_losses = None, np.zeros((inp.q.size, 0))
     pflow = wp.pipe(Q, parts.string_d[None, :], R, pipe_args, method, const)
     p_losses = pflow.gradient * parts.string_len[None, :] * M
+    p_losses = p_losses + wp.joint_minor_losses(well, Q, R, inp.joint_losses) * M
     covered = tuple(well.tool_covered)
     if covered:
         skip = np.array([c in covered for c in parts.string_components])
@@ -309,9 +329,12 @@ def _loop_pass(well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs) -> 
     for tool in parts.tools:
         notes.extend(tool.rate_notes(inp.q))
     bit_loss = wp.bit_drop(well, inp.q, inp.rho, const)
+    ecc_rows = wp.annulus_eccentricity(well, inp.ecc)
+    ecc = inp.ecc if ecc_rows is None else ecc_rows[None, :]
     aflow = wp.annulus(
-        Q, parts.ann_hole[None, :], parts.ann_pipe[None, :], R, ann_args, method, inp.ecc, const
-    )
+        Q, parts.ann_hole[None, :], parts.ann_pipe[None, :], R, ann_args, method, ecc, const,
+        inp.rpm,
+    )  # fmt: skip
     a_losses = aflow.gradient * parts.ann_len[None, :] * M
     spp = inp.pb + s_losses.sum(-1) + p_losses.sum(-1) + t_losses.sum(-1) + bit_loss
     spp = spp + a_losses.sum(-1)
@@ -436,4 +459,7 @@ def _assemble(
             annulus_bottom=parts.ann_bottom,
         ),
         notes=notes,
+        rpm=inp.rpm,
+        joint_losses=inp.joint_losses,
+        annulus_eccentricity=wp.annulus_eccentricity(well, inp.ecc),
     )
