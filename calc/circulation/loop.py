@@ -199,6 +199,7 @@ def circulate(
     lp = _loop_pass(well, fluid, parts, inp)
     notes: list[Note] = [*fluid.notes, *lp.notes]
     notes.extend(_flow_notes(lp, parts, inp))
+    notes.extend(wp.loss_option_notes(inp.rpm, inp.joint_losses, lp.ecc_rows is not None))
     res = _assemble(well, fluid, parts, inp, lp, margins=None, notes=())
     table = None
     if inp.window is not None or inp.weak_points or parts.shoe_test is not None:
@@ -296,6 +297,7 @@ class _Pass:
     spp: np.ndarray
     bit: BitHydraulics
     notes: tuple[Note, ...]
+    ecc_rows: np.ndarray | None = None
 
 
 def _loop_pass(well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs) -> _Pass:
@@ -342,7 +344,7 @@ def _loop_pass(well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs) -> 
     notes.extend(bit.notes)
     return _Pass(
         sflow, s_losses, pflow, p_losses, covered, t_losses, bit_loss, aflow, a_losses, spp, bit,
-        tuple(notes),
+        tuple(notes), ecc_rows,
     )  # fmt: skip
 
 
@@ -461,5 +463,5 @@ def _assemble(
         notes=notes,
         rpm=inp.rpm,
         joint_losses=inp.joint_losses,
-        annulus_eccentricity=wp.annulus_eccentricity(well, inp.ecc),
+        annulus_eccentricity=lp.ecc_rows,
     )

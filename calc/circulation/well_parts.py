@@ -23,6 +23,7 @@ from calc.geometry import ToolPressureDrop, Well
 from calc.hydraulics_method import resolve_method
 from calc.notes import Note
 from calc.span import Span
+from calc.values import Value
 
 __all__ = [
     "REISSUED_FLOW_NOTES",
@@ -34,6 +35,7 @@ __all__ = [
     "check_method",
     "flow_notes",
     "joint_minor_losses",
+    "loss_option_notes",
     "method_constants",
     "method_label",
     "parts",
@@ -268,3 +270,49 @@ def joint_minor_losses(well: Well, Q, R, option: str) -> np.ndarray:
         small, large = min(c.tool_joint_id, c.id), max(c.tool_joint_id, c.id)
         out[:, j] = func(Q[:, 0], small, large, R[:, 0], joints)
     return out
+
+
+def loss_option_notes(rpm: float, joint_losses: str, eccentric_rows: bool) -> list[Note]:
+    """Info notes saying which of rotation, stand-off eccentricity and joint losses applied.
+
+    Examples
+    --------
+    >>> [n.code for n in loss_option_notes(140.0, "bore_friction", False)]
+    ['rotation_applied']
+    >>> loss_option_notes(0.0, "bore_friction", False)
+    []
+    """
+    notes = []
+    if rpm > 0:
+        notes.append(
+            Note(
+                "info",
+                "rotation_applied",
+                "annular friction includes string rotation at {rpm:.0f} rpm (laminar "
+                "helical-flow factor: it lowers the loss of a shear-thinning mud; eccentric "
+                "secondary flow and cuttings, which raise it, are not modelled)",
+                "annulus",
+                values=(Value("rpm", float(rpm)),),
+            )
+        )
+    if eccentric_rows:
+        notes.append(
+            Note(
+                "info",
+                "standoff_eccentricity",
+                "annulus eccentric where the string has a stand-off: e = (1 - stand-off) x "
+                "sin(inclination), Haciislamoglu-Langlinais factor",
+                "annulus",
+            )
+        )
+    if joint_losses != "bore_friction":
+        notes.append(
+            Note(
+                "info",
+                "joint_minor_losses",
+                "string loss includes a sharp contraction and a sudden expansion at every tool "
+                "joint (sharp-edged coefficients: an upper bound for tapered joint bores)",
+                "string",
+            )
+        )
+    return notes
