@@ -203,7 +203,7 @@ STRING_SCHEMA = {
     "joint_length": Field("length", guard="joint_length"),
     "tool_joint_length": Field("length", guard="tool_joint_length"),
     "float_valve": Field("bool"),
-    "standoff": Field("number", guard="fraction"),
+    "standoff": Field("number", guard="standoff"),
 }
 TOOL_PRESSURE_SCHEMA = {
     "name": Field("text"),
