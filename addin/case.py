@@ -51,6 +51,7 @@ from addin.workbook_input import read_blocks
 from calc.bit import DEFAULT_DISCHARGE_COEFFICIENT, Bit
 from calc.circulation import PressureWindow, WeakPoint
 from calc.errors import InputError
+from calc.flow.minor_losses import check_joint_losses
 from calc.geometry import (
     DrillString,
     Hole,
@@ -342,6 +343,23 @@ class Case:
             key = "case.constants" if exc.name == "constants" else "case.method"
             return self._build(key, resolve_method, name, constants=const)
 
+    def loss_options(self, index: int = -1, joint_losses=None) -> dict:
+        """The :func:`calc.circulation.circulate` keywords ``rpm`` and ``joint_losses``.
+
+        ``rpm``: check ``index``'s ``rpm`` unless ``[case].rotation = false`` (0 then, and
+        without an rpm); ``joint_losses``: the argument (the command line's
+        ``--joint-losses``), else ``[case].joint_losses``, else ``"bore_friction"``.  An unknown
+        option is an InputError naming the file and key (calc/METHODS.md §22).
+        """
+        rotation = bool(self.header.get("rotation", True))
+        rpm = self.checks[index].values.get("rpm") if (rotation and self.checks) else None
+        option = joint_losses or self.header.get("joint_losses") or "bore_friction"
+        if joint_losses is None and "joint_losses" in self.header:
+            option = self._build("case.joint_losses", check_joint_losses, str(option).strip())
+        else:
+            option = check_joint_losses(option)
+        return dict(rpm=float(rpm or 0.0), joint_losses=option)
+
     def _need(self, name: str):
         if name not in self.sections:
             brackets = f"[[{name}]]" if SECTIONS[name][0] else f"[{name}]"
@@ -431,6 +449,7 @@ class Case:
                     joint_length=c.get("joint_length"),
                     tool_joint_length=c.get("tool_joint_length"),
                     float_valve=bool(c.get("float_valve", False)),
+                    standoff=c.get("standoff"),
                 )
             )
         return self._build("string", DrillString, tuple(comps))
@@ -732,6 +751,8 @@ def _parse_case(data: Mapping, source: str) -> Case:
     )
     if "method" in header or "constants" in header:
         case.hydraulics_method()  # an unknown method or constant set fails at load, named
+    if "joint_losses" in header:
+        case.loss_options()  # an unknown tool-joint option fails at load, named
     return case
 
 

@@ -58,6 +58,8 @@ CASE_SCHEMA = {
     "units": Field("text"),
     "method": Field("text"),
     "constants": Field("text"),
+    "rotation": Field("bool"),
+    "joint_losses": Field("text"),
 }
 
 VISCOMETER_SCHEMA = {
@@ -204,6 +206,7 @@ STRING_SCHEMA = {
     "joint_length": Field("length", guard="joint_length"),
     "tool_joint_length": Field("length", guard="tool_joint_length"),
     "float_valve": Field("bool"),
+    "standoff": Field("number", guard="standoff"),
 }
 TOOL_PRESSURE_SCHEMA = {
     "name": Field("text"),

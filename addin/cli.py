@@ -74,6 +74,7 @@ from addin.commands.exit_codes import (
 )
 from addin.commands.output import SanitisingStream, error_text
 from calc.errors import InputError
+from calc.flow.minor_losses import JOINT_LOSS_OPTIONS
 from calc.hydraulics_method import CONSTANT_SETS, DEFAULT_METHOD, HYDRAULICS_METHODS
 from calc.units import UNIT_SYSTEMS, from_si, label, to_si, unit_for
 
@@ -134,6 +135,18 @@ def _add_rheology(sub) -> None:
     p.set_defaults(func=rheology_cmd.run)
 
 
+def _add_joint_losses(p) -> None:
+    """``--joint-losses``: the tool-joint loss option (calc/METHODS.md §22)."""
+    p.add_argument(
+        "--joint-losses",
+        choices=JOINT_LOSS_OPTIONS,
+        default=None,
+        help="tool-joint losses in the string: bore_friction (friction of the joint bore "
+        "only; the default) or bore_change_k (also a sharp contraction and a Borda-Carnot "
+        "expansion at every joint); overrides [case].joint_losses",
+    )
+
+
 def _add_constants(p) -> None:
     """``--constants``: the field-constant set of the hydraulics method (calc/METHODS.md §7.9)."""
     p.add_argument(
@@ -175,6 +188,7 @@ def _add_report(sub) -> None:
     )
     _method_option(p)
     _add_constants(p)
+    _add_joint_losses(p)
     _add_allow_unusual(p)
     p.set_defaults(func=report_cmd.run)
 
@@ -239,6 +253,7 @@ def _add_calc(sub) -> None:
     )
     _method_option(k)
     _add_constants(k)
+    _add_joint_losses(k)
     _units_option(k, default=None, dest="units_given", what="the output")
     k.add_argument("--json", action="store_true", help="JSON output")
     _add_allow_unusual(k)

@@ -145,6 +145,8 @@ LABELS: dict[str, dict[str, str]] = {
         "units": "unit system (oilfield, metric or si)",
         "method": "hydraulics method (blank: api13d_2010_hb)",
         "constants": "field constants (exact, or as_printed for api13d_1995_power_law)",
+        "rotation": "apply string rotation to annular loss (true/false; blank: true)",
+        "joint_losses": "tool-joint losses (bore_friction or bore_change_k; blank: bore_friction)",
     },
     "limits": {
         "fracture_margin": "ECD margin below fracture",
@@ -214,6 +216,7 @@ LABELS: dict[str, dict[str, str]] = {
         "joint_length": "joint length",
         "tool_joint_length": "tool-joint length",
         "float_valve": "float valve (true/false)",
+        "standoff": "stand-off ratio 0-1 (1 centred, 0 on the wall; blank: concentric)",
     },
     "tool_pressure": {
         "name": "tools (description)",

@@ -74,6 +74,7 @@ pv                  0 – 500 cP                   1 – 80 cP                  
 yp                  0 – 500 lbf/100ft²           0 – 80 lbf/100ft²          common practice
 sphericity          > 0 – 1                      0.3 – 1                    definition (≤ 1)
 fraction            0 – 1                        0 – 0.2                    definition
+standoff            0 – 1                        0 – 1                      definition
 inclination         0 – 180 °                    0 – 100 °                  definition
 azimuth             −360 – 360 °                 0 – 360 °                  definition
 spp_result          0 – 40,000 psi (a result)    —                          above the highest
@@ -173,6 +174,7 @@ RANGES: dict[str, Plausibility] = {
         _r("yp", "stress", "lbf_per_100ft_sq", (0.0, 500.0), (0.0, 80.0)),
         _r("sphericity", "number", None, (0.0, 1.0), (0.3, 1.0), "definition", low_open=True),
         _r("fraction", "number", None, (0.0, 1.0), (0.0, 0.2), "definition"),
+        _r("standoff", "number", None, (0.0, 1.0), (0.0, 1.0), "definition"),
         _r("inclination", "number", None, (0.0, 180.0), (0.0, 100.0), "definition"),
         _r("azimuth", "number", None, (-360.0, 360.0), (0.0, 360.0), "definition"),
         # results (not inputs): a predicted standpipe pressure beyond every rating

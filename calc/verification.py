@@ -26,6 +26,8 @@ from calc.cleaning.bed import BED_METHODS
 from calc.cleaning.deviated import DEVIATED_METHODS
 from calc.cleaning.slip import SLIP_METHODS
 from calc.flow import FRICTION_LAWS
+from calc.flow.minor_losses import JOINT_LOSS_METHODS
+from calc.flow.rotation import ROTATION_METHODS
 from calc.hydraulics_method import DEFAULT_METHOD, HYDRAULICS_METHODS, resolve_method
 from calc.notes import Note
 from calc.registry import MethodRegistry, Verification
@@ -45,6 +47,8 @@ REGISTRIES: tuple[MethodRegistry, ...] = (
     DEVIATED_METHODS,
     OPTIMISATION_CRITERIA,
     BED_METHODS,
+    ROTATION_METHODS,
+    JOINT_LOSS_METHODS,
 )
 
 V = Verification

@@ -182,6 +182,7 @@ VALID = {
     "limit_emw": 12.4,
     "gel_strength": 12.0,
     "inclination": 70.0,  # a high-angle interval (cuttings-bed functions)
+    "standoff": 0.5,  # stand-off ratio 0-1 (BF_ECC_STANDOFF)
     "dial_resolution": None,
     "balance_resolution": None,
     "rate_uncertainty": None,

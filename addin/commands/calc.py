@@ -187,6 +187,7 @@ def run(args) -> int:
             weak_points=case.weak_points,
             margins=Margins(lim["fracture_margin"], lim["pore_margin"]),
             surface_rating=lim["surface_rating"],
+            **case.loss_options(-1, getattr(args, "joint_losses", None)),
         )
         d = {"flow rate": (scalar(res.q), "flow_rate")}
         d.update(

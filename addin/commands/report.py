@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import dataclasses
 import sys
 import time
 from pathlib import Path
@@ -32,7 +33,10 @@ def output_path(value: str, option: str = "--output") -> Path:
     return Path(value)
 
 
-def run_one(case_path, out_path, *, force=False, method=None, constants=None, allow_unusual=False):
+def run_one(
+    case_path, out_path, *, force=False, method=None, constants=None, allow_unusual=False,
+    joint_losses=None,
+):  # fmt: skip
     """Load, compute and write one report; returns (results, seconds).
 
     ``method``/``constants`` override the case's ``[case].method``/``[case].constants``; a
@@ -44,6 +48,8 @@ def run_one(case_path, out_path, *, force=False, method=None, constants=None, al
     if not out.parent.is_dir():
         raise FileNotFoundError(f"{out.parent}: output folder does not exist")
     case = accept_unusual(load_case(case_path), allow_unusual, _warn)
+    if joint_losses is not None:  # --joint-losses overrides [case].joint_losses
+        case = dataclasses.replace(case, header={**case.header, "joint_losses": joint_losses})
     results = compute(case, method=case.hydraulics_method(method, constants))
     write_report(results, out, overwrite=force)
     return results, time.perf_counter() - t0
@@ -67,6 +73,7 @@ def run(args) -> int:
         method=args.method,
         constants=args.constants,
         allow_unusual=getattr(args, "allow_unusual", False),
+        joint_losses=getattr(args, "joint_losses", None),
     )
     if args.json:
         print(json_text(results_data(results)))

@@ -331,6 +331,7 @@ def compute(
         weak_points=case.weak_points,
         margins=_circulate_options(case)["margins"],
         **band_inputs(case, density),
+        **case.loss_options(),
     )
     notes.extend(band.notes)
     cleaning = _cleaning(case, well, fluid, q)
@@ -512,13 +513,14 @@ def band_inputs(case, density: float) -> dict:
     return kw
 
 
-def _circulate_options(case) -> dict:
+def _circulate_options(case, index: int = -1) -> dict:
     lim = case.limits
     return dict(
         window=case.window,
         weak_points=case.weak_points,
         margins=Margins(fracture=lim["fracture_margin"], pore=lim["pore_margin"]),
         surface_rating=lim["surface_rating"],
+        **case.loss_options(index),
     )
 
 
@@ -536,7 +538,7 @@ def _check_hydraulics(case, index, chk, method, latest=None) -> CheckHydraulics:
         return CheckHydraulics(chk.label, values.get("bit_depth"), values.get("density"),
                                values.get("flow_rate"), pv, yp, None, missing=missing)  # fmt: skip
     depth, rho, q = values["bit_depth"], values["density"], values["flow_rate"]
-    opts = _circulate_options(case)
+    opts = _circulate_options(case, index)
     if latest is None:
         well = case.well(index)
         fluid = report_fluid(r, rho, method, chk.label)

@@ -39,11 +39,11 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
         ws,
         row,
         f"Check {case.checks[-1].label}. Method: {method_line(results)}; fluid: "
-        f"{res.fluid_label}; hydrostatic convention: {res.hydrostatic}; eccentricity "
-        f"{res.eccentricity:g}; friction multiplier "
-        f"{float(np.asarray(res.friction_multiplier)):g} (uncalibrated).",
+        f"{res.fluid_label}; hydrostatic convention: {res.hydrostatic}; "
+        f"{_eccentricity_text(res)}; {_rotation_text(res)}; {_joint_text(res)}; friction "
+        f"multiplier {float(np.asarray(res.friction_multiplier)):g} (uncalibrated).",
         span=15,
-        height=24,
+        height=36,
     )
     row += 2
     q_ref = input_row(ws, row, "flow rate", _o(res.q, "flow_rate", system), "flow_rate", system)
@@ -76,6 +76,39 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
     ws.freeze_panes = None
     setup_print(ws, title)
     return refs
+
+
+def _eccentricity_text(res) -> str:
+    if res.annulus_eccentricity is not None:
+        return (
+            "eccentricity per annular interval from the string's stand-off and the "
+            "inclination (column 'ecc. e')"
+        )
+    return f"eccentricity {res.eccentricity:g}"
+
+
+def _rotation_text(res) -> str:
+    if res.rpm:
+        return (
+            f"string rotation {res.rpm:g} rpm applied to annular friction (laminar helical-flow "
+            "factor, column 'rotation factor'; it lowers the loss of a shear-thinning mud, "
+            "while field data often show rotation raising it in an eccentric hole)"
+        )
+    return "no string rotation applied"
+
+
+def _joint_text(res) -> str:
+    if res.joint_losses == "bore_change_k":
+        return (
+            "tool joints: bore friction plus a contraction and an expansion loss per joint "
+            "(in the joint rows' loss, not in their gradient)"
+        )
+    return "tool joints: bore friction only"
+
+
+def _applied_columns(res) -> tuple[bool, bool]:
+    """(eccentricity column, rotation column) shown."""
+    return (res.annulus_eccentricity is not None or res.eccentricity > 0), bool(res.rpm)
 
 
 def _breakdown_block(ws, row, results, system):
@@ -198,7 +231,15 @@ def _interval_table(ws, row, results, factors, system, q_ref):
     units = ["", "", du, du, lu, dd, dd, U("velocity", system), "formula", "", "", "–", "–",
              U("pressure_gradient", system), U("pressure", system)]  # fmt: skip
     head_row = row
-    row = table_header(ws, row, 1, list(_INTERVAL_HEADS), units)
+    heads = list(_INTERVAL_HEADS)
+    show_e, show_r = _applied_columns(res)
+    if show_e:
+        heads.append("ecc. e")
+        units.append("–")
+    if show_r:
+        heads.append("rotation factor")
+        units.append("–")
+    row = table_header(ws, row, 1, heads, units)
     ws.print_title_rows = f"{head_row}:{head_row + 1}"
     iv = results.well.flow_intervals()
     groups = [
@@ -259,6 +300,17 @@ def _interval_row(ws, row, results, factors, system, q_ref, path, rows, group, i
         number_format("pressure_gradient", system),
     )
     put_number(ws, row, 15, _o(at(group.losses), "pressure", system), "#,##0.0")
+    res = results.circulation
+    show_e, show_r = _applied_columns(res)
+    col = 16
+    if show_e:
+        if path == "annulus":
+            per_row = res.annulus_eccentricity
+            e = res.eccentricity if per_row is None else per_row[i]
+            put_number(ws, row, col, float(e), "0.000")
+        col += 1
+    if show_r and path == "annulus":
+        put_number(ws, row, col, at(flow.rotation_factor), "0.000")
     return vel
 
 

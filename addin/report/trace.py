@@ -186,6 +186,14 @@ def _hyd_eq(results, *more: str) -> str:
     return _eq(*more, METHOD_SECTIONS.get(resolve_method(results.method).name, "§7"))
 
 
+def _loss_extras(circ) -> str:
+    """``, rpm=…, joint_losses=…`` of a circulation run where they are not the defaults."""
+    out = f", rpm={_num(circ.rpm)}" if circ.rpm else ""
+    if circ.joint_losses != "bore_friction":
+        out += f", joint_losses={circ.joint_losses!r}"
+    return out
+
+
 def _margins_index(results, role: str) -> int | None:
     mt = results.circulation.margins
     return None if mt is None else mt.index(role)
@@ -513,7 +521,8 @@ def _setup(results) -> list[tuple[str, str, str]]:
             "circulation",
             "calc.circulation.circulate",
             f"well, fluid, {_num(q)}, method={m.name!r}, window=case.window, "
-            f"weak_points=case.weak_points, margins=margins, surface_rating={rating}",
+            f"weak_points=case.weak_points, margins=margins, surface_rating={rating}"
+            + _loss_extras(results.circulation),
         )
     )
     band = getattr(results, "band", None)
@@ -526,7 +535,8 @@ def _setup(results) -> list[tuple[str, str, str]]:
                 f"method={m.name!r}, window=case.window, weak_points=case.weak_points, "
                 f"margins=margins, dial_resolution={_num(band.dial_resolution)}, "
                 f"balance_resolution={_num(band.balance_resolution)}, "
-                f"rate_uncertainty={_num(band.rate_uncertainty)}",
+                f"rate_uncertainty={_num(band.rate_uncertainty)}"
+                + _loss_extras(results.circulation),
             )
         )
     if results.cleaning is not None:

@@ -27,6 +27,8 @@ from addin.sheets.fn_rheology import viscometer
 from addin.sheets.framework import Cells, Num, Text, sheet_function
 from calc import circulation as cc
 from calc import flow as cf
+from calc.errors import check_range
+from calc.flow.eccentricity import eccentricity_from_standoff
 from calc.hydraulics_method import HYDRAULICS_METHODS, resolve_method
 
 __all__ = [
@@ -34,9 +36,11 @@ __all__ = [
     "BF_ANN_GRAD",
     "BF_ANN_LOSS",
     "BF_CRIT_RATE",
+    "BF_ECC_STANDOFF",
     "BF_PIPE_FLOW",
     "BF_PIPE_GRAD",
     "BF_PIPE_LOSS",
+    "BF_ROT_FACTOR",
 ]
 
 FAMILY = "flow"
@@ -245,3 +249,54 @@ def BF_ANN_FLOW(
     cells.number(q, "flow rate", "flow_rate", uset)  # one rate for a table
     res = _annulus(density, readings, d_hole, d_pipe, q, method, eccentricity, uset)
     return _flow_table(res, uset)
+
+
+@sheet_function(FAMILY)
+def BF_ROT_FACTOR(
+    density: Num(_DENSITY),
+    readings: Cells(_READINGS),
+    d_hole: Num(_D_HOLE),
+    d_pipe: Num(_D_PIPE),
+    q: Cells(_RATE),
+    rpm: Num("String rotary speed (rpm), 0 to 600"),
+    method: Text(_METHOD) = None,
+    units: Cells(_UNITS) = None,
+) -> Any:
+    """Rotation factor on the annular friction gradient (rotating / not rotating, –).
+
+    The laminar helical-flow factor of a power-law fluid in the annular gap, from the
+    annulus fit's n and the ratio of the string's surface speed to the mean velocity; 1 for
+    Newtonian and Bingham fluids and in turbulent flow.
+
+    >>> round(BF_ROT_FACTOR(11, [[600, 56], [300, 37], [200, 29], [100, 20], [6, 8], [3, 7]],
+    ...                     8.5, 5.0, 300, 140), 3)
+    0.99
+    """
+    uset = cells.unit_set(units)
+    fluid, kw = hydraulics_fluid(density, readings, method, uset)
+    d2, d1 = annulus(d_hole, d_pipe, uset)
+    n_rpm = cells.number(rpm, "rpm")
+    tau_y, k, n = fluid.annulus_parameters
+    res = cf.annulus_flow(
+        cells.flow_rates(q, uset), d2, d1, density=fluid.density, tau_y=tau_y, k=k, n=n,
+        rpm=n_rpm, **kw,
+    )  # fmt: skip
+    return res.rotation_factor
+
+
+@sheet_function(FAMILY)
+def BF_ECC_STANDOFF(
+    standoff: Num("Stand-off ratio 0 (on the wall) to 1 (centred)"),
+    inclination: Num("Hole inclination (degrees from vertical), 0 to 180"),
+) -> Any:
+    """Eccentricity of a string held off the low side by its stand-off, (1 − s)·sin θ (–).
+
+    Capped at 0.95, the upper end of the eccentricity correction's range.
+
+    >>> round(BF_ECC_STANDOFF(0.5, 60), 3)
+    0.433
+    """
+    s = cells.number(standoff, "stand-off")
+    inc = float(check_range("inclination", cells.number(inclination, "inclination"), 0.0, 180.0,
+                            "degree"))  # fmt: skip
+    return float(eccentricity_from_standoff(s, np.radians(inc)))

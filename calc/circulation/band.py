@@ -419,6 +419,8 @@ def ecd_band(
     balance_resolution: float = BALANCE_RESOLUTION,
     rate_uncertainty: float = RATE_UNCERTAINTY,
     spread_methods=SPREAD_METHODS,
+    rpm: float = 0.0,
+    joint_losses: str = "bore_friction",
 ) -> EcdBand:
     """Band on ECD (bit, last shoe, tightest point) and SPP from the input resolutions.
 
@@ -448,6 +450,8 @@ def ecd_band(
         Hydraulics method of the nominal values (None: the default).
     window, weak_points, margins, eccentricity, back_pressure, friction_multiplier, hydrostatic
         As for :func:`~calc.circulation.circulate` (they set the shoe and the tightest point).
+    rpm, joint_losses
+        As for :func:`~calc.circulation.circulate` (string rotation, tool-joint losses).
     dial_resolution : float
         Half-width of each dial reading [degree], ≥ 0 (default :data:`DIAL_RESOLUTION`).
     balance_resolution : float
@@ -513,6 +517,8 @@ def ecd_band(
         back_pressure=back_pressure,
         friction_multiplier=friction_multiplier,
         hydrostatic=hydrostatic,
+        rpm=rpm,
+        joint_losses=joint_losses,
     )
     nominal = circulate(
         well,

@@ -37,6 +37,8 @@ from calc.circulation.result import (
 from calc.circulation.well_parts import WellParts
 from calc.errors import InputError, check_choice, check_positive, check_range
 from calc.flow import FlowResult
+from calc.flow.minor_losses import check_joint_losses
+from calc.flow.rotation import check_rpm
 from calc.hydraulics_method import HydraulicsMethod
 from calc.notes import Note
 from calc.values import Value
@@ -60,6 +62,8 @@ def circulate(
     surface_rating: float | None = None,
     margin_step: float = MARGIN_STEP,
     annulus_multiplier: float | None = None,
+    rpm: float = 0.0,
+    joint_losses: str = "bore_friction",
 ) -> CirculationResult:
     """Pressure losses around the circulating system, ECD and margins, for one rate or a sweep.
 
@@ -92,7 +96,9 @@ def circulate(
         for the pipe, annulus and bit drops, calc/METHODS.md §7.9).  Fit the fluid with the same
         method (:func:`~calc.circulation.hydraulics_fluid`).
     eccentricity : float
-        Pipe offset in the annulus, e = 2δ/(D_hole − D_pipe), 0 ≤ e < 1.
+        Pipe offset in the annulus, e = 2δ/(D_hole − D_pipe), 0 ≤ e < 1; annulus rows around a
+        string component with a ``standoff`` take e = (1 − s)·sin θ instead
+        (:func:`calc.flow.eccentricity.eccentricity_from_standoff`, calc/METHODS.md §22).
     back_pressure : float
         Surface annular back-pressure [Pa], ≥ 0 (adds to SPP, circulating BHP and ECD only).
     friction_multiplier : float
@@ -113,6 +119,13 @@ def circulate(
         Calibration factor on the annular friction alone, > 0 (then ``friction_multiplier``
         scales the surface lines and the string only; :func:`calc.circulation.calibrate_two_part`).
         None: ``friction_multiplier`` scales the annulus too.
+    rpm : float
+        String rotary speed [rpm], 0 ≤ rpm ≤ 600 (default 0: no rotation); the annular gradient
+        carries the laminar helical-flow factor of :func:`calc.flow.rotation.rotation_factor`.
+    joint_losses : {"bore_friction", "bore_change_k"}
+        Tool-joint losses in the string: bore friction only (default), or also a sharp
+        contraction and a Borda–Carnot expansion per joint
+        (:mod:`calc.flow.minor_losses`, calc/METHODS.md §22).
 
     Returns
     -------
@@ -188,10 +201,14 @@ def circulate(
         if am.size not in (1, int(np.prod(inp.shape))) or am.ndim > len(inp.shape):
             raise InputError("annulus friction multiplier shape", am.shape, f"{inp.shape}")
         inp = replace(inp, amult=np.broadcast_to(am, inp.shape).ravel())
+    inp = replace(
+        inp, rpm=float(check_rpm(rpm)), joint_losses=check_joint_losses(joint_losses)
+    )
     parts = wp.parts(well)
     lp = _loop_pass(well, fluid, parts, inp)
     notes: list[Note] = [*fluid.notes, *lp.notes]
     notes.extend(_flow_notes(lp, parts, inp))
+    notes.extend(wp.loss_option_notes(inp.rpm, inp.joint_losses, lp.ecc_rows is not None))
     res = _assemble(well, fluid, parts, inp, lp, margins=None, notes=())
     table = None
     if inp.window is not None or inp.weak_points or parts.shoe_test is not None:
@@ -219,6 +236,8 @@ class _Inputs:
     weak_points: tuple[WeakPoint, ...]
     surface_rating: float | None
     amult: np.ndarray | None = None  # annulus multiplier (None: ``mult``)
+    rpm: float = 0.0
+    joint_losses: str = "bore_friction"
 
 
 def _validate(
@@ -288,6 +307,7 @@ class _Pass:
     spp: np.ndarray
     bit: BitHydraulics
     notes: tuple[Note, ...]
+    ecc_rows: np.ndarray | None = None
 
 
 def _loop_pass(well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs) -> _Pass:
@@ -303,6 +323,7 @@ def _loop_pass(well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs) -> 
         sflow, s_losses = None, np.zeros((inp.q.size, 0))
     pflow = wp.pipe(Q, parts.string_d[None, :], R, pipe_args, method, const)
     p_losses = pflow.gradient * parts.string_len[None, :] * M
+    p_losses = p_losses + wp.joint_minor_losses(well, Q, R, inp.joint_losses) * M
     covered = tuple(well.tool_covered)
     if covered:
         skip = np.array([c in covered for c in parts.string_components])
@@ -320,9 +341,12 @@ def _loop_pass(well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs) -> 
     for tool in parts.tools:
         notes.extend(tool.rate_notes(inp.q))
     bit_loss = wp.bit_drop(well, inp.q, inp.rho, const)
+    ecc_rows = wp.annulus_eccentricity(well, inp.ecc)
+    ecc = inp.ecc if ecc_rows is None else ecc_rows[None, :]
     aflow = wp.annulus(
-        Q, parts.ann_hole[None, :], parts.ann_pipe[None, :], R, ann_args, method, inp.ecc, const
-    )
+        Q, parts.ann_hole[None, :], parts.ann_pipe[None, :], R, ann_args, method, ecc, const,
+        inp.rpm,
+    )  # fmt: skip
     MA = M if inp.amult is None else inp.amult[:, None]
     a_losses = aflow.gradient * parts.ann_len[None, :] * MA
     spp = inp.pb + s_losses.sum(-1) + p_losses.sum(-1) + t_losses.sum(-1) + bit_loss
@@ -331,7 +355,7 @@ def _loop_pass(well, fluid: HydraulicsFluid, parts: WellParts, inp: _Inputs) -> 
     notes.extend(bit.notes)
     return _Pass(
         sflow, s_losses, pflow, p_losses, covered, t_losses, bit_loss, aflow, a_losses, spp, bit,
-        tuple(notes),
+        tuple(notes), ecc_rows,
     )  # fmt: skip
 
 
@@ -448,4 +472,7 @@ def _assemble(
             annulus_bottom=parts.ann_bottom,
         ),
         notes=notes,
+        rpm=inp.rpm,
+        joint_losses=inp.joint_losses,
+        annulus_eccentricity=lp.ecc_rows,
     )

@@ -172,6 +172,13 @@ class CirculationResult:
     context : LoopContext
         Well, window, weak points and annulus row depths (for :meth:`ecd_at`, :meth:`profile`).
     notes : tuple of Note
+    rpm : float
+        String rotary speed used for the annular rotation factor [rpm] (0: none).
+    joint_losses : str
+        Tool-joint loss option (:data:`calc.flow.minor_losses.JOINT_LOSS_OPTIONS`).
+    annulus_eccentricity : ndarray or None
+        Eccentricity per annulus row [-] where stand-offs set it (None: ``eccentricity``
+        everywhere).
     """
 
     method: str
@@ -198,6 +205,9 @@ class CirculationResult:
     margins: MarginTable | None
     context: LoopContext
     notes: tuple[Note, ...]
+    rpm: float = 0.0
+    joint_losses: str = "bore_friction"
+    annulus_eccentricity: np.ndarray | None = None
 
     # ------------------------------------------------------------------ derived quantities
     @property

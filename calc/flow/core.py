@@ -30,6 +30,8 @@ from calc.flow.result import (
     MethodState,
     count_note,
 )
+from calc.flow.rotation import VALIDITY as ROTATION_VALIDITY
+from calc.flow.rotation import check_rpm, outside_validity, rotation_factor
 from calc.flow.solvers import solve_positive
 from calc.registry import MethodInfo
 from calc.values import Value
@@ -269,7 +271,31 @@ def _regime_notes(method: str, spec: FlowMethod, case: FlowCase, st: MethodState
     return notes
 
 
-def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
+def _rotation(case: FlowCase, st: MethodState, rpm):
+    """Rotation factor per element (ones without rotation) and its validity note."""
+    if rpm is None or not np.any(rpm > 0):
+        return np.ones_like(case.q), []
+    factor = rotation_factor(rpm, case.d_outer, case.d_inner, case.velocity, case.n,
+                             _turbulent_weight(st))  # fmt: skip
+    lo, hi = ROTATION_VALIDITY["n"]
+    note = count_note(
+        outside_validity(rpm, case.d_outer, case.d_inner, case.velocity, case.n),
+        "warning",
+        "rotation_outside_validity",
+        "rotation factor (laminar helical flow) used outside its range {n_min} <= n <= "
+        "{n_max}, D1/D2 >= {ratio_min}, string surface speed <= {speed_max} x mean velocity",
+        "annulus",
+        values=(
+            Value("n_min", lo),
+            Value("n_max", hi),
+            Value("ratio_min", ROTATION_VALIDITY["diameter_ratio"][0]),
+            Value("speed_max", ROTATION_VALIDITY["speed_ratio"][1]),
+        ),
+    )
+    return factor, [note]
+
+
+def _evaluate(method: str, case: FlowCase, shape, critical, rpm=None) -> FlowResult:
     spec: FlowMethod = FRICTION_LAWS.get(method).func
     _check_constants(method, spec, case.constants)
     spec.check(case)
@@ -282,9 +308,11 @@ def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
         st = spec.evaluate(case)
     v = case.velocity
     ecc, ecc_notes = _eccentricity(method, case, st)
+    rot, rot_notes = _rotation(case, st, rpm)
     gradient = 2.0 * st.friction_factor * case.density * v**2 / case.d_h * ecc * st.gradient_scale
+    gradient = gradient * rot
     v_c = _critical_velocity(spec, critical, limit)
-    notes = [*st.notes, *ecc_notes, *_regime_notes(method, spec, case, st, v_c)]
+    notes = [*st.notes, *ecc_notes, *rot_notes, *_regime_notes(method, spec, case, st, v_c)]
     o = lambda x: _shape_out(x, shape)  # noqa: E731
     return FlowResult(
         method=method,
@@ -305,6 +333,7 @@ def _evaluate(method: str, case: FlowCase, shape, critical) -> FlowResult:
         critical_flow_rate=o(v_c * case.area),
         eccentricity_factor=o(ecc),
         notes=tuple(x for x in notes if x is not None),
+        rotation_factor=o(rot),
     )
 
 
@@ -402,11 +431,13 @@ def annulus_flow(
     eccentricity=0.0,
     roughness=0.0,
     constants="exact",
+    rpm=0.0,
 ) -> FlowResult:
     """Frictional pressure gradient for flow in the annulus between a hole and a pipe.
 
     .. math::
-        -\\frac{dp}{dL} = R_{ecc}\\frac{2fρV^2}{D_2 - D_1}, \\qquad V = \\frac{4Q}{π(D_2^2 - D_1^2)}
+        -\\frac{dp}{dL} = R_{rot}R_{ecc}\\frac{2fρV^2}{D_2 - D_1},
+        \\qquad V = \\frac{4Q}{π(D_2^2 - D_1^2)}
 
     Parameters
     ----------
@@ -422,6 +453,10 @@ def annulus_flow(
         e = 2δ/(D2 - D1) [-], 0 ≤ e < 1 (δ the offset of the pipe centre); corrected by
         Haciislamoglu & Langlinais (1990), laminar and turbulent forms blended across the
         transitional band (:func:`calc.flow.eccentricity.eccentricity_factor`).
+    rpm : array_like
+        String rotary speed [rpm], 0 ≤ rpm ≤ 600 (default 0: no rotation); the laminar
+        helical-flow factor R_rot of :func:`calc.flow.rotation.rotation_factor` (faded out
+        across the transitional band) multiplies the gradient.
 
     Returns
     -------
@@ -457,7 +492,12 @@ def annulus_flow(
     case, shape, critical = _build_case(
         "annulus", q, d_hole, d_pipe, density, tau_y, k, n, roughness, eccentricity, constants
     )
-    return _evaluate(method, case, shape, critical)
+    rpm_v = check_rpm(rpm)
+    try:
+        rpm_flat = np.broadcast_to(rpm_v, shape).ravel().astype(float) if shape else rpm_v.ravel()
+    except ValueError as exc:
+        raise InputError("rpm shape", rpm_v.shape, f"broadcastable to {shape}") from exc
+    return _evaluate(method, case, shape, critical, rpm_flat)
 
 
 def critical_flow_rate(

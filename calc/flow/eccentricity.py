@@ -16,11 +16,14 @@ from __future__ import annotations
 
 import numpy as np
 
+from calc.errors import check_range
+
 __all__ = [
     "VALIDITY",
     "eccentricity_factor",
     "eccentricity_factor_laminar",
     "eccentricity_factor_turbulent",
+    "eccentricity_from_standoff",
 ]
 
 #: Validity ranges of the correlation (from memory, not yet checked against the
@@ -120,3 +123,46 @@ def eccentricity_factor(e, diameter_ratio, n, turbulent_weight):
     r_turb = eccentricity_factor_turbulent(e, diameter_ratio, n)
     w = np.asarray(turbulent_weight, dtype=float)
     return r_lam + w * (r_turb - r_lam)
+
+
+def eccentricity_from_standoff(standoff, inclination):
+    """Eccentricity of a string held off the low side by its stand-off, e = (1 - s)·sin θ [-].
+
+    .. math:: e = (1 - s)\\,\\sin θ, \\qquad s = \\frac{c_{low}}{c}, \\quad c = (D_2 - D_1)/2
+
+    The stand-off s is the gap left on the low side as a share of the concentric gap (1:
+    centred, 0: lying on the wall; the trade's "stand-off ratio" of centralised strings).  In
+    a horizontal hole the string lies on the low side at that stand-off (e = 1 - s); in a
+    vertical hole it is taken as centred on average (e = 0); between, the sin θ weight follows
+    the share of the string's weight pressing it to the low side.  The sin θ interpolation is
+    our stated model, not a published correlation.
+
+    Parameters
+    ----------
+    standoff : array_like
+        Stand-off ratio s [-], 0 ≤ s ≤ 1.
+    inclination : array_like
+        Hole inclination θ [rad], 0 ≤ θ ≤ π (measured from vertical).
+
+    Returns
+    -------
+    numpy.ndarray
+        e [-], 0 ≤ e ≤ 1; capped at 0.95 (the upper end of the Haciislamoglu & Langlinais
+        range) so the eccentricity factor stays within the correlation.
+
+    Examples
+    --------
+    A string lying on the wall (s = 0) in horizontal hole is at the cap; at 60° with s = 0.5
+    the eccentricity is 0.5·sin 60° = 0.433; vertical hole is concentric:
+
+    >>> float(eccentricity_from_standoff(0.0, np.pi / 2))
+    0.95
+    >>> round(float(eccentricity_from_standoff(0.5, np.radians(60.0))), 3)
+    0.433
+    >>> float(eccentricity_from_standoff(0.3, 0.0))
+    0.0
+    """
+    s = check_range("stand-off", standoff, 0.0, 1.0)
+    th = check_range("inclination", inclination, 0.0, np.pi, "rad")
+    e = (1.0 - s) * np.abs(np.sin(th))
+    return np.minimum(e, VALIDITY["eccentricity"][1])

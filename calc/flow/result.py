@@ -182,6 +182,8 @@ class FlowResult:
     critical_flow_rate : critical_velocity × flow area [m³/s]
     eccentricity_factor : (dp/dL)_eccentric/(dp/dL)_concentric [-] (1 for pipes)
     notes : tuple of :class:`calc.errors.Note`
+    rotation_factor : (dp/dL)_rotating/(dp/dL)_not rotating [-] (1 for pipes and without
+        rotation; :func:`calc.flow.rotation.rotation_factor`), included in ``gradient``
     """
 
     method: str
@@ -201,6 +203,7 @@ class FlowResult:
     critical_flow_rate: float | np.ndarray
     eccentricity_factor: float | np.ndarray
     notes: tuple[Note, ...] = field(default=())
+    rotation_factor: float | np.ndarray = 1.0
 
     @property
     def regime_label(self):

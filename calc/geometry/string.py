@@ -11,7 +11,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from calc.errors import InputError, check_nonnegative, check_order, check_positive
+from calc.errors import InputError, check_nonnegative, check_order, check_positive, check_range
 from calc.notes import Note
 from calc.units import to_si
 from calc.values import Value
@@ -50,6 +50,11 @@ class StringComponent:
         not yet checked against the source — calc/METHODS.md §13.2).
     float_valve : bool
         The component carries a float (non-return) valve.
+    standoff : float, optional
+        Stand-off ratio 0 ≤ s ≤ 1 of this component in the hole (1 centred, 0 on the wall);
+        given, the annulus around it is eccentric by
+        :func:`calc.flow.eccentricity.eccentricity_from_standoff` (calc/METHODS.md §22);
+        without it, the loop's single eccentricity (default concentric) applies.
 
     Attributes
     ----------
@@ -81,6 +86,7 @@ class StringComponent:
     joint_length: float | None = None
     tool_joint_length: float | None = None
     float_valve: bool = False
+    standoff: float | None = None
     tool_joint_fraction: float = field(init=False)
     notes: tuple[Note, ...] = field(init=False, repr=False)
 
@@ -159,6 +165,9 @@ class StringComponent:
                 object.__setattr__(self, name, v)
             frac = tjl / jl
         object.__setattr__(self, "float_valve", bool(self.float_valve))
+        if self.standoff is not None:
+            so = float(check_range(f"stand-off of {who}", self.standoff, 0.0, 1.0))
+            object.__setattr__(self, "standoff", so)
         object.__setattr__(self, "tool_joint_fraction", frac)
         object.__setattr__(self, "notes", tuple(notes))
 
