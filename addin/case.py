@@ -346,12 +346,12 @@ class Case:
     def loss_options(self, index: int = -1, joint_losses=None) -> dict:
         """The :func:`calc.circulation.circulate` keywords ``rpm`` and ``joint_losses``.
 
-        ``rpm``: check ``index``'s ``rpm`` unless ``[case].rotation = false`` (0 then, and
-        without an rpm); ``joint_losses``: the argument (the command line's
+        ``rpm``: check ``index``'s ``rpm`` if ``[case].rotation = true`` (default false: 0,
+        because the rotation model can only lower the annular loss, see calc/METHODS.md §22); ``joint_losses``: the argument (the command line's
         ``--joint-losses``), else ``[case].joint_losses``, else ``"bore_friction"``.  An unknown
         option is an InputError naming the file and key (calc/METHODS.md §22).
         """
-        rotation = bool(self.header.get("rotation", True))
+        rotation = bool(self.header.get("rotation", False))
         rpm = self.checks[index].values.get("rpm") if (rotation and self.checks) else None
         option = joint_losses or self.header.get("joint_losses") or "bore_friction"
         if joint_losses is None and "joint_losses" in self.header:

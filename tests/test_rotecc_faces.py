@@ -34,10 +34,12 @@ def _doc(**case_keys):
 
 
 def test_case_rotation_key_and_check_rpm():
-    case = parse_case(_doc())
+    case = parse_case(_doc(rotation=True))
     assert case.loss_options() == {"rpm": 140.0, "joint_losses": "bore_friction"}
     off = parse_case(_doc(rotation=False))
     assert off.loss_options()["rpm"] == 0.0
+    # off by default: the model can only lower the annular loss (CASE-FORMAT.md, rotation)
+    assert parse_case(_doc()).loss_options()["rpm"] == 0.0
     k = parse_case(_doc(joint_losses="bore_change_k"))
     assert k.loss_options()["joint_losses"] == "bore_change_k"
 
@@ -61,7 +63,7 @@ def test_standoff_key_reaches_the_string_and_bad_values_are_refused():
 
 
 def test_report_rotation_on_and_off():
-    on = compute(parse_case(_doc()))
+    on = compute(parse_case(_doc(rotation=True)))
     off = compute(parse_case(_doc(rotation=False)))
     assert on.circulation.rpm == 140.0 and off.circulation.rpm == 0.0
     assert on.circulation.annulus.total < off.circulation.annulus.total
