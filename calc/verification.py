@@ -25,6 +25,7 @@ from calc.bit.optimisation import OPTIMISATION_CRITERIA
 from calc.cleaning.bed import BED_METHODS
 from calc.cleaning.deviated import DEVIATED_METHODS
 from calc.cleaning.slip import SLIP_METHODS
+from calc.downhole.density import DENSITY_MODELS
 from calc.flow import FRICTION_LAWS
 from calc.hydraulics_method import DEFAULT_METHOD, HYDRAULICS_METHODS, resolve_method
 from calc.notes import Note
@@ -45,6 +46,7 @@ REGISTRIES: tuple[MethodRegistry, ...] = (
     DEVIATED_METHODS,
     OPTIMISATION_CRITERIA,
     BED_METHODS,
+    DENSITY_MODELS,
 )
 
 V = Verification
