@@ -13,6 +13,7 @@ import numpy as np
 
 import calc
 from addin.case import Case, CaseInputError
+from addin.report.downhole import DownholeRun, compute_downhole
 from addin.report.trace import bed_method_of, slip_method_of
 from calc.circulation import (
     BALANCE_RESOLUTION,
@@ -224,6 +225,7 @@ class Results:
     loaded: LoadedECD | None = None  # with the cuttings load (needs cleaning)
     beds: WellBeds | None = None  # stationary cuttings beds (needs cleaning)
     band: EcdBand | None = None  # the input-uncertainty band (clean circulating mud)
+    downhole: DownholeRun | None = None  # density at downhole T and p (needs [temperature])
 
     @property
     def calibration(self) -> FrictionCalibration | None:
@@ -293,6 +295,9 @@ def compute(
         **band_inputs(case, density),
     )
     notes.extend(band.notes)
+    downhole = compute_downhole(case, res, step)
+    if downhole is not None:
+        notes.extend(downhole.profile.notes)
     cleaning = _cleaning(case, well, fluid, q)
     loaded = _loaded(well, res, cleaning, step)
     beds = _beds(case, well, fluid, q, cleaning, method)
@@ -327,6 +332,7 @@ def compute(
         loaded=loaded,
         beds=beds,
         band=band,
+        downhole=downhole,
     )
 
 

@@ -9,7 +9,7 @@ The pressure at TVD z is the integral of the local density:
 
 solved on a grid of measured depths by fixed-point iteration of the trapezoidal integral (the
 pressure feeds back into the density; the change per pass shrinks by the factor
-g·z·ρ·compressibility ≈ 10⁻³, so a few passes reach 10⁻⁹ Pa).  ESD and ECD are
+g·z·ρ·compressibility ≈ 10⁻³, so a few passes reach rounding level).  ESD and ECD are
 p(z)/(g·TVD(z)) (calc/METHODS.md §20).  The static column uses the static temperature; the
 circulating column uses the annulus temperature of the circulating model when its inputs are
 given, else the static temperature.  The friction losses themselves are those of the
@@ -123,7 +123,8 @@ def column_pressure(tvd, density_of, *, g: float, extra=0.0, tol: float = 1e-9, 
 
     .. math:: p_{k+1}(z) = e(z) + \\int_0^z \\rho(\\zeta, p_k(\\zeta))\\,g\\,d\\zeta
 
-    (trapezoidal rule on the grid), iterated to a change below ``tol`` [Pa].
+    (trapezoidal rule on the grid), iterated to a change below ``tol`` [Pa] (plus 1e-13 of
+    the pressure: rounding).
 
     Parameters
     ----------
@@ -150,15 +151,16 @@ def column_pressure(tvd, density_of, *, g: float, extra=0.0, tol: float = 1e-9, 
     e = np.broadcast_to(np.asarray(extra, dtype=float), z.shape)
     dz = np.diff(z)
     p = e.copy()
+    change = np.inf
     for _ in range(max_iter):
         rho = np.asarray(density_of(p), dtype=float)
         inc = 0.5 * (rho[1:] + rho[:-1]) * g * dz
         new = e + np.concatenate(([0.0], np.cumsum(inc)))
-        done = float(np.max(np.abs(new - p))) <= tol
+        change = float(np.max(np.abs(new - p)))
         p = new
-        if done:
+        if change <= tol + 1e-13 * float(np.max(np.abs(p))):
             return p
-    raise InputError("column pressure", float(np.max(np.abs(new - p))), "convergence")
+    raise InputError("column pressure change per pass", change, f"<= {tol:g} Pa (no convergence)")
 
 
 @dataclass(frozen=True)
