@@ -51,6 +51,19 @@ __all__ = [
 MAX_GRADIENT = 0.2
 
 
+def _gradient(g) -> float:
+    """A geothermal gradient [K/m] in [0, MAX_GRADIENT] (InputError in the user's unit)."""
+    v = float(check_finite("geothermal gradient", g, "K/m"))
+    if not 0.0 <= v <= MAX_GRADIENT:
+        raise InputError(
+            "geothermal gradient", v, "from {lo} to {hi} (temperature not falling with depth)",
+            kind="temperature_gradient",
+            values=(Value("lo", 0.0, "temperature_gradient"),
+                    Value("hi", MAX_GRADIENT, "temperature_gradient")),
+        )  # fmt: skip
+    return v
+
+
 def _surface(name, t):
     return float(check_range(name, t, 200.0, 700.0, "K"))
 
@@ -82,7 +95,7 @@ def static_temperature(tvd, surface_temperature, gradient):
     """
     z = check_nonnegative("tvd", tvd, "m")
     ts = _surface("surface temperature", surface_temperature)
-    g = float(check_range("geothermal gradient", gradient, 0.0, MAX_GRADIENT, "K/m"))
+    g = _gradient(gradient)
     return float_or_array(ts + g * z)
 
 
@@ -258,7 +271,7 @@ def circulating_temperature(
     ua = float(check_positive("annulus heat-transfer coefficient", u_annulus, "W/(m²·K)"))
     t_in = _surface("inlet temperature", inlet_temperature)
     ts = _surface("surface temperature", surface_temperature)
-    g = float(check_range("geothermal gradient", gradient, 0.0, MAX_GRADIENT, "K/m"))
+    g = _gradient(gradient)
     gx = g * tvd_bit / L
     tf = ts + gx * x
     if q == 0.0:
