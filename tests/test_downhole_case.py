@@ -50,7 +50,7 @@ def test_without_temperature_nothing_is_computed(tmp_path):
     ("old", "new", "match"),
     [
         ("oil_water_ratio = 80.0\nsolids = 15.5", "oil_water_ratio = 120.0\nsolids = 15.5",
-         "oil/water ratio"),
+         "oil_water_ratio = 120"),
         ('base_fluid = "mineral_oil"\nwater_phase = "brine"\noil_water_ratio = 80.0\nsolids = 15.5',
          'base_fluid = "kerosene"\nwater_phase = "brine"\noil_water_ratio = 80.0\nsolids = 15.5',
          "base_fluid"),
