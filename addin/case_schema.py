@@ -18,6 +18,7 @@ __all__ = [
     "SECTIONS",
     "SLURRY_SCHEMA",
     "STATION_COLUMNS",
+    "TEMPERATURE_SCHEMA",
     "UNCERTAINTY_SCHEMA",
     "Field",
 ]
@@ -118,6 +119,13 @@ CHECK_SCHEMA: dict[str, Field] = {
     ),
     "properties": Field("free"),
     "remark": Field("text"),
+    # composition for density at downhole T and p (calc.downhole; calc/METHODS.md §20)
+    "base_fluid": Field("text"),
+    "water_phase": Field("text"),
+    "oil_water_ratio": Field("number", guard="oil_water_ratio"),
+    "oil": Field("number", guard="percent_volume"),
+    "water": Field("number", guard="percent_volume"),
+    "solids": Field("number", guard="percent_volume"),
 }
 
 SLURRY_SCHEMA: dict[str, Field] = {
@@ -144,6 +152,20 @@ UNCERTAINTY_SCHEMA = {
     "balance": Field("text"),
     "balance_resolution": Field("density", guard="density_margin"),
     "rate_uncertainty": Field("number", guard="fraction"),
+}
+#: Temperatures in the well (calc.downhole; calc/METHODS.md §20): a static geotherm (surface
+#: temperature and gradient, or a TVD/temperature table) and, optionally, the inputs of the
+#: circulating model (inlet temperature, heat capacity, heat-transfer coefficients in SI).
+TEMPERATURE_SCHEMA = {
+    "surface_temperature": Field("temperature", guard="well_temperature"),
+    "geothermal_gradient": Field("temperature_gradient", guard="geothermal_gradient"),
+    "table_tvd": Field("list", of="depth", guard="depth"),
+    "table_temperature": Field("list", of="temperature", guard="well_temperature"),
+    "mud_weight_temperature": Field("temperature", guard="well_temperature"),
+    "inlet_temperature": Field("temperature", guard="well_temperature"),
+    "heat_capacity": Field("number", guard="heat_capacity"),
+    "u_pipe": Field("number", guard="heat_transfer_coefficient"),
+    "u_annulus": Field("number", guard="heat_transfer_coefficient"),
 }
 SURVEY_SCHEMA = {"stations": Field("stations", required=True)}
 #: The columns of a ``stations`` row and their kinds (md is converted; angles are plain degrees).
@@ -244,6 +266,7 @@ SECTIONS: dict[str, tuple[bool, Mapping[str, Field] | None]] = {
     "string": (True, STRING_SCHEMA),
     "tool_pressure": (False, TOOL_PRESSURE_SCHEMA),
     "trip": (False, TRIP_SCHEMA),
+    "temperature": (False, TEMPERATURE_SCHEMA),
 }
 #: Sections a hydraulics report needs (the rheology subcommand needs only checks).
 HYDRAULICS_SECTIONS = ("survey", "open_hole", "bit", "string")

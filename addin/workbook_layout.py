@@ -252,6 +252,23 @@ LABELS: dict[str, dict[str, str]] = {
         "cuttings.sphericity": "cuttings sphericity",
         "properties": "other mud property (free name)",
         "remark": "remark",
+        "base_fluid": "base fluid (water, brine, diesel, mineral_oil, synthetic)",
+        "water_phase": "aqueous phase of an oil mud (water or brine)",
+        "oil_water_ratio": "oil/water ratio, % oil",
+        "oil": "retort oil, % by volume",
+        "water": "retort water, % by volume",
+        "solids": "retort solids, % by volume",
+    },
+    "temperature": {
+        "surface_temperature": "surface temperature",
+        "geothermal_gradient": "geothermal gradient",
+        "table_tvd": "temperature table: TVDs",
+        "table_temperature": "temperature table: temperatures",
+        "mud_weight_temperature": "temperature of the mud-weight measurement",
+        "inlet_temperature": "mud inlet temperature (circulating model)",
+        "heat_capacity": "mud heat capacity, J/(kg·K) (blank = 1675)",
+        "u_pipe": "heat transfer string ↔ annulus, W/(m²·K) (blank = 570)",
+        "u_annulus": "heat transfer annulus ↔ formation, W/(m²·K) (blank = 57)",
     },
     "trip": {
         "stand_length": "stand length",
@@ -326,6 +343,7 @@ LAYOUT: tuple[Block, ...] = (
     _block("tool_pressure", "Fixed downhole tool pressure drop", "values"),
     _block("check", "Mud checks, oldest first (one column each)", "columns"),
     _block("trip", "Planned trip (surge and swab)", "values"),
+    _block("temperature", "Temperatures in the well (density at downhole T and p)", "values"),
     _block("slurry", "Spacer and cement slurries (one column each)", "columns"),
 )
 

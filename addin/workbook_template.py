@@ -197,8 +197,9 @@ def _put_value(ws, row, col, v, style):
 
 
 #: How the template spreads the blocks over sheets.
+_WELL_BLOCKS = ("case", "limits", "open_hole", "casing", "survey", "pressure_window", "weak_point")
 TEMPLATE_SHEETS: dict[str, tuple[str, ...]] = {
-    "Well": ("case", "limits", "open_hole", "casing", "survey", "pressure_window", "weak_point"),
+    "Well": (*_WELL_BLOCKS, "temperature"),
     "Rig and string": ("pump", "surface_line", "bit", "string", "tool_pressure"),
     "Mud checks": ("check",),
     "Plans": ("trip", "slurry"),

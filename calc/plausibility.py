@@ -61,6 +61,12 @@ spp                 > 0 – 30,000 psi             200 – 7,500 psi            
 rating              > 0 – 40,000 psi             1,000 – 15,000 psi         common practice
 tool_drop           0 – 10,000 psi               0 – 2,000 psi              common practice
 temperature         −20 – 320 °C                 5 – 95 °C (cup)            common practice
+well_temperature    −20 – 350 °C                 0 – 200 °C                 common practice
+geothermal_gradient 0 – 0.2 K/m                  0.01 – 0.05 K/m            common practice
+heat_capacity       500 – 5,000 J/(kg·K)         1,200 – 4,200 J/(kg·K)     common practice
+heat_transfer_coef. > 0 – 10,000 W/(m²·K)        5 – 2,000 W/(m²·K)         common practice
+oil_water_ratio     0 – 100 % oil                50 – 95 % oil              definition
+percent_volume      0 – 100 %                    —                          definition
 rop                 > 0 – 600 m/h                0.3 – 100 m/h              common practice
 rpm                 0 – 1,000 rpm                0 – 250 rpm                common practice
 trip_speed          > 0 – 10 m/s                 0.05 – 2 m/s               common practice
@@ -163,6 +169,12 @@ RANGES: dict[str, Plausibility] = {
         _r("rating", "pressure", "psi", (0.0, 40000.0), (1000.0, 15000.0), low_open=True),
         _r("tool_drop", "pressure", "psi", (0.0, 10000.0), (0.0, 2000.0)),
         _r("temperature", "temperature", "degC", (-20.0, 320.0), (5.0, 95.0)),
+        _r("well_temperature", "temperature", "degC", (-20.0, 350.0), (0.0, 200.0)),
+        _r("geothermal_gradient", "temperature_gradient", "K/m", (0.0, 0.2), (0.01, 0.05)),
+        _r("heat_capacity", "number", None, (500.0, 5000.0), (1200.0, 4200.0)),
+        _r("heat_transfer_coefficient", "number", None, (0.0, 1e4), (5.0, 2e3), low_open=True),
+        _r("oil_water_ratio", "number", None, (0.0, 100.0), (50.0, 95.0), "definition"),
+        _r("percent_volume", "number", None, (0.0, 100.0), None, "definition"),
         _r("rop", "rop", "m/hour", (0.0, 600.0), (0.3, 100.0), low_open=True),
         _r("rpm", "number", None, (0.0, 1000.0), (0.0, 250.0)),
         _r("trip_speed", "trip_speed", "m/s", (0.0, 10.0), (0.05, 2.0), low_open=True),

@@ -73,6 +73,8 @@ for _definition in (
     "ppf = pound / foot",
     "deg_per_100ft = degree / (100 * foot)",
     "deg_per_30m = degree / (30 * meter)",
+    "degF_per_100ft = delta_degF / (100 * foot)",
+    "degC_per_100m = kelvin / (100 * meter)",
 ):
     ureg.define(_definition)
 
@@ -91,6 +93,8 @@ _TEXT_ALIASES: tuple[tuple[str, str], ...] = (
     (r"mpa[·.*]s|mPa[·.]s", "mPa*s"),
     (r"pa[·.]s|Pa[·.]s", "Pa*s"),
     (r"32nds?|/32|1/32\s*in", "in32"),
+    (r"(?:°F|deg\s*F|degF)\s*/\s*100\s*ft", "degF_per_100ft"),
+    (r"(?:°C|deg\s*C|degC)\s*/\s*100\s*m", "degC_per_100m"),
     (r"°F|deg\s*F|degF|F°", "degF"),
     (r"°C|deg\s*C|degC|C°", "degC"),
     (r"hrs?", "hour"),

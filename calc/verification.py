@@ -25,6 +25,7 @@ from calc.bit.optimisation import OPTIMISATION_CRITERIA
 from calc.cleaning.bed import BED_METHODS
 from calc.cleaning.deviated import DEVIATED_METHODS
 from calc.cleaning.slip import SLIP_METHODS
+from calc.downhole.density import DENSITY_MODELS
 from calc.flow import FRICTION_LAWS
 from calc.flow.minor_losses import JOINT_LOSS_METHODS
 from calc.flow.rotation import ROTATION_METHODS
@@ -49,6 +50,7 @@ REGISTRIES: tuple[MethodRegistry, ...] = (
     BED_METHODS,
     ROTATION_METHODS,
     JOINT_LOSS_METHODS,
+    DENSITY_MODELS,
 )
 
 V = Verification

@@ -60,6 +60,10 @@ NOT_TRADE = {
     "calc.circulation.band.check_band_inputs": _INPUT_CHECK,
     "calc.circulation.band.EcdBand": "result record of ecd_band, whose Examples show it",
     "calc.circulation.band.QuantityBand": "result record of ecd_band, whose Examples show it",
+    "calc.downhole.profile.DownholeProfile": "result record of downhole_profile, whose Examples"
+    " show it",
+    "calc.downhole.temperature.CirculatingTemperature": "result record of "
+    "circulating_temperature, whose Examples show it",
     "calc.flow.checks.require_n_at_most": _INPUT_CHECK,
     "calc.flow.checks.require_n_one": _INPUT_CHECK,
     "calc.flow.checks.require_no_yield": _INPUT_CHECK,

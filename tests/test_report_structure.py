@@ -30,6 +30,7 @@ SHEETS = [
     "Cleaning",
     "Trips",
     "Rate window",
+    "Downhole",
     "Cautions",
     "Audit",
 ]

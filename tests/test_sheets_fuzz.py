@@ -194,6 +194,16 @@ VALID = {
     "pumps": None,
     "pump_kind": None,
     "rod": None,
+    # downhole density at T and p (the demo's bit: 232 °F, 6,700 psi; invented)
+    "surface_density": 11.0,
+    "temperature": 232.0,
+    "base_fluid": "mineral_oil",
+    "oil_water_ratio": 80.0,
+    "solids": 14.0,
+    "reference_temperature": None,
+    "water_phase": None,
+    "surface_temperature": 70.0,
+    "gradient": 1.5,
 }
 
 

@@ -44,6 +44,7 @@ sys.path.insert(0, str(HERE.parent))
 
 from addin.workbook_template import page_setup  # noqa: E402
 from calc.geometry import Survey  # noqa: E402
+from calc.units import UNIT_SYSTEMS  # noqa: E402
 
 CASE = HERE / "demo-case.toml"
 OUT = HERE / "demo-workbook.xlsx"
@@ -557,7 +558,7 @@ def build(out: Path = OUT, check_label: str = "D1", *, computed: bool = False) -
     un = wb.create_sheet("Units")
     un["A1"] = "Units in force (from the Units cell of the main sheet)"
     un["A1"].font = _HEAD
-    n_kinds = 27
+    n_kinds = len(UNIT_SYSTEMS["oilfield"]) + 1  # the header row and one row per kind
     un["A2"] = _array(f"A2:B{1 + n_kinds}", f"=BF_UNITS({main}{u})")
     conf = wb.create_sheet("xlwings.conf")
     conf["A1"], conf["B1"] = "UDF Modules", "addin.sheets.functions"

@@ -31,7 +31,14 @@ from openpyxl.drawing.text import (
 
 from addin.xlsx_cells import PALETTE
 
-__all__ = ["depth_profile", "nice_axis", "pressure_breakdown", "rate_curves", "rheogram"]
+__all__ = [
+    "depth_profile",
+    "nice_axis",
+    "pressure_breakdown",
+    "rate_curves",
+    "rheogram",
+    "temperature_profile",
+]
 
 _SERIES_COLOURS = ("1F5FA8", "C08A2B", "2E7D4F", "8E44AD", "B03A2E", "17808A", "6B7785")
 
@@ -268,3 +275,43 @@ def _small_title(text: str, size_pt: float = 10.0):
     cp = CharacterProperties(sz=int(size_pt * 100), b=True)
     para = Paragraph(pPr=ParagraphProperties(defRPr=cp), r=[RegularTextRun(rPr=cp, t=text)])
     return Title(tx=Text(rich=RichText(p=[para])), overlay=False)
+
+
+def temperature_profile(
+    depth: tuple,
+    curves: list[tuple[str, tuple, str]],
+    *,
+    temperature_unit: str,
+    depth_unit: str,
+    title="Temperature against depth",
+    x_limits: tuple[float, float] | None = None,
+) -> ScatterChart:
+    """Temperature curves against TVD, depth increasing downward.
+
+    curves
+        ``[(label, (ws, col, r0, r1), role), ...]`` with role one of ``"static"`` (the
+        formation), ``"string"``, ``"annulus"`` (circulating); ``depth`` the shared TVD range.
+    """
+    style = {
+        "static": dict(colour=PALETTE["ok"], width=19050, dash="dash"),
+        "string": dict(colour="7A4F9A", width=19050),
+        "annulus": dict(colour=PALETTE["check"], width=28575),
+    }
+    ch = ScatterChart()
+    ch.title = title
+    ch.style = 2
+    ch.height, ch.width = 14.0, 15.0
+    _axis_common(ch.x_axis, f"temperature [{temperature_unit}]")
+    _axis_common(ch.y_axis, f"true vertical depth [{depth_unit}]")
+    ch.y_axis.scaling.orientation = "maxMin"
+    ch.y_axis.scaling.min = 0
+    if x_limits is not None:
+        ch.x_axis.scaling.min, ch.x_axis.scaling.max = x_limits
+    ch.legend.position = "b"
+    for name, rng, role in curves:
+        s = Series(_ref(*depth), _ref(*rng), title=name)  # values: TVD (y); xvalues: T
+        st = style[role]
+        _line(s, st["colour"], width=st["width"], dash=st.get("dash"))
+        ch.series.append(s)
+    ch.layout = Layout(manualLayout=ManualLayout(x=0.02, y=0.08, w=0.96, h=0.72))
+    return ch

@@ -13,6 +13,7 @@ import numpy as np
 
 import calc
 from addin.case import Case, CaseInputError
+from addin.report.downhole import DownholeRun, compute_downhole
 from addin.report.trace import bed_method_of, slip_method_of
 from calc.circulation import (
     BALANCE_RESOLUTION,
@@ -264,6 +265,7 @@ class Results:
     band: EcdBand | None = None  # the input-uncertainty band (clean circulating mud)
     pumps: PumpRun | None = None  # the pumps (needs [[pump]] with liner and stroke)
     two_part: TwoPartCalibration | None = None  # string and annulus calibration (needs pwd)
+    downhole: DownholeRun | None = None  # density at downhole T and p (needs [temperature])
 
     @property
     def calibration(self) -> FrictionCalibration | None:
@@ -334,6 +336,9 @@ def compute(
         **case.loss_options(),
     )
     notes.extend(band.notes)
+    downhole = compute_downhole(case, res, step)
+    if downhole is not None:
+        notes.extend(downhole.profile.notes)
     cleaning = _cleaning(case, well, fluid, q)
     loaded = _loaded(well, res, cleaning, step)
     beds = _beds(case, well, fluid, q, cleaning, method)
@@ -378,6 +383,7 @@ def compute(
         band=band,
         pumps=pumps,
         two_part=two_part,
+        downhole=downhole,
     )
 
 

@@ -10,6 +10,7 @@ from addin import text
 from addin.report.compute import scalar
 from addin.report.sheet_beds import beds_data
 from addin.report.sheet_cleaning import short_name
+from addin.report.sheet_downhole import downhole_data
 from addin.report.sheet_trips import point_label
 from addin.report.sheet_window import allowed_ecd, binding_words
 from addin.report.trace import used_methods
@@ -121,6 +122,8 @@ def results_data(results) -> dict:
         out["loaded_ecd"] = _loaded_data(results.loaded, s)
     if results.beds is not None:
         out["cuttings_beds"] = beds_data(results)
+    if getattr(results, "downhole", None) is not None:
+        out["downhole"] = downhole_data(results)
     if results.surge:
         out["trips"] = _trips_data(results.surge, s)
     if results.window is not None:

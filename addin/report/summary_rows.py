@@ -34,6 +34,7 @@ def summary_rows(results, refs) -> list[dict]:
     rows: list[dict] = []
     rows += _pressure_rows(results, refs)
     rows += _ecd_rows(results, refs)
+    rows += _downhole_rows(results, refs)
     rows += _band_rows(results)
     rows += _bit_rows(results, refs)
     rows += _other_rows(refs)
@@ -318,6 +319,31 @@ def _bit_rows(results, refs) -> list[dict]:
             )
         )
     return rows
+
+
+def _downhole_rows(results, refs) -> list[dict]:
+    """ECD at the bit with the mud's density at downhole T and p (with ``[temperature]``);
+    the surface-mud ECD row stays the headline, this row sits beside it."""
+    run = results.downhole
+    if run is None:
+        return []
+    mt = results.circulation.margins
+    at_bit = mt.index("bit") if mt is not None else None
+    f_bit = None if at_bit is None else _at(mt.fracture, at_bit)
+    req = mt.margins.fracture if mt is not None else None
+    e = run.profile.ecd_bit
+    m = None if f_bit is None else float(fracture_margin(f_bit, e))
+    return [
+        dict(
+            name="ECD at the bit, at downhole temperature and pressure",
+            kind="density",
+            value=e,
+            limit=f_bit,
+            margin=m,
+            required=req,
+            status=_status_margin(m, req),
+        )
+    ]
 
 
 def _other_rows(refs) -> list[dict]:

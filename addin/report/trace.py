@@ -287,6 +287,43 @@ def _ecd_bit(results, row):
     return [value, *_bit_limit_rows(results, results.circulation.ecd_bit)]
 
 
+def _ecd_bit_downhole(results, row):
+    """ECD at the bit from the local density at T and p (calc.downhole.downhole_profile)."""
+    st = "exact_solution"  # the integral; the density models carry their own statuses
+    value = ("value", "@downhole", "", "_.ecd_bit", "calc.downhole (density at T and p)", st,
+             _eq("§20.5"))  # fmt: skip
+    return [value, *_bit_limit_rows(results, results.downhole.profile.ecd_bit)]
+
+
+def _downhole_setup(results) -> tuple[str, str, str]:
+    """The setup row of the downhole profile: every input as SI text."""
+    run = results.downhole
+    c, comp = run.conditions, run.conditions.composition
+    mix = (f"calc.downhole.MudComposition({_num(comp.oil)}, {_num(comp.water)}, "
+           f"{_num(comp.solids)}, {comp.oil_base!r}, {comp.water_base!r})")  # fmt: skip
+    table = "None"
+    if c.table is not None:
+        table = (f"calc.downhole.TemperatureTable({tuple(map(float, c.table.tvd))!r}, "
+                 f"{tuple(map(float, c.table.temperature))!r})")  # fmt: skip
+    circ = "None"
+    if c.circulating is not None:
+        ci = c.circulating
+        circ = "calc.downhole.CirculatingInputs({}, {}, {}, {})".format(
+            *(_num(x) for x in (ci.inlet_temperature, ci.heat_capacity, ci.u_pipe, ci.u_annulus))
+        )
+    ts = "None" if c.surface_temperature is None else _num(c.surface_temperature)
+    g = "None" if c.gradient is None else _num(c.gradient)
+    ref = "None" if c.reference_temperature is None else _num(c.reference_temperature)
+    at = [float(md) for _, md, _, _ in run.weak_points]
+    return (
+        "downhole",
+        "calc.downhole.downhole_profile",
+        f"circulation, calc.downhole.DownholeConditions({mix}, {ts}, {g}, {table}, "
+        f"reference_temperature={ref}, circulating={circ}), step={_num(results.profile_step)}, "
+        f"at={at!r}",
+    )
+
+
 def _tightest(results, row):
     if _loaded_on(results):
         return [
@@ -459,6 +496,7 @@ TRACE: tuple[TraceEntry, ...] = (
     TraceEntry("ECD at the bit, cuttings-loaded, CALIBRATED", _ecd_bit_calibrated),
     TraceEntry("ECD at the bit, CALIBRATED", _ecd_bit_calibrated),
     TraceEntry("ECD at the bit, cuttings-loaded", _ecd_bit_loaded),
+    TraceEntry("ECD at the bit, at downhole temperature and pressure", _ecd_bit_downhole),
     TraceEntry("ECD at the bit", _ecd_bit),
     TraceEntry("ECD at the ", _ecd_shoe),
     TraceEntry("tightest margin", _tightest),
@@ -487,7 +525,7 @@ TRACE: tuple[TraceEntry, ...] = (
 #: return value").
 SETUP_NAMES = (
     "case", "well", "fluid", "margins", "circulation", "band", "cleaning", "loaded", "window",
-    "trips", "two_part",
+    "trips", "two_part", "downhole",
 )  # fmt: skip
 
 
@@ -525,6 +563,8 @@ def _setup(results) -> list[tuple[str, str, str]]:
             + _loss_extras(results.circulation),
         )
     )
+    if getattr(results, "downhole", None) is not None:
+        rows.append(_downhole_setup(results))
     band = getattr(results, "band", None)
     if band is not None:
         rows.append(

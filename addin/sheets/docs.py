@@ -30,6 +30,7 @@ _FAMILY_TITLES = {
     "flow": "Pipe and annular flow",
     "bit": "Bit hydraulics",
     "pressure": "Hydrostatic pressure, ESD and ECD",
+    "downhole": "Downhole temperature and density at temperature and pressure",
     "cleaning": "Hole cleaning",
     "surge": "Surge, swab and trip speed",
     "pumps": "Mud pumps (strokes and rate)",

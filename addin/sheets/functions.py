@@ -8,6 +8,7 @@ them here puts every decorated function in this module's namespace, where xlwing
 from addin.sheets.fn_bit import *  # noqa: F403
 from addin.sheets.fn_cleaning import *  # noqa: F403
 from addin.sheets.fn_cleaning_beds import *  # noqa: F403
+from addin.sheets.fn_downhole import *  # noqa: F403
 from addin.sheets.fn_flow import *  # noqa: F403
 from addin.sheets.fn_pressure import *  # noqa: F403
 from addin.sheets.fn_pumps import *  # noqa: F403
