@@ -347,7 +347,8 @@ class Case:
         """The :func:`calc.circulation.circulate` keywords ``rpm`` and ``joint_losses``.
 
         ``rpm``: check ``index``'s ``rpm`` if ``[case].rotation = true`` (default false: 0,
-        because the rotation model can only lower the annular loss, see calc/METHODS.md §22); ``joint_losses``: the argument (the command line's
+        because the rotation model can only lower the annular loss, see calc/METHODS.md §22);
+        ``joint_losses``: the argument (the command line's
         ``--joint-losses``), else ``[case].joint_losses``, else ``"bore_friction"``.  An unknown
         option is an InputError naming the file and key (calc/METHODS.md §22).
         """

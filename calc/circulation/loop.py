@@ -201,9 +201,7 @@ def circulate(
         if am.size not in (1, int(np.prod(inp.shape))) or am.ndim > len(inp.shape):
             raise InputError("annulus friction multiplier shape", am.shape, f"{inp.shape}")
         inp = replace(inp, amult=np.broadcast_to(am, inp.shape).ravel())
-    inp = replace(
-        inp, rpm=float(check_rpm(rpm)), joint_losses=check_joint_losses(joint_losses)
-    )
+    inp = replace(inp, rpm=float(check_rpm(rpm)), joint_losses=check_joint_losses(joint_losses))
     parts = wp.parts(well)
     lp = _loop_pass(well, fluid, parts, inp)
     notes: list[Note] = [*fluid.notes, *lp.notes]
