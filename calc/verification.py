@@ -30,6 +30,7 @@ from calc.hydraulics_method import DEFAULT_METHOD, HYDRAULICS_METHODS, resolve_m
 from calc.notes import Note
 from calc.registry import MethodRegistry, Verification
 from calc.rheology import TABLE_FITS, VISCOMETER_FITS
+from calc.slurry import SLURRY_METHODS
 from calc.values import Value
 
 __all__ = ["REGISTRIES", "caveat_notes", "list_methods", "method_caveats"]
@@ -45,6 +46,7 @@ REGISTRIES: tuple[MethodRegistry, ...] = (
     DEVIATED_METHODS,
     OPTIMISATION_CRITERIA,
     BED_METHODS,
+    SLURRY_METHODS,
 )
 
 V = Verification
