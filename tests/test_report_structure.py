@@ -30,6 +30,7 @@ SHEETS = [
     "Cleaning",
     "Trips",
     "Rate window",
+    "Slurry line",
     "Cautions",
     "Audit",
 ]

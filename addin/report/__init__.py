@@ -33,6 +33,7 @@ from addin.report.sheet_cleaning import write_cleaning
 from addin.report.sheet_ecd import write_ecd
 from addin.report.sheet_hydraulics import write_hydraulics
 from addin.report.sheet_rheology import write_rheology
+from addin.report.sheet_slurry_line import write_slurry_line
 from addin.report.sheet_trips import write_trips
 from addin.report.sheet_window import write_window
 from addin.report.sheets import write_audit, write_cautions, write_inputs, write_summary
@@ -63,6 +64,7 @@ def build_report(results: Results):
     refs["cleaning"] = write_cleaning(wb, results, factors, title, refs["hydraulics"]["q"])
     refs["trips"] = write_trips(wb, results, factors, title)
     refs["window"] = write_window(wb, results, title)
+    write_slurry_line(wb, results, title)
     write_cautions(wb, results, title)
     write_summary(summary, results, refs, title)
     write_audit(audit, results, factors, title)

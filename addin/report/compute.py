@@ -14,6 +14,7 @@ import numpy as np
 import calc
 from addin.case import Case, CaseInputError
 from addin.report.trace import bed_method_of, slip_method_of
+from addin.slurry_case import slurry_lines
 from calc.circulation import (
     BALANCE_RESOLUTION,
     BALANCE_RESOLUTION_PRESSURISED,
@@ -57,6 +58,7 @@ from calc.rheology import (
     compare_checks,
     fit_all,
 )
+from calc.slurry import SlurryCurve, operating_curve
 from calc.surge import (
     DEFAULT_ACCELERATION_TIME,
     GEL_CHOICES,
@@ -224,6 +226,7 @@ class Results:
     loaded: LoadedECD | None = None  # with the cuttings load (needs cleaning)
     beds: WellBeds | None = None  # stationary cuttings beds (needs cleaning)
     band: EcdBand | None = None  # the input-uncertainty band (clean circulating mud)
+    slurry_lines: tuple[SlurryCurve, ...] | None = None  # only with [[slurry_line]]
 
     @property
     def calibration(self) -> FrictionCalibration | None:
@@ -307,7 +310,13 @@ def compute(
         notes.extend(window.notes)
     # one note per caveat of the methods used (calc.verification), shown with the others
     slip = slip_method_of(cleaning.result.method) if cleaning is not None else None
-    notes.extend(caveat_notes(method, slip, bed_method_of(beds)))
+    slurry = _slurry_lines(case)
+    used = ()
+    if slurry is not None:
+        for curve in slurry:
+            notes.extend(curve.notes)
+        used = tuple(dict.fromkeys(m for curve in slurry for m in curve.methods))
+    notes.extend(caveat_notes(method, slip, bed_method_of(beds), used))
     return Results(
         case=case,
         run_time=run_time,
@@ -327,7 +336,16 @@ def compute(
         loaded=loaded,
         beds=beds,
         band=band,
+        slurry_lines=slurry,
     )
+
+
+def _slurry_lines(case) -> tuple[SlurryCurve, ...] | None:
+    """The operating curve of every ``[[slurry_line]]`` (calc.slurry; None without one)."""
+    lines = slurry_lines(case)
+    if not lines:
+        return None
+    return tuple(operating_curve(line) for line in lines)
 
 
 def _loaded(well, res, cleaning, step) -> LoadedECD | None:

@@ -32,6 +32,7 @@ _FAMILY_TITLES = {
     "pressure": "Hydrostatic pressure, ESD and ECD",
     "cleaning": "Hole cleaning",
     "surge": "Surge, swab and trip speed",
+    "slurry": "Settling slurries in pipes",
 }
 
 _ENABLE = """\

@@ -192,6 +192,11 @@ class SlurryCurve:
     def deposition_rate(self) -> float:
         return self.deposition.velocity * self.line.area
 
+    @property
+    def methods(self) -> tuple[str, ...]:
+        """Names of the :data:`calc.slurry.SLURRY_METHODS` entries this curve used."""
+        return (*self.deposition.by_method, self.line.method, "wilson_thomas_1985")
+
 
 def _gradient(line: SlurryLine, v):
     return settling_gradient(
