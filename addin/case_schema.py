@@ -16,6 +16,7 @@ __all__ = [
     "CHECK_SCHEMA",
     "HYDRAULICS_SECTIONS",
     "SECTIONS",
+    "SLURRY_LINE_SCHEMA",
     "SLURRY_SCHEMA",
     "STATION_COLUMNS",
     "TEMPERATURE_SCHEMA",
@@ -248,6 +249,26 @@ TRIP_SCHEMA = {
     "schedule_band": Field("length", guard="string_length"),
 }
 
+#: A slurry line (settling solids in a carrier; calc.slurry, calc/METHODS.md §25).
+SLURRY_LINE_SCHEMA = {
+    "name": Field("text", required=True),
+    "id": Field("diameter", required=True, guard="slurry_pipe_diameter"),
+    "roughness": Field("diameter", guard="pipe_roughness"),
+    "length": Field("length", required=True, guard="slurry_line_length"),
+    "inclination": Field("number", guard="line_inclination"),
+    "elevation_change": Field("length"),
+    "solids_density": Field("density", required=True, guard="cuttings_density"),
+    "concentration": Field("number", guard="solids_concentration"),
+    "slurry_density": Field("density", guard="fluid_density"),
+    "d50": Field("diameter", required=True, guard="particle_size"),
+    "d85": Field("diameter", guard="particle_size"),
+    "carrier": Field("text"),
+    "carrier_density": Field("density", guard="fluid_density"),
+    "rate": Field("flow_rate", guard="flow_rate"),
+    "rate_range": Field("range", of="flow_rate", guard="flow_rate"),
+    "method": Field("text"),
+}
+
 #: Top-level sections: name → (is an array of tables, schema or None if not parsed here yet).
 SECTIONS: dict[str, tuple[bool, Mapping[str, Field] | None]] = {
     "case": (False, CASE_SCHEMA),
@@ -267,6 +288,7 @@ SECTIONS: dict[str, tuple[bool, Mapping[str, Field] | None]] = {
     "tool_pressure": (False, TOOL_PRESSURE_SCHEMA),
     "trip": (False, TRIP_SCHEMA),
     "temperature": (False, TEMPERATURE_SCHEMA),
+    "slurry_line": (True, SLURRY_LINE_SCHEMA),
 }
 #: Sections a hydraulics report needs (the rheology subcommand needs only checks).
 HYDRAULICS_SECTIONS = ("survey", "open_hole", "bit", "string")

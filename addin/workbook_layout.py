@@ -279,6 +279,24 @@ LABELS: dict[str, dict[str, str]] = {
         "circulation_gel": "gel broken when circulation starts (10min, 10s or 30min)",
         "schedule_band": "depth band of the trip schedule (blank = 1000 ft)",
     },
+    "slurry_line": {
+        "name": "line name",
+        "id": "pipe inside diameter",
+        "roughness": "pipe wall roughness (blank = 0.046 mm steel)",
+        "length": "line length",
+        "inclination": "inclination from horizontal [degree] (+ uphill)",
+        "elevation_change": "outlet above inlet (blank = length × sin inclination)",
+        "solids_density": "solids density",
+        "concentration": "solids volume concentration (fraction)",
+        "slurry_density": "slurry density (instead of, or to check, the concentration)",
+        "d50": "particle size d50",
+        "d85": "particle size d85 (blank = d50)",
+        "carrier": "carrier: water, or a check label or slurry name",
+        "carrier_density": "water density (blank = 998.2 kg/m³)",
+        "rate": "design rate",
+        "rate_range": "rate range",
+        "method": "gradient method (four_component_2006 or durand_condolios_1952)",
+    },
     "slurry": {
         "name": "name",
         "density": "density",
@@ -345,6 +363,7 @@ LAYOUT: tuple[Block, ...] = (
     _block("trip", "Planned trip (surge and swab)", "values"),
     _block("temperature", "Temperatures in the well (density at downhole T and p)", "values"),
     _block("slurry", "Spacer and cement slurries (one column each)", "columns"),
+    _block("slurry_line", "Slurry lines, settling solids (one column each)", "columns"),
 )
 
 BLOCKS: dict[str, Block] = {b.key: b for b in LAYOUT}

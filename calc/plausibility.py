@@ -83,6 +83,18 @@ fraction            0 – 1                        0 – 0.2                    
 standoff            0 – 1                        0 – 1                      definition
 inclination         0 – 180 °                    0 – 100 °                  definition
 azimuth             −360 – 360 °                 0 – 360 °                  definition
+slurry_pipe_diam.   0.5 – 48 in                  2 – 24 in                  common practice (rig
+                                                                            lines to dredge
+                                                                            pipelines)
+pipe_roughness      0 – 5 mm                     0 – 0.5 mm                 Moody (1944): drawn
+                                                                            0.0015, steel 0.046,
+                                                                            cast iron 0.26 mm
+slurry_line_length  > 0 – 100 km                 1 – 5,000 m                common practice
+line_inclination    −90 – 90 °                   −30 – 30 °                 definition
+solids_conc.        0 – 0.6                      0.02 – 0.35                0.6: packing of
+                                                                            grains (common
+                                                                            practice)
+particle_size       > 0 – 100 mm                 0.02 – 20 mm               common practice
 spp_result          0 – 40,000 psi (a result)    —                          above the highest
                                                                             rating (common
                                                                             practice)
@@ -189,6 +201,12 @@ RANGES: dict[str, Plausibility] = {
         _r("standoff", "number", None, (0.0, 1.0), (0.0, 1.0), "definition"),
         _r("inclination", "number", None, (0.0, 180.0), (0.0, 100.0), "definition"),
         _r("azimuth", "number", None, (-360.0, 360.0), (0.0, 360.0), "definition"),
+        _r("slurry_pipe_diameter", "diameter", "in", (0.5, 48.0), (2.0, 24.0)),
+        _r("pipe_roughness", "diameter", "mm", (0.0, 5.0), (0.0, 0.5), "Moody (1944)"),
+        _r("slurry_line_length", "length", "m", (0.0, 100000.0), (1.0, 5000.0), low_open=True),
+        _r("line_inclination", "number", None, (-90.0, 90.0), (-30.0, 30.0), "definition"),
+        _r("solids_concentration", "number", None, (0.0, 0.6), (0.02, 0.35)),
+        _r("particle_size", "diameter", "mm", (0.0, 100.0), (0.02, 20.0), low_open=True),
         # results (not inputs): a predicted standpipe pressure beyond every rating
         _r("spp_result", "pressure", "psi", (0.0, 40000.0), None),
     )

@@ -33,6 +33,7 @@ from calc.hydraulics_method import DEFAULT_METHOD, HYDRAULICS_METHODS, resolve_m
 from calc.notes import Note
 from calc.registry import MethodRegistry, Verification
 from calc.rheology import TABLE_FITS, VISCOMETER_FITS
+from calc.slurry import SLURRY_METHODS
 from calc.values import Value
 
 __all__ = ["REGISTRIES", "caveat_notes", "list_methods", "method_caveats"]
@@ -51,6 +52,7 @@ REGISTRIES: tuple[MethodRegistry, ...] = (
     ROTATION_METHODS,
     JOINT_LOSS_METHODS,
     DENSITY_MODELS,
+    SLURRY_METHODS,
 )
 
 V = Verification
@@ -563,13 +565,17 @@ def list_methods() -> list[dict]:
 
 
 def method_caveats(
-    method, slip_method: str | None = None, bed_method: str | None = None
+    method,
+    slip_method: str | None = None,
+    bed_method: str | None = None,
+    slurry_methods: tuple[str, ...] = (),
 ) -> tuple[tuple[str, str, str], ...]:
     """The caveats of a hydraulics method and of the fits and friction law it uses.
 
     ``method`` is a name or a :class:`calc.hydraulics_method.HydraulicsMethod` (overrides
     included); ``slip_method`` a slip-velocity method used with it (hole cleaning), or None;
-    ``bed_method`` a cuttings-bed model used (:data:`calc.cleaning.bed.BED_METHODS`), or None.
+    ``bed_method`` a cuttings-bed model used (:data:`calc.cleaning.bed.BED_METHODS`), or None;
+    ``slurry_methods`` the settling-slurry methods used (:data:`calc.slurry.SLURRY_METHODS`).
     Returns ``(family, name, caveat)`` triples, each caveat text once: the preset's own first
     (left out when overrides replace part of it: they speak of the preset as registered), then
     its friction law's, its fits' and the slip method's.
@@ -596,6 +602,7 @@ def method_caveats(
         parts += [(DEVIATED_METHODS, name) for name in DEVIATED_METHODS.names()]
     if bed_method is not None:
         parts.append((BED_METHODS, bed_method))
+    parts += [(SLURRY_METHODS, name) for name in slurry_methods]
     seen: dict[str, tuple[str, str, str]] = {}
     for reg, name in parts:
         for c in reg.get(name).status.caveats:
@@ -604,7 +611,10 @@ def method_caveats(
 
 
 def caveat_notes(
-    method, slip_method: str | None = None, bed_method: str | None = None
+    method,
+    slip_method: str | None = None,
+    bed_method: str | None = None,
+    slurry_methods: tuple[str, ...] = (),
 ) -> tuple[Note, ...]:
     """One warning note (code ``method_caveat``) per caveat of :func:`method_caveats`, so a
     report lists every caveat of the methods it used beside its other findings.
@@ -623,5 +633,5 @@ def caveat_notes(
             "method",
             (Value("family", family), Value("method", name), Value("caveat", caveat)),
         )
-        for family, name, caveat in method_caveats(method, slip_method, bed_method)
+        for family, name, caveat in method_caveats(method, slip_method, bed_method, slurry_methods)
     )

@@ -167,10 +167,19 @@ def _texts(ws) -> str:
     return "\n".join(c.value for row in ws.iter_rows() for c in row if isinstance(c.value, str))
 
 
+#: the settling-slurry methods the demo's [[slurry_line]] uses (calc.slurry.SlurryCurve.methods)
+DEMO_SLURRY_METHODS = (
+    "durand_1952_deposition",
+    "wilson_1979_deposition",
+    "four_component_2006",
+    "wilson_thomas_1985",
+)
+
+
 def test_audit_shows_status_and_every_caveat_of_the_methods_used(workbook):
     audit = _texts(workbook["Audit"])
     assert "Methods used and how they were checked" in audit
-    for family, name, caveat in method_caveats(DEFAULT_METHOD, "moore"):
+    for family, name, caveat in method_caveats(DEFAULT_METHOD, "moore", None, DEMO_SLURRY_METHODS):
         assert caveat in audit, (family, name)
     assert text.status_label("from_memory") in audit
 
@@ -181,7 +190,7 @@ def test_cautions_lists_every_caveat(workbook):
     ws = workbook["Cautions"]
     rows = [r for r in range(1, ws.max_row + 1) if ws.cell(r, 3).value == "method_caveat"]
     assert len(rows) == 1
-    want = method_caveats(DEFAULT_METHOD, "moore")
+    want = method_caveats(DEFAULT_METHOD, "moore", None, DEMO_SLURRY_METHODS)
     assert ws.cell(rows[0], 2).value == len(want)
     bullets = ws.cell(rows[0], 5).value.split("\n")
     assert bullets == [f"• {family} {name}: {caveat}" for family, name, caveat in want]
@@ -195,7 +204,7 @@ def test_json_carries_the_status_of_the_methods_used():
     assert hb["evidence"] and any("1.066" in c for c in hb["caveats"])
     assert ("slip-velocity method", "moore") in st
     assert sum(n["code"] == "method_caveat" for n in data["notes"]) == len(
-        method_caveats(DEFAULT_METHOD, "moore")
+        method_caveats(DEFAULT_METHOD, "moore", None, DEMO_SLURRY_METHODS)
     )
 
 

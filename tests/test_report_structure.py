@@ -31,6 +31,7 @@ SHEETS = [
     "Trips",
     "Rate window",
     "Downhole",
+    "Slurry line",
     "Cautions",
     "Audit",
 ]

@@ -144,6 +144,13 @@ def test_fuzz_never_raises(name):
 
 # A valid call for every argument name used by the functions (the D1 check of the demo case).
 VALID = {
+    # settling-slurry functions (the demo's invented slurry line)
+    "solids_density": 21.7,
+    "concentration": 0.12,
+    "d50": "0.15 mm",
+    "d85": "0.35 mm",
+    "roughness": None,
+    "carrier_density": None,
     "density": 11.0,
     "readings": GOOD_READINGS,
     "d_hole": 8.6,

@@ -34,6 +34,7 @@ from addin.report.sheet_downhole import write_downhole
 from addin.report.sheet_ecd import write_ecd
 from addin.report.sheet_hydraulics import write_hydraulics
 from addin.report.sheet_rheology import write_rheology
+from addin.report.sheet_slurry_line import write_slurry_line
 from addin.report.sheet_trips import write_trips
 from addin.report.sheet_window import write_window
 from addin.report.sheets import write_audit, write_cautions, write_inputs, write_summary
@@ -65,6 +66,7 @@ def build_report(results: Results):
     refs["trips"] = write_trips(wb, results, factors, title)
     refs["window"] = write_window(wb, results, title)
     refs["downhole"] = write_downhole(wb, results, title)
+    write_slurry_line(wb, results, title)
     write_cautions(wb, results, title)
     write_summary(summary, results, refs, title)
     write_audit(audit, results, factors, title)

@@ -7,6 +7,8 @@
   depth, depth increasing downward.
 * :func:`rate_curves` — quantities against flow rate (the operating-window sweep), with the
   window ends as vertical marker lines.
+* :func:`operating_curve` — a slurry line's frictional gradient against velocity, with the
+  carrier alone, the deposition velocity as a vertical line and the curve's minimum marked.
 * :func:`nice_axis` — axis limits on round steps around the values a chart shows.
 
 Each builder takes column ranges as ``(sheet, col, first_row, last_row)`` tuples so the chart
@@ -34,6 +36,7 @@ from addin.xlsx_cells import PALETTE
 __all__ = [
     "depth_profile",
     "nice_axis",
+    "operating_curve",
     "pressure_breakdown",
     "rate_curves",
     "rheogram",
@@ -266,6 +269,54 @@ def rate_curves(
     for name, xr, yr in markers:
         s = Series(_ref(*yr), _ref(*xr), title=name)
         _line(s, PALETTE["ink"], width=12700, dash="sysDash")
+        ch.series.append(s)
+    return ch
+
+
+def operating_curve(
+    velocity: tuple,
+    slurry: tuple,
+    carrier: tuple,
+    *,
+    markers: list[tuple[str, tuple, tuple]],
+    points: tuple[str, tuple, tuple] | None = None,
+    velocity_unit: str,
+    gradient_unit: str,
+    title: str,
+    x_limits: tuple[float, float, float] | None = None,
+    y_limits: tuple[float, float, float] | None = None,
+) -> ScatterChart:
+    """Gradient against velocity: the slurry (solid), the carrier alone (dashed), ``markers``
+    (two-point vertical lines: the deposition velocity, the minimum) and the operating
+    ``points`` as markers only; ranges are ``(ws, col, r0, r1)``."""
+    ch = ScatterChart()
+    ch.title = _small_title(title)
+    ch.style = 2
+    ch.height, ch.width = 11.5, 17.0
+    _axis_common(ch.x_axis, f"mean velocity [{velocity_unit}]")
+    _axis_common(ch.y_axis, f"frictional gradient [{gradient_unit}]")
+    if x_limits is not None:
+        ch.x_axis.scaling.min, ch.x_axis.scaling.max, ch.x_axis.majorUnit = x_limits
+    if y_limits is not None:
+        ch.y_axis.scaling.min, ch.y_axis.scaling.max, ch.y_axis.majorUnit = y_limits
+    ch.x_axis.number_format = "#,##0.##"
+    ch.y_axis.number_format = "#,##0.###"
+    ch.x_axis.crosses = "min"
+    ch.legend.position = "b"
+    s = Series(_ref(*slurry), _ref(*velocity), title="slurry")
+    _line(s, PALETTE["check"], width=28575)
+    ch.series.append(s)
+    s = Series(_ref(*carrier), _ref(*velocity), title="carrier alone")
+    _line(s, PALETTE["ochre"], width=19050, dash="dash")
+    ch.series.append(s)
+    for (name, xr, yr), colour in zip(markers, (PALETTE["bad"], PALETTE["ink"]), strict=False):
+        s = Series(_ref(*yr), _ref(*xr), title=name)
+        _line(s, colour, width=15875, dash="sysDash")
+        ch.series.append(s)
+    if points is not None:
+        name, xr, yr = points
+        s = Series(_ref(*yr), _ref(*xr), title=name)
+        _points_only(s, _SERIES_COLOURS[2], marker="diamond")
         ch.series.append(s)
     return ch
 

@@ -15,6 +15,7 @@ import calc
 from addin.case import Case, CaseInputError
 from addin.report.downhole import DownholeRun, compute_downhole
 from addin.report.trace import bed_method_of, slip_method_of
+from addin.slurry_case import slurry_lines
 from calc.circulation import (
     BALANCE_RESOLUTION,
     BALANCE_RESOLUTION_PRESSURISED,
@@ -61,6 +62,7 @@ from calc.rheology import (
     compare_checks,
     fit_all,
 )
+from calc.slurry import SlurryCurve, operating_curve
 from calc.surge import (
     DEFAULT_ACCELERATION_TIME,
     GEL_CHOICES,
@@ -266,6 +268,7 @@ class Results:
     pumps: PumpRun | None = None  # the pumps (needs [[pump]] with liner and stroke)
     two_part: TwoPartCalibration | None = None  # string and annulus calibration (needs pwd)
     downhole: DownholeRun | None = None  # density at downhole T and p (needs [temperature])
+    slurry_lines: tuple[SlurryCurve, ...] | None = None  # only with [[slurry_line]]
 
     @property
     def calibration(self) -> FrictionCalibration | None:
@@ -361,7 +364,13 @@ def compute(
         notes.extend(window.notes)
     # one note per caveat of the methods used (calc.verification), shown with the others
     slip = slip_method_of(cleaning.result.method) if cleaning is not None else None
-    notes.extend(caveat_notes(method, slip, bed_method_of(beds)))
+    slurry = _slurry_lines(case)
+    used = ()
+    if slurry is not None:
+        for curve in slurry:
+            notes.extend(curve.notes)
+        used = tuple(dict.fromkeys(m for curve in slurry for m in curve.methods))
+    notes.extend(caveat_notes(method, slip, bed_method_of(beds), used))
     return Results(
         case=case,
         run_time=run_time,
@@ -384,6 +393,7 @@ def compute(
         pumps=pumps,
         two_part=two_part,
         downhole=downhole,
+        slurry_lines=slurry,
     )
 
 
@@ -447,6 +457,14 @@ def _two_part(case, well, fluid, q, method, cleaning, bit_md) -> TwoPartCalibrat
             "calibration",
             values=(Value("reason", str(exc)),),
         )
+
+
+def _slurry_lines(case) -> tuple[SlurryCurve, ...] | None:
+    """The operating curve of every ``[[slurry_line]]`` (calc.slurry; None without one)."""
+    lines = slurry_lines(case)
+    if not lines:
+        return None
+    return tuple(operating_curve(line) for line in lines)
 
 
 def _loaded(well, res, cleaning, step) -> LoadedECD | None:

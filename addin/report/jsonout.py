@@ -11,6 +11,7 @@ from addin.report.compute import scalar
 from addin.report.sheet_beds import beds_data
 from addin.report.sheet_cleaning import short_name
 from addin.report.sheet_downhole import downhole_data
+from addin.report.sheet_slurry_line import slurry_line_data
 from addin.report.sheet_trips import point_label
 from addin.report.sheet_window import allowed_ecd, binding_words
 from addin.report.trace import used_methods
@@ -128,6 +129,8 @@ def results_data(results) -> dict:
         out["trips"] = _trips_data(results.surge, s)
     if results.window is not None:
         out["operating_window"] = _window_data(results, s)
+    if results.slurry_lines:
+        out["slurry_lines"] = slurry_line_data(results)
     out["circulation"]["tool_covered"] = list(res.tools.covered)
     if results.calibration is not None:
         out["calibration"] = _calibration_data(results.calibration, s)

@@ -37,6 +37,7 @@ from calc.flow import FRICTION_LAWS
 from calc.hydraulics_method import HYDRAULICS_METHODS, resolve_method
 from calc.registry import MethodInfo
 from calc.rheology import VISCOMETER_FITS
+from calc.slurry import SLURRY_METHODS
 
 __all__ = [
     "SETUP_NAMES",
@@ -112,6 +113,8 @@ def used_methods(results) -> list[tuple[str, MethodInfo]]:
     bed = bed_method_of(getattr(results, "beds", None))
     if bed is not None:
         parts.append((BED_METHODS, bed))
+    for curve in getattr(results, "slurry_lines", None) or ():
+        parts += [(SLURRY_METHODS, name) for name in curve.methods]
     out, seen = [], set()
     for reg, name in parts:
         if (reg.what, name) not in seen:

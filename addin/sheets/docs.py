@@ -34,6 +34,7 @@ _FAMILY_TITLES = {
     "cleaning": "Hole cleaning",
     "surge": "Surge, swab and trip speed",
     "pumps": "Mud pumps (strokes and rate)",
+    "slurry": "Settling slurries in pipes",
 }
 
 _ENABLE = """\

@@ -30,6 +30,7 @@ __all__ = [
     "api_turbulent_coefficients",
     "api_turbulent_fanning",
     "colebrook_fanning",
+    "colebrook_inverse_sqrt_darcy",
     "darby_bingham_fanning",
     "dodge_metzner_fanning",
     "hanks_critical_reynolds",
@@ -42,6 +43,29 @@ LN10 = np.log(10.0)
 #: Hanks (1963) constant in x_c/(1 - x_c)³ = He/16,800 (from memory, not yet checked against
 #: the source — calc/METHODS.md §6.14).
 HANKS_CONSTANT = 16_800.0
+
+
+def colebrook_inverse_sqrt_darcy(re_sqrt_darcy, relative_roughness=0.0):
+    """The right side of the Colebrook (1939) equation, 1/√λ for a given Re·√λ.
+
+    .. math:: 1/\\sqrt{λ} = -2\\log_{10}[(ε/D)/3.7 + 2.51/(Re\\sqrt{λ})]
+
+    Re·√λ = √8·ρu*D/μ needs only the friction velocity u* = √(τ_w/ρ), so this is the
+    Colebrook law in its explicit wall-stress form (used where the wall stress is the unknown,
+    e.g. :func:`calc.slurry.homogeneous.wilson_thomas_wall_stress`);
+    :func:`colebrook_fanning` solves the same equation for λ at a given Re.
+
+    Examples
+    --------
+    >>> lam = 4 * float(colebrook_fanning(1e5, 1e-4))
+    >>> x = float(colebrook_inverse_sqrt_darcy(1e5 * lam**0.5, 1e-4))
+    >>> round(x * lam**0.5, 12)
+    1.0
+    """
+    return -2.0 * np.log10(
+        np.asarray(relative_roughness, dtype=float) / 3.7
+        + 2.51 / np.asarray(re_sqrt_darcy, dtype=float)
+    )
 
 
 def colebrook_fanning(reynolds, relative_roughness=0.0):
@@ -81,7 +105,7 @@ def colebrook_fanning(reynolds, relative_roughness=0.0):
 
     def g(x):
         inner = a + b * x
-        return x + 2.0 * np.log10(inner), 1.0 + 2.0 * b / (inner * LN10)
+        return x - colebrook_inverse_sqrt_darcy(re / x, rr), 1.0 + 2.0 * b / (inner * LN10)
 
     x0 = np.full(re.shape, 1.0)  # left of every root for Re > 10 (x ≈ 5-12 in use)
     x = newton_increasing_concave(g, x0)
