@@ -220,6 +220,27 @@ TRIP_SCHEMA = {
     "schedule_band": Field("length", guard="string_length"),
 }
 
+CEMENT_JOB_SCHEMA = {
+    "mud": Field("text", required=True),
+    "spacers": Field("list", of="text"),
+    "spacer_volumes": Field("list", of="volume"),
+    "slurries": Field("list", required=True, of="text"),
+    "slurry_volumes": Field("list", required=True, of="volume"),
+    "pump_rate": Field("flow_rate", required=True),
+    "plug_drop_time": Field("time"),
+    "displacement_rate": Field("flow_rate", required=True),
+    "slow_rate": Field("flow_rate"),
+    "slow_volume": Field("volume"),
+    "liner_top": Field("depth", required=True),
+    "shoe": Field("depth", required=True),
+    "float_collar": Field("depth"),
+    "hole_depth": Field("depth"),
+    "liner_od": Field("diameter", required=True),
+    "liner_id": Field("diameter", required=True),
+    "pipe_od": Field("diameter", required=True),
+    "pipe_id": Field("diameter", required=True),
+}
+
 #: Top-level sections: name → (is an array of tables, schema or None if not parsed here yet).
 SECTIONS: dict[str, tuple[bool, Mapping[str, Field] | None]] = {
     "case": (False, CASE_SCHEMA),
@@ -238,6 +259,7 @@ SECTIONS: dict[str, tuple[bool, Mapping[str, Field] | None]] = {
     "string": (True, STRING_SCHEMA),
     "tool_pressure": (False, TOOL_PRESSURE_SCHEMA),
     "trip": (False, TRIP_SCHEMA),
+    "cement_job": (False, CEMENT_JOB_SCHEMA),
 }
 #: Sections a hydraulics report needs (the rheology subcommand needs only checks).
 HYDRAULICS_SECTIONS = ("survey", "open_hole", "bit", "string")

@@ -254,6 +254,26 @@ LABELS: dict[str, dict[str, str]] = {
         "circulation_gel": "gel broken when circulation starts (10min, 10s or 30min)",
         "schedule_band": "depth band of the trip schedule (blank = 1000 ft)",
     },
+    "cement_job": {
+        "mud": "mud in the well and displacing (check label)",
+        "spacers": "spacers pumped first (slurry names)",
+        "spacer_volumes": "spacer volumes",
+        "slurries": "cement slurries, lead first (slurry names)",
+        "slurry_volumes": "slurry volumes",
+        "pump_rate": "spacer and slurry pump rate",
+        "plug_drop_time": "pumps stopped to drop the plug",
+        "displacement_rate": "displacement rate",
+        "slow_rate": "slow rate before bump",
+        "slow_volume": "displacement volume at the slow rate",
+        "liner_top": "liner top (MD)",
+        "shoe": "liner shoe (MD)",
+        "float_collar": "float collar (MD)",
+        "hole_depth": "TD (MD)",
+        "liner_od": "liner OD",
+        "liner_id": "liner ID",
+        "pipe_od": "running-string OD",
+        "pipe_id": "running-string ID",
+    },
     "slurry": {
         "name": "name",
         "density": "density",
@@ -315,6 +335,7 @@ LAYOUT: tuple[Block, ...] = (
     _block("check", "Mud checks, oldest first (one column each)", "columns"),
     _block("trip", "Planned trip (surge and swab)", "values"),
     _block("slurry", "Spacer and cement slurries (one column each)", "columns"),
+    _block("cement_job", "Planned cement job (liner placement)", "values"),
 )
 
 BLOCKS: dict[str, Block] = {b.key: b for b in LAYOUT}

@@ -201,7 +201,7 @@ TEMPLATE_SHEETS: dict[str, tuple[str, ...]] = {
     "Well": ("case", "limits", "open_hole", "casing", "survey", "pressure_window", "weak_point"),
     "Rig and string": ("pump", "surface_line", "bit", "string", "tool_pressure"),
     "Mud checks": ("check",),
-    "Plans": ("trip", "slurry"),
+    "Plans": ("trip", "slurry", "cement_job"),
 }
 
 
