@@ -29,6 +29,7 @@ from openpyxl.utils import get_column_letter
 from addin.report.audit import Factors
 from addin.report.compute import Results, compute
 from addin.report.sheet_bit import write_bit
+from addin.report.sheet_cement import write_cement
 from addin.report.sheet_cleaning import write_cleaning
 from addin.report.sheet_ecd import write_ecd
 from addin.report.sheet_hydraulics import write_hydraulics
@@ -63,6 +64,7 @@ def build_report(results: Results):
     refs["cleaning"] = write_cleaning(wb, results, factors, title, refs["hydraulics"]["q"])
     refs["trips"] = write_trips(wb, results, factors, title)
     refs["window"] = write_window(wb, results, title)
+    refs["cement"] = write_cement(wb, results, title)
     write_cautions(wb, results, title)
     write_summary(summary, results, refs, title)
     write_audit(audit, results, factors, title)

@@ -13,6 +13,7 @@ import numpy as np
 
 import calc
 from addin.case import Case, CaseInputError
+from addin.cement_job import CementJob, cement_job
 from addin.report.trace import bed_method_of, slip_method_of
 from calc.circulation import (
     BALANCE_RESOLUTION,
@@ -224,6 +225,7 @@ class Results:
     loaded: LoadedECD | None = None  # with the cuttings load (needs cleaning)
     beds: WellBeds | None = None  # stationary cuttings beds (needs cleaning)
     band: EcdBand | None = None  # the input-uncertainty band (clean circulating mud)
+    cement: CementJob | None = None  # the placement of [cement_job] (only with that section)
 
     @property
     def calibration(self) -> FrictionCalibration | None:
@@ -327,6 +329,7 @@ def compute(
         loaded=loaded,
         beds=beds,
         band=band,
+        cement=cement_job(case, method),
     )
 
 
