@@ -446,7 +446,7 @@ def simulate_placement(
     a = np.array([x[:5] for x in rec], dtype=float)
     time, pumped, returned, qpump, qout = a.T
     free_fall = np.array([x[5] for x in rec], dtype=bool)
-    tl = _evaluate(
+    tl = evaluate_states(
         geometry,
         train,
         points,
@@ -479,7 +479,7 @@ def simulate_placement(
     return tl
 
 
-def _evaluate(
+def evaluate_states(
     geometry,
     train,
     points,
@@ -496,6 +496,8 @@ def _evaluate(
     qout,
     free_fall,
 ):
+    """Pressures, ECDs and positions of the states (pumped, returned, rates) of a placement, all
+    steps at once (used by :func:`simulate_placement`; the benchmark calls it per step too)."""
     vs, vt = geometry.string_volume, geometry.total_volume
     rho = train.density
     lo, hi = train.intervals(pumped, returned, vt)  # (N, F)
