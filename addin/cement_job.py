@@ -135,6 +135,7 @@ def cement_job(case, method, steps: int = 2000) -> CementJob | None:
                 f"{src}: cement_job.slow_volume",
                 slow_v,
                 "< the displacement volume to the float collar",
+                kind="volume",
             )
         stages.append(PumpStage(disp, nominal, label="displacement"))
         stages.append(PumpStage(slow, label="displacement, slow"))

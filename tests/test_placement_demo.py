@@ -62,3 +62,29 @@ def test_demo_top_of_cement_at_bump_from_the_annular_capacities():
     # the U-tube during the plug drop shows as free fall
     assert tl.free_fall.any()
     assert len(tl.pumped) > 2000
+
+
+@pytest.mark.parametrize(
+    ("old", "new", "words"),
+    [
+        ("slurry_volumes = [95.0]", "slurry_volumes = [-95.0]", "volume = -95 bbl"),
+        ("slurry_volumes = [95.0]", "slurry_volumes = [5000.0]", "5,040 bbl"),
+        ('pump_rate = "5 bbl/min"', 'pump_rate = "-5 bbl/min"', "cement_job.pump_rate"),
+        ('slurries = ["liner slurry (extended Class G)"]', 'slurries = ["tail"]', "'tail'"),
+        ("slow_volume = 20.0 ", "slow_volume = 2000.0 ", "2,000 bbl"),
+    ],
+)
+def test_bad_cement_job_inputs_name_the_input_in_the_case_units(tmp_path, old, new, words):
+    """Bad [cement_job] input: an InputError naming the input and the value in the case's
+    units (project rule), never a traceback."""
+    from addin import text
+    from calc.errors import InputError
+
+    src = CASE_FILE.read_text(encoding="utf-8")
+    assert old in src
+    p = tmp_path / "bad.toml"
+    p.write_text(src.replace(old, new), encoding="utf-8")
+    with pytest.raises(InputError) as exc:
+        case = load_case(p)
+        cement_job(case, case.hydraulics_method())
+    assert words in text.error(exc.value, "oilfield")
