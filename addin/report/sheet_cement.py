@@ -338,7 +338,7 @@ def _charts(ws, tl, cols, rows, chart_row, system):
         [("pump rate", (ws, 3, r0, r1), "value"), ("return rate", (ws, 4, r0, r1), "value2")],
         rate_unit="",
         y_title=f"rate [{U('flow_rate', system)}]",
-        title="Pump and return rate (free fall where returns exceed pumps)",
+        title="Pump and return rate (free fall: returns above the pumps)",
         y_limits=(ylo, yhi, ystep),
         x_limits=xl,
         x_title=xt,
