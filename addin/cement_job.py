@@ -27,10 +27,23 @@ from calc.placement import (
 )
 from calc.placement.checks import DisplacementCheck
 
-__all__ = ["SLURRY_FIT", "CementJob", "cement_job"]
+__all__ = ["SLURRY_FIT", "CementJob", "cement_job", "slurry_fit"]
 
-#: The fit of spacers and slurries for the placement (their readings have no 600 rpm).
+#: The fit of spacers and slurries for the placement (their readings have no 600 rpm): the
+#: least-squares fit of the model the friction law takes (Herschel-Bulkley unless the law needs
+#: a Bingham plastic, a power law or a Newtonian fluid).
 SLURRY_FIT = "hb_least_squares"
+_FIT_FOR_LAW = {
+    "bingham": "bingham_least_squares",
+    "power_law": "power_law_least_squares",
+    "api13d_1995": "power_law_least_squares",
+    "newtonian": "newtonian_least_squares",
+}
+
+
+def slurry_fit(friction: str) -> str:
+    """The least-squares fit for spacers and slurries under friction law ``friction``."""
+    return next((f for k, f in _FIT_FOR_LAW.items() if friction.startswith(k)), SLURRY_FIT)
 
 
 @dataclass(frozen=True, eq=False)
@@ -87,7 +100,8 @@ def cement_job(case, method, steps: int = 2000) -> CementJob | None:
         s = slurries[nm]
         role = "spacer" if i < n_sp else "slurry"
         # cement-mode readings stop at 300 rpm (API RP 10B-2): least-squares HB over all speeds
-        sm = resolve_method(method, pipe_fit=SLURRY_FIT, annulus_fit=SLURRY_FIT)
+        sf = slurry_fit(method.friction)
+        sm = resolve_method(method, pipe_fit=sf, annulus_fit=sf)
         train_fluids.append(_fluid(s.readings, s.values["density"], sm, nm, role))
         volumes.append(v)
     train_fluids.append(

@@ -372,8 +372,9 @@ def write_cement(wb, results, title: str) -> dict:
         for f, v in zip(tl.train.fluids, (None, *tl.train.volumes, None), strict=True)
     )
     intro = (
-        f"Fluid train (mud in the well first): {train}. Spacers and slurries: Herschel-Bulkley "
-        "least squares over their readings at test temperature; the mud: the case's method. "
+        f"Fluid train (mud in the well first): {train}. Spacers and slurries: least squares of the "
+        "friction law's model (Herschel-Bulkley for the default) over their readings at test "
+        "temperature; the mud: the case's method. "
         f"Friction law {tl.method} in every leg. Model: incompressible fluids moving as plugs "
         "(no mixing), quasi-steady friction at each volume step, returns open at surface; "
         "where the string side is heavier than friction can hold, the string top stands at "
