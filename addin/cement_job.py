@@ -67,8 +67,8 @@ def _fluid(readings, density, method, name, role) -> PlacementFluid:
 def cement_job(case, method, steps: int = 2000) -> CementJob | None:
     """Run the case's ``[cement_job]`` (None when the case has none)."""
     cj = case.sections.get("cement_job")
-    if not cj:
-        return None
+    if not cj or case.window is None or not case.slurries:
+        return None  # the placement needs the pore-fracture window and the slurries
     src = case.source
     labels = [c.label for c in case.checks]
     mud_label = cj["mud"]
@@ -101,7 +101,7 @@ def cement_job(case, method, steps: int = 2000) -> CementJob | None:
         role = "spacer" if i < n_sp else "slurry"
         # cement-mode readings stop at 300 rpm (API RP 10B-2): least-squares HB over all speeds
         sf = slurry_fit(method.friction)
-        sm = resolve_method(method, pipe_fit=sf, annulus_fit=sf)
+        sm = resolve_method(method, pipe_fit=sf, annulus_fit=sf, constants="exact")
         train_fluids.append(_fluid(s.readings, s.values["density"], sm, nm, role))
         volumes.append(v)
     train_fluids.append(
@@ -167,7 +167,8 @@ def cement_job(case, method, steps: int = 2000) -> CementJob | None:
         steps=steps,
         surface_rating=lim["surface_rating"],
     )
-    zone = next((p for p in pts if p.role == "weak_point"), pts[-1])
+    zone = next((p for p in pts if p.role == "weak_point"), None)
+    zone = zone or next(p for p in pts if p.role == "shoe")
     contact = tuple(contact_time(tl, i, zone.md) for i in range(1, 1 + n_sp))
     return CementJob(
         tl, tuple(density_hierarchy(train)), tuple(friction_hierarchy(tl)), contact, zone.name

@@ -30,6 +30,7 @@ SHEETS = [
     "Cleaning",
     "Trips",
     "Rate window",
+    "Cement job",
     "Cautions",
     "Audit",
 ]

@@ -65,9 +65,10 @@ def BF_TRAIN_HYDROSTATIC(
     hydrostatic: Text(_HYDRO) = None,
     units: Cells(_UNITS) = None,
 ) -> Any:
-    """Hydrostatic pressure at a TVD under a stack of fluids (a cement job's fluid train in
-    the annulus or the string): each fluid fills from its top down to the next top (psi in
-    oilfield units).  10 ppg from surface to 8,000 ft over 15 ppg to 10,000 ft:
+    """Hydrostatic pressure at a TVD under a stack of fluids, each from its top to the next
+    top (a cement job's fluid train; psi in oilfield units).
+
+    10 ppg from surface to 8,000 ft over 15 ppg to 10,000 ft:
     0.052 × (10 × 8,000 + 15 × 2,000) = 5,720 psi.
 
     >>> round(BF_TRAIN_HYDROSTATIC(10000.0, [[0.0, 8000.0]], [[10.0, 15.0]], "0.052"), 6)
