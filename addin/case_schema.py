@@ -268,6 +268,26 @@ SLURRY_LINE_SCHEMA = {
     "rate_range": Field("range", of="flow_rate", guard="flow_rate"),
     "method": Field("text"),
 }
+CEMENT_JOB_SCHEMA = {
+    "mud": Field("text", required=True),
+    "spacers": Field("list", of="text"),
+    "spacer_volumes": Field("list", of="volume"),
+    "slurries": Field("list", required=True, of="text"),
+    "slurry_volumes": Field("list", required=True, of="volume"),
+    "pump_rate": Field("flow_rate", required=True, guard="flow_rate"),
+    "plug_drop_time": Field("time"),
+    "displacement_rate": Field("flow_rate", required=True, guard="flow_rate"),
+    "slow_rate": Field("flow_rate", guard="flow_rate"),
+    "slow_volume": Field("volume"),
+    "liner_top": Field("depth", required=True, guard="depth"),
+    "shoe": Field("depth", required=True, guard="depth"),
+    "float_collar": Field("depth", guard="depth"),
+    "hole_depth": Field("depth", guard="depth"),
+    "liner_od": Field("diameter", required=True, guard="hole_diameter"),
+    "liner_id": Field("diameter", required=True, guard="hole_diameter"),
+    "pipe_od": Field("diameter", required=True, guard="pipe_diameter"),
+    "pipe_id": Field("diameter", required=True, guard="pipe_diameter"),
+}
 
 #: Top-level sections: name → (is an array of tables, schema or None if not parsed here yet).
 SECTIONS: dict[str, tuple[bool, Mapping[str, Field] | None]] = {
@@ -289,6 +309,7 @@ SECTIONS: dict[str, tuple[bool, Mapping[str, Field] | None]] = {
     "trip": (False, TRIP_SCHEMA),
     "temperature": (False, TEMPERATURE_SCHEMA),
     "slurry_line": (True, SLURRY_LINE_SCHEMA),
+    "cement_job": (False, CEMENT_JOB_SCHEMA),
 }
 #: Sections a hydraulics report needs (the rheology subcommand needs only checks).
 HYDRAULICS_SECTIONS = ("survey", "open_hole", "bit", "string")

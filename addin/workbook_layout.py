@@ -297,6 +297,26 @@ LABELS: dict[str, dict[str, str]] = {
         "rate_range": "rate range",
         "method": "gradient method (four_component_2006 or durand_condolios_1952)",
     },
+    "cement_job": {
+        "mud": "mud in the well and displacing (check label)",
+        "spacers": "spacers pumped first (slurry names)",
+        "spacer_volumes": "spacer volumes",
+        "slurries": "cement slurries, lead first (slurry names)",
+        "slurry_volumes": "slurry volumes",
+        "pump_rate": "spacer and slurry pump rate",
+        "plug_drop_time": "pumps stopped to drop the plug",
+        "displacement_rate": "displacement rate",
+        "slow_rate": "slow rate before bump",
+        "slow_volume": "displacement volume at the slow rate",
+        "liner_top": "liner top (MD)",
+        "shoe": "liner shoe (MD)",
+        "float_collar": "float collar (MD)",
+        "hole_depth": "TD (MD)",
+        "liner_od": "liner OD",
+        "liner_id": "liner ID",
+        "pipe_od": "running-string OD",
+        "pipe_id": "running-string ID",
+    },
     "slurry": {
         "name": "name",
         "density": "density",
@@ -364,6 +384,7 @@ LAYOUT: tuple[Block, ...] = (
     _block("temperature", "Temperatures in the well (density at downhole T and p)", "values"),
     _block("slurry", "Spacer and cement slurries (one column each)", "columns"),
     _block("slurry_line", "Slurry lines, settling solids (one column each)", "columns"),
+    _block("cement_job", "Planned cement job (liner placement)", "values"),
 )
 
 BLOCKS: dict[str, Block] = {b.key: b for b in LAYOUT}

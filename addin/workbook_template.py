@@ -202,7 +202,7 @@ TEMPLATE_SHEETS: dict[str, tuple[str, ...]] = {
     "Well": (*_WELL_BLOCKS, "temperature"),
     "Rig and string": ("pump", "surface_line", "bit", "string", "tool_pressure"),
     "Mud checks": ("check",),
-    "Plans": ("trip", "slurry", "slurry_line"),
+    "Plans": ("trip", "slurry", "slurry_line", "cement_job"),
 }
 
 

@@ -322,6 +322,7 @@ NOT_RESULTS = {
     "6": "rotor speed ('3- and 6-rpm readings' in the cautions), an input",
     "18": "'calc/METHODS.md §18', a section number of the in-repo methods reference",
     "10.13": "'calc/METHODS.md §10.13', a section number of the in-repo methods reference",
+    "24": "'calc/METHODS.md §24', a section number of the in-repo methods reference",
     "1997": "year of Larsen, Pilehvari & Azar (citation, a method's name)",
     "1999": "year of Rubiandini (citation, a method's name)",
 }

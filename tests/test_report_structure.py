@@ -32,6 +32,7 @@ SHEETS = [
     "Rate window",
     "Downhole",
     "Slurry line",
+    "Cement job",
     "Cautions",
     "Audit",
 ]

@@ -160,6 +160,8 @@ VALID = {
     "q": 522.0,
     "length": 1000.0,
     "tvd": 9000.0,
+    "tops": [[0.0, 8000.0]],
+    "densities": [[11.0, 15.0]],
     "pressure": 5000.0,
     "annular_loss": 300.0,
     "back_pressure": None,

@@ -29,6 +29,7 @@ from openpyxl.utils import get_column_letter
 from addin.report.audit import Factors
 from addin.report.compute import Results, compute
 from addin.report.sheet_bit import write_bit
+from addin.report.sheet_cement import write_cement
 from addin.report.sheet_cleaning import write_cleaning
 from addin.report.sheet_downhole import write_downhole
 from addin.report.sheet_ecd import write_ecd
@@ -67,6 +68,7 @@ def build_report(results: Results):
     refs["window"] = write_window(wb, results, title)
     refs["downhole"] = write_downhole(wb, results, title)
     write_slurry_line(wb, results, title)
+    refs["cement"] = write_cement(wb, results, title)
     write_cautions(wb, results, title)
     write_summary(summary, results, refs, title)
     write_audit(audit, results, factors, title)

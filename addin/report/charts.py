@@ -230,8 +230,10 @@ def rate_curves(
     y_limits: tuple[float, float, float] | None = None,
     x_limits: tuple[float, float, float] | None = None,
     markers: list[tuple[str, tuple, tuple]] = (),
+    x_title: str | None = None,
 ) -> ScatterChart:
-    """Curves against flow rate (x) for the operating-window sheet.
+    """Curves against flow rate (x) for the operating-window sheet (or against another x
+    quantity titled ``x_title``, e.g. the pumped volume of the cement-job sheet).
 
     curves
         ``[(label, (ws, col, r0, r1), role), ...]``; role ``"value"`` (solid), ``"limit"``
@@ -251,7 +253,7 @@ def rate_curves(
     ch.title = _small_title(title)
     ch.style = 2
     ch.height, ch.width = 11.5, 9.2
-    _axis_common(ch.x_axis, f"flow rate [{rate_unit}]")
+    _axis_common(ch.x_axis, x_title or f"flow rate [{rate_unit}]")
     _axis_common(ch.y_axis, y_title)
     if x_limits is not None:
         ch.x_axis.scaling.min, ch.x_axis.scaling.max, ch.x_axis.majorUnit = x_limits

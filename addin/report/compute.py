@@ -13,6 +13,7 @@ import numpy as np
 
 import calc
 from addin.case import Case, CaseInputError
+from addin.cement_job import CementJob, cement_job
 from addin.report.downhole import DownholeRun, compute_downhole
 from addin.report.trace import bed_method_of, slip_method_of
 from addin.slurry_case import slurry_lines
@@ -269,6 +270,7 @@ class Results:
     two_part: TwoPartCalibration | None = None  # string and annulus calibration (needs pwd)
     downhole: DownholeRun | None = None  # density at downhole T and p (needs [temperature])
     slurry_lines: tuple[SlurryCurve, ...] | None = None  # only with [[slurry_line]]
+    cement: CementJob | None = None  # the placement of [cement_job] (only with that section)
 
     @property
     def calibration(self) -> FrictionCalibration | None:
@@ -394,6 +396,7 @@ def compute(
         two_part=two_part,
         downhole=downhole,
         slurry_lines=slurry,
+        cement=cement_job(case, method),
     )
 
 

@@ -140,6 +140,8 @@ def results_data(results) -> dict:
         out["pumps"] = _pumps_data(results, s)
     if getattr(results, "two_part", None) is not None:
         out["two_part_calibration"] = _two_part_data(results.two_part, s)
+    if results.cement is not None:
+        out["cement_job"] = _cement_data(results.cement, s)
     out["trend"] = [_trend_data(t, s) for t in results.trend]
     out["notes"] = [
         {
@@ -622,4 +624,81 @@ def _window_data(results, s) -> dict:
             }
             for name, m in ow.limits.items()
         },
+    }
+
+
+def _cement_data(job, s) -> dict:
+    """The ``[cement_job]`` placement: timeline, check points, tightest moment, checks."""
+    tl = job.timeline
+    t = tl.tightest
+    out = {
+        "units": {
+            k: label(unit_for(k, s))
+            for k in ("volume", "flow_rate", "pressure", "density", "depth")
+        },
+        "method": tl.method,
+        "steps": int(tl.pumped.size),
+        "tightest": {
+            "point": t.point,
+            "limit": t.limit,
+            "ecd": _c(t.ecd, "density", s),
+            "margin": _c(t.margin, "density", s),
+            "required": _c(t.required, "density", s),
+            "pumped": _c(t.pumped, "volume", s),
+            "time_min": t.time / 60.0,
+        },
+        "bump_differential": _c(tl.bump_differential, "pressure", s),
+        "final_circulating_pressure": _c(tl.final_circulating_pressure, "pressure", s),
+        "max_surface_pressure": _c(float(tl.surface_pressure.max()), "pressure", s),
+        "key_moments": {k: _c(tl.pumped[i], "volume", s) for k, i in tl.key_moments.items()},
+        "free_fall_periods": [
+            {
+                "from": _c(tl.pumped[a], "volume", s),
+                "to": _c(tl.pumped[min(b + 1, tl.pumped.size - 1)], "volume", s),
+            }
+            for a, b in tl.free_fall_periods
+        ],
+        "points": [
+            {
+                "name": p.name,
+                "role": p.role,
+                "ecd": _c(tl.ecd[:, k], "density", s),
+                "fracture": _c(tl.fracture[:, k], "density", s),
+                "pore": _c(tl.pore[:, k], "density", s),
+                "static_ecd": _c(tl.static_ecd[k], "density", s),
+            }
+            for k, p in enumerate(tl.points)
+        ],
+        "timeline": {
+            "pumped": _c(tl.pumped, "volume", s),
+            "time_min": [float(x) / 60.0 for x in tl.time],
+            "pump_rate": _c(tl.pump_rate, "flow_rate", s),
+            "return_rate": _c(tl.return_rate, "flow_rate", s),
+            "surface_pressure": _c(tl.surface_pressure, "pressure", s),
+            "free_fall": [bool(x) for x in tl.free_fall],
+            "top_of_cement_md": _c(tl.toc_md, "depth", s),
+        },
+        "checks": [_check_data(c, s) for c in (*job.density, *job.friction, *job.contact)],
+    }
+    return out
+
+
+def _check_data(c, s) -> dict:
+    """One displacement check with its unit: density step (case unit), friction step (ratio
+    − 1), contact time (min)."""
+    if c.check == "density":
+        val, req = _c(c.value, "density", s), _c(c.required, "density", s)
+        unit = label(unit_for("density", s))
+    elif c.check == "contact_time":
+        val, req, unit = c.value / 60.0, c.required / 60.0, "min"
+    else:
+        val, req, unit = c.value, c.required, "-"
+    return {
+        "check": c.check,
+        "ahead": c.ahead,
+        "behind": c.behind,
+        "value": val,
+        "required": req,
+        "unit": unit,
+        "met": bool(c.ok),
     }

@@ -17,9 +17,11 @@ from addin.sheets.fn_rheology import viscometer
 from addin.sheets.framework import Cells, Num, Text, sheet_function
 from calc import circulation as cc
 from calc.circulation.hydrostatics import HYDROSTATIC_OPTIONS
+from calc.errors import InputError
 from calc.hydraulics_method import HYDRAULICS_METHODS
+from calc.placement import train_hydrostatic
 
-__all__ = ["BF_ECD", "BF_ECD_BAND", "BF_EMW", "BF_HYDROSTATIC"]
+__all__ = ["BF_ECD", "BF_ECD_BAND", "BF_EMW", "BF_HYDROSTATIC", "BF_TRAIN_HYDROSTATIC"]
 
 FAMILY = "pressure"
 
@@ -52,6 +54,35 @@ def BF_HYDROSTATIC(
     uset = cells.unit_set(units)
     tvd_si = cells.positive_values(tvd, "tvd", "depth", uset, allow_zero=True)
     p = cc.hydrostatic_pressure(_density(density, uset), tvd_si, hydrostatic=_hydro(hydrostatic))
+    return uset.from_si(p, "pressure")
+
+
+@sheet_function(FAMILY)
+def BF_TRAIN_HYDROSTATIC(
+    tvd: Cells(_TVD),
+    tops: Cells("TVD of the top of each fluid, shallowest first (ft in oilfield units)"),
+    densities: Cells("Density of each fluid, same order (ppg in oilfield units)"),
+    hydrostatic: Text(_HYDRO) = None,
+    units: Cells(_UNITS) = None,
+) -> Any:
+    """Hydrostatic pressure at a TVD under a stack of fluids, each from its top to the next
+    top (a cement job's fluid train; psi in oilfield units).
+
+    10 ppg from surface to 8,000 ft over 15 ppg to 10,000 ft:
+    0.052 × (10 × 8,000 + 15 × 2,000) = 5,720 psi.
+
+    >>> round(BF_TRAIN_HYDROSTATIC(10000.0, [[0.0, 8000.0]], [[10.0, 15.0]], "0.052"), 6)
+    5720.0
+    """
+    uset = cells.unit_set(units)
+    tvd_si = cells.positive_values(tvd, "tvd", "depth", uset, allow_zero=True)
+    top_si = cells.numbers(tops, "tops", "depth", uset).ravel()
+    rho_si = cells.numbers(densities, "densities", "density", uset).ravel()
+    if top_si.size != rho_si.size:
+        raise InputError(
+            "tops and densities", f"{top_si.size} tops, {rho_si.size} densities", "one of each"
+        )
+    p = train_hydrostatic(tvd_si, top_si, rho_si, hydrostatic=_hydro(hydrostatic))
     return uset.from_si(p, "pressure")
 
 
