@@ -30,6 +30,8 @@ from calc.hydraulics_method import DEFAULT_METHOD, HYDRAULICS_METHODS, resolve_m
 from calc.notes import Note
 from calc.registry import MethodRegistry, Verification
 from calc.rheology import TABLE_FITS, VISCOMETER_FITS
+from calc.rheology.temperature import TEMPERATURE_LAWS
+from calc.rheology.viscometer import VISCOMETER_CORRECTIONS
 from calc.values import Value
 
 __all__ = ["REGISTRIES", "caveat_notes", "list_methods", "method_caveats"]
@@ -45,6 +47,8 @@ REGISTRIES: tuple[MethodRegistry, ...] = (
     DEVIATED_METHODS,
     OPTIMISATION_CRITERIA,
     BED_METHODS,
+    TEMPERATURE_LAWS,
+    VISCOMETER_CORRECTIONS,
 )
 
 V = Verification
