@@ -156,6 +156,10 @@ RANGES: dict[str, Plausibility] = {
         _r("rating", "pressure", "psi", (0.0, 40000.0), (1000.0, 15000.0), low_open=True),
         _r("tool_drop", "pressure", "psi", (0.0, 10000.0), (0.0, 2000.0)),
         _r("temperature", "temperature", "degC", (-20.0, 320.0), (5.0, 95.0)),
+        # a further viscometer reading of a check (calc/METHODS.md §21): HPHT instruments read
+        # to about 260 °C; above 205 °C is unusual (common practice)
+        _r("rheology_temperature", "temperature", "degC", (0.0, 260.0), (5.0, 205.0)),
+        _r("viscometer_pressure", "pressure", "psi", (0.0, 40000.0), (0.0, 30000.0)),
         _r("rop", "rop", "m/hour", (0.0, 600.0), (0.3, 100.0), low_open=True),
         _r("rpm", "number", None, (0.0, 1000.0), (0.0, 250.0)),
         _r("trip_speed", "trip_speed", "m/s", (0.0, 10.0), (0.05, 2.0), low_open=True),

@@ -13,6 +13,7 @@ import numpy as np
 
 import calc
 from addin.case import Case, CaseInputError
+from addin.report.rheology_temperature import TemperatureTable, rheology_notes, temperature_table
 from addin.report.trace import bed_method_of, slip_method_of
 from calc.circulation import (
     BALANCE_RESOLUTION,
@@ -224,6 +225,7 @@ class Results:
     loaded: LoadedECD | None = None  # with the cuttings load (needs cleaning)
     beds: WellBeds | None = None  # stationary cuttings beds (needs cleaning)
     band: EcdBand | None = None  # the input-uncertainty band (clean circulating mud)
+    temperature_table: TemperatureTable | None = None  # latest check read at 2+ temperatures
 
     @property
     def calibration(self) -> FrictionCalibration | None:
@@ -271,6 +273,8 @@ def compute(
     step = 30.48 if case.unit_system == "oilfield" else 25.0  # profile grid: 100 ft or 25 m
     prof = res.profile(step)
     notes = list(well.notes) + list(res.notes)
+    notes.extend(rheology_notes(case.checks[-1], fluid))
+    t_table = temperature_table(case.checks[-1], method, density)
     for c in checks:
         notes.extend(c.readings.notes)
         notes.extend(c.fits.notes)
@@ -327,6 +331,7 @@ def compute(
         loaded=loaded,
         beds=beds,
         band=band,
+        temperature_table=t_table,
     )
 
 

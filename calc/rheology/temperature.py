@@ -132,8 +132,12 @@ def _check_temperature(name, value):
         raise InputError(
             name,
             float(t[bad].flat[0]),
-            f"{MIN_TEMPERATURE:g} to {MAX_TEMPERATURE:g} K (0 to 260 °C, 32 to 500 °F; "
-            "below freezing or above the range of the temperature laws)",
+            "{low} to {high} (from freezing to the top of the temperature laws' range)",
+            kind="temperature",
+            values=(
+                Value("low", MIN_TEMPERATURE, "temperature"),
+                Value("high", MAX_TEMPERATURE, "temperature"),
+            ),
         )
     return t
 
