@@ -186,6 +186,13 @@ VALID = {
     "balance_resolution": None,
     "rate_uncertainty": None,
     "accel_time": 2.0,
+    # rheology at temperature (fn_rheology_temperature): D1 at 120 °F and an invented hot reading
+    "readings_1": GOOD_READINGS,
+    "readings_2": [[600, 46], [300, 31], [200, 24], [100, 17], [6, 7], [3, 6]],
+    "temperature_1": 120.0,
+    "temperature_2": 150.0,
+    "temperature": 135.0,
+    "parameter": "k",
 }
 
 

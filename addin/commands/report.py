@@ -32,10 +32,19 @@ def output_path(value: str, option: str = "--output") -> Path:
     return Path(value)
 
 
-def run_one(case_path, out_path, *, force=False, method=None, constants=None, allow_unusual=False):
+def run_one(
+    case_path,
+    out_path,
+    *,
+    force=False,
+    method=None,
+    constants=None,
+    allow_unusual=False,
+    shear_rate_correction=None,
+):
     """Load, compute and write one report; returns (results, seconds).
 
-    ``method``/``constants`` override the case's ``[case].method``/``[case].constants``; a
+    ``method``/``constants``/``shear_rate_correction`` override the case's ``[case]`` keys; a
     case with unusual values is refused unless ``allow_unusual`` (addin/guard.py)."""
     t0 = time.perf_counter()
     out = Path(out_path)
@@ -44,6 +53,7 @@ def run_one(case_path, out_path, *, force=False, method=None, constants=None, al
     if not out.parent.is_dir():
         raise FileNotFoundError(f"{out.parent}: output folder does not exist")
     case = accept_unusual(load_case(case_path), allow_unusual, _warn)
+    case = case.with_shear_rate_correction(shear_rate_correction)
     results = compute(case, method=case.hydraulics_method(method, constants))
     write_report(results, out, overwrite=force)
     return results, time.perf_counter() - t0
@@ -67,6 +77,7 @@ def run(args) -> int:
         method=args.method,
         constants=args.constants,
         allow_unusual=getattr(args, "allow_unusual", False),
+        shear_rate_correction=getattr(args, "shear_rate_correction", None),
     )
     if args.json:
         print(json_text(results_data(results)))
