@@ -610,6 +610,13 @@ def _readings_at(values, where, label, correction):
         if key not in values:
             continue
         sub = values[key]
+        if values.get("cup_temperature") is None:
+            raise InputError(
+                f"{where}.{key}",
+                "a reading at another temperature",
+                "a cup_temperature on the check (the temperature of its own dial readings)",
+                problem="missing cup_temperature",
+            )
         rd = {"dial": sub["dial"], "viscometer": values.get("viscometer")}
         more.append(
             _readings(
