@@ -41,6 +41,7 @@ from addin.case_schema import (
     CASE_SCHEMA,
     CHECK_SCHEMA,
     HYDRAULICS_SECTIONS,
+    READING_KEYS,
     SECTIONS,
     SLURRY_SCHEMA,
     Field,
@@ -65,7 +66,7 @@ from calc.geometry import (
 from calc.hydraulics_method import HydraulicsMethod, resolve_method
 from calc.pumps import Pump
 from calc.rheology import STANDARD_GEOMETRY, ViscometerGeometry, ViscometerReadings
-from calc.rheology.viscometer import FIELD_STRESS
+from calc.rheology.viscometer import FIELD_STRESS, SHEAR_RATE_CORRECTIONS
 from calc.units import UNIT_SYSTEMS, to_si, unit_for
 
 __all__ = [
@@ -280,6 +281,15 @@ class CheckInput:
     label: str
     readings: ViscometerReadings
     values: Mapping[str, Any]
+    #: the same sample read at further cup temperatures (``reading_2`` …; calc/METHODS.md §21)
+    readings_at: tuple[ViscometerReadings, ...] = ()
+    #: gauge pressure of each reading [Pa] (cup, then readings_at), None where not given
+    pressures: tuple[float | None, ...] = ()
+
+    @property
+    def all_readings(self) -> tuple[ViscometerReadings, ...]:
+        """The check's readings at every temperature it was read at, cup reading first."""
+        return (self.readings, *self.readings_at)
 
 
 @dataclass(frozen=True, eq=False)
@@ -360,6 +370,35 @@ class Case:
         else:
             option = check_joint_losses(option)
         return dict(rpm=float(rpm or 0.0), joint_losses=option)
+
+    def with_shear_rate_correction(self, correction: str | None) -> Case:
+        """The case with every viscometer reading converted with ``correction`` (the command
+        line's ``--shear-rate-correction``, which overrides ``[case].shear_rate_correction``):
+        ``newtonian`` or ``krieger`` (calc/METHODS.md §21.2); None → the case unchanged."""
+        if correction is None:
+            return self
+        c = str(correction).strip().lower()
+        if c not in SHEAR_RATE_CORRECTIONS:
+            raise InputError(
+                "--shear-rate-correction", correction, " or ".join(SHEAR_RATE_CORRECTIONS)
+            )
+
+        def conv(r: ViscometerReadings) -> ViscometerReadings:
+            if r.shear_rate_correction == c:
+                return r
+            dial = None if r.ramp_up is not None else r.dial
+            return replace(r, dial=dial, shear_rate_correction=c, notes=())
+
+        checks = tuple(
+            replace(
+                k,
+                readings=conv(k.readings),
+                readings_at=tuple(conv(x) for x in k.readings_at),
+            )
+            for k in self.checks
+        )
+        slurries = tuple(replace(x, readings=conv(x.readings)) for x in self.slurries)
+        return replace(self, checks=checks, slurries=slurries)
 
     def _need(self, name: str):
         if name not in self.sections:
@@ -632,7 +671,33 @@ def _geometry(values, where) -> ViscometerGeometry:
         ) from exc
 
 
-def _readings(values, where, mode, label, temperature) -> ViscometerReadings:
+def _readings_at(values, where, label, correction):
+    """The check's further readings (``reading_2`` …) and the pressures of all its readings."""
+    more, press = [], [values.get("cup_pressure")]
+    for key in READING_KEYS:
+        if key not in values:
+            continue
+        sub = values[key]
+        if values.get("cup_temperature") is None:
+            raise InputError(
+                f"{where}.{key}",
+                "a reading at another temperature",
+                "a cup_temperature on the check (the temperature of its own dial readings)",
+                problem="missing cup_temperature",
+            )
+        rd = {"dial": sub["dial"], "viscometer": values.get("viscometer")}
+        more.append(
+            _readings(
+                rd, f"{where}.{key}", "mud", f"{label} ({key})", sub["temperature"], correction
+            )
+        )
+        press.append(sub.get("pressure"))
+    return tuple(more), tuple(press)
+
+
+def _readings(
+    values, where, mode, label, temperature, correction="newtonian"
+) -> ViscometerReadings:
     geometry = _geometry(values, where)
     gels = {
         k: v / (FIELD_STRESS * geometry.spring_factor) for k, v in values.get("gels", {}).items()
@@ -656,12 +721,19 @@ def _readings(values, where, mode, label, temperature) -> ViscometerReadings:
                 mode=mode,
                 label=label,
                 temperature=temperature,
+                shear_rate_correction=correction,
             )
         if "dial" not in values:
             raise InputError(f"{where}.dial", None, "readings keyed by rpm", problem="missing")
         dial = values["dial"]
         return ViscometerReadings.from_mapping(
-            dial, gels=gels, geometry=geometry, mode=mode, label=label, temperature=temperature
+            dial,
+            gels=gels,
+            geometry=geometry,
+            mode=mode,
+            label=label,
+            temperature=temperature,
+            shear_rate_correction=correction,
         )
     except InputError as exc:
         if exc.name.startswith(where):
@@ -704,9 +776,12 @@ def _parse_case(data: Mapping, source: str) -> Case:
     unit_system = header.get("units", "oilfield").strip().lower()
     if unit_system not in UNIT_SYSTEMS:
         _unknown(source, "case.units", header.get("units"), UNIT_SYSTEMS)
-    for key in ("method", "constants"):
+    for key in ("method", "constants", "shear_rate_correction"):
         if key in header:
             header[key] = str(header[key]).strip()
+    correction = header.get("shear_rate_correction", "newtonian").lower()
+    if correction not in SHEAR_RATE_CORRECTIONS:
+        _unknown(source, "case.shear_rate_correction", correction, SHEAR_RATE_CORRECTIONS)
     checks, slurries = [], []
     for name, schema, mode in (("check", CHECK_SCHEMA, "mud"), ("slurry", SLURRY_SCHEMA, "cement")):
         items = data.get(name, [])
@@ -718,9 +793,10 @@ def _parse_case(data: Mapping, source: str) -> Case:
             label = values.get("label") or values.get("name")
             temp = values.get("cup_temperature", values.get("temperature"))
             where = _where(source, f"{path} ({label})")
-            readings = _readings(values, where, mode, label, temp)
+            readings = _readings(values, where, mode, label, temp, correction)
             if name == "check":
-                checks.append(CheckInput(label, readings, values))
+                more, press = _readings_at(values, where, label, correction)
+                checks.append(CheckInput(label, readings, values, more, press))
             else:
                 slurries.append(SlurryInput(label, readings, values))
     # the sections beyond [case]/[[check]]/[[slurry]], verbatim (parsed ones are in `sections`)

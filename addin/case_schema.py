@@ -15,6 +15,8 @@ __all__ = [
     "CASE_SCHEMA",
     "CHECK_SCHEMA",
     "HYDRAULICS_SECTIONS",
+    "READING_KEYS",
+    "READING_SCHEMA",
     "SECTIONS",
     "SLURRY_LINE_SCHEMA",
     "SLURRY_SCHEMA",
@@ -62,6 +64,7 @@ CASE_SCHEMA = {
     "constants": Field("text"),
     "rotation": Field("bool"),
     "joint_losses": Field("text"),
+    "shear_rate_correction": Field("text"),
 }
 
 VISCOMETER_SCHEMA = {
@@ -82,6 +85,16 @@ _RHEOLOGY_KEYS = {
     "viscometer": Field("table", sub=VISCOMETER_SCHEMA),
 }
 
+#: The same sample read again at another cup temperature (and pressure, for a pressurised
+#: viscometer): ``reading_2``, ``reading_3``, ``reading_4`` of a check (calc/METHODS.md §21).
+READING_SCHEMA = {
+    "temperature": Field("temperature", required=True, guard="rheology_temperature"),
+    "pressure": Field("pressure", guard="viscometer_pressure"),
+    "dial": Field("dial", required=True),
+}
+#: The keys of the further readings of a check, in order.
+READING_KEYS = ("reading_2", "reading_3", "reading_4")
+
 CHECK_SCHEMA: dict[str, Field] = {
     "label": Field("text", required=True),
     "date": Field("text"),
@@ -91,7 +104,9 @@ CHECK_SCHEMA: dict[str, Field] = {
     "bit_depth": Field("depth", guard="depth"),
     "density": Field("density", guard="fluid_density"),
     "cup_temperature": Field("temperature", guard="temperature"),
+    "cup_pressure": Field("pressure", guard="viscometer_pressure"),
     **_RHEOLOGY_KEYS,
+    **{k: Field("table", sub=READING_SCHEMA) for k in READING_KEYS},
     "program": Field(
         "table",
         sub={

@@ -76,6 +76,7 @@ from addin.commands.output import SanitisingStream, error_text
 from calc.errors import InputError
 from calc.flow.minor_losses import JOINT_LOSS_OPTIONS
 from calc.hydraulics_method import CONSTANT_SETS, DEFAULT_METHOD, HYDRAULICS_METHODS
+from calc.rheology.viscometer import SHEAR_RATE_CORRECTIONS
 from calc.units import UNIT_SYSTEMS, from_si, label, to_si, unit_for
 
 __all__ = ["build_parser", "main"]
@@ -132,6 +133,7 @@ def _add_rheology(sub) -> None:
     p.add_argument("case", help="case file (TOML), e.g. workbooks/demo-case.toml")
     _units_option(p, default=None, what="the output")
     p.add_argument("--json", action="store_true", help="machine-readable JSON output")
+    _add_shear_rate_correction(p)
     p.set_defaults(func=rheology_cmd.run)
 
 
@@ -155,6 +157,17 @@ def _add_constants(p) -> None:
         metavar="SET",
         help=f"field constants: one of {', '.join(CONSTANT_SETS)}; exact (derived from SI, "
         "default) or as_printed (the published rounded constants; api13d_1995_power_law only)",
+    )
+
+
+def _add_shear_rate_correction(p) -> None:
+    p.add_argument(
+        "--shear-rate-correction",
+        default=None,
+        choices=SHEAR_RATE_CORRECTIONS,
+        help="viscometer shear rates for the fits: newtonian (field practice) or krieger "
+        "(finite-gap correction); default the case's [case].shear_rate_correction, else "
+        "newtonian",
     )
 
 
@@ -189,6 +202,7 @@ def _add_report(sub) -> None:
     _method_option(p)
     _add_constants(p)
     _add_joint_losses(p)
+    _add_shear_rate_correction(p)
     _add_allow_unusual(p)
     p.set_defaults(func=report_cmd.run)
 

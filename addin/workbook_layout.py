@@ -91,8 +91,8 @@ class Block:
         f = self.by_key.get(key) or self.by_key.get(base)
         if f is None:
             # dotted keys with free sub-keys (dial.<rpm>, properties.<name>): match by prefix
-            pre = base.split(".")[0]
-            f = self.by_key.get(pre + ".*")
+            pre = base.rsplit(".", 1)[0]  # reading_2.dial.450 → reading_2.dial.*
+            f = self.by_key.get(pre + ".*") or self.by_key.get(base.split(".")[0] + ".*")
         if f is None:
             near = difflib.get_close_matches(key, [k for k in self.by_key if "*" not in k], n=1)
             hint = f" (did you mean '{near[0]}'?)" if near else ""
@@ -144,6 +144,7 @@ LABELS: dict[str, dict[str, str]] = {
         "report_period": "report period",
         "units": "unit system (oilfield, metric or si)",
         "method": "hydraulics method (blank: api13d_2010_hb)",
+        "shear_rate_correction": "viscometer shear rates: newtonian (blank) or krieger",
         "constants": "field constants (exact, or as_printed for api13d_1995_power_law)",
         "rotation": "apply string rotation to annular loss (true/false; blank: true)",
         "joint_losses": "tool-joint losses (bore_friction or bore_change_k; blank: bore_friction)",
@@ -235,7 +236,17 @@ LABELS: dict[str, dict[str, str]] = {
         "bit_depth": "bit depth (MD)",
         "density": "mud density",
         "cup_temperature": "rheology (cup) temperature",
+        "cup_pressure": "rheology (cup) gauge pressure",
         **_RHEOLOGY_LABELS,
+        "reading_2.temperature": "2nd reading: cup temperature",
+        "reading_2.pressure": "2nd reading: gauge pressure",
+        "reading_2.dial": "2nd reading: dial reading",
+        "reading_3.temperature": "3rd reading: cup temperature",
+        "reading_3.pressure": "3rd reading: gauge pressure",
+        "reading_3.dial": "3rd reading: dial reading",
+        "reading_4.temperature": "4th reading: cup temperature",
+        "reading_4.pressure": "4th reading: gauge pressure",
+        "reading_4.dial": "4th reading: dial reading",
         "program.density": "programme density",
         "program.pv": "programme PV",
         "program.yp": "programme YP",

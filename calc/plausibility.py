@@ -187,6 +187,10 @@ RANGES: dict[str, Plausibility] = {
         _r("heat_transfer_coefficient", "number", None, (0.0, 1e4), (5.0, 2e3), low_open=True),
         _r("oil_water_ratio", "number", None, (0.0, 100.0), (50.0, 95.0), "definition"),
         _r("percent_volume", "number", None, (0.0, 100.0), None, "definition"),
+        # a further viscometer reading of a check (calc/METHODS.md §21): HPHT instruments read
+        # to about 260 °C; above 205 °C is unusual (common practice)
+        _r("rheology_temperature", "temperature", "degC", (0.0, 260.0), (5.0, 205.0)),
+        _r("viscometer_pressure", "pressure", "psi", (0.0, 40000.0), (0.0, 30000.0)),
         _r("rop", "rop", "m/hour", (0.0, 600.0), (0.3, 100.0), low_open=True),
         _r("rpm", "number", None, (0.0, 1000.0), (0.0, 250.0)),
         _r("trip_speed", "trip_speed", "m/s", (0.0, 10.0), (0.05, 2.0), low_open=True),

@@ -33,6 +33,8 @@ from calc.hydraulics_method import DEFAULT_METHOD, HYDRAULICS_METHODS, resolve_m
 from calc.notes import Note
 from calc.registry import MethodRegistry, Verification
 from calc.rheology import TABLE_FITS, VISCOMETER_FITS
+from calc.rheology.temperature import TEMPERATURE_LAWS
+from calc.rheology.viscometer import VISCOMETER_CORRECTIONS
 from calc.slurry import SLURRY_METHODS
 from calc.values import Value
 
@@ -53,6 +55,8 @@ REGISTRIES: tuple[MethodRegistry, ...] = (
     JOINT_LOSS_METHODS,
     DENSITY_MODELS,
     SLURRY_METHODS,
+    TEMPERATURE_LAWS,
+    VISCOMETER_CORRECTIONS,
 )
 
 V = Verification

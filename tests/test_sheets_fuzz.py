@@ -205,7 +205,6 @@ VALID = {
     "rod": None,
     # downhole density at T and p (the demo's bit: 232 °F, 6,700 psi; invented)
     "surface_density": 11.0,
-    "temperature": 232.0,
     "base_fluid": "mineral_oil",
     "oil_water_ratio": 80.0,
     "solids": 14.0,
@@ -213,6 +212,13 @@ VALID = {
     "water_phase": None,
     "surface_temperature": 70.0,
     "gradient": 1.5,
+    # rheology at temperature (fn_rheology_temperature): D1 at 120 °F and an invented hot reading
+    "readings_1": GOOD_READINGS,
+    "readings_2": [[600, 46], [300, 31], [200, 24], [100, 17], [6, 7], [3, 6]],
+    "temperature_1": 120.0,
+    "temperature_2": 150.0,
+    "temperature": 135.0,
+    "parameter": "k",
 }
 
 

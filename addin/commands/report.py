@@ -35,11 +35,11 @@ def output_path(value: str, option: str = "--output") -> Path:
 
 def run_one(
     case_path, out_path, *, force=False, method=None, constants=None, allow_unusual=False,
-    joint_losses=None,
+    joint_losses=None, shear_rate_correction=None,
 ):  # fmt: skip
     """Load, compute and write one report; returns (results, seconds).
 
-    ``method``/``constants`` override the case's ``[case].method``/``[case].constants``; a
+    ``method``/``constants``/``shear_rate_correction`` override the case's ``[case]`` keys; a
     case with unusual values is refused unless ``allow_unusual`` (addin/guard.py)."""
     t0 = time.perf_counter()
     out = Path(out_path)
@@ -50,6 +50,7 @@ def run_one(
     case = accept_unusual(load_case(case_path), allow_unusual, _warn)
     if joint_losses is not None:  # --joint-losses overrides [case].joint_losses
         case = dataclasses.replace(case, header={**case.header, "joint_losses": joint_losses})
+    case = case.with_shear_rate_correction(shear_rate_correction)
     results = compute(case, method=case.hydraulics_method(method, constants))
     write_report(results, out, overwrite=force)
     return results, time.perf_counter() - t0
@@ -74,6 +75,7 @@ def run(args) -> int:
         constants=args.constants,
         allow_unusual=getattr(args, "allow_unusual", False),
         joint_losses=getattr(args, "joint_losses", None),
+        shear_rate_correction=getattr(args, "shear_rate_correction", None),
     )
     if args.json:
         print(json_text(results_data(results)))

@@ -112,7 +112,9 @@ def rheology_text(data: dict) -> str:
 
 def run(args) -> int:
     """Print the rheology of ``args.case`` in ``args.units`` (default the case's), text or JSON."""
-    case = load_case(args.case)
+    case = load_case(args.case).with_shear_rate_correction(
+        getattr(args, "shear_rate_correction", None)
+    )
     if not case.checks and not case.slurries:  # an empty file is not a rheology: exit 2
         raise InputError(
             case.source, "no [[check]] and no [[slurry]]", "at least one of them", problem="empty"

@@ -15,6 +15,7 @@ import calc
 from addin.case import Case, CaseInputError
 from addin.cement_job import CementJob, cement_job
 from addin.report.downhole import DownholeRun, compute_downhole
+from addin.report.rheology_temperature import TemperatureTable, rheology_notes, temperature_table
 from addin.report.trace import bed_method_of, slip_method_of
 from addin.slurry_case import slurry_lines
 from calc.circulation import (
@@ -271,6 +272,7 @@ class Results:
     downhole: DownholeRun | None = None  # density at downhole T and p (needs [temperature])
     slurry_lines: tuple[SlurryCurve, ...] | None = None  # only with [[slurry_line]]
     cement: CementJob | None = None  # the placement of [cement_job] (only with that section)
+    temperature_table: TemperatureTable | None = None  # latest check read at 2+ temperatures
 
     @property
     def calibration(self) -> FrictionCalibration | None:
@@ -318,6 +320,8 @@ def compute(
     step = 30.48 if case.unit_system == "oilfield" else 25.0  # profile grid: 100 ft or 25 m
     prof = res.profile(step)
     notes = list(well.notes) + list(res.notes)
+    notes.extend(rheology_notes(case.checks[-1], fluid))
+    t_table = temperature_table(case.checks[-1], method, density)
     for c in checks:
         notes.extend(c.readings.notes)
         notes.extend(c.fits.notes)
@@ -397,6 +401,7 @@ def compute(
         downhole=downhole,
         slurry_lines=slurry,
         cement=cement_job(case, method),
+        temperature_table=t_table,
     )
 
 

@@ -59,6 +59,8 @@ def write_rheology(wb, results, factors: Factors, title: str):
     row, dial_cells, read_rows = _readings_table(ws, row + 1, checks, system)
     row, refs = _properties_table(ws, row, results, factors, dial_cells)
     row = _fits_table(ws, row, checks, system)
+    if results.temperature_table is not None:
+        row = _temperature_table(ws, row, results, system)
     last = checks[-1]
     if last.comparison is not None:
         row = _change_table(ws, row, last.comparison, system, checks[-2].readings.geometry)
@@ -104,11 +106,17 @@ def _readings_table(ws, row, checks, system):
                 dial_cells[j][s] = cell_ref(ws, row, col, absolute=True)
         row += 1
     read_rows = (first, row - 1)
+    krieger = checks[-1].readings.shear_rate_correction == "krieger"
     row = note_row(
         ws,
         row,
         "Stress = dial × instrument constant (k₁k₂, standard spring), shear rate = "
-        "rpm × Couette factor of the standard geometry (calc.rheology.viscometer).",
+        "rpm × Couette factor of the standard geometry (calc.rheology.viscometer)"
+        + (
+            "; the least-squares fits use the finite-gap (Krieger) shear rates of each check."
+            if krieger
+            else "."
+        ),
         span=2 + 2 * len(checks),
     )
     return row + 1, dial_cells, read_rows
@@ -240,6 +248,55 @@ def _fits_table(ws, row, checks, system):
         row,
         "τy, K, n: Herschel-Bulkley form τ = τy + K·γ̇ⁿ (Bingham: n = 1, K = μp; "
         "power law: τy = 0). RMSE in stress over all readings; rank by standard error.",
+        span=10,
+    )
+    return row + 1
+
+
+def _temperature_table(ws, row, results, system):
+    """The latest check's readings at each cup temperature and the method's model parameters
+    at temperatures across that range (calc/METHODS.md §21.1).  Returns the next row."""
+    tt = results.temperature_table
+    chk = results.case.checks[-1]
+    su, tu = U("stress", system), U("temperature", system)
+    row = heading(ws, row, f"Rheology of {tt.label} at its cup temperatures", span=10)
+    reads = sorted(chk.all_readings, key=lambda r: r.temperature)
+    speeds = sorted({float(s) for r in reads for s in r.speeds}, reverse=True)
+    row = table_header(
+        ws, row, 1, ["cup temperature", *[f"{s:g} rpm" for s in speeds]], [tu] + ["°"] * len(speeds)
+    )
+    for r in reads:
+        put_number(ws, row, 1, _out(r.temperature, "temperature", system), "0.0")
+        for j, s in enumerate(speeds):
+            v = r.reading(s)
+            if v is not None:
+                put_number(ws, row, 2 + j, v, "0.0", "bf_input")
+        row += 1
+    row += 1
+    heads = ["temperature", "measured?", "τy", "K", "n"]
+    units = [tu, "", su, f"{su}·sⁿ", "–"]
+    if not tt.same_models:
+        heads = [*heads[:2], "annulus τy", "annulus K", "annulus n", "pipe τy", "pipe K", "pipe n"]
+        units = [*units, su, f"{su}·sⁿ", "–"]
+    row = table_header(ws, row, 1, heads, units)
+    for t, meas, ann, pipe in zip(tt.temperatures, tt.measured, tt.annulus, tt.pipe, strict=True):
+        put_number(ws, row, 1, _out(t, "temperature", system), "0.0")
+        put(ws, row, 2, "yes" if meas else "law")
+        models = (ann,) if tt.same_models else (ann, pipe)
+        for m_i, m in enumerate(models):
+            ty, k, n = model_parameters(m)
+            col = 3 + 3 * m_i
+            put_number(ws, row, col, _out(ty, "stress", system), number_format("stress", system))
+            put_number(ws, row, col + 1, _out(k, "consistency", system), "0.0000")
+            put_number(ws, row, col + 2, n, "0.000")
+        row += 1
+    row = note_row(
+        ws,
+        row,
+        f"Fits of the hydraulics method ({tt.fits}) at each cup temperature; between them K "
+        "follows an Arrhenius law in temperature, τy and n straight lines (exact at the "
+        "measured temperatures). The hydraulics of this report use the cup rheology of the "
+        "check; the table shows how much the parameters move with temperature.",
         span=10,
     )
     return row + 1

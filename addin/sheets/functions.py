@@ -13,6 +13,7 @@ from addin.sheets.fn_flow import *  # noqa: F403
 from addin.sheets.fn_pressure import *  # noqa: F403
 from addin.sheets.fn_pumps import *  # noqa: F403
 from addin.sheets.fn_rheology import *  # noqa: F403
+from addin.sheets.fn_rheology_temperature import *  # noqa: F403
 from addin.sheets.fn_slurry import *  # noqa: F403
 from addin.sheets.fn_surge import *  # noqa: F403
 from addin.sheets.fn_units import *  # noqa: F403

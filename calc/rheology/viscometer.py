@@ -40,16 +40,23 @@ import numpy as np
 
 from calc.errors import InputError, as_float_array, check_finite
 from calc.notes import Note
+from calc.registry import MethodRegistry, Verification
 from calc.rheology.table import RheometerTable
 from calc.units import si_factor
 from calc.values import Value
 
 __all__ = [
     "GEL_NAMES",
+    "SHEAR_RATE_CORRECTIONS",
     "STANDARD_GEOMETRY",
+    "VISCOMETER_CORRECTIONS",
     "ViscometerGeometry",
     "ViscometerReadings",
     "couette_shear_rate_per_rpm",
+    "gap_plug",
+    "gap_plug_notes",
+    "krieger_shear_rate",
+    "radius_ratio",
     "spring_stress_per_degree",
 ]
 
@@ -275,6 +282,7 @@ class ViscometerReadings:
     label: str = ""
     temperature: float | None = None
     resolution: float = 0.5
+    shear_rate_correction: str = "newtonian"
     notes: tuple[Note, ...] = field(default=(), compare=False)
 
     # ------------------------------------------------------------------ construction
@@ -284,6 +292,12 @@ class ViscometerReadings:
             raise InputError("viscometer geometry", self.geometry, "a ViscometerGeometry")
         if self.mode not in _MODES:
             raise InputError("viscometer mode", self.mode, "mud or cement")
+        if self.shear_rate_correction not in SHEAR_RATE_CORRECTIONS:
+            raise InputError(
+                "shear-rate correction",
+                self.shear_rate_correction,
+                " or ".join(SHEAR_RATE_CORRECTIONS),
+            )
         res = float(check_finite("reading resolution", self.resolution, "degree"))
         if res < 0:
             raise InputError("reading resolution", res, ">= 0 degree")
@@ -341,6 +355,9 @@ class ViscometerReadings:
                 raise InputError("cup temperature", t, "> 0 K")
             object.__setattr__(self, "temperature", t)
         object.__setattr__(self, "gels", self._check_gels(notes))
+        if self.shear_rate_correction == "krieger":
+            _, slope_notes = krieger_shear_rate(speeds, dial, self.geometry)
+            notes.extend(slope_notes)
         self._plausibility(notes)
         object.__setattr__(self, "notes", tuple(notes))
 
@@ -599,7 +616,14 @@ class ViscometerReadings:
 
     @property
     def shear_rate(self) -> np.ndarray:
-        """Shear rate at the bob for each speed [1/s] (Newtonian, eq. 1)."""
+        """Shear rate at the bob for each speed [1/s].
+
+        Newtonian (eq. 1) by default; with ``shear_rate_correction="krieger"`` the finite-gap
+        power-law value of :func:`krieger_shear_rate` (what the least-squares fits use; the
+        API field estimates keep their printed Newtonian shear rates).
+        """
+        if self.shear_rate_correction == "krieger":
+            return krieger_shear_rate(self.speeds, self.dial, self.geometry)[0]
         return self.speeds * self.geometry.shear_rate_per_rpm
 
     @property
@@ -683,3 +707,237 @@ class ViscometerReadings:
     def to_table(self):
         """The readings as a :class:`~calc.rheology.table.RheometerTable` (shear rate, stress)."""
         return RheometerTable(self.shear_rate, stress=self.shear_stress, label=self.label)
+
+
+#: Shear-rate conversions of a Couette viscometer: ``newtonian`` (eq. 1, the field practice) and
+#: ``krieger`` (finite-gap power-law correction, :func:`krieger_shear_rate`).
+SHEAR_RATE_CORRECTIONS = ("newtonian", "krieger")
+
+#: The viscometer corrections and checks of this module, with how they were checked.
+VISCOMETER_CORRECTIONS = MethodRegistry("viscometer correction")
+
+#: Lowest local slope n' = d ln τ/d ln Ω the Krieger correction uses (below it the gap is
+#: close to plugged and the power-law form does not apply; a choice made here).
+KRIEGER_MIN_SLOPE = 0.1
+
+
+def radius_ratio(geometry: ViscometerGeometry = STANDARD_GEOMETRY) -> float:
+    """Rotor-to-bob radius ratio s = R_c/R_b of a Couette geometry [-].
+
+    Recovered from the Newtonian factor of eq. (1): with a = (γ̇/N)/(4π/60) = s²/(s² − 1),
+    s = √(a/(a − 1)).
+
+    Examples
+    --------
+    The standard rotor and bob (R_c = 1.8415 cm, R_b = 1.7245 cm):
+
+    >>> round(radius_ratio(STANDARD_GEOMETRY), 6), round(0.018415 / 0.017245, 6)
+    (1.067846, 1.067846)
+    """
+    a = geometry.shear_rate_per_rpm / (4.0 * math.pi / 60.0)
+    if a <= 1.0:
+        raise InputError(
+            "viscometer shear rate per rpm",
+            geometry.shear_rate_per_rpm,
+            f"> {4.0 * math.pi / 60.0:.6g} 1/s per rpm (a Couette gap)",
+        )
+    return math.sqrt(a / (a - 1.0))
+
+
+@VISCOMETER_CORRECTIONS.register(
+    "krieger",
+    "finite-gap shear rate at the bob, 2Ω/[n'(1 − s^(−2/n'))], n' = d ln τ/d ln Ω",
+    "Krieger & Elrod (1953) J. Appl. Phys. 24:134; Krieger (1968) Trans. Soc. Rheol. 12:5",
+    status=Verification(
+        "exact_solution",
+        "tests: equals the analytical Couette solution of a power-law fluid (stress at the bob "
+        "from the torque, rotor speed from integrating γ̇(r) across the gap) to 1e-12 for "
+        "n = 0.3–1, and the Newtonian eq. (1) for n' = 1",
+        (
+            "exact only where the local flow curve is a power law; n' is limited below at 0.1 "
+            "(near a plugged gap the form does not apply)",
+            "the API field estimates keep their printed Newtonian shear rates",
+        ),
+    ),
+)
+def krieger_shear_rate(speeds, dial, geometry: ViscometerGeometry = STANDARD_GEOMETRY):
+    """Finite-gap (Krieger) shear rate at the bob for each speed [1/s], and notes.
+
+    For a fluid whose local flow curve is a power law, τ ∝ Ωⁿ' with n' = d ln τ/d ln Ω, the
+    shear rate at the bob of a Couette cell with s = R_c/R_b is exactly
+
+        γ̇_b = 2Ω / [n'(1 − s^(−2/n'))],     Ω = 2πN/60                          (K1)
+
+    (Krieger & Elrod 1953; Krieger 1968).  For n' = 1 it is the Newtonian value 2Ωs²/(s² − 1)
+    of eq. (1).  n' is taken from the readings by second-order finite differences of ln θ
+    against ln N (one-sided at the ends), which is exact for a power law; it is limited below
+    at :data:`KRIEGER_MIN_SLOPE` (a note says where).
+
+    Parameters
+    ----------
+    speeds : array_like
+        Rotor speeds [rpm], increasing.
+    dial : array_like
+        Dial readings [degree] at ``speeds``, all > 0.
+    geometry : ViscometerGeometry
+        Instrument (default the standard rotor/bob).
+
+    Returns
+    -------
+    (numpy.ndarray, tuple of Note)
+        Bob shear rates [1/s]; notes where n' was limited.
+
+    References
+    ----------
+    Krieger, I.M. and Elrod, H. (1953) J. Appl. Phys. 24:134–136.  Krieger, I.M. (1968) Trans.
+    Soc. Rheol. 12:5–11.  (Form K1 is the exact power-law solution of Couette flow; derived
+    again in calc/METHODS.md §21.3.)
+
+    Examples
+    --------
+    A power-law fluid with n = 0.5 read at 300 and 600 rpm (θ ∝ √N): the corrected rate is
+    above the Newtonian one (1.7023·N):
+
+    >>> g, _ = krieger_shear_rate([300.0, 600.0], [20.0, 20.0 * 2**0.5])
+    >>> [round(float(x), 1) for x in g]
+    [544.2, 1088.3]
+    """
+    n_rpm = np.asarray(as_float_array("viscometer speeds", speeds), dtype=float)
+    theta = np.asarray(as_float_array("dial readings", dial), dtype=float)
+    if n_rpm.shape != theta.shape or n_rpm.ndim != 1 or n_rpm.size < 2:
+        raise InputError("dial readings", theta.size, f"{n_rpm.size} readings, two or more")
+    for nm, arr in (("viscometer speed", n_rpm), ("dial reading", theta)):
+        if np.any(~np.isfinite(arr)) or np.any(arr <= 0):
+            i = int(np.flatnonzero(~np.isfinite(arr) | (arr <= 0))[0])
+            raise InputError(
+                f"{nm} at {n_rpm[i]:g} rpm" if nm == "dial reading" else nm,
+                float(arr[i]),
+                "> 0 for the Krieger shear-rate correction (it uses ln θ and ln N)",
+            )
+    if np.any(np.diff(n_rpm) <= 0):
+        raise InputError("viscometer speeds", n_rpm.tolist(), "increasing, all different")
+    s = radius_ratio(geometry)
+    x, y = np.log(n_rpm), np.log(theta)
+    slope = np.gradient(y, x, edge_order=2 if x.size > 2 else 1)
+    notes = []
+    low = slope < KRIEGER_MIN_SLOPE
+    for i in np.flatnonzero(low):
+        notes.append(
+            Note(
+                "warning",
+                "krieger_slope_limited",
+                "local flow-curve slope n' = {slope:.3g} at {speed:g} rpm is below {limit:g}: "
+                "the finite-gap correction uses {limit:g} there (the gap is close to plugged)",
+                f"{n_rpm[i]:g} rpm",
+                (
+                    Value("slope", float(slope[i])),
+                    Value("speed", float(n_rpm[i])),
+                    Value("limit", KRIEGER_MIN_SLOPE),
+                ),
+            )
+        )
+    npr = np.maximum(slope, KRIEGER_MIN_SLOPE)
+    omega = 2.0 * math.pi * n_rpm / 60.0
+    return 2.0 * omega / (npr * (1.0 - s ** (-2.0 / npr))), tuple(notes)
+
+
+@VISCOMETER_CORRECTIONS.register(
+    "gap_plug",
+    "partly plugged gap when the stress at the rotor τ_b/s² is below τy",
+    "Reiner & Riwlin (1927) Kolloid-Z. 43:1 (Bingham Couette flow)",
+    status=Verification(
+        "exact_solution",
+        "tests: the test agrees with the plug radius of the analytical Bingham Couette "
+        "(Reiner-Riwlin) solution for readings generated from it, both sides of the limit",
+        ("τy is the fitted model's; the check says nothing about wall slip",),
+    ),
+)
+def gap_plug(readings: ViscometerReadings, tau_y: float, rpm: float):
+    """Stress at the bob and at the rotor [Pa] at ``rpm``, and whether the gap is part plug.
+
+    In Couette flow the stress falls across the gap as τ(r) = τ_b(R_b/r)², so at the rotor
+    τ_c = τ_b/s².  A yield-stress fluid is sheared only where τ > τ_y: when τ_c < τ_y the
+    sheared layer ends at the plug radius R_p = R_b√(τ_b/τ_y) < R_c and the outer part of the
+    gap turns as a rigid plug with the rotor (Reiner–Riwlin solution for a Bingham fluid).
+
+    Parameters
+    ----------
+    readings : ViscometerReadings
+        The check (instrument stress τ_b = θ·k₁k₂·f).
+    tau_y : float
+        Yield stress of the fitted model [Pa], ≥ 0.
+    rpm : float
+        A speed that was read.
+
+    Returns
+    -------
+    (float, float, bool) or None
+        (τ_b, τ_c, plugged); None when ``rpm`` was not read.
+
+    References
+    ----------
+    Reiner, M. and Riwlin, R. (1927) Kolloid-Z. 43:1–5 (from memory, not checked against the
+    source; the stress distribution τ ∝ 1/r² is the torque balance of any Couette flow).
+
+    Examples
+    --------
+    θ3 = 7° is 3.57 Pa at the bob and 3.13 Pa at the rotor: below a τy of 3.5 Pa, so the
+    outer part of the gap is a plug:
+
+    >>> r = ViscometerReadings.from_mapping({600: 56, 300: 37, 6: 8, 3: 7})
+    >>> tb, tc, plugged = gap_plug(r, 3.5, 3)
+    >>> round(tb, 3), round(tc, 3), plugged
+    (3.575, 3.135, True)
+    """
+    ty = float(check_finite("yield stress", tau_y, "Pa"))
+    if ty < 0:
+        raise InputError("yield stress", ty, ">= 0 Pa")
+    theta = readings.reading(rpm)
+    if theta is None:
+        return None
+    tb = theta * readings.geometry.stress_per_reading
+    tc = tb / radius_ratio(readings.geometry) ** 2
+    return tb, tc, bool(ty > 0 and tc < ty)
+
+
+def gap_plug_notes(
+    readings: ViscometerReadings, tau_y: float, speeds=(3.0, 6.0)
+) -> tuple[Note, ...]:
+    """Warnings where the low-speed readings show a partly plugged gap (:func:`gap_plug`).
+
+    A plugged gap means the reading is not a flow-curve point at the Newtonian shear rate the
+    fits give it, so τy taken from those readings (and the annular loss and the surge floor
+    that rest on it) are uncertain.
+
+    Examples
+    --------
+    >>> r = ViscometerReadings.from_mapping({600: 56, 300: 37, 6: 8, 3: 7})
+    >>> [n.subject for n in gap_plug_notes(r, 3.5)]
+    ['3 rpm']
+    >>> gap_plug_notes(r, 1.0)
+    ()
+    """
+    out = []
+    for rpm in speeds:
+        got = gap_plug(readings, tau_y, rpm)
+        if got is None or not got[2]:
+            continue
+        tb, tc, _ = got
+        out.append(
+            Note(
+                "warning",
+                "gap_plug",
+                "at {speed:g} rpm the stress falls from {tau_bob:.3g} at the bob to "
+                "{tau_rotor:.3g} at the rotor, below τy = {tau_y:.3g}: part of the gap turns "
+                "as a plug, so the low-shear readings under-represent the fluid's shear rate "
+                "and τy (and the annular loss and surge floor that rest on it) are uncertain",
+                f"{rpm:g} rpm",
+                (
+                    Value("speed", float(rpm)),
+                    Value("tau_bob", tb, "stress"),
+                    Value("tau_rotor", tc, "stress"),
+                    Value("tau_y", float(tau_y), "stress"),
+                ),
+            )
+        )
+    return tuple(out)
