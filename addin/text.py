@@ -211,6 +211,9 @@ PROGRAMME_PROPERTIES = {
     "pv": ("PV", "viscosity"),
     "yp": ("YP", "stress"),
     "lsyp": ("LSYP", "stress"),
+    "gels.10s": ("10-second gel", "stress"),
+    "gels.10min": ("10-minute gel", "stress"),
+    "gels.30min": ("30-minute gel", "stress"),
 }
 
 #: Status words of a property against its mud-programme range.

@@ -416,9 +416,12 @@ def _programme(results, row):
     key = next(k for k, (lab, _) in text.PROGRAMME_PROPERTIES.items() if lab == label)
     if key == "density":
         return [("value", "case.check_value", "-1, 'density'", "_", "case input", "", "—")]
-    eq = _eq("§1.5" if key == "lsyp" else "§1.3")
+    eq = _eq({"lsyp": "§1.5", "pv": "§1.3", "yp": "§1.3"}.get(key, "§1.6"))
     method = "API RP 13B-1 field definitions"
-    return [("value", "@case", "", f"_.checks[-1].readings.{key}", method, "common_practice", eq)]
+    got = f"_.checks[-1].readings.{key}"
+    if key.startswith("gels."):
+        got = f"_.checks[-1].readings.gels_si[{key.split('.', 1)[1]!r}]"
+    return [("value", "@case", "", got, method, "common_practice", eq)]
 
 
 #: Summary rows (by the start of their name) → how each is traced.  A new Summary row needs
