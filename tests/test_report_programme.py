@@ -63,5 +63,5 @@ def test_a_gel_programme_range_is_checked_like_the_others():
     from tests._report_demo import DEMO
 
     src = DEMO.read_text(encoding="utf-8").replace("10min = [10, 20]", "10min = [20, 10]", 1)
-    with pytest.raises(InputError, match="gels.10min"):
+    with pytest.raises(InputError, match=r"gels\.10min"):
         parse_case(tomllib.loads(src), source="test")
