@@ -229,8 +229,8 @@ def _fits_table(ws, row, checks, system):
         rank = {e.method: e.rank for e in c.fits.ranking}
         for fr in c.fits.results:
             ty, k, n = model_parameters(fr.model)
-            put(ws, row, 1, f"{c.label}: {fr.method}")
-            put(ws, row, 2, type(fr.model).__name__)
+            put(ws, row, 1, f"{c.label}: {text.method_words(fr.method)}")
+            put(ws, row, 2, fr.model.name)
             put_number(ws, row, 3, _out(ty, "stress", system), number_format("stress", system))
             put_number(ws, row, 4, _out(k, "consistency", system), "0.0000")
             put_number(ws, row, 5, n, "0.000")
@@ -263,7 +263,8 @@ def _change_table(ws, row, cmp_, system, geometry):
     row = heading(
         ws,
         row,
-        f"Change since the previous check ({cmp_.label_a} → {cmp_.label_b}, {cmp_.method})",
+        f"Change since the previous check ({cmp_.label_a} → {cmp_.label_b}, "
+        f"{text.method_words(cmp_.method)})",
         span=10,
     )
     row = table_header(
@@ -275,7 +276,8 @@ def _change_table(ws, row, cmp_, system, geometry):
     )
     for ch in cmp_.changes:
         kind = ch.kind if ch.kind in ("stress", "viscosity", "consistency") else None
-        put(ws, row, 1, f"{ch.name} [{U(kind, system)}]" if kind else ch.name)
+        name = text.parameter_words(ch.name)
+        put(ws, row, 1, f"{name} [{U(kind, system)}]" if kind else name)
         for col, v in ((2, ch.a), (3, ch.b), (4, ch.change)):
             put_number(ws, row, col, _out(v, kind, system) if kind else v, "0.000")
         put_number(ws, row, 5, 100 * ch.relative, "0.0")

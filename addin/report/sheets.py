@@ -240,7 +240,7 @@ def _header_pairs(results):
             "flow rate",
             f"{out(chk.values['flow_rate'], 'flow_rate', system):,.0f} {U('flow_rate', system)}",
         ),
-        ("hydraulics method", results.method),
+        ("hydraulics method", text.method_words(results.method)),
     ]
     return left, right
 

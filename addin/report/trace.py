@@ -125,16 +125,17 @@ def method_line(results) -> str:
     its primary source, and the fits it uses.
 
     >>> from types import SimpleNamespace
-    >>> method_line(SimpleNamespace(method="exact_laminar"))
-    'exact_laminar: Kelessidis et al. (2006) J. Pet. Sci. Eng. 53:203-224; fits: hb_least_squares'
+    >>> method_line(SimpleNamespace(method="exact_laminar"))  # doctest: +NORMALIZE_WHITESPACE
+    'exact laminar: Kelessidis et al. (2006) J. Pet. Sci. Eng. 53:203-224; fits:
+     Herschel-Bulkley least-squares fit'
     """
     m = resolve_method(results.method)
-    return f"{m.label}: {m.source}; fits: {m.fits}"
+    return f"{text.method_words(m.label)}: {m.source}; fits: {text.method_words(m.fits)}"
 
 
 def slip_line(name: str) -> str:
     """A slip-velocity method by its name and primary source (rig-facing sheets)."""
-    return f"{name} ({SLIP_METHODS.get(name).source})"
+    return f"{text.method_words(name)} ({SLIP_METHODS.get(name).source})"
 
 
 # ------------------------------------------------------------------------------ the trace
