@@ -300,3 +300,34 @@ def fit_text(ws) -> None:
                     al = copy(c.alignment)
                     al.indent = 1
                     c.alignment = al
+
+
+#: Audit column widths for print: wide enough for a number in SI with its exponent, narrow
+#: enough that fit-to-width keeps ~7-pt text (the long texts wrap instead)
+AUDIT_MAX_WIDTH = 22.0
+AUDIT_WIDE_COLUMNS = {"F": 34.0}
+
+
+def audit_print_layout(ws) -> None:
+    """Legible print of the Audit sheet: columns capped (:data:`AUDIT_MAX_WIDTH`) and every
+    text longer than its column wrapped (rows raised by :func:`fit_text`)."""
+    from copy import copy  # lazy: only the fitting needs it
+
+    from openpyxl.utils import get_column_letter  # lazy: only the fitting needs it
+
+    for col in range(1, ws.max_column + 1):
+        letter = get_column_letter(col)
+        cap = AUDIT_WIDE_COLUMNS.get(letter, AUDIT_MAX_WIDTH)
+        dim = ws.column_dimensions[letter]
+        dim.width = min(_width(ws, col), cap)
+    merged = _merged(ws)
+    for row in ws.iter_rows():
+        for c in row:
+            text_cell = isinstance(c.value, str) and not c.value.startswith("=")
+            heading_cell = c.style in ("bf_title", "bf_section")
+            if text_cell and not heading_cell and (c.row, c.column) not in merged:
+                if not c.alignment.wrap_text and text_width(c.value) > _width(ws, c.column):
+                    al = copy(c.alignment)
+                    al.wrap_text = True
+                    al.vertical = "top"
+                    c.alignment = al
