@@ -187,6 +187,9 @@ def note_row(
 #: LibreOffice-rendered pages), plus one unit of cell padding.
 CHAR_WIDTH = 0.85
 PAD = 1.0
+#: width units per character when counting the lines of wrapped text: the mean width of
+#: mixed text in 9-pt Arial (about 0.7 on the rendered pages; CHAR_WIDTH errs wide on purpose)
+LINE_CHAR_WIDTH = 0.7
 #: points per wrapped line of 9-pt text, and the default row height [pt]
 LINE_HEIGHT = 11.5
 ROW_HEIGHT = 12.75
@@ -245,8 +248,8 @@ def wrapped_lines(ws, cell) -> int:
     """Lines a wrapped text cell takes in its column (words kept whole)."""
     import math  # lazy: only the fitting needs it
 
-    width = max(_width(ws, cell.column) - PAD, CHAR_WIDTH)
-    per_line = max(int(width / CHAR_WIDTH), 1)
+    width = max(_width(ws, cell.column) - PAD, LINE_CHAR_WIDTH)
+    per_line = max(int(width / LINE_CHAR_WIDTH), 1)
     lines = 0
     for part in str(cell.value).split("\n"):
         n, used = 1, 0
