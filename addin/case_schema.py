@@ -114,6 +114,12 @@ CHECK_SCHEMA: dict[str, Field] = {
             "pv": Field("range", of="viscosity", guard="pv"),
             "yp": Field("range", of="stress", guard="yp"),
             "lsyp": Field("range", of="stress", guard="yp"),
+            "gels": Field(
+                "table",
+                sub={
+                    k: Field("range", of="stress", guard="gel") for k in ("10s", "10min", "30min")
+                },
+            ),
         },
     ),
     "flow_rate": Field("flow_rate", guard="flow_rate"),

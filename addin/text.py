@@ -33,6 +33,8 @@ __all__ = [
     "BAND_INPUT_WORDS",
     "BREAKDOWN_LABELS",
     "CLEANING_STATUS",
+    "METHOD_WORDS",
+    "PARAMETER_WORDS",
     "PROGRAMME_PROPERTIES",
     "PROGRAMME_WORDS",
     "STATUS_WORDS",
@@ -47,13 +49,16 @@ __all__ = [
     "display_values",
     "error",
     "group_notes",
+    "keys_in_words",
     "method_spread",
+    "method_words",
     "model",
     "model_parameters",
     "note",
     "note_line",
     "number_text",
     "parameter_unit",
+    "parameter_words",
     "programme_status",
     "pump_speed",
     "quantity",
@@ -212,6 +217,9 @@ PROGRAMME_PROPERTIES = {
     "pv": ("PV", "viscosity"),
     "yp": ("YP", "stress"),
     "lsyp": ("LSYP", "stress"),
+    "gels.10s": ("10-second gel", "stress"),
+    "gels.10min": ("10-minute gel", "stress"),
+    "gels.30min": ("30-minute gel", "stress"),
 }
 
 #: Status words of a property against its mud-programme range.
@@ -573,15 +581,15 @@ def method_spread(qb, system: str = "oilfield") -> str:
     >>> from types import SimpleNamespace as NS
     >>> method_spread(NS(kind="density", method_min=("power_law", 1414.6),
     ...                  method_max=("bingham", 1433.0)))
-    'methods 11.81 ppg (power_law) to 11.96 ppg (bingham)'
+    'methods 11.81 ppg (power law) to 11.96 ppg (Bingham)'
     """
     lo, hi = qb.method_min, qb.method_max
     if lo is None:
         return ""
     lab = unit_label(qb.kind, system)
     return (
-        f"methods {_band_number(lo[1], qb.kind, system)} {lab} ({lo[0]}) to "
-        f"{_band_number(hi[1], qb.kind, system)} {lab} ({hi[0]})"
+        f"methods {_band_number(lo[1], qb.kind, system)} {lab} ({method_words(lo[0])}) to "
+        f"{_band_number(hi[1], qb.kind, system)} {lab} ({method_words(hi[0])})"
     )
 
 
@@ -603,3 +611,96 @@ def pump_speed(pumps, q=None) -> str:
         return ""
     k = len(pumps.running)
     return f"{n:.1f} spm × {k} pump{'s' if k > 1 else ''}"
+
+
+# ------------------------------------------------------------------- method and key names
+
+#: Words for the parts of registry method names (``api13d_2010_hb`` → "API RP 13D (2010)
+#: Herschel-Bulkley"); multi-part entries first.  A part not listed is shown as it is.
+METHOD_WORDS = {
+    "power_law": "power law",
+    "two_speed": "two-speed",
+    "least_squares": "least-squares fit",
+    "equilibrium_bed": "equilibrium bed",
+    "exact_laminar": "exact laminar",
+    "drag_balance": "drag balance",
+    "carreau_yasuda": "Carreau-Yasuda",
+    "walker_mayes": "Walker-Mayes",
+    "max_impact": "maximum jet impact",
+    "max_power": "maximum hydraulic power",
+    "as_printed": "as printed",
+    "api13d": "API RP 13D",
+    "hb": "Herschel-Bulkley",
+    "bingham": "Bingham",
+    "newtonian": "Newtonian",
+    "loglog": "log-log fit",
+    "larsen": "Larsen",
+    "rubiandini": "Rubiandini",
+    "moore": "Moore",
+    "chien": "Chien",
+    "cross": "Cross",
+    "fang": "Fang",
+    "darby": "Darby",
+}
+
+
+def method_words(name: str) -> str:
+    """A registry method name (or a method label with an override in brackets) in words.
+
+    >>> method_words("api13d_2010_hb")
+    'API RP 13D (2010) Herschel-Bulkley'
+    >>> method_words("api13d_1995_power_law (constants=as_printed)")
+    'API RP 13D (1995) power law (constants as printed)'
+    >>> method_words("larsen_1997_equilibrium_bed")
+    'Larsen (1997) equilibrium bed'
+    """
+    import re  # lazy: only the faces' naming needs it
+
+    def words(token: str) -> str:
+        parts, out = token.split("_"), []
+        i = 0
+        while i < len(parts):
+            two = "_".join(parts[i : i + 2])
+            if i + 1 < len(parts) and two in METHOD_WORDS:
+                out.append(METHOD_WORDS[two])
+                i += 2
+                continue
+            p = parts[i]
+            out.append(f"({p})" if re.fullmatch(r"(19|20)\d\d", p) else METHOD_WORDS.get(p, p))
+            i += 1
+        return " ".join(out)
+
+    text = re.sub(r"[A-Za-z0-9]+(?:_[A-Za-z0-9]+)+|\b[a-z0-9]+\b", lambda m: words(m[0]), name)
+    return text.replace("=", " ")
+
+
+#: Rheology parameters and field properties by their calc key (calc.rheology.compare).
+PARAMETER_WORDS = {
+    "n": "flow behaviour index n",
+    "K": "consistency index K",
+    "tau_y": "yield stress τy",
+    "gel_10s": "10-second gel",
+    "gel_10min": "10-minute gel",
+    "gel_30min": "30-minute gel",
+}
+
+
+def parameter_words(key: str) -> str:
+    """A calc parameter key in words (PV, YP, LSYP stay as the trade writes them).
+
+    >>> parameter_words("tau_y"), parameter_words("PV")
+    ('yield stress τy', 'PV')
+    """
+    return PARAMETER_WORDS.get(key, key.replace("_", " "))
+
+
+def keys_in_words(sentence: str) -> str:
+    """A sentence with every method name in it (a token with an underscore) in words; math
+    symbols with one-letter bases (V_crit, Q_crit, p_back) stay.
+
+    >>> keys_in_words("Burkhardt (1961) steady surge/swab, friction api13d_2010_hb")
+    'Burkhardt (1961) steady surge/swab, friction API RP 13D (2010) Herschel-Bulkley'
+    """
+    import re  # lazy: only the faces' naming needs it
+
+    return re.sub(r"\b[A-Za-z0-9]{2,}(?:_[A-Za-z0-9]+)+\b", lambda m: method_words(m[0]), sentence)

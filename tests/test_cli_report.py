@@ -18,6 +18,7 @@ import pytest
 from _report_demo import DEMO, ROOT
 
 from addin.cli import main
+from addin.text import method_words
 
 
 def run(*args):
@@ -71,7 +72,9 @@ def test_report_names_the_fit_of_the_method(tmp_path, capsys, method, fits):
     for check in data["rheology"]["checks"]:
         assert fits in [f["method"] for f in check["fits"]]
     line = openpyxl.load_workbook(out)["Hydraulics"]["A2"].value
-    assert f"Method: {method}:" in line and f"fits: {fits};" in line
+    # rig-facing sheets name methods in words (addin.text.method_words)
+    words = method_words
+    assert f"Method: {words(method)}:" in line and f"fits: {words(fits)};" in line
 
 
 @pytest.mark.parametrize(

@@ -35,3 +35,33 @@ def test_rheology_sheet_flags_pv():
     assert pv[col] == "ABOVE PROGRAMME"
     yp = next(r for r in rows if r[0] == "YP")
     assert yp[col] == "OK"
+
+
+def test_gels_are_compared_with_their_programme_on_summary_and_rheology():
+    # demo case D2 gels 10 / 22 / 30 lbf/100ft² (dial readings, API RP 13B-1 gel strengths)
+    # against the invented programme 10s 5–12, 10min 10–20, 30min 12–28
+    rows = {r[0]: r for r in _rows("Summary") if isinstance(r[0], str)}
+    want = {"10-second": (10.0, "OK"), "10-minute": (22.0, "ABOVE PROGRAMME"),
+            "30-minute": (30.0, "ABOVE PROGRAMME")}  # fmt: skip
+    for name, (value, word) in want.items():
+        r = rows[f"{name} gel against the mud programme (D2 05:30)"]
+        assert (r[1], r[8]) == (value, word), name
+    rh = _rows("Rheology")
+    head = next(r for r in rh if r[0] == "property")
+    col = head.index("D2 05:30\nvs programme")
+    words = {r[0]: r[col] for r in rh if isinstance(r[0], str) and r[0].startswith("gel strength")}
+    assert list(words.values()) == ["OK", "ABOVE PROGRAMME", "ABOVE PROGRAMME"]
+
+
+def test_a_gel_programme_range_is_checked_like_the_others():
+    import tomllib
+
+    import pytest
+
+    from addin.case import parse_case
+    from calc.errors import InputError
+    from tests._report_demo import DEMO
+
+    src = DEMO.read_text(encoding="utf-8").replace("10min = [10, 20]", "10min = [20, 10]", 1)
+    with pytest.raises(InputError, match=r"gels\.10min"):
+        parse_case(tomllib.loads(src), source="test")

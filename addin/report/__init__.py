@@ -39,6 +39,7 @@ from addin.report.sheet_slurry_line import write_slurry_line
 from addin.report.sheet_trips import write_trips
 from addin.report.sheet_window import write_window
 from addin.report.sheets import write_audit, write_cautions, write_inputs, write_summary
+from addin.report.style import audit_print_layout, fit_text
 from addin.report.summary_rows import summary_rows
 from addin.report.trace import write_methods_and_trace
 from addin.safe_io import OutputExistsError, atomic_write
@@ -73,9 +74,11 @@ def build_report(results: Results):
     write_summary(summary, results, refs, title)
     write_audit(audit, results, factors, title)
     write_methods_and_trace(audit, results, summary_rows(results, refs), factors.next_row + 2)
+    audit_print_layout(audit)
     # Audit last in tab order
     wb.move_sheet("Audit", offset=len(wb.sheetnames) - 1 - wb.sheetnames.index("Audit"))
-    for ws in wb.worksheets:  # a print area on every sheet (the used range unless set)
+    for ws in wb.worksheets:  # text fits its cells; a print area (the used range unless set)
+        fit_text(ws)
         if not ws.print_area:
             ws.print_area = f"A1:{get_column_letter(ws.max_column)}{ws.max_row}"
     wb.active = 0

@@ -46,7 +46,8 @@ def write_beds(ws, row: int, results) -> int:
     row = note_row(
         ws,
         row,
-        f"Method: {beds.bed.method}. A bed is considered from {beds.onset:g}° (below it cuttings "
+        f"Method: {text.keys_in_words(beds.bed.method)}. A bed is considered from "
+        f"{beds.onset:g}° (below it cuttings "
         "slide down the low side); below the critical velocity V_crit the bed grows until the "
         "velocity over it equals V_crit; friction over the bed: the annulus law on the open "
         "area's hydraulic diameter; pipe on the low side, no rotation (its caveats: Audit sheet).",

@@ -3,6 +3,7 @@ with a live check."""
 
 from __future__ import annotations
 
+from addin import text
 from addin.report.audit import Factors, cell_ref, checked_row, input_row
 from addin.report.compute import scalar
 from addin.report.style import (
@@ -164,4 +165,4 @@ def _share_and_method(ws, row, results) -> None:
     put(ws, row, 1, "bit share of standpipe pressure")
     put_number(ws, row, 2, 100 * scalar(res.bit_share), "0.0")
     put(ws, row, 5, "%", "bf_unit")
-    note_row(ws, row + 2, f"Method: {res.bit.method}.", span=11)
+    note_row(ws, row + 2, f"Method: {text.keys_in_words(res.bit.method)}.", span=11)

@@ -195,8 +195,9 @@ def _interval_rows(ws, row, rows, system) -> int:
 def _method_words(hc) -> str:
     """The cleaning methods by name and primary source (their status is on the Audit sheet)."""
     slip = slip_method_of(hc.method)
-    slip_words = f"slip {slip_line(slip)}" if slip else hc.method
+    slip_words = f"slip {slip_line(slip)}" if slip else text.keys_in_words(hc.method)
     deviated = "; ".join(
-        f"{name} ({DEVIATED_METHODS.get(name).source})" for name in DEVIATED_METHODS.names()
+        f"{text.method_words(name)} ({DEVIATED_METHODS.get(name).source})"
+        for name in DEVIATED_METHODS.names()
     )
     return f"vertical criteria: {slip_words}, CCI (Robinson); {deviated}"

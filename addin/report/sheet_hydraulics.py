@@ -6,12 +6,14 @@ The ECD and bit sheets are :mod:`addin.report.sheet_ecd` and :mod:`addin.report.
 from __future__ import annotations
 
 import numpy as np
+from openpyxl.utils import get_column_letter
 from openpyxl.worksheet.pagebreak import Break
 
 from addin import text
 from addin.report.audit import Factors, cell_ref, checked_row, input_row, write_checked
 from addin.report.charts import pressure_breakdown
 from addin.report.compute import scalar
+from addin.report.sections import section_rows
 from addin.report.style import (
     heading,
     merged_text,
@@ -27,14 +29,14 @@ from addin.xlsx_cells import put, set_widths
 from calc.circulation import spp_deviation_percent
 from calc.flow import regime_label
 
-__all__ = ["write_hydraulics"]
+__all__ = ["N_COLS", "section_table", "write_hydraulics"]
 
 
 def write_hydraulics(wb, results, factors: Factors, title: str):
     case, res, system = results.case, results.circulation, results.case.unit_system
     ws = wb.create_sheet("Hydraulics")
-    set_widths(ws, [40, 22, 10, 10, 9, 8, 8, 9, 9, 8, 10, 9, 9, 9, 9])
-    row = heading(ws, 1, "Hydraulics: where the pump pressure goes", span=15, title=True)
+    set_widths(ws, [46, 26, 9, 9, 9, 8, 8, 9, 9, 8, 9, 11, 9, 9, 10, 9])
+    row = heading(ws, 1, "Hydraulics: where the pump pressure goes", span=N_COLS, title=True)
     merged_text(
         ws,
         row,
@@ -42,7 +44,7 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
         f"{res.fluid_label}; hydrostatic convention: {res.hydrostatic}; "
         f"{_eccentricity_text(res)}; {_rotation_text(res)}; {_joint_text(res)}; friction "
         f"multiplier {float(np.asarray(res.friction_multiplier)):g} (uncalibrated).",
-        span=15,
+        span=N_COLS,
         height=36,
     )
     row += 2
@@ -62,19 +64,10 @@ def write_hydraulics(wb, results, factors: Factors, title: str):
     if results.two_part is not None:
         row = _two_part_block(ws, row, results.two_part, system)
     ws.row_breaks.append(Break(id=row))
-    row, refs["min_av"] = _interval_table(ws, row + 1, results, factors, system, q_ref)
-    merged_text(
-        ws,
-        row,
-        "Velocity live check: Q / (π/4·(OD² − ID²)) with the conversion factors "
-        "on 'Audit'. Flow OD/ID: pipe ID in the string; hole or casing ID and pipe OD in the "
-        "annulus. Tool joints are separate rows over the same depths (their share of the "
-        "joint length).",
-        span=15,
-        height=24,
-    )
+    _, print_end, refs["min_av"] = _interval_table(ws, row + 1, results, factors, system, q_ref)
     ws.freeze_panes = None
     setup_print(ws, title)
+    ws.print_area = f"A1:{get_column_letter(N_COLS)}{print_end}"
     return refs
 
 
@@ -199,40 +192,49 @@ def _tool_texts(ws, row, results, system) -> int:
 _INTERVAL_HEADS = (
     "interval",
     "hole section",
-    "top MD",
-    "bottom MD",
+    "MD from",
+    "MD to",
     "length",
     "flow OD",
     "flow ID",
     "velocity",
     "velocity live",
     "agree?",
+    "critical velocity",
     "regime",
     "Reynolds",
     "Fanning f",
     "gradient",
     "loss",
 )
+#: columns of the interval table (16): the last is the loss
+N_COLS = len(_INTERVAL_HEADS)
 
 
 def _interval_table(ws, row, results, factors, system, q_ref):
-    """Per-interval table (surface lines, string from surface down, annulus from the bit up).
+    """Section table (one row per string section and per pipe/hole pair in the annulus; surface
+    lines one row each), then the per-station detail below the print range.
 
-    Returns the next row and the lowest annular velocity (value [m/s], where, value cell,
-    live-check cell)."""
-    res = results.circulation
+    Returns the next row after the detail, the last row of the print range and the lowest
+    annular velocity (value [m/s], where, value cell, live-check cell)."""
     row = heading(
         ws,
         row,
-        "Per-interval hydraulics (string from surface down, annulus from the bit up)",
-        span=15,
+        "Hydraulics per section (string from surface down, annulus from the bit up; one row per "
+        "pipe-in-hole section)",
+        span=N_COLS,
     )
-    du, lu, dd = U("depth", system), U("length", system), U("diameter", system)
-    units = ["", "", du, du, lu, dd, dd, U("velocity", system), "formula", "", "", "–", "–",
+    du, lu, dd, vu = (
+        U("depth", system),
+        U("length", system),
+        U("diameter", system),
+        U("velocity", system),
+    )
+    units = ["", "", du, du, lu, dd, dd, vu, "formula", "", vu, "", "–", "–",
              U("pressure_gradient", system), U("pressure", system)]  # fmt: skip
     head_row = row
     heads = list(_INTERVAL_HEADS)
-    show_e, show_r = _applied_columns(res)
+    show_e, show_r = _applied_columns(results.circulation)
     if show_e:
         heads.append("ecc. e")
         units.append("–")
@@ -241,76 +243,125 @@ def _interval_table(ws, row, results, factors, system, q_ref):
         units.append("–")
     row = table_header(ws, row, 1, heads, units)
     ws.print_title_rows = f"{head_row}:{head_row + 1}"
-    iv = results.well.flow_intervals()
-    groups = [
-        ("surface", None, res.surface),
-        ("string", iv.select("string"), res.string),
-        ("annulus", iv.select("annulus"), res.annulus),
-    ]
     min_av = None
-    for path, rows, group in groups:
-        for i, span in enumerate(group.spans):
-            vel = _interval_row(ws, row, results, factors, system, q_ref, path, rows, group, i)
-            if path == "annulus" and (min_av is None or vel < min_av[0]):
-                where = text.span(span, system, depths=False)
-                min_av = (vel, where, cell_ref(ws, row, 8), cell_ref(ws, row, 9))
-            row += 1
-    return row, min_av
+    for path, sec in _sections(results, per_station=False):
+        vel = _interval_row(ws, row, results, factors, system, q_ref, path, sec)
+        if path == "annulus" and (min_av is None or vel < min_av[0]):
+            where = text.span(sec.span, system, depths=False)
+            min_av = (vel, where, cell_ref(ws, row, 8), cell_ref(ws, row, 9))
+        row += 1
+    merged_text(
+        ws,
+        row,
+        "Section rows: MD from the shallowest to the deepest station of the section, length and "
+        "loss summed over its stations, gradient the length-weighted mean (= loss / length); "
+        "velocity, critical velocity, Reynolds number and friction factor are the same at every "
+        "station of a section. Velocity live check: Q / (π/4·(OD² − ID²)) with the conversion "
+        "factors on 'Audit'. Flow OD/ID: pipe ID in the string; hole or casing ID and pipe OD in "
+        "the annulus. Tool joints are separate rows over the same depths (their share of the "
+        "joint length). The per-station rows are below the print range.",
+        span=N_COLS,
+        height=40,
+    )
+    print_end = row
+    row = heading(
+        ws,
+        row + 3,
+        "Per-station detail (one row per flow interval between survey stations, shoes and "
+        "component tops; not printed)",
+        span=N_COLS,
+    )
+    row = table_header(ws, row, 1, heads, units)
+    for path, sec in _sections(results, per_station=True):
+        _interval_row(ws, row, results, factors, system, q_ref, path, sec)
+        row += 1
+    return row, print_end, min_av
 
 
-def _interval_row(ws, row, results, factors, system, q_ref, path, rows, group, i) -> float:
-    """One row of the interval table; returns its velocity [m/s]."""
-    span, flow = group.spans[i], group.flow
+def section_table(results, *, per_station: bool = False) -> list:
+    """``(path, Section)`` for the surface lines, the string and the annulus of the latest
+    check, aggregated by :func:`addin.report.sections.section_rows` (SI values)."""
+    return list(_sections(results, per_station=per_station))
+
+
+def _sections(results, *, per_station: bool):
+    res = results.circulation
+    iv = results.well.flow_intervals()
+    lines = results.case.surface_lines
+    for path, group in (("surface", res.surface), ("string", res.string), ("annulus", res.annulus)):
+        flow, n = group.flow, len(group.spans)
+
+        def per(a, n=n):
+            return np.broadcast_to(np.asarray(a, dtype=float).reshape(-1), (n,))
+
+        if path == "surface":
+            length = np.array([ln.length for ln in lines], dtype=float)
+            do = np.array([ln.id for ln in lines], dtype=float)
+            di = np.zeros(n)
+        else:
+            rows = iv.select(path)
+            length, do, di = rows.length, rows.outer_diameter, rows.inner_diameter
+        columns = {
+            "length": (length, "sum"),
+            "outer": (do, "same"),
+            "inner": (di, "same"),
+            "velocity": (per(flow.velocity), "mean"),
+            "critical": (per(flow.critical_velocity), "mean"),
+            "regime": (np.broadcast_to(np.asarray(flow.regime).reshape(-1), (n,)), "same"),
+            "reynolds": (per(flow.reynolds), "mean"),
+            "fanning": (per(flow.friction_factor), "mean"),
+            "gradient": (per(flow.gradient), "mean"),
+            "loss": (per(group.losses), "sum"),
+        }
+        if path == "annulus":  # where applied (calc/METHODS.md §22), the same along a section
+            ecc = res.eccentricity if res.annulus_eccentricity is None else res.annulus_eccentricity
+            columns["eccentricity"] = (per(ecc), "mean")
+            rot = getattr(flow, "rotation_factor", None)
+            columns["rotation"] = (per(1.0 if rot is None else rot), "mean")
+        for sec in section_rows(group.spans, columns, length, per_station=per_station):
+            yield path, sec
+
+
+def _interval_row(ws, row, results, factors, system, q_ref, path, sec) -> float:
+    """One row of the section (or per-station) table; returns its velocity [m/s]."""
+    span, v = sec.span, sec.values
     label = f"{path}: {span.part}"
     if path == "string" and span.item in results.circulation.tools.covered:
         label += " (bore loss in the fixed tool drop)"
     put(ws, row, 1, label)
-    if rows is not None:
-        put(ws, row, 2, str(rows.section[i]) if path == "annulus" else "", "bf_cell")
-        for col, v, kind in (
-            (3, rows.top_md[i], "depth"),
-            (4, rows.bottom_md[i], "depth"),
-            (5, rows.length[i], "length"),
-        ):
-            put_number(ws, row, col, _o(v, kind, system), number_format(kind, system))
-        do, di = rows.outer_diameter[i], rows.inner_diameter[i]
-    else:
-        line = results.case.surface_lines[i]
-        put_number(ws, row, 5, _o(line.length, "length", system), number_format("length", system))
-        do, di = line.id, 0.0
-    put_number(ws, row, 6, _o(do, "diameter", system), number_format("diameter", system))
-    put_number(ws, row, 7, _o(di, "diameter", system), number_format("diameter", system))
-
-    def at(a):
-        return np.atleast_1d(np.asarray(a, dtype=float)).reshape(-1)[i]
-
-    vel = at(flow.velocity)
+    if span.top_md is not None:
+        put(ws, row, 2, span.section if path == "annulus" else "", "bf_cell")
+        for col, x, kind in ((3, span.top_md, "depth"), (4, span.bottom_md, "depth")):
+            put_number(ws, row, col, _o(x, kind, system), number_format(kind, system))
+    put_number(ws, row, 5, _o(v["length"], "length", system), number_format("length", system))
+    for col, key in ((6, "outer"), (7, "inner")):
+        put_number(ws, row, col, _o(v[key], "diameter", system), number_format("diameter", system))
+    vel = v["velocity"]
     fq, fd, fv = factors.unit("flow_rate"), factors.unit("diameter"), factors.unit("velocity")
     formula = f"{q_ref}*{fq}/(PI()/4*((F{row}*{fd})^2-(G{row}*{fd})^2))/{fv}"
     write_checked(ws, row, 8, _o(vel, "velocity", system), formula, kind="velocity", system=system)
-    reg = int(np.atleast_1d(flow.regime).reshape(-1)[i])
-    put(ws, row, 11, regime_label(reg))
-    put_number(ws, row, 12, at(flow.reynolds), "#,##0")
-    put_number(ws, row, 13, at(flow.friction_factor), "0.00000")
+    put_number(
+        ws, row, 11, _o(v["critical"], "velocity", system), number_format("velocity", system)
+    )
+    put(ws, row, 12, "mixed" if v["regime"] is None else regime_label(int(v["regime"])))
+    put_number(ws, row, 13, v["reynolds"], "#,##0")
+    put_number(ws, row, 14, v["fanning"], "0.00000")
     put_number(
         ws,
         row,
-        14,
-        _o(at(flow.gradient), "pressure_gradient", system),
+        15,
+        _o(v["gradient"], "pressure_gradient", system),
         number_format("pressure_gradient", system),
     )
-    put_number(ws, row, 15, _o(at(group.losses), "pressure", system), "#,##0.0")
-    res = results.circulation
-    show_e, show_r = _applied_columns(res)
-    col = 16
+    put_number(ws, row, 16, _o(v["loss"], "pressure", system), "#,##0.0")
+    show_e, show_r = _applied_columns(results.circulation)
+    col = N_COLS + 1
     if show_e:
         if path == "annulus":
-            per_row = res.annulus_eccentricity
-            e = res.eccentricity if per_row is None else per_row[i]
-            put_number(ws, row, col, float(e), "0.000")
+            put_number(ws, row, col, float(v["eccentricity"]), "0.000")
         col += 1
     if show_r and path == "annulus":
-        put_number(ws, row, col, at(flow.rotation_factor), "0.000")
+        put_number(ws, row, col, float(v["rotation"]), "0.000")
     return vel
 
 

@@ -17,7 +17,7 @@ from addin.report.style import (
     setup_print,
     table_header,
 )
-from addin.report.summary_rows import programme_values
+from addin.report.summary_rows import programme_range, programme_values
 from addin.text import display_number as _out
 from addin.text import unit_label as U
 from addin.xlsx_cells import PALETTE, put, set_widths
@@ -182,16 +182,7 @@ def _properties_table(ws, row, results, factors: Factors, dial_cells):
             )
             refs[(name.split()[0], j)] = vref
         if prog:
-            rng = (results.case.checks[-1].values.get("program") or {}).get(prog)
-            if isinstance(rng, (list, tuple)) and len(rng) == 2:
-                lo, hi = (text.quantity(x, kind, system) for x in rng)
-                put(ws, row, 3 + 3 * len(checks), f"{lo} – {hi}", "bf_cell")
-                v = programme_values(results).get(prog)
-                if v is not None:
-                    word = text.programme_status(v, rng[0], rng[1], kind, system)
-                    c = put(ws, row, 4 + 3 * len(checks), word, "bf_cell")
-                    if word != text.PROGRAMME_WORDS["in"]:
-                        c.font = Font(name="Arial", size=9, bold=True, color=PALETTE["bad"])
+            _programme_cells(ws, row, results, prog, kind)
         row += 1
     for gel in ("10s", "10min", "30min"):
         put(ws, row, 1, f"gel strength {gel}")
@@ -202,8 +193,26 @@ def _properties_table(ws, row, results, factors: Factors, dial_cells):
                 put_number(
                     ws, row, 3 + 3 * j, _out(g, "stress", system), number_format("stress", system)
                 )
+        _programme_cells(ws, row, results, f"gels.{gel}", "stress")
         row += 1
     return row + 1, refs
+
+
+def _programme_cells(ws, row, results, key: str, kind: str) -> None:
+    """The programme range of ``key`` and the latest check's status word (flagged in red
+    outside the range), in the two columns after the checks."""
+    system, n = results.case.unit_system, len(results.checks)
+    rng = programme_range(results.case.checks[-1], key)
+    if rng is None:
+        return
+    lo, hi = (text.quantity(x, kind, system) for x in rng)
+    put(ws, row, 3 + 3 * n, f"{lo} – {hi}", "bf_cell")
+    v = programme_values(results).get(key)
+    if v is not None:
+        word = text.programme_status(v, rng[0], rng[1], kind, system)
+        c = put(ws, row, 4 + 3 * n, word, "bf_cell")
+        if word != text.PROGRAMME_WORDS["in"]:
+            c.font = Font(name="Arial", size=9, bold=True, color=PALETTE["bad"])
 
 
 def _fits_table(ws, row, checks, system):
@@ -228,8 +237,8 @@ def _fits_table(ws, row, checks, system):
         rank = {e.method: e.rank for e in c.fits.ranking}
         for fr in c.fits.results:
             ty, k, n = model_parameters(fr.model)
-            put(ws, row, 1, f"{c.label}: {fr.method}")
-            put(ws, row, 2, type(fr.model).__name__)
+            put(ws, row, 1, f"{c.label}: {text.method_words(fr.method)}")
+            put(ws, row, 2, fr.model.name)
             put_number(ws, row, 3, _out(ty, "stress", system), number_format("stress", system))
             put_number(ws, row, 4, _out(k, "consistency", system), "0.0000")
             put_number(ws, row, 5, n, "0.000")
@@ -311,7 +320,8 @@ def _change_table(ws, row, cmp_, system, geometry):
     row = heading(
         ws,
         row,
-        f"Change since the previous check ({cmp_.label_a} → {cmp_.label_b}, {cmp_.method})",
+        f"Change since the previous check ({cmp_.label_a} → {cmp_.label_b}, "
+        f"{text.method_words(cmp_.method)})",
         span=10,
     )
     row = table_header(
@@ -323,7 +333,8 @@ def _change_table(ws, row, cmp_, system, geometry):
     )
     for ch in cmp_.changes:
         kind = ch.kind if ch.kind in ("stress", "viscosity", "consistency") else None
-        put(ws, row, 1, f"{ch.name} [{U(kind, system)}]" if kind else ch.name)
+        name = text.parameter_words(ch.name)
+        put(ws, row, 1, f"{name} [{U(kind, system)}]" if kind else name)
         for col, v in ((2, ch.a), (3, ch.b), (4, ch.change)):
             put_number(ws, row, col, _out(v, kind, system) if kind else v, "0.000")
         put_number(ws, row, 5, 100 * ch.relative, "0.0")

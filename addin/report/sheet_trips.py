@@ -6,6 +6,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from addin import text
 from addin.report.audit import Factors, write_checked
 from addin.report.style import (
     heading,
@@ -52,7 +53,7 @@ def write_trips(wb, results, factors: Factors, title: str):
             ws,
             row + 1,
             1,
-            "Not evaluated: needs a [trip] section and a pressure window.",
+            "Not evaluated: needs the case's trip section and a pressure window.",
             "bf_text",
         )
         return {}
@@ -60,7 +61,7 @@ def write_trips(wb, results, factors: Factors, title: str):
     merged_text(
         ws,
         row,
-        f"Method: {lim.method}; string end {lim.string_end}; peak speed = "
+        f"Method: {text.keys_in_words(lim.method)}; string end {lim.string_end}; peak speed = "
         f"{lim.peak_factor:g} × average stand speed.",
         span=SPAN,
         height=30,
@@ -104,8 +105,8 @@ def _assumption_rows(ws, row, part, system) -> int:
 
     lines = [
         f"Acceleration: the pipe reaches its peak speed in {part.acceleration_time:g} s from "
-        "rest and stops in the same time ([trip] acceleration_time_s; an assumption, use the "
-        "rig's value).",
+        "rest and stops in the same time (the acceleration time of the case's trip section; an "
+        "assumption, use the rig's value).",
         f"Gel broken when the pipe starts at each stand: {gel_text(part.stand_gel)} (the pipe "
         "stood still only for the connection; common practice).",
         f"Gel broken when circulation starts after the trip: {gel_text(part.circulation_gel)} "
@@ -120,7 +121,12 @@ def _assumption_rows(ws, row, part, system) -> int:
 def _limit_rows(ws, row, lim, system) -> int:
     """The speed limits with the bit at the bottom and their governing points."""
     tu, du = U("trip_speed", system), U("depth", system)
-    row = heading(ws, row, "Speed limits, bit at the bottom (margins from [limits])", span=SPAN)
+    row = heading(
+        ws,
+        row,
+        "Speed limits, bit at the bottom (margins from the case's limits section)",
+        span=SPAN,
+    )
     row = table_header(
         ws,
         row,

@@ -256,8 +256,8 @@ def _window_lines(ws, row, results, ow, system, span) -> int:
             else ""
         )
         + f"required ECD margins {_o(ow.fracture_margin, 'density', system):.2f} {dn} below "
-        f"fracture and {_o(ow.pore_margin, 'density', system):.2f} {dn} above pore (case "
-        "[limits]). Charts: dashed lines are the limits, dotted verticals the window ends.",
+        f"fracture and {_o(ow.pore_margin, 'density', system):.2f} {dn} above pore (the case's "
+        "limits section). Charts: dashed lines are the limits, dotted verticals the window ends.",
         span=span,
     )
 

@@ -241,7 +241,7 @@ def _header_pairs(results):
             f"{out(chk.values['flow_rate'], 'flow_rate', system):,.0f} {U('flow_rate', system)}"
             + _spm_suffix(results, chk.values["flow_rate"]),
         ),
-        ("hydraulics method", results.method),
+        ("hydraulics method", text.method_words(results.method)),
     ]
     return left, right
 

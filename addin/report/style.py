@@ -178,3 +178,159 @@ def note_row(
     lines = max(1, ceil(len(text) / per_line))
     ws.row_dimensions[row].height = max(12.0, 1.35 * font_pt * lines + 2)
     return row + 1
+
+
+# ------------------------------------------------------------------ text that fits its cell
+
+#: Column-width units per character of the report's 9-pt Arial (a width unit is one "0" of
+#: the workbook's 11-pt default font; 9-pt Arial runs at about 0.85 of it, judged on the
+#: LibreOffice-rendered pages), plus one unit of cell padding.
+CHAR_WIDTH = 0.85
+PAD = 1.0
+#: width units per character when counting the lines of wrapped text: the mean width of
+#: mixed text in 9-pt Arial (about 0.7 on the rendered pages; CHAR_WIDTH errs wide on purpose)
+LINE_CHAR_WIDTH = 0.7
+#: points per wrapped line of 9-pt text, and the default row height [pt]
+LINE_HEIGHT = 11.5
+ROW_HEIGHT = 12.75
+
+
+def _width(ws, col: int) -> float:
+    from openpyxl.utils import get_column_letter  # lazy: only the fitting needs it
+
+    w = ws.column_dimensions[get_column_letter(col)].width
+    return float(w) if w else 8.43
+
+
+def text_width(value) -> float:
+    """Width units the text needs on one line (its longest line)."""
+    return max(len(line) for line in str(value).split("\n")) * CHAR_WIDTH + PAD
+
+
+def _merged(ws) -> set[tuple[int, int]]:
+    cells = set()
+    for rng in ws.merged_cells.ranges:
+        for r in range(rng.min_row, rng.max_row + 1):
+            for c in range(rng.min_col, rng.max_col + 1):
+                cells.add((r, c))
+    return cells
+
+
+#: text up to this many characters (a status word, a unit, a short label) widens its column
+#: rather than wrapping
+SHORT_TEXT = 24
+
+
+def overflowing_cells(ws) -> list:
+    """Text cells (not merged, no wrap, not formulas) wider than their column that would be
+    cut or run into the next cell: short texts (a status word on a filled cell is clipped at
+    its edge) and longer texts with a filled right neighbour."""
+    merged, out = _merged(ws), []
+    for row in ws.iter_rows():
+        for c in row:
+            text_cell = isinstance(c.value, str) and not c.value.startswith("=")
+            if not text_cell or (c.row, c.column) in merged:
+                continue
+            if c.alignment.wrap_text or text_width(c.value) <= _width(ws, c.column):
+                continue
+            short = len(c.value) <= SHORT_TEXT and "\n" not in c.value
+            if short or ws.cell(c.row, c.column + 1).value is not None:
+                out.append(c)
+    return out
+
+
+def short_rows(ws, cell) -> bool:
+    """True for a cell :func:`fit_text` fits by widening its column."""
+    return len(cell.value) <= SHORT_TEXT and "\n" not in cell.value
+
+
+def wrapped_lines(ws, cell) -> int:
+    """Lines a wrapped text cell takes in its column (words kept whole)."""
+    import math  # lazy: only the fitting needs it
+
+    width = max(_width(ws, cell.column) - PAD, LINE_CHAR_WIDTH)
+    per_line = max(int(width / LINE_CHAR_WIDTH), 1)
+    lines = 0
+    for part in str(cell.value).split("\n"):
+        n, used = 1, 0
+        for word in part.split():
+            need = len(word) + (1 if used else 0)
+            if used and used + need > per_line:
+                n, used = n + 1, len(word)
+            else:
+                used += need
+        lines += max(n, math.ceil(len(part) / per_line) if " " not in part else n)
+    return max(lines, 1)
+
+
+def fit_text(ws) -> None:
+    """Wrap every text cell that would run into its filled neighbour (raising its row to the
+    lines it needs), and indent text that follows a number so the two do not touch."""
+    from copy import copy  # lazy: only the fitting needs it
+
+    from openpyxl.utils import get_column_letter  # lazy: only the fitting needs it
+
+    for c in overflowing_cells(ws):
+        if short_rows(ws, c):
+            dim = ws.column_dimensions[get_column_letter(c.column)]
+            dim.width = max(_width(ws, c.column), text_width(c.value))
+            continue
+        al = copy(c.alignment)
+        al.wrap_text = True
+        al.vertical = al.vertical or "center"
+        c.alignment = al
+    merged = _merged(ws)
+    for row in ws.iter_rows():  # every wrapped cell's row tall enough for its lines
+        for c in row:
+            if (
+                isinstance(c.value, str)
+                and not c.value.startswith("=")
+                and c.alignment.wrap_text
+                and (c.row, c.column) not in merged
+            ):
+                need = wrapped_lines(ws, c) * LINE_HEIGHT + 1.5
+                dim = ws.row_dimensions[c.row]
+                if need > (dim.height or ROW_HEIGHT):
+                    dim.height = need
+    merged = _merged(ws)
+    for row in ws.iter_rows(min_col=2):
+        for c in row:
+            if not isinstance(c.value, str) or (c.row, c.column) in merged:
+                continue
+            left = ws.cell(c.row, c.column - 1).value
+            if isinstance(left, int | float) and not isinstance(left, bool):
+                if c.alignment.horizontal in (None, "general", "left") and not c.alignment.indent:
+                    al = copy(c.alignment)
+                    al.indent = 1
+                    c.alignment = al
+
+
+#: Audit column widths for print: wide enough for a number in SI with its exponent, narrow
+#: enough that fit-to-width keeps ~7-pt text (the long texts wrap instead)
+AUDIT_MAX_WIDTH = 22.0
+AUDIT_WIDE_COLUMNS = {"F": 34.0}
+
+
+def audit_print_layout(ws) -> None:
+    """Legible print of the Audit sheet: columns capped (:data:`AUDIT_MAX_WIDTH`) and every
+    text longer than its column wrapped (rows raised by :func:`fit_text`)."""
+    from copy import copy  # lazy: only the fitting needs it
+
+    from openpyxl.utils import get_column_letter  # lazy: only the fitting needs it
+
+    for col in range(1, ws.max_column + 1):
+        letter = get_column_letter(col)
+        cap = AUDIT_WIDE_COLUMNS.get(letter, AUDIT_MAX_WIDTH)
+        dim = ws.column_dimensions[letter]
+        dim.width = min(_width(ws, col), cap)
+    merged = _merged(ws)
+    for row in ws.iter_rows():
+        for c in row:
+            text_cell = isinstance(c.value, str) and not c.value.startswith("=")
+            heading_cell = c.style in ("bf_title", "bf_section")
+            if text_cell and not heading_cell and (c.row, c.column) not in merged:
+                if not c.alignment.wrap_text and text_width(c.value) > _width(ws, c.column):
+                    al = copy(c.alignment)
+                    al.wrap_text = True
+                    al.vertical = "top"
+                    c.alignment = al

@@ -83,7 +83,8 @@ def _credible(results, rows: list[dict]) -> list[dict]:
 
 
 def programme_values(results) -> dict[str, float | None]:
-    """The latest check's programme properties [SI] (density, PV, YP, LSYP; None if unknown)."""
+    """The latest check's programme properties [SI] (density, PV, YP, LSYP, gels as
+    ``gels.10s`` …; None if unknown)."""
     rd = results.checks[-1].readings
     out = {"density": results.case.checks[-1].values.get("density")}
     for key in ("pv", "yp", "lsyp"):
@@ -91,19 +92,30 @@ def programme_values(results) -> dict[str, float | None]:
             out[key] = float(getattr(rd, key))
         except Exception:  # readings lack the speeds this property needs
             out[key] = None
+    gels = rd.gels_si if rd.gels else {}
+    for key in ("10s", "10min", "30min"):
+        out[f"gels.{key}"] = gels.get(key)
     return out
 
 
+def programme_range(chk, key: str):
+    """The ``[low, high]`` of ``key`` (``pv``, ``gels.10min`` …) in a check's ``program``
+    table [SI], or None."""
+    rng = chk.values.get("program") or {}
+    for part in key.split("."):
+        rng = rng.get(part) if isinstance(rng, dict) else None
+    return rng if isinstance(rng, (list, tuple)) and len(rng) == 2 else None
+
+
 def programme_rows(results) -> list[dict]:
-    """The latest check's density, PV, YP and LSYP against the case's mud programme."""
+    """The latest check's density, PV, YP, LSYP and gels against the case's mud programme."""
     chk = results.case.checks[-1]
-    prog = chk.values.get("program") or {}
     system = results.case.unit_system
     vals = programme_values(results)
     rows = []
     for key, (label, kind) in text.PROGRAMME_PROPERTIES.items():
-        rng = prog.get(key)
-        if not (isinstance(rng, (list, tuple)) and len(rng) == 2) or vals.get(key) is None:
+        rng = programme_range(chk, key)
+        if rng is None or vals.get(key) is None:
             continue
         lo, hi = (text.quantity(x, kind, system) for x in rng)
         rows.append(

@@ -128,16 +128,17 @@ def method_line(results) -> str:
     its primary source, and the fits it uses.
 
     >>> from types import SimpleNamespace
-    >>> method_line(SimpleNamespace(method="exact_laminar"))
-    'exact_laminar: Kelessidis et al. (2006) J. Pet. Sci. Eng. 53:203-224; fits: hb_least_squares'
+    >>> method_line(SimpleNamespace(method="exact_laminar"))  # doctest: +NORMALIZE_WHITESPACE
+    'exact laminar: Kelessidis et al. (2006) J. Pet. Sci. Eng. 53:203-224; fits:
+     Herschel-Bulkley least-squares fit'
     """
     m = resolve_method(results.method)
-    return f"{m.label}: {m.source}; fits: {m.fits}"
+    return f"{text.method_words(m.label)}: {m.source}; fits: {text.method_words(m.fits)}"
 
 
 def slip_line(name: str) -> str:
     """A slip-velocity method by its name and primary source (rig-facing sheets)."""
-    return f"{name} ({SLIP_METHODS.get(name).source})"
+    return f"{text.method_words(name)} ({SLIP_METHODS.get(name).source})"
 
 
 # ------------------------------------------------------------------------------ the trace
@@ -486,9 +487,12 @@ def _programme(results, row):
     key = next(k for k, (lab, _) in text.PROGRAMME_PROPERTIES.items() if lab == label)
     if key == "density":
         return [("value", "case.check_value", "-1, 'density'", "_", "case input", "", "—")]
-    eq = _eq("§1.5" if key == "lsyp" else "§1.3")
+    eq = _eq({"lsyp": "§1.5", "pv": "§1.3", "yp": "§1.3"}.get(key, "§1.6"))
     method = "API RP 13B-1 field definitions"
-    return [("value", "@case", "", f"_.checks[-1].readings.{key}", method, "common_practice", eq)]
+    got = f"_.checks[-1].readings.{key}"
+    if key.startswith("gels."):
+        got = f"_.checks[-1].readings.gels_si[{key.split('.', 1)[1]!r}]"
+    return [("value", "@case", "", got, method, "common_practice", eq)]
 
 
 #: Summary rows (by the start of their name) → how each is traced.  A new Summary row needs
