@@ -333,7 +333,9 @@ def test_report_summary_json_and_case_inputs():
     assert [r[1] for r in rows] == pytest.approx(shown, rel=1e-12)
     assert "dominant: mud balance" in rows[0][0] and "clean mud" in rows[0][0]
     assert "dominant: flow rate" in rows[-1][0] and rows[-1][4] == "psi"
-    assert rows[0][5].startswith("11.82 ± 0.10 ppg; methods 11.81 ppg (api13d_1995_power_law)")
+    assert rows[0][5].startswith(
+        "11.82 ± 0.10 ppg; methods 11.81 ppg (API RP 13D (1995) power law)"
+    )
     data = results_data(res)["ecd_band"]
     q0 = data["quantities"][0]
     assert q0["si"]["half_width"] == band.ecd_bit.half_width

@@ -290,6 +290,8 @@ def _sections(results, *, per_station: bool):
     lines = results.case.surface_lines
     for path, group in (("surface", res.surface), ("string", res.string), ("annulus", res.annulus)):
         flow, n = group.flow, len(group.spans)
+        if flow is None or n == 0:  # a path without rows (a case without surface lines)
+            continue
 
         def per(a, n=n):
             return np.broadcast_to(np.asarray(a, dtype=float).reshape(-1), (n,))

@@ -302,7 +302,8 @@ def _temperature_table(ws, row, results, system):
     row = note_row(
         ws,
         row,
-        f"Fits of the hydraulics method ({tt.fits}) at each cup temperature; between them K "
+        f"Fits of the hydraulics method ({text.method_words(tt.fits)}) at each cup temperature; "
+        "between them K "
         "follows an Arrhenius law in temperature, τy and n straight lines (exact at the "
         "measured temperatures). The hydraulics of this report use the cup rheology of the "
         "check; the table shows how much the parameters move with temperature.",

@@ -227,7 +227,7 @@ class RheologyVsTemperature:
     @property
     def single(self) -> bool:
         """True when every check was read at one temperature (rheology taken as measured)."""
-        return np.ptp(self.temperatures) == 0
+        return bool(np.ptp(self.temperatures) == 0)
 
     def range_notes(self, temperature) -> tuple[Note, ...]:
         """A note when ``temperature`` [K] lies outside the measured temperatures."""
