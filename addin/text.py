@@ -641,6 +641,11 @@ METHOD_WORDS = {
     "cross": "Cross",
     "fang": "Fang",
     "darby": "Darby",
+    "durand": "Durand",
+    "condolios": "Condolios",
+    "wilson": "Wilson",
+    "thomas": "Thomas",
+    "four_component": "four-component",
 }
 
 

@@ -18,7 +18,7 @@ from addin import text
 from tests._report_demo import demo_report_path
 
 RIG_FACING = ("Summary", "Rheology", "Hydraulics", "ECD", "Bit", "Cleaning", "Trips",
-              "Rate window", "Beds")  # fmt: skip
+              "Rate window", "Beds", "Downhole", "Slurry line", "Cement job")  # fmt: skip
 CAMEL = re.compile(r"\b[A-Za-z]*[a-z][A-Z][A-Za-z]*\b")
 SNAKE = re.compile(r"\b[A-Za-z0-9]{2,}(?:_[A-Za-z0-9]+)+\b")
 SECTION = re.compile(r"\[\[?[a-z_]+\]\]?")

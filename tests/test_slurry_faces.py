@@ -41,10 +41,11 @@ def test_report_sheet_shows_the_calc_deposition_velocity():
     want = float(from_si(curve.deposition_velocity, "ft/min"))
     cells = {}
     for row in ws.iter_rows(min_row=1, max_row=ws.max_row):
-        if row[0].value in ("durand_1952_deposition", "wilson_1979_deposition"):
+        # method names in words on the rig-facing sheet (addin.text.method_words)
+        if row[0].value in ("Durand (1952) deposition", "Wilson (1979) deposition"):
             cells[row[0].value] = (row[4].value, row[6].value)
-    assert cells["wilson_1979_deposition"][1] == "governs"
-    assert cells["wilson_1979_deposition"][0] == pytest.approx(want, rel=1e-12)
+    assert cells["Wilson (1979) deposition"][1] == "governs"
+    assert cells["Wilson (1979) deposition"][0] == pytest.approx(want, rel=1e-12)
     assert ws._charts, "the operating-curve chart"
 
 

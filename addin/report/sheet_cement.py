@@ -11,6 +11,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from addin import text
 from addin.report.charts import nice_axis, rate_curves
 from addin.report.style import (
     heading,
@@ -375,7 +376,8 @@ def write_cement(wb, results, title: str) -> dict:
         f"Fluid train (mud in the well first): {train}. Spacers and slurries: least squares of the "
         "friction law's model (Herschel-Bulkley for the default) over their readings at test "
         "temperature; the mud: the case's method. "
-        f"Friction law {tl.method} in every leg. Model: incompressible fluids moving as plugs "
+        f"Friction law {text.method_words(tl.method)} in every leg. Model: incompressible fluids "
+        "moving as plugs "
         "(no mixing), quasi-steady friction at each volume step, returns open at surface; "
         "where the string side is heavier than friction can hold, the string top stands at "
         "atmospheric pressure and the return rate follows from the balance of the two legs "

@@ -28,7 +28,7 @@ _FOOTER = "boreflow daily hydraulics report (estimates; see Cautions)"
 
 
 def _source(name: str) -> str:
-    return f"{name} ({SLURRY_METHODS.get(name).source})"
+    return f"{text.method_words(name)} ({SLURRY_METHODS.get(name).source})"
 
 
 def _carrier_words(c, s) -> str:
@@ -96,7 +96,7 @@ def _deposition(ws, row, curve, s) -> int:
                        ["", "", "", "", vu, qu, ""])  # fmt: skip
     area = curve.line.area
     for name, v in curve.deposition.by_method.items():
-        put(ws, row, 1, name, "bf_cell")
+        put(ws, row, 1, text.method_words(name), "bf_cell")
         ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=4)
         put_number(ws, row, 5, _o(v, "velocity", s), "#,##0.0")
         put_number(ws, row, 6, _o(v * area, "flow_rate", s), "#,##0")
@@ -205,7 +205,8 @@ def _one_line(ws, row, curve, s) -> int:
         row,
         f"Gradient: {_source(line.method)}; carrier friction: {_source('wilson_thomas_1985')}. "
         f"Deposition velocity {_o(dep.velocity, 'velocity', s):,.1f} {vu} "
-        f"({_o(curve.deposition_rate, 'flow_rate', s):,.0f} {qu}) by {dep.governing}, the "
+        f"({_o(curve.deposition_rate, 'flow_rate', s):,.0f} {qu}) by "
+        f"{text.method_words(dep.governing)}, the "
         f"larger of the methods; run the line above it. Minimum of the curve "
         f"{_o(curve.minimum_gradient, 'pressure_gradient', s):.4f} {gu} at "
         f"{_o(curve.minimum_velocity, 'velocity', s):,.1f} {vu}. Pressure over the line = "
@@ -219,7 +220,7 @@ def _one_line(ws, row, curve, s) -> int:
         row = heading(ws, row + 1, "Operating rates", span=SPAN)
         row = _op_points(ws, row, curve, s)
     for n in curve.notes:
-        row = note_row(ws, row, text.note_line(n, s), span=SPAN)
+        row = note_row(ws, row, text.keys_in_words(text.note_line(n, s)), span=SPAN)
     chart_row = row + 1
     row = chart_row + 24
     row = heading(ws, row, "Operating curve", span=SPAN)
