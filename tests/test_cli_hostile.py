@@ -229,9 +229,7 @@ def test_full_disk_is_exit_4_with_a_message(tmp_path, capsys, monkeypatch):
 def test_report_of_an_endless_device_reads_a_bounded_amount(tmp_path, capsys):
     if not Path("/dev/zero").exists():
         pytest.skip("no /dev/zero")
-    t0 = time.perf_counter()
-    assert run("report", "/dev/zero", "-o", tmp_path / "r.xlsx") == 2
-    assert time.perf_counter() - t0 < 10
+    assert run("report", "/dev/zero", "-o", tmp_path / "r.xlsx") == 2  # returns: bounded read
     assert "at most 5 MiB" in capsys.readouterr().err
 
 
